@@ -251,9 +251,12 @@ td.num, th.num { text-align: right; font-variant-numeric: tabular-nums; white-sp
 .mono { font-family: "DejaVu Sans Mono", "Liberation Mono", monospace; font-size: 8.5pt; word-break: break-all; }
 .meta { display: grid; grid-template-columns: max-content 1fr; column-gap: 4mm; row-gap: 0.4mm;
   font-size: 9.5pt; margin: 0; }
+.meta.two { grid-template-columns: max-content 1fr max-content 1fr; }
+.meta .wide { grid-column: 2 / -1; }
+.meta .wide-key { grid-column: 1; }
 .meta dt { font-weight: bold; color: #333; }
 .meta dd { margin: 0; min-width: 0; overflow-wrap: anywhere; }
-.verdict { display: flex; align-items: center; gap: 6mm; padding: 2.5mm 4mm; margin: 3mm 0 2mm;
+.verdict { display: flex; align-items: center; gap: 6mm; padding: 1.5mm 4mm; margin: 2mm 0 1mm;
   border: 2px dashed #666; }
 .verdict .word { font-size: 22pt; font-weight: bold; letter-spacing: 0.06em; min-width: 30mm; }
 .verdict .why { font-size: 9.5pt; }
@@ -264,9 +267,11 @@ td.num, th.num { text-align: right; font-variant-numeric: tabular-nums; white-sp
 .verdict.fail .word { color: #a0001c; }
 .verdict.none .word { color: #444; font-size: 14pt; }
 svg.plot { display: block; max-width: 100%; height: auto; }
+figure > svg.plot, figure > .panels { max-width: 170mm; }
 .panels { display: flex; gap: 1mm; }
 .panels > svg { flex: 1 1 0; min-width: 0; }
-.cols { display: flex; gap: 4mm; align-items: flex-start; flex-wrap: wrap; }
+.cols { display: grid; grid-template-columns: 1fr 1fr; column-gap: 4mm; align-items: start; }
+.cols > table { width: 100%; margin-top: 0; font-size: 8.5pt; }
 .note { color: #444; font-size: 9pt; }
 .missing { color: #555; font-style: italic; }
 ul.cautions { margin: 1mm 0 2mm 5mm; padding: 0; }
@@ -346,9 +351,10 @@ void header_section(Builder& b, const Json& rec, const Units& u, const ReportOpt
   const std::string sensor = str_or(rec, {"sensor", "name"}, "");
   b.o += "<header id=\"header\">\n";
   b.o += "<h1>Calibration report: " + (sensor.empty() ? "<span class=\"missing\">unnamed sensor</span>" : esc(sensor)) + "</h1>\n";
-  b.o += "<dl class=\"meta\">\n";
-  auto row = [&](const std::string& k, const std::string& html) {
-    b.o += "<dt>" + k + "</dt><dd>" + html + "</dd>\n";
+  b.o += "<dl class=\"meta two\">\n";
+  auto row = [&](const std::string& k, const std::string& html, bool wide = false) {
+    b.o += std::string(wide ? "<dt class=\"wide-key\">" : "<dt>") + k + "</dt><dd" + (wide ? " class=\"wide\"" : "") +
+           ">" + html + "</dd>\n";
   };
   auto or_missing = [](const std::optional<std::string>& s, const char* what = "not recorded") {
     return s ? esc(*s) : std::string("<span class=\"missing\">") + what + "</span>";
@@ -360,14 +366,14 @@ void header_section(Builder& b, const Json& rec, const Units& u, const ReportOpt
   row("Report date", or_missing(opt.date ? opt.date : created));
   row("Record created (UTC)", or_missing(created));
   row("Fitted with", "ridgecal " + or_missing(str(rec, {"tool_version"}), "version not recorded"));
-  row("Record SHA-256", "<span class=\"mono\">" + or_missing(str(rec, {"integrity", "sha256"})) + "</span>");
   std::string input = or_missing(str(rec, {"input", "file"}), "no file name");
   if (auto rows = str(rec, {"input", "rows"})) input += ", " + esc(*rows) + " rows";
   row("Input data", input);
-  row("Input SHA-256", "<span class=\"mono\">" + or_missing(str(rec, {"input", "sha256"})) + "</span>");
+  row("Input SHA-256", "<span class=\"mono\">" + or_missing(str(rec, {"input", "sha256"})) + "</span>", true);
+  row("Record SHA-256", "<span class=\"mono\">" + or_missing(str(rec, {"integrity", "sha256"})) + "</span>", true);
   row("Columns", "reading = " + or_missing(str(rec, {"input", "columns", "reading"}), "?") +
                      "; reference = " + or_missing(str(rec, {"input", "columns", "reference"}), "?") +
-                     "; setpoint = " + or_missing(str(rec, {"input", "columns", "setpoint"}), "none"));
+                     "; setpoint = " + or_missing(str(rec, {"input", "columns", "setpoint"}), "none"), true);
   b.o += "</dl>\n</header>\n";
   (void)u;
 }
@@ -423,7 +429,7 @@ void verdict_section(Builder& b, const Json& rec, const Units& u, const std::vec
 }
 
 void fit_figure(Builder& b, const std::vector<Point>& pts, const std::optional<PolyModel>& model, const Units& u) {
-  SvgPlot p("fig-fit", 680, 280);
+  SvgPlot p("fig-fit", 680, 235);
   p.description = "Calibration data and fitted curve";
   p.x_axis.label = "reading" + (u.reading.empty() ? "" : " [" + u.reading + "]");
   p.y_axis.label = "reference" + (u.reference.empty() ? "" : " [" + u.reference + "]");
@@ -468,7 +474,7 @@ void fit_figure(Builder& b, const std::vector<Point>& pts, const std::optional<P
 
 void error_figure(Builder& b, const std::vector<Point>& pts, const Units& u, const Tolerance& tol,
                   const Uncertainty& unc) {
-  SvgPlot p("fig-errors", 680, 290);
+  SvgPlot p("fig-errors", 680, 255);
   p.description = "Errors of the calibrated value against the reference";
   p.x_axis.label = "reference" + (u.reference.empty() ? "" : " [" + u.reference + "]");
   p.y_axis.label = "error: predicted \u2212 reference" + (u.reference.empty() ? "" : " [" + u.reference + "]");
@@ -582,7 +588,7 @@ void validation_figure(Builder& b, const Json& rec, const Units& u) {
       }
   }
   const bool log_y = std::isfinite(ymin) && ymax / ymin > 30.0;
-  SvgPlot cv("fig-validation-cv", 340, 270), tr("fig-validation-train", 340, 270);
+  SvgPlot cv("fig-validation-cv", 340, 250), tr("fig-validation-train", 340, 250);
   cv.description = "Cross-validated RMSE against the ridge penalty, per degree";
   tr.description = "Training RMSE against the ridge penalty, per degree";
   for (SvgPlot* p : {&cv, &tr}) {
@@ -596,7 +602,6 @@ void validation_figure(Builder& b, const Json& rec, const Units& u) {
       if (!log_y) p->y_axis.min.reset(), p->y_axis.include_zero = true;
     }
     p->show_legend = false;
-    p->legend_columns = 5;
   }
   cv.y_axis.label = "CV RMSE" + (u.reference.empty() ? "" : " [" + u.reference + "]");
   tr.y_axis.label = "training RMSE" + (u.reference.empty() ? "" : " [" + u.reference + "]");
@@ -629,10 +634,10 @@ void validation_figure(Builder& b, const Json& rec, const Units& u) {
         ring.style = SeriesStyle{"#000000", 1.0, "", Marker::circle, false, 19.0};
         ring.x = {c.lambda};
         ring.y = {c.cv_rmse};
-        // Drawn first so the chosen point's own marker stays visible inside the ring.
-        cv.series.insert(cv.series.begin(), ring);
+        // A hollow ring drawn over the chosen grid point (the point stays visible inside).
+        cv.series.push_back(ring);
         ring.y = {c.train_rmse};
-        tr.series.insert(tr.series.begin(), ring);
+        tr.series.push_back(ring);
         chosen_text = fmt::format("degree {}, \u03BB = {} (CV RMSE {} \u00B1 {}, training RMSE {}{})", c.degree,
                                   format_lambda(c.lambda), format_sig(c.cv_rmse, 3), format_sig(c.cv_se, 2),
                                   format_sig(c.train_rmse, 3), u.reference_sfx());
@@ -679,7 +684,7 @@ void metrics_section(Builder& b, const Json& rec, const Units& u) {
       std::string cell;
       if (r.kind == 0) cell = str_or(col, {r.key}, kNotAvailable);
       else if (r.kind == 1) cell = format_sig(num(col, {r.key}), 3);
-      else cell = format_fixed(num(col, {r.key}), 6);
+      else cell = format_fixed(num(col, {r.key}), 8);
       b.o += "<td class=\"num\">" + esc(cell) + "</td>";
     }
     b.o += "</tr>\n";
@@ -782,12 +787,12 @@ void split_section(Builder& b, const Json& rec, const Units& u) {
     b.close_section();
     return;
   }
-  const std::size_t per_table = sp.size() > 10 ? (sp.size() + 1) / 2 : sp.size();
+  const std::size_t per_table = sp.size() > 6 ? (sp.size() + 1) / 2 : sp.size();
   b.o += "<div class=\"cols\">\n";
   for (std::size_t start = 0; start < sp.size(); start += per_table) {
     b.o += "<table class=\"setpoints\"><tr><th>setpoint</th><th class=\"num\">reference" +
-           esc(u.reference.empty() ? "" : " [" + u.reference + "]") + "</th><th class=\"num\">reading" +
-           esc(u.reading.empty() ? "" : " [" + u.reading + "]") + "</th><th>role</th><th class=\"num\">fold</th></tr>\n";
+           (u.reference.empty() ? "" : "<br/>[" + esc(u.reference) + "]") + "</th><th class=\"num\">reading" +
+           (u.reading.empty() ? "" : "<br/>[" + esc(u.reading) + "]") + "</th><th>role</th><th class=\"num\">fold</th></tr>\n";
     for (std::size_t i = start; i < std::min(sp.size(), start + per_table); ++i) {
       const Json& s = sp[i];
       const std::string role = str_or(s, {"role"}, "");

@@ -32,7 +32,9 @@ const args = [
   '--host-resolver-rules=MAP * ~NOTFOUND', '--proxy-server=127.0.0.1:9', '--proxy-bypass-list=<-loopback>',
   '--window-size=860,1200', '--force-device-scale-factor=1', 'about:blank',
 ];
-const child = spawn(browser, args, { stdio: ['ignore', 'ignore', 'pipe', 'pipe', 'pipe'] });
+// Own process group, so that the browser's helper processes can be ended together.
+const child = spawn(browser, args, { stdio: ['ignore', 'ignore', 'pipe', 'pipe', 'pipe'], detached: true });
+const exited = new Promise((resolve) => child.on('exit', resolve));
 let browserLog = '';
 child.stderr.on('data', (d) => { browserLog += d.toString(); });
 
@@ -138,8 +140,14 @@ async function finish(code) {
   finished = true;
   clearTimeout(watchdog);
   try { await Promise.race([send('Browser.close'), sleep(3000)]); } catch { /* already gone */ }
-  child.kill('SIGKILL');
-  fs.rmSync(userDir, { recursive: true, force: true });
+  await Promise.race([exited, sleep(5000)]);
+  try { process.kill(-child.pid, 'SIGKILL'); } catch { /* group already gone */ }
+  await sleep(100);
+  try {
+    fs.rmSync(userDir, { recursive: true, force: true, maxRetries: 5, retryDelay: 100 });
+  } catch (e) {
+    console.error(`browser_check: note: could not remove the temporary profile ${userDir}: ${e.code}`);
+  }
   process.exit(code);
 }
 child.on('error', (e) => { console.error(`browser_check: cannot start ${browser}: ${e.message}`); finish(3); });
