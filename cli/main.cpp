@@ -6,6 +6,7 @@
 
 #include "cli_common.hpp"
 #include "fit_command.hpp"
+#include "report_command.hpp"
 #include "ridgecal/record.hpp"
 
 namespace {
@@ -19,6 +20,7 @@ struct Subcommand {
 // Every subcommand: one file pair in cli/, one line here.
 const Subcommand kSubcommands[] = {
     {"fit", "fit a calibration curve to a CSV run and write a calibration record", ridgecal::cli::fit_main},
+    {"report", "write the QA calibration report (HTML) of a calibration record", ridgecal::cli::report_main},
 };
 
 void usage(std::ostream& os) {

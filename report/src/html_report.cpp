@@ -11,6 +11,7 @@
 
 #include "record_view.hpp"
 #include "ridgecal/poly_model.hpp"
+#include "ridgecal/record.hpp"
 #include "ridgecal/report/html_escape.hpp"
 #include "ridgecal/report/number_format.hpp"
 #include "ridgecal/report/svg_plot.hpp"
@@ -45,6 +46,11 @@ const Marker kDegreeMarkers[] = {Marker::circle,  Marker::square,        Marker:
                                  Marker::diamond, Marker::triangle_down, Marker::cross,
                                  Marker::plus,    Marker::circle};
 const char* const kDegreeDashes[] = {"", "7 3", "2 3", "9 3 2 3", "4 4", "1 2", "12 4", "6 2 2 2"};
+
+std::string lower(std::string s) {
+  for (char& c : s) c = static_cast<char>(std::tolower(static_cast<unsigned char>(c)));
+  return s;
+}
 
 std::string upper(std::string s) {
   for (char& c : s) c = static_cast<char>(std::toupper(static_cast<unsigned char>(c)));
@@ -274,6 +280,7 @@ figure > svg.plot, figure > .panels { max-width: 170mm; }
 .cols > table { width: 100%; margin-top: 0; font-size: 8.5pt; }
 .note { color: #444; font-size: 9pt; }
 .missing { color: #555; font-style: italic; }
+.alert { color: #a0001c; }
 ul.cautions { margin: 1mm 0 2mm 5mm; padding: 0; }
 ul.cautions li { margin: 0.6mm 0; }
 .signoff table { width: 100%; }
@@ -359,18 +366,25 @@ void header_section(Builder& b, const Json& rec, const Units& u, const ReportOpt
   auto or_missing = [](const std::optional<std::string>& s, const char* what = "not recorded") {
     return s ? esc(*s) : std::string("<span class=\"missing\">") + what + "</span>";
   };
-  row("Sensor", sensor.empty() ? "<span class=\"missing\">not named</span>" : esc(sensor));
+  row("Sensor", sensor.empty() ? "<span class=\"missing\">not named</span>" : esc(sensor), true);
   row("Units", "reading in " + or_missing(str(rec, {"sensor", "reading_unit"}), "(no unit)") +
-                   ", reference in " + or_missing(str(rec, {"sensor", "reference_unit"}), "(no unit)"));
+                   ", reference in " + or_missing(str(rec, {"sensor", "reference_unit"}), "(no unit)"), true);
+
   const std::optional<std::string> created = str(rec, {"created_utc"});
   row("Report date", or_missing(opt.date ? opt.date : created));
   row("Record created (UTC)", or_missing(created));
-  row("Fitted with", "ridgecal " + or_missing(str(rec, {"tool_version"}), "version not recorded"));
+  row("Fitted with", "ridgecal " + or_missing(str(rec, {"tool_version"}), "version not recorded"), true);
   std::string input = or_missing(str(rec, {"input", "file"}), "no file name");
   if (auto rows = str(rec, {"input", "rows"})) input += ", " + esc(*rows) + " rows";
-  row("Input data", input);
+  row("Input data", input, true);
   row("Input SHA-256", "<span class=\"mono\">" + or_missing(str(rec, {"input", "sha256"})) + "</span>", true);
-  row("Record SHA-256", "<span class=\"mono\">" + or_missing(str(rec, {"integrity", "sha256"})) + "</span>", true);
+  std::string integrity = "<span class=\"mono\">" + or_missing(str(rec, {"integrity", "sha256"})) + "</span>";
+  if (str(rec, {"integrity", "sha256"}))
+    integrity += record_integrity_ok(rec)
+                     ? " <b>(verified: matches the content)</b>"
+                     : " <b class=\"alert\">(DOES NOT MATCH the record content: the record was changed after it "
+                       "was written)</b>";
+  row("Record SHA-256", integrity, true);
   row("Columns", "reading = " + or_missing(str(rec, {"input", "columns", "reading"}), "?") +
                      "; reference = " + or_missing(str(rec, {"input", "columns", "reference"}), "?") +
                      "; setpoint = " + or_missing(str(rec, {"input", "columns", "setpoint"}), "none"), true);
@@ -429,7 +443,7 @@ void verdict_section(Builder& b, const Json& rec, const Units& u, const std::vec
 }
 
 void fit_figure(Builder& b, const std::vector<Point>& pts, const std::optional<PolyModel>& model, const Units& u) {
-  SvgPlot p("fig-fit", 680, 235);
+  SvgPlot p("fig-fit", 680, 225);
   p.description = "Calibration data and fitted curve";
   p.x_axis.label = "reading" + (u.reading.empty() ? "" : " [" + u.reading + "]");
   p.y_axis.label = "reference" + (u.reference.empty() ? "" : " [" + u.reference + "]");
@@ -474,7 +488,7 @@ void fit_figure(Builder& b, const std::vector<Point>& pts, const std::optional<P
 
 void error_figure(Builder& b, const std::vector<Point>& pts, const Units& u, const Tolerance& tol,
                   const Uncertainty& unc) {
-  SvgPlot p("fig-errors", 680, 255);
+  SvgPlot p("fig-errors", 680, 250);
   p.description = "Errors of the calibrated value against the reference";
   p.x_axis.label = "reference" + (u.reference.empty() ? "" : " [" + u.reference + "]");
   p.y_axis.label = "error: predicted \u2212 reference" + (u.reference.empty() ? "" : " [" + u.reference + "]");
@@ -610,8 +624,9 @@ void validation_figure(Builder& b, const Json& rec, const Units& u) {
     std::sort(cells.begin(), cells.end(), [](const GridCell& a, const GridCell& c) { return a.lambda < c.lambda; });
     Series s;
     s.name = fmt::format("degree {}", deg);
-    s.style = SeriesStyle{kDegreeColors[k % 8], 1.6, kDegreeDashes[k % 8], kDegreeMarkers[k % 8],
-                          k % 2 == 0, 7.0};
+    const bool dense = cells.size() > 12;  // many lambdas: smaller markers, thinner lines
+    s.style = SeriesStyle{kDegreeColors[k % 8], dense ? 1.2 : 1.6, kDegreeDashes[k % 8], kDegreeMarkers[k % 8],
+                          k % 2 == 0, dense ? 4.5 : 7.0};
     Series t = s;
     for (const GridCell& c : cells) {
       s.x.push_back(c.lambda);
@@ -728,13 +743,25 @@ void model_section(Builder& b, const Json& rec, const Units& u, const std::optio
   const std::string mode = str_or(rec, {"selection", "mode"}, "");
   std::string sel;
   if (mode == "cv") {
-    sel = "chosen by grouped cross-validation over setpoints, " + esc(str_or(rec, {"selection", "folds"}, "?")) +
-          " folds, rule \u201C" + esc(str_or(rec, {"selection", "rule"}, "not recorded")) + "\u201D";
+    sel = "chosen by grouped cross-validation over setpoints (" +
+          esc(str_or(rec, {"selection", "fold_scheme"}, "folds")) + ", " +
+          esc(str_or(rec, {"selection", "folds"}, "?")) + " folds), rule \u201C" +
+          esc(str_or(rec, {"selection", "rule"}, "not recorded")) + "\u201D";
     std::string degs, lams;
     for (const Json& d : arr(rec, {"selection", "degrees"})) degs += (degs.empty() ? "" : ", ") + json_scalar_html(d);
-    for (const Json& l : arr(rec, {"selection", "lambdas"})) {
-      auto v = num(&l);
-      lams += (lams.empty() ? "" : ", ") + esc(v ? format_lambda(*v) : std::string(kNotAvailable));
+    const auto lam_values = detail::num_array(arr(rec, {"selection", "lambdas"}));
+    if (lam_values.size() > 8) {
+      // A long log-spaced grid: say how many, and the range.
+      double lo = kNaN, hi = kNaN;
+      bool zero = false;
+      for (double v : lam_values) {
+        if (v == 0.0) zero = true;
+        else if (std::isfinite(v)) lo = std::isfinite(lo) ? std::min(lo, v) : v, hi = std::isfinite(hi) ? std::max(hi, v) : v;
+      }
+      lams = esc(fmt::format("{} values: {}{} \u2026 {}", lam_values.size(), zero ? "0 and " : "", format_lambda(lo),
+                             format_lambda(hi)));
+    } else {
+      for (double v : lam_values) lams += (lams.empty() ? "" : ", ") + esc(format_lambda(v));
     }
     if (!degs.empty()) sel += "; degrees tried: " + degs;
     if (!lams.empty()) sel += "; \u03BB tried: " + lams;
@@ -748,6 +775,14 @@ void model_section(Builder& b, const Json& rec, const Units& u, const std::optio
   b.o += "<dt>Polynomial</dt><dd>degree " + esc(str_or(rec, {"model", "degree"}, kNotAvailable)) +
          ", ridge penalty \u03BB = " + esc(lam ? format_lambda(*lam) : std::string(kNotAvailable)) + "</dd>\n";
   b.o += "<dt>Selection</dt><dd>" + sel + "</dd>\n";
+  std::string notes;
+  for (const Json& n : arr(rec, {"selection", "notes"})) notes += "<div>" + json_scalar_html(n) + "</div>";
+  if (!notes.empty()) b.o += "<dt>Selection notes</dt><dd>" + notes + "</dd>\n";
+  if (const Json* ic = find(rec, {"model", "intercept"}); ic && ic->is_boolean() && !ic->get<bool>())
+    b.o += "<dt>Intercept</dt><dd>none: the curve is forced through reading 0 \u2192 reference 0</dd>\n";
+  if (const Json* cn = find(rec, {"model", "condition_number"}))
+    b.o += "<dt>Condition number</dt><dd>" + esc(format_sig(num(cn), 3)) +
+           " (of the scaled Chebyshev design matrix)</dd>\n";
   if (model) {
     b.o += "<dt>Scaled variable</dt><dd>t = (x \u2212 " + esc(format_sig(model->scaling.center(), 8)) + ") / " +
            esc(format_sig(model->scaling.half_width(), 8)) + ", x = reading" + esc(u.reading_sfx()) +
@@ -775,6 +810,13 @@ void model_section(Builder& b, const Json& rec, const Units& u, const std::optio
   b.close_section();
 }
 
+/// Fold number, or a dash for none (test setpoints carry -1 or null).
+std::string fold_text(const Json& s) {
+  const auto f = num(s, {"fold"});
+  if (!f || *f < 0) return "\u2014";
+  return str_or(s, {"fold"}, "\u2014");
+}
+
 void split_section(Builder& b, const Json& rec, const Units& u) {
   b.open_section("split", "Split of setpoints");
   b.o += "<p>Seed " + esc(str_or(rec, {"split", "seed"}, kNotAvailable)) + ", test fraction " +
@@ -800,24 +842,34 @@ void split_section(Builder& b, const Json& rec, const Units& u) {
              esc(format_sig(num(s, {"reference"}), 6)) + "</td><td class=\"num\">" +
              esc(format_sig(num(s, {"reading"}), 6)) + "</td><td>" +
              (normalise_role(role) == "test" ? "<b>" + esc(role) + "</b>" : esc(role)) + "</td><td class=\"num\">" +
-             esc(str_or(s, {"fold"}, "\u2014")) + "</td></tr>\n";
+             esc(fold_text(s)) + "</td></tr>\n";
     }
     b.o += "</table>\n";
   }
-  b.o += "</div>\n";
+  b.o += "</div>\n<p class=\"note\">Fold \u2014: the setpoint is in no cross-validation fold (test setpoints, and "
+         "training setpoints that no fold holds out).</p>\n";
   b.close_section();
 }
 
 void cautions_section(Builder& b, const Json& rec) {
   b.open_section("cautions", "Cautions");
   b.o += "<ul class=\"cautions\">\n";
-  for (const Json& c : arr(rec, {"cautions"})) b.o += "<li>" + json_scalar_html(c) + "</li>\n";
-  b.o += "<li>Calibration of safety-relevant instruments follows the local codes and the certified procedures "
-         "that apply to them; this fit does not replace them.</li>\n"
-         "<li>This report documents a software fit for quality review. It does not replace a calibration "
-         "certificate from an accredited laboratory.</li>\n"
-         "<li>The polynomial is valid only inside the calibrated range of readings; outside it the values are "
-         "extrapolated.</li>\n";
+  // The record's own cautions first; the report's standard ones only where the
+  // record does not already say the same (no duplicated lines for the reviewer).
+  std::string all_lower;
+  for (const Json& c : arr(rec, {"cautions"})) {
+    b.o += "<li>" + json_scalar_html(c) + "</li>\n";
+    if (auto t = str(&c)) all_lower += lower(*t) + "\n";
+  }
+  if (all_lower.find("local code") == std::string::npos)
+    b.o += "<li>Calibration of safety-relevant instruments follows the local codes and the certified procedures "
+           "that apply to them; this fit does not replace them.</li>\n";
+  if (all_lower.find("accredited") == std::string::npos)
+    b.o += "<li>This report documents a software fit for quality review. It does not replace a calibration "
+           "certificate from an accredited laboratory.</li>\n";
+  if (all_lower.find("extrapolat") == std::string::npos)
+    b.o += "<li>The polynomial is valid only inside the calibrated range of readings; outside it the values are "
+           "extrapolated.</li>\n";
   b.o += "</ul>\n";
   b.close_section();
 }

@@ -89,6 +89,26 @@ Mapped layout_axis(const AxisSpec& spec, Extent ext, double p0, double p1) {
     m.hi = ax.hi;
     m.ticks = ax.ticks;
     m.has_zero_slot = spec.zero_slot && ext.zero;
+    // Thin the labels to what the length of the axis can hold (about 40 px
+    // per label), whatever the number of decades.
+    const double decades = std::log10(ax.hi / ax.lo);
+    const double px_per_decade = (std::fabs(p1 - p0) - (m.has_zero_slot ? kZeroSlot : 0.0)) / decades;
+    const int every = std::max(1, static_cast<int>(std::ceil(40.0 / px_per_decade - 1e-9)));
+    std::vector<Tick> kept;
+    for (Tick t : m.ticks) {
+      const double l = std::log10(t.value);
+      const bool decade = std::fabs(l - std::round(l)) < 1e-9;
+      if (decade) {
+        const long e = std::lround(l);
+        if (((e % every) + every) % every != 0) t.label.clear();
+      } else if (px_per_decade < 110.0) {
+        t.label.clear();  // 2 and 5 labels only when a decade is wide
+        t.major = false;
+        if (px_per_decade < 30.0) continue;  // no minor ticks when decades are narrow
+      }
+      kept.push_back(t);
+    }
+    m.ticks = kept;
     if (m.has_zero_slot) {
       const double dir = p1 > p0 ? 1.0 : -1.0;
       m.zero_pos = p0 + dir * 14.0;

@@ -1,6 +1,7 @@
 #!/bin/sh
 # Browser test of a report (CTest). Usage:
 #   browser_test.sh RENDERER RECORD.json OUTDIR   render the record, then check it
+#   browser_test.sh --html REPORT.html OUTDIR          check a report made elsewhere
 #   browser_test.sh --expect-fail REPORT.html OUTDIR   the check must reject it
 # Loads the report in headless Chromium with the network off; fails on console
 # errors, resource requests or failed loads (browser_check.mjs); prints it to
@@ -9,11 +10,12 @@
 set -u
 here=$(cd "$(dirname "$0")" && pwd)
 expect_fail=0
-if [ "${1:-}" = "--expect-fail" ]; then
-  expect_fail=1
+if [ "${1:-}" = "--expect-fail" ] || [ "${1:-}" = "--html" ]; then
+  [ "$1" = "--expect-fail" ] && expect_fail=1
   shift
   report=$1
   out=$2
+  [ -f "$report" ] || { echo "FAIL: no report at $report"; exit 1; }
 else
   renderer=$1
   record=$2

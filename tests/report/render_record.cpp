@@ -1,5 +1,8 @@
 // Test helper: render a calibration record (JSON file) to a report file.
 //   render_record IN.json OUT.html [--date TEXT] [--generator VERSION]
+//   render_record --seal RECORD.json
+//     rewrites integrity.sha256 of a hand-made fixture record with the digest
+//     the fitter computes (ridgecal::record_digest), in place.
 // Used by the golden-file and browser tests (and to refresh the golden file).
 #include <fstream>
 #include <iostream>
@@ -8,9 +11,18 @@
 
 #include <nlohmann/json.hpp>
 
+#include "ridgecal/record.hpp"
 #include "ridgecal/report/html_report.hpp"
 
 int main(int argc, char** argv) {
+  if (argc == 3 && std::string(argv[1]) == "--seal") {
+    std::ifstream in(argv[2], std::ios::binary);
+    nlohmann::json rec = nlohmann::json::parse(in);
+    rec["integrity"] = {{"algorithm", "sha256"}, {"sha256", ridgecal::record_digest(rec)}};
+    in.close();
+    std::ofstream(argv[2], std::ios::binary) << rec.dump(1, ' ', false) << "\n";
+    return 0;
+  }
   if (argc < 3) {
     std::cerr << "usage: render_record IN.json OUT.html [--date TEXT] [--generator VERSION]\n";
     return 2;

@@ -192,12 +192,23 @@ BOOST_AUTO_TEST_CASE(not_a_record_is_rejected) {
 }
 
 BOOST_AUTO_TEST_CASE(cautions_and_sign_off_are_present) {
-  const std::string html = render_html_report(fixture("basic"), fixed_options());
-  BOOST_TEST(html.find("local codes and the certified procedures") != std::string::npos);
-  BOOST_TEST(html.find("does not replace a calibration certificate") != std::string::npos);
-  BOOST_TEST(html.find("Readings outside 92.1") != std::string::npos);
+  // The record's cautions are shown; the report adds its own only where the
+  // record does not already say the same.
+  const std::string html = render_html_report(fixture("full"), fixed_options());
+  const auto cautions = html.substr(html.find("id=\"cautions\""));
+  BOOST_TEST(cautions.find("local codes and certified procedures") != std::string::npos);
+  BOOST_TEST(cautions.find("accredited calibration laboratory") != std::string::npos);
+  BOOST_TEST(cautions.find("Readings outside 92.1") != std::string::npos);
+  BOOST_TEST(cautions.find("the local codes and the certified procedures") == std::string::npos);  // no duplicate
   BOOST_TEST(html.find("<th>Performed by</th>") != std::string::npos);
   BOOST_TEST(html.find("<th>Reviewed by</th>") != std::string::npos);
+
+  json bare = fixture("basic");
+  bare["cautions"] = json::array();
+  const std::string own = render_html_report(bare, fixed_options());
+  BOOST_TEST(own.find("the local codes and the certified procedures") != std::string::npos);
+  BOOST_TEST(own.find("does not replace a calibration certificate from an accredited laboratory") != std::string::npos);
+  BOOST_TEST(own.find("outside it the values are extrapolated") != std::string::npos);
 }
 
 BOOST_AUTO_TEST_CASE(rendering_is_deterministic) {
@@ -223,6 +234,19 @@ BOOST_AUTO_TEST_CASE(golden_file) {
                 << line << "; actual written to report_full.actual.html\n  expected: " << le.substr(0, 200)
                 << "\n  actual:   " << la.substr(0, 200));
   }
+}
+
+BOOST_AUTO_TEST_SUITE_END()
+
+BOOST_AUTO_TEST_SUITE(html_report_integrity)
+
+BOOST_AUTO_TEST_CASE(header_states_whether_the_digest_matches) {
+  BOOST_TEST(render_html_report(fixture("full")).find("(verified: matches the content)") != std::string::npos);
+  const std::string hostile = render_html_report(fixture("hostile"));
+  BOOST_TEST(hostile.find("DOES NOT MATCH the record content") != std::string::npos);
+  json edited = fixture("basic");
+  edited["model"]["lambda"] = 0.5;  // any change after sealing
+  BOOST_TEST(render_html_report(edited).find("DOES NOT MATCH") != std::string::npos);
 }
 
 BOOST_AUTO_TEST_SUITE_END()
