@@ -1,6 +1,7 @@
 #include "ridgecal/report/html_escape.hpp"
 
 #include <cstdint>
+#include <cstdio>
 
 namespace ridgecal::report {
 namespace {
@@ -85,10 +86,15 @@ std::string html_escape(std::string_view text) {
       case '\'': out += "&#39;"; continue;
       default: break;
     }
-    if (cp < 0x20) {
-      append_utf8(out, 0x2400 + cp);  // control picture, e.g. U+240A for newline
-    } else if (cp == 0x7F) {
-      append_utf8(out, 0x2421);  // symbol for delete
+    if (cp == '\n') {
+      out += "\u21B5";  // downwards arrow with corner leftwards: a visible line break
+    } else if (cp == '\t') {
+      out += "\u21E5";  // rightwards arrow to bar: a visible tab
+    } else if (cp < 0x20 || cp == 0x7F) {
+      // Other controls as their code point in plain ASCII, which every font has.
+      char buf[12];
+      std::snprintf(buf, sizeof buf, "[U+%04X]", static_cast<unsigned>(cp));
+      out += buf;
     } else if ((cp >= 0x80 && cp <= 0x9F) || cp == 0xFFFE || cp == 0xFFFF) {
       out += kReplacement;  // C1 controls and non-characters are not valid XML text
     } else {

@@ -42,6 +42,7 @@ struct Mapped {
   bool has_zero_slot = false;  // log axis with a separate 0 position
   double zero_pos = 0;         // pixel position of the 0 tick
   double break_pos = 0;        // pixel position of the axis break mark
+  int exp10 = 0;               // linear axis: tick labels are in units of 10^exp10
   std::vector<Tick> ticks;
 
   bool representable(double v) const {
@@ -125,14 +126,34 @@ Mapped layout_axis(const AxisSpec& spec, Extent ext, double p0, double p1) {
     if (!spec.min) lo -= pad;
     if (!spec.max) hi += pad;
     const LinearAxis ax = linear_axis(lo, hi, spec.target_ticks);
-    m.lo = spec.min ? *spec.min : ax.lo;
-    m.hi = spec.max ? *spec.max : ax.hi;
-    for (const Tick& t : ax.ticks)
-      if (t.value >= m.lo - 1e-9 * ax.step && t.value <= m.hi + 1e-9 * ax.step) m.ticks.push_back(t);
+    // The frame ends at the padded data range (no space wasted up to the next
+    // whole step); ticks are the 1-2-5 multiples inside it.
+    const bool degenerate = !(hi - lo > 1e-12 * std::max(std::fabs(lo), std::fabs(hi)));
+    m.lo = spec.min ? *spec.min : (degenerate ? ax.lo : lo);
+    m.hi = spec.max ? *spec.max : (degenerate ? ax.hi : hi);
+    // Large or tiny values: label ticks in units of 10^E (E a multiple of 3)
+    // and say so in the axis label, rather than printing 6000000 or 6e+06.
+    const double amax = std::max(std::fabs(m.lo), std::fabs(m.hi));
+    if (amax >= 1e5 || (amax > 0 && amax < 1e-3)) {
+      m.exp10 = static_cast<int>(std::floor(std::floor(std::log10(amax)) / 3.0)) * 3;
+      if (m.exp10 == 0) m.exp10 = amax >= 1e5 ? 3 : -3;
+    }
+    const double unit = std::pow(10.0, m.exp10);
+    for (Tick t : ax.ticks)
+      if (t.value >= m.lo - 1e-9 * ax.step && t.value <= m.hi + 1e-9 * ax.step) {
+        if (m.exp10 != 0) t.label = linear_tick_label(t.value / unit, ax.step / unit);
+        m.ticks.push_back(t);
+      }
   }
   m.p0 = p0;
   m.p1 = p1;
   return m;
+}
+
+/// Axis label followed by the tick multiplier, e.g. "reading [counts] (×10⁶)".
+std::string with_multiplier(const std::string& label, const Mapped& m) {
+  if (m.exp10 == 0) return label;
+  return label + " (\u00D7" + power_of_ten_label(m.exp10) + ")";
 }
 
 std::string stroke_attrs(const std::string& color, double width, const std::string& dash) {
@@ -478,11 +499,11 @@ std::string SvgPlot::render() const {
                        f(my.map(t.value) + kTickFont * 0.35), html_escape(t.label));
   o += "</g>\n";
   o += fmt::format(R"(<text class="axis-label" x="{}" y="{}" text-anchor="middle" font-size="{}">{}</text>)",
-                   f((px0 + px1) / 2), f(height_ - 6), f(kLabelFont), html_escape(x_axis.label));
+                   f((px0 + px1) / 2), f(height_ - 6), f(kLabelFont), html_escape(with_multiplier(x_axis.label, mx)));
   o += "\n";
   o += fmt::format(
       R"~(<text class="axis-label" transform="translate({},{}) rotate(-90)" text-anchor="middle" font-size="{}">{}</text>)~",
-      f(15), f((py0 + py1) / 2), f(kLabelFont), html_escape(y_axis.label));
+      f(15), f((py0 + py1) / 2), f(kLabelFont), html_escape(with_multiplier(y_axis.label, my)));
   o += "\n";
 
   o += draw_legend(legend, bands, id_, px0, 10);
