@@ -59,7 +59,22 @@ std::string format_exact(const std::optional<double>& v) {
 std::string format_lambda(double v) {
   if (!std::isfinite(v)) return kNotAvailable;
   if (v == 0.0) return "0";
-  return format_sig(v, 3);
+  const double a = std::fabs(v);
+  if (a >= 1e-2 && a < 1e3) return format_sig(v, 3);
+  // m×10ⁿ with a superscript exponent: penalties span many decades.
+  int e = static_cast<int>(std::floor(std::log10(a)));
+  double m = v / std::pow(10.0, e);
+  std::string ms = format_sig(m, 3);
+  if (ms == "10" || ms == "-10") {  // 9.996 rounds up to 10
+    ++e;
+    ms = ms[0] == '-' ? "-1" : "1";
+  }
+  static const char* const kSup[] = {"\u2070", "\u00B9", "\u00B2", "\u00B3", "\u2074",
+                                     "\u2075", "\u2076", "\u2077", "\u2078", "\u2079"};
+  std::string out = (ms == "1" ? std::string() : ms == "-1" ? std::string("-") : ms + "\u00D7") + "10";
+  if (e < 0) out += "\u207B";
+  for (char c : std::to_string(e < 0 ? -e : e)) out += kSup[c - '0'];
+  return out;
 }
 
 std::string format_coord(double v) {

@@ -155,7 +155,7 @@ BOOST_AUTO_TEST_CASE(plots_mark_train_validation_and_test_distinctly) {
   BOOST_TEST(full.find(">validation (held-out fold)<") != std::string::npos);
   BOOST_TEST(full.find(">tolerance \u00B10.1 °C<") != std::string::npos);
   BOOST_TEST(full.find("expanded uncertainty") != std::string::npos);
-  BOOST_TEST(full.find(">chosen: degree 2, \u03BB = 1e-06<") != std::string::npos);
+  BOOST_TEST(full.find(">chosen: degree 2, \u03BB = 10\u207B\u2076<") != std::string::npos);
   // Without held-out predictions in the record there is no validation series.
   const std::string basic = render_html_report(fixture("basic"), fixed_options());
   BOOST_TEST(basic.find(">validation (held-out fold)<") == std::string::npos);

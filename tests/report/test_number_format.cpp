@@ -30,7 +30,11 @@ BOOST_AUTO_TEST_CASE(fixed_and_significant) {
   BOOST_TEST(format_sig(1.5e-7, 3) == "1.5e-07");
   BOOST_TEST(format_sig(-0.0, 3) == "0");
   BOOST_TEST(format_lambda(0.0) == "0");
-  BOOST_TEST(format_lambda(1e-6) == "1e-06");
+  BOOST_TEST(format_lambda(1e-6) == "10\u207B\u2076");
+  BOOST_TEST(format_lambda(4.1753e-5) == "4.18\u00D710\u207B\u2075");
+  BOOST_TEST(format_lambda(9.9999e-5) == "10\u207B\u2074");
+  BOOST_TEST(format_lambda(0.5) == "0.5");
+  BOOST_TEST(format_lambda(12.0) == "12");
   BOOST_TEST(format_exact(0.1) == "0.1");
 }
 

@@ -24,7 +24,8 @@ std::string format_sig(const std::optional<double>& v, int digits = 4);
 std::string format_exact(double v);
 std::string format_exact(const std::optional<double>& v);
 
-/// Ridge penalty lambda: "0" for zero, otherwise like format_sig with 3 digits.
+/// Ridge penalty lambda: "0" for zero; 3 significant digits, written as
+/// 4.18×10⁻⁵ (or 10⁻⁶ for an exact power) outside [0.01, 1000).
 std::string format_lambda(double v);
 
 /// SVG coordinate: two decimals, trailing zeros stripped; non-finite maps to 0.
