@@ -242,7 +242,7 @@ html { -webkit-print-color-adjust: exact; print-color-adjust: exact; }
 body { font-family: "DejaVu Sans", "Liberation Sans", Arial, sans-serif; font-size: 10pt;
   line-height: 1.35; color: #111; background: #fff; max-width: 188mm; margin: 8mm auto; padding: 0 5mm; }
 h1 { font-size: 16pt; margin: 0 0 1.5mm; }
-h2 { font-size: 12pt; margin: 4.5mm 0 1.5mm; padding-bottom: 0.6mm; border-bottom: 1.5px solid #444;
+h2 { font-size: 12pt; margin: 4mm 0 1.5mm; padding-bottom: 0.6mm; border-bottom: 1.5px solid #444;
   break-after: avoid; page-break-after: avoid; }
 h3 { font-size: 10.5pt; margin: 3mm 0 1mm; break-after: avoid; page-break-after: avoid; }
 p { margin: 1mm 0 2mm; }
@@ -287,9 +287,12 @@ ul.cautions li { margin: 0.6mm 0; }
 .signoff td { height: 13mm; }
 .signoff th { width: 28mm; }
 footer { margin-top: 4mm; font-size: 8pt; color: #555; border-top: 1px solid #bbb; padding-top: 1mm; }
-@page { margin: 11mm 12mm 12mm 12mm; }
+@page { margin: 11mm 12mm 13mm 12mm;
+  @bottom-left { content: "ridgecal QA calibration report"; font: 8pt "DejaVu Sans", sans-serif; color: #555; }
+  @bottom-right { content: "page " counter(page) " of " counter(pages); font: 8pt "DejaVu Sans", sans-serif; color: #555; } }
 @media print {
   body { max-width: none; margin: 0; padding: 0; }
+  figure > svg.plot, figure > .panels { max-width: 162mm; }
 }
 )CSS";
 
@@ -381,7 +384,7 @@ void header_section(Builder& b, const Json& rec, const Units& u, const ReportOpt
   std::string integrity = "<span class=\"mono\">" + or_missing(str(rec, {"integrity", "sha256"})) + "</span>";
   if (str(rec, {"integrity", "sha256"}))
     integrity += record_integrity_ok(rec)
-                     ? " <b>(verified: matches the content)</b>"
+                     ? " <b>(verified)</b>"
                      : " <b class=\"alert\">(DOES NOT MATCH the record content: the record was changed after it "
                        "was written)</b>";
   row("Record SHA-256", integrity, true);

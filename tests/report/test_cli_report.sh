@@ -19,7 +19,7 @@ grep -q "report: $out/ntc.fit.html" "$out/fit.stdout" || bad "fit did not announ
 for f in ntc.fit.html ntc.report.html; do
   python3 "$here/check_report.py" "$out/$f" || bad "$f failed the structural check"
   grep -q 'cold-store NTC ch2 &lt;test&gt;' "$out/$f" || bad "$f: sensor name not shown escaped"
-  grep -q 'verified: matches the content' "$out/$f" || bad "$f: integrity not confirmed"
+  grep -q '<b>(verified)</b>' "$out/$f" || bad "$f: integrity not confirmed"
 done
 grep -q '<dd>2026-12-02 10:00 UTC</dd>' "$out/ntc.report.html" || bad "--date not shown"
 grep -q '<dd>2026-12-02T09:00:00Z</dd>' "$out/ntc.fit.html" || bad "fit report: record date not shown"
