@@ -164,9 +164,11 @@ std::vector<Warning> check_setpoints_per_coefficient(const Calibration& cal, con
 
 std::vector<Warning> check_coverage(const Calibration& cal, const DiagnosticOptions& o) {
   std::vector<Warning> out;
+  // All setpoints, training and test: a test setpoint inside a gap checks the curve there.
   std::vector<const SetpointResult*> tr;
-  for (const SetpointResult& sp : cal.setpoints)
-    if (sp.role == SetRole::Train) tr.push_back(&sp);
+  for (const SetpointResult& sp : cal.setpoints) tr.push_back(&sp);
+  std::sort(tr.begin(), tr.end(),
+            [](const SetpointResult* a, const SetpointResult* b) { return a->mean_reading < b->mean_reading; });
   if (tr.size() < 2) return out;
   if (o.has_span()) {
     double rmin = tr.front()->mean_reference, rmax = rmin;

@@ -51,7 +51,7 @@ struct DiagnosticOptions {
   double test_validation_ratio = 2.0;  ///< warn when test RMSE > ratio * validation RMSE; > 1
   double min_setpoints_per_coefficient = 3.0;  ///< warn below this many training setpoints per coefficient; >= 0
   double coverage_end_fraction = 0.05;  ///< declared span ends must be reached within this fraction of the span; 0..0.5
-  double gap_factor = 2.5;  ///< warn when a gap between setpoints exceeds this many mean spacings; > 1
+  double gap_factor = 2.5;  ///< warn when a gap between adjacent setpoints (training and test) exceeds this many mean spacings; > 1
   double outlier_limit = 3.5;  ///< warn when |externally studentized residual| exceeds this; > 0
   double runs_z = 1.96;        ///< warn when the runs test z is below -runs_z (too few runs); > 0
   std::size_t runs_min_setpoints = 10;  ///< run the runs test only with this many training setpoints; >= 4
