@@ -311,7 +311,8 @@ std::vector<Warning> check_monotonic(const PolyModel& model) {
 
 std::vector<Warning> check_hysteresis(const Dataset& data, const Calibration& cal,
                                       const UncertaintyBudget& uncertainty, const ToleranceSpec* tolerance) {
-  if (data.rows.size() != cal.points.size()) return {};
+  (void)uncertainty;
+  if (!tolerance || data.rows.size() != cal.points.size()) return {};
   struct Acc {
     double up = 0, down = 0, ref = 0, reading = 0;
     int nu = 0, nd = 0;
@@ -341,7 +342,7 @@ std::vector<Warning> check_hysteresis(const Dataset& data, const Calibration& ca
     ++paired;
     const int cnt = a.nu + a.nd;
     const double diff = a.up / a.nu - a.down / a.nd;
-    const double limit = tolerance ? tolerance->limit(a.ref / cnt) : uncertainty.expanded_at(a.reading / cnt);
+    const double limit = tolerance->limit(a.ref / cnt);
     if (!(limit > 0)) continue;
     const double ratio = std::fabs(diff) / limit;
     if (ratio > 1.0) ++exceeded;
@@ -356,9 +357,9 @@ std::vector<Warning> check_hysteresis(const Dataset& data, const Calibration& ca
   if (exceeded == 0) return {};
   return {make(DiagnosticCode::Hysteresis,
                fmt::format("Hysteresis: at {} of {} setpoints measured in both directions the up and down sweeps "
-                           "differ by more than the {}; worst at setpoint '{}', up minus down = {:.3g} against {:.3g}. "
-                           "One curve cannot serve both directions within that limit.",
-                           exceeded, paired, tolerance ? "tolerance" : "expanded uncertainty", worst_id, worst_diff,
+                           "differ by more than the tolerance; worst at setpoint '{}', up minus down = {:.3g} against {:.3g}. "
+                           "One curve cannot serve both directions within the tolerance.",
+                           exceeded, paired, worst_id, worst_diff,
                            worst_limit),
                worst_lines, worst_ratio)};
 }

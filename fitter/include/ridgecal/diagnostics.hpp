@@ -67,8 +67,8 @@ struct DiagnosticOptions {
 
 /// All fit diagnostics. `data` must be the data set the calibration was fitted
 /// on (rows match cal.points by index; its direction column drives the
-/// hysteresis check). `tolerance` may be null (hysteresis is then judged
-/// against the expanded uncertainty).
+/// hysteresis check). `tolerance` may be null (hysteresis is then not
+/// judged: the criterion is "differ beyond tolerance").
 std::vector<Warning> diagnose_fit(const Dataset& data, const Calibration& cal, const UncertaintyBudget& uncertainty,
                                   const ToleranceSpec* tolerance, const DiagnosticOptions& options);
 
@@ -80,6 +80,8 @@ std::vector<Warning> check_coverage(const Calibration& cal, const DiagnosticOpti
 std::vector<Warning> check_outliers(const Calibration& cal, const DiagnosticOptions& o);
 std::vector<Warning> check_residual_runs(const Calibration& cal, const DiagnosticOptions& o);
 std::vector<Warning> check_monotonic(const PolyModel& model);
+/// Mean error of the up rows minus that of the down rows, per setpoint measured
+/// in both directions, against the tolerance at that setpoint (null: no check).
 std::vector<Warning> check_hysteresis(const Dataset& data, const Calibration& cal,
                                       const UncertaintyBudget& uncertainty, const ToleranceSpec* tolerance);
 std::vector<Warning> check_condition(const Calibration& cal, const DiagnosticOptions& o);
