@@ -1,0 +1,148 @@
+#include "fit_command.hpp"
+
+#include <boost/program_options.hpp>
+#include <fmt/format.h>
+#include <ostream>
+#include <sstream>
+
+#include "cli_common.hpp"
+#include "ridgecal/atomic_file.hpp"
+#include "ridgecal/errors.hpp"
+
+namespace po = boost::program_options;
+
+namespace ridgecal::cli {
+
+namespace {
+po::options_description fit_options() {
+  po::options_description d("ridgecal fit DATA.csv [-o RECORD.json] [options]");
+  // clang-format off
+  d.add_options()
+    ("help,h", "show this help")
+    ("output,o", po::value<std::string>(), "write the calibration record (JSON) to this file")
+    ("reading", po::value<std::string>()->default_value("reading"), "column holding the raw sensor reading")
+    ("reference", po::value<std::string>()->default_value("reference"), "column holding the reference value")
+    ("setpoint", po::value<std::string>(), "column naming the setpoint of repeated readings (default: equal reference values form a setpoint)")
+    ("role", po::value<std::string>(), "column with 'fit' or 'check' per row: the check setpoints become the test set")
+    ("delimiter", po::value<std::string>()->default_value(","), "field delimiter: ',', ';' or 'tab'")
+    ("degrees", po::value<std::string>()->default_value("1..7"), "candidate degrees, e.g. 1..7 or 1,2,3")
+    ("lambdas", po::value<std::string>()->default_value("default"), "candidate penalties: 'default' (0 and 30 values from 1e-12 to 10), or a list like 0,1e-9:1e-1:20")
+    ("rule", po::value<std::string>()->default_value("min-cv"), "selection rule: min-cv (lowest CV error) or one-se (simplest model within one standard error)")
+    ("folds", po::value<int>()->default_value(5), "K of grouped K-fold cross-validation (leave-one-setpoint-out below 10 interior setpoints)")
+    ("test-fraction", po::value<double>()->default_value(0.2), "share of setpoints held out as the final test set (0 to 0.5)")
+    ("seed", po::value<std::uint64_t>()->default_value(1), "seed of the reproducible split")
+    ("degree", po::value<int>(), "fixed model: this degree (with --lambda), no selection")
+    ("lambda", po::value<double>(), "fixed model: this penalty (0 = ordinary least squares)")
+    ("through-origin", po::bool_switch(), "no intercept: force the curve through reading 0 -> reference 0")
+    ("sensor", po::value<std::string>()->default_value(""), "sensor name for the record")
+    ("reading-unit", po::value<std::string>()->default_value(""), "unit of the reading, e.g. counts")
+    ("reference-unit", po::value<std::string>()->default_value(""), "unit of the reference, e.g. degC")
+    ("timestamp", po::value<std::string>()->default_value(""), "creation time to record (ISO 8601), 'none' to omit; default: now or SOURCE_DATE_EPOCH")
+    ("full", po::bool_switch(), "print the full summary (coefficients, notes)");
+  // clang-format on
+  return d;
+}
+}  // namespace
+
+std::string fit_usage() {
+  std::ostringstream s;
+  s << fit_options();
+  s << "\nExit codes: 0 done, 1 out of tolerance, 2 bad input or usage (nothing written).\n";
+  return s.str();
+}
+
+FitCommand parse_fit_command(const std::vector<std::string>& args) {
+  const po::options_description desc = fit_options();
+  po::options_description all;
+  all.add(desc).add_options()("data", po::value<std::vector<std::string>>(), "");
+  po::positional_options_description pos;
+  pos.add("data", -1);
+  po::variables_map vm;
+  try {
+    po::store(po::command_line_parser(args).options(all).positional(pos).run(), vm);
+    po::notify(vm);
+  } catch (const po::error& e) {
+    throw UsageError(e.what());
+  }
+  FitCommand cmd;
+  if (vm.count("help")) {
+    cmd.data_path = "--help";
+    return cmd;
+  }
+  if (!vm.count("data")) throw UsageError("give the calibration data file: ridgecal fit DATA.csv -o RECORD.json");
+  const auto& data = vm["data"].as<std::vector<std::string>>();
+  if (data.size() != 1) throw UsageError(fmt::format("give exactly one data file, not {}", data.size()));
+  cmd.data_path = data[0];
+  if (vm.count("output")) cmd.output_path = vm["output"].as<std::string>();
+  cmd.csv.reading_column = vm["reading"].as<std::string>();
+  cmd.csv.reference_column = vm["reference"].as<std::string>();
+  if (vm.count("setpoint")) cmd.csv.setpoint_column = vm["setpoint"].as<std::string>();
+  if (vm.count("role")) cmd.csv.role_column = vm["role"].as<std::string>();
+  cmd.csv.delimiter = parse_delimiter(vm["delimiter"].as<std::string>());
+  if (const std::string e = cmd.csv.validate(); !e.empty()) throw UsageError(e);
+
+  cmd.fit.degrees = parse_degree_list(vm["degrees"].as<std::string>());
+  cmd.fit.lambdas = parse_lambda_list(vm["lambdas"].as<std::string>());
+  try {
+    cmd.fit.rule = selection_rule_from_string(vm["rule"].as<std::string>());
+  } catch (const std::invalid_argument& e) {
+    throw UsageError(std::string("--rule: ") + e.what());
+  }
+  cmd.fit.split.folds = vm["folds"].as<int>();
+  cmd.fit.split.test_fraction = vm["test-fraction"].as<double>();
+  cmd.fit.split.seed = vm["seed"].as<std::uint64_t>();
+  if (vm.count("degree") != vm.count("lambda"))
+    throw UsageError("--degree and --lambda go together: give both for a fixed model, or neither to select one");
+  if (vm.count("degree")) {
+    cmd.fit.fixed_degree = vm["degree"].as<int>();
+    cmd.fit.fixed_lambda = vm["lambda"].as<double>();
+  }
+  cmd.fit.intercept = !vm["through-origin"].as<bool>();
+  if (const std::string e = cmd.fit.validate(); !e.empty()) throw UsageError(e);
+  cmd.sensor.name = vm["sensor"].as<std::string>();
+  cmd.sensor.reading_unit = vm["reading-unit"].as<std::string>();
+  cmd.sensor.reference_unit = vm["reference-unit"].as<std::string>();
+  cmd.timestamp = vm["timestamp"].as<std::string>();
+  cmd.full = vm["full"].as<bool>();
+  return cmd;
+}
+
+int run_fit_command(const FitCommand& cmd, std::ostream& out, std::ostream& err) {
+  if (cmd.data_path == "--help") {
+    out << fit_usage();
+    return kExitOk;
+  }
+  try {
+    const Dataset data = read_calibration_csv(cmd.data_path, cmd.csv);
+    const FitOutcome fit = fit_calibration(data, cmd.fit);
+    if (!fit.status.ok)
+      throw InputError(cmd.data_path, 0, fit.status.message, "see 'ridgecal fit --help'");
+    CalibrationRecord rec;
+    rec.tool_version = tool_version();
+    rec.created_utc = creation_time(cmd.timestamp);
+    rec.sensor = cmd.sensor;
+    rec.input = InputInfo{cmd.data_path, data.sha256, data.rows.size(), cmd.csv};
+    rec.calibration = fit.calibration;
+    const nlohmann::json j = record_to_json(rec);
+    if (!cmd.output_path.empty()) write_file_atomic(cmd.output_path, record_text(j));
+    out << (cmd.full ? rec.calibration.full() : rec.calibration.brief());
+    if (!cmd.output_path.empty()) out << "record: " << cmd.output_path << "\n";
+    return kExitOk;
+  } catch (const InputError& e) {
+    err << "ridgecal fit: " << format_input_error(e) << "\n";
+    return kExitBadInput;
+  }
+}
+
+int fit_main(const std::vector<std::string>& args, std::ostream& out, std::ostream& err) {
+  FitCommand cmd;
+  try {
+    cmd = parse_fit_command(args);
+  } catch (const UsageError& e) {
+    err << "ridgecal fit: " << e.what() << "\nTry 'ridgecal fit --help'.\n";
+    return kExitBadInput;
+  }
+  return run_fit_command(cmd, out, err);
+}
+
+}  // namespace ridgecal::cli

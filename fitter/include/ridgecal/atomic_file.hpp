@@ -1,0 +1,19 @@
+// ridgecal: write an output file so that readers see the old complete file or
+// the new complete file, never a partial one.
+#pragma once
+
+#include <string>
+#include <string_view>
+
+namespace ridgecal {
+
+/// Writes `content` to a temporary file in the same directory as `path`,
+/// flushes it to disk, then renames it over `path`.
+/// Throws InputError (line 0) when the directory is not writable or the
+/// rename fails; the temporary file is removed in that case.
+void write_file_atomic(const std::string& path, std::string_view content);
+
+/// Reads a whole file. Throws InputError when it cannot be opened.
+std::string read_file_bytes(const std::string& path);
+
+}  // namespace ridgecal

@@ -1,0 +1,61 @@
+// ridgecal: reading a calibration run from CSV.
+//
+// Format: a header row naming the columns, then one observation per row.
+// Lines whose first non-blank character is '#' are comments; blank lines are
+// skipped. CRLF line endings and a UTF-8 byte-order mark are accepted. Fields
+// may be double-quoted ("a,b"; "" is a literal quote). Numbers use a '.'
+// decimal point; NaN and infinities are rejected.
+#pragma once
+
+#include <cstddef>
+#include <string>
+#include <vector>
+
+namespace ridgecal {
+
+/// Which columns to read. Defaults: `reading`, `reference`, no setpoint and no
+/// role column. Column names are matched exactly (case-sensitive), after
+/// trimming blanks.
+struct CsvOptions {
+  std::string reading_column = "reading";
+  std::string reference_column = "reference";
+  std::string setpoint_column;  ///< empty: rows with equal reference values form a group
+  std::string role_column;      ///< empty: no user-named check points; values `fit` / `check`
+  char delimiter = ',';         ///< one of ',' ';' '\t'
+
+  /// Empty when valid, else a message naming the field, the value and the rule.
+  std::string validate() const;
+};
+
+/// Role of a row named by the user in the role column.
+enum class UserRole { Unspecified, Fit, Check };
+std::string to_string(UserRole r);
+/// Accepts `fit` and `check` (case-insensitive). Throws std::invalid_argument otherwise.
+UserRole user_role_from_string(const std::string& s);
+
+struct Observation {
+  double reading = 0.0;    ///< raw sensor reading (reading units)
+  double reference = 0.0;  ///< reference value (reference units)
+  std::string setpoint;    ///< group key: the setpoint cell, or the reference value as text
+  UserRole role = UserRole::Unspecified;
+  std::size_t line = 0;  ///< 1-based physical line in the file
+};
+
+struct Dataset {
+  std::string file;    ///< as given by the user (for messages)
+  std::string sha256;  ///< of the file's bytes
+  CsvOptions columns;
+  std::vector<Observation> rows;
+};
+
+/// Parses CSV text. `file` is used in messages only.
+/// Throws InputError (`file:line: what. hint`) on: an empty file or header
+/// only, a missing column, a ragged row, a non-numeric, NaN or infinite cell,
+/// an empty setpoint cell, a bad role value, a duplicated column name.
+Dataset parse_calibration_csv(const std::string& text, const std::string& file,
+                              const CsvOptions& options);
+
+/// Reads and parses a file (see parse_calibration_csv).
+Dataset read_calibration_csv(const std::string& path, const CsvOptions& options);
+
+}  // namespace ridgecal

@@ -1,0 +1,84 @@
+// ridgecal: the calibration record, a JSON document of our own.
+//
+// Layout (format "ridgecal-record", format_version 1):
+//   format, format_version, tool_version, created_utc (may be absent),
+//   cautions[], sensor{name, reading_unit, reference_unit},
+//   input{file, sha256, rows, columns{reading, reference, setpoint, role}},
+//   model{kind, degree, lambda, intercept, basis, penalty, scaling{x_min, x_max,
+//         center, half_width}, chebyshev_coefficients[], power_coefficients[],
+//         condition_number},
+//   selection{mode, rule, fold_scheme, folds, degrees[], lambdas[],
+//             grid[{degree, lambda, cv_rmse, cv_se, train_rmse}], chosen{...}, notes[]},
+//   split{seed, test_fraction, test_named_by_user, setpoints[{id, reading,
+//         reference, count, role, fold}]},
+//   metrics{training, validation, test: {n, predictors, centered, rmse,
+//           max_abs_error, bias, r2, adj_r2, residual_sd}},
+//   points[{line, setpoint, reading, reference, predicted, error, role, fold,
+//           cv_predicted}],
+//   integrity{algorithm: "sha256", sha256}
+// Non-finite numbers are written as null. integrity.sha256 is the SHA-256 of
+// the record without its "integrity" member, serialised compactly with keys
+// sorted (nlohmann::json::dump()).
+#pragma once
+
+#include <nlohmann/json.hpp>
+#include <string>
+#include <vector>
+
+#include "ridgecal/calibration.hpp"
+
+namespace ridgecal {
+
+inline constexpr const char* kRecordFormat = "ridgecal-record";
+inline constexpr int kRecordFormatVersion = 1;
+
+/// The tool's version string (from CMake's project version).
+const char* tool_version();
+
+/// The standard cautions every record and report carries.
+std::vector<std::string> standard_cautions();
+
+struct SensorInfo {
+  std::string name;            ///< free text, e.g. "cold-store logger NTC channel 2"
+  std::string reading_unit;    ///< e.g. "counts", "mV", "ohm"
+  std::string reference_unit;  ///< e.g. "degC", "kg"
+};
+
+struct InputInfo {
+  std::string file;  ///< file name as given
+  std::string sha256;
+  std::size_t rows = 0;
+  CsvOptions columns;
+};
+
+struct CalibrationRecord {
+  std::string tool_version;
+  std::string created_utc;  ///< ISO 8601, may be empty (reproducible output)
+  SensorInfo sensor;
+  InputInfo input;
+  Calibration calibration;
+  std::vector<std::string> cautions = standard_cautions();
+};
+
+/// Serialises to JSON with the integrity member filled in.
+nlohmann::json record_to_json(const CalibrationRecord& rec);
+
+/// The SHA-256 the integrity member must hold for this JSON (ignores any
+/// "integrity" member present).
+std::string record_digest(const nlohmann::json& j);
+
+/// True when j carries an integrity digest equal to record_digest(j).
+bool record_integrity_ok(const nlohmann::json& j);
+
+/// Parses a record. `file` is used in messages. Throws InputError on invalid
+/// JSON, a wrong format or version, or missing or mistyped members.
+/// Integrity is NOT checked here (see record_integrity_ok).
+CalibrationRecord record_from_json(const nlohmann::json& j, const std::string& file);
+
+/// Reads a record file; throws InputError on unreadable or invalid JSON.
+nlohmann::json read_record_json(const std::string& path);
+
+/// Pretty JSON text (2-space indent, trailing newline) for writing to disk.
+std::string record_text(const nlohmann::json& j);
+
+}  // namespace ridgecal

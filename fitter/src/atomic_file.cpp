@@ -1,0 +1,59 @@
+#include "ridgecal/atomic_file.hpp"
+
+#include <fcntl.h>
+#include <sys/stat.h>
+#include <unistd.h>
+
+#include <cerrno>
+#include <cstdlib>
+#include <cstring>
+#include <fstream>
+#include <sstream>
+#include <vector>
+
+#include "ridgecal/errors.hpp"
+
+namespace ridgecal {
+
+void write_file_atomic(const std::string& path, std::string_view content) {
+  std::string tmpl = path + ".tmp-XXXXXX";
+  std::vector<char> buf(tmpl.begin(), tmpl.end());
+  buf.push_back('\0');
+  const int fd = ::mkstemp(buf.data());
+  if (fd < 0)
+    throw InputError(path, 0, std::string("cannot create a temporary file beside it: ") + std::strerror(errno),
+                     "check that the output directory exists and is writable");
+  const std::string tmp(buf.data());
+  const char* p = content.data();
+  std::size_t left = content.size();
+  bool ok = true;
+  while (left > 0) {
+    const ssize_t n = ::write(fd, p, left);
+    if (n < 0) {
+      if (errno == EINTR) continue;
+      ok = false;
+      break;
+    }
+    p += n;
+    left -= static_cast<std::size_t>(n);
+  }
+  const int saved_errno = errno;
+  ok = ok && ::fchmod(fd, 0644) == 0 && ::fsync(fd) == 0;
+  ok = (::close(fd) == 0) && ok;
+  if (!ok || ::rename(tmp.c_str(), path.c_str()) != 0) {
+    const int err = ok ? errno : saved_errno;
+    ::unlink(tmp.c_str());
+    throw InputError(path, 0, std::string("cannot write the output file: ") + std::strerror(err),
+                     "check free disk space and permissions");
+  }
+}
+
+std::string read_file_bytes(const std::string& path) {
+  std::ifstream in(path, std::ios::binary);
+  if (!in) throw InputError(path, 0, "cannot open the file", "check the path and the permissions");
+  std::ostringstream ss;
+  ss << in.rdbuf();
+  return ss.str();
+}
+
+}  // namespace ridgecal

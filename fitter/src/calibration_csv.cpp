@@ -1,0 +1,236 @@
+#include "ridgecal/calibration_csv.hpp"
+
+#include <algorithm>
+#include <charconv>
+#include <cmath>
+#include <fmt/format.h>
+#include <stdexcept>
+
+#include "ridgecal/atomic_file.hpp"
+#include "ridgecal/errors.hpp"
+#include "ridgecal/sha256.hpp"
+
+namespace ridgecal {
+
+std::string CsvOptions::validate() const {
+  if (reading_column.empty()) return "reading_column is empty; it must name a column";
+  if (reference_column.empty()) return "reference_column is empty; it must name a column";
+  if (reading_column == reference_column)
+    return fmt::format("reading_column and reference_column are both '{}'; they must differ",
+                       reading_column);
+  if (delimiter != ',' && delimiter != ';' && delimiter != '\t')
+    return fmt::format("delimiter is '{}'; it must be ',', ';' or a tab", delimiter);
+  return {};
+}
+
+std::string to_string(UserRole r) {
+  switch (r) {
+    case UserRole::Unspecified: return "unspecified";
+    case UserRole::Fit: return "fit";
+    case UserRole::Check: return "check";
+  }
+  return "unspecified";
+}
+
+UserRole user_role_from_string(const std::string& s) {
+  std::string l = s;
+  std::transform(l.begin(), l.end(), l.begin(), [](unsigned char c) { return std::tolower(c); });
+  if (l == "fit") return UserRole::Fit;
+  if (l == "check") return UserRole::Check;
+  if (l == "unspecified") return UserRole::Unspecified;
+  throw std::invalid_argument("role must be 'fit' or 'check', got '" + s + "'");
+}
+
+namespace {
+
+std::string trim(std::string_view s) {
+  std::size_t b = 0, e = s.size();
+  while (b < e && (s[b] == ' ' || s[b] == '\t')) ++b;
+  while (e > b && (s[e - 1] == ' ' || s[e - 1] == '\t')) --e;
+  return std::string(s.substr(b, e - b));
+}
+
+// Printable form of a cell for messages: bounded length, control chars escaped.
+std::string shown(std::string_view s) {
+  std::string out;
+  for (char c : s.substr(0, 40)) {
+    if (static_cast<unsigned char>(c) < 0x20) out += fmt::format("\\x{:02x}", static_cast<unsigned char>(c));
+    else out += c;
+  }
+  if (s.size() > 40) out += "...";
+  return out;
+}
+
+// Splits one record into fields. Quotes may wrap a field; a quote inside a
+// quoted field is doubled. Throws on an unterminated quote.
+std::vector<std::string> split_fields(std::string_view line, char delim, const std::string& file,
+                                      std::size_t lineno) {
+  std::vector<std::string> out;
+  std::string cur;
+  bool in_quotes = false, was_quoted = false;
+  for (std::size_t i = 0; i < line.size(); ++i) {
+    const char c = line[i];
+    if (in_quotes) {
+      if (c == '"') {
+        if (i + 1 < line.size() && line[i + 1] == '"') {
+          cur += '"';
+          ++i;
+        } else {
+          in_quotes = false;
+        }
+      } else {
+        cur += c;
+      }
+    } else if (c == '"' && trim(cur).empty()) {
+      in_quotes = true;
+      was_quoted = true;
+      cur.clear();
+    } else if (c == delim) {
+      out.push_back(was_quoted ? cur : trim(cur));
+      cur.clear();
+      was_quoted = false;
+    } else {
+      cur += c;
+    }
+  }
+  if (in_quotes)
+    throw InputError(file, lineno, "unterminated quoted field",
+                     "close the quote, or write a literal quote as two quotes (\"\")");
+  out.push_back(was_quoted ? cur : trim(cur));
+  return out;
+}
+
+double parse_number(const std::string& cell, const std::string& column, const std::string& file,
+                    std::size_t lineno) {
+  const char* b = cell.data();
+  const char* e = cell.data() + cell.size();
+  if (b != e && *b == '+') ++b;  // from_chars does not take a leading '+'
+  double v = 0.0;
+  const auto res = std::from_chars(b, e, v, std::chars_format::general);
+  if (cell.empty())
+    throw InputError(file, lineno, fmt::format("column '{}' is empty", shown(column)),
+                     "every row needs a number in this column; delete the row or fill it in");
+  if (res.ec == std::errc::result_out_of_range)
+    throw InputError(file, lineno,
+                     fmt::format("column '{}' holds '{}', which is out of the range of a double",
+                                 shown(column), shown(cell)),
+                     "check the value");
+  if (res.ec != std::errc() || res.ptr != e) {
+    const bool comma = cell.find(',') != std::string::npos;
+    throw InputError(file, lineno,
+                     fmt::format("column '{}' holds '{}', which is not a number", shown(column),
+                                 shown(cell)),
+                     comma ? "use '.' as the decimal point (a decimal comma is not accepted)"
+                           : "write a plain decimal number such as 12.5 or 1.25e3");
+  }
+  if (!std::isfinite(v))
+    throw InputError(file, lineno,
+                     fmt::format("column '{}' holds '{}', which is not a finite number",
+                                 shown(column), shown(cell)),
+                     "NaN and infinities cannot be calibrated; remove the row");
+  return v;
+}
+
+}  // namespace
+
+Dataset parse_calibration_csv(const std::string& text, const std::string& file,
+                              const CsvOptions& options) {
+  if (const std::string err = options.validate(); !err.empty())
+    throw InputError("", 0, "invalid column options: " + err);
+  Dataset ds;
+  ds.file = file;
+  ds.sha256 = sha256_hex(text);
+  ds.columns = options;
+
+  std::string_view rest(text);
+  if (rest.substr(0, 3) == "\xEF\xBB\xBF") rest.remove_prefix(3);
+
+  std::vector<std::string> header;
+  std::size_t header_line = 0;
+  int reading_idx = -1, reference_idx = -1, setpoint_idx = -1, role_idx = -1;
+  std::size_t lineno = 0;
+  while (!rest.empty()) {
+    const std::size_t nl = rest.find('\n');
+    std::string_view line = rest.substr(0, nl);
+    rest = (nl == std::string_view::npos) ? std::string_view() : rest.substr(nl + 1);
+    ++lineno;
+    if (!line.empty() && line.back() == '\r') line.remove_suffix(1);
+    const std::string t = trim(line);
+    if (t.empty() || t[0] == '#') continue;
+    if (line.find('\0') != std::string_view::npos)
+      throw InputError(file, lineno, "the line contains a NUL byte", "is this a text CSV file?");
+
+    std::vector<std::string> fields = split_fields(line, options.delimiter, file, lineno);
+    if (header.empty()) {
+      header = std::move(fields);
+      header_line = lineno;
+      for (std::size_t i = 0; i < header.size(); ++i)
+        for (std::size_t j = 0; j < i; ++j)
+          if (header[i] == header[j] && !header[i].empty())
+            throw InputError(file, lineno, fmt::format("column '{}' appears twice in the header", shown(header[i])),
+                             "give every column a distinct name");
+      auto find = [&](const std::string& name, const char* what) {
+        const auto it = std::find(header.begin(), header.end(), name);
+        if (it == header.end()) {
+          std::string names;
+          for (const auto& h : header) names += (names.empty() ? "" : ", ") + shown(h);
+          const bool other_delim = header.size() == 1 &&
+                                   (header[0].find(';') != std::string::npos ||
+                                    header[0].find('\t') != std::string::npos ||
+                                    header[0].find(',') != std::string::npos);
+          throw InputError(file, lineno,
+                           fmt::format("the header has no {} column '{}' (columns: {})", what, shown(name), names),
+                           other_delim ? "the columns may be separated by another delimiter; see --delimiter"
+                                       : fmt::format("name the column with the matching option"));
+        }
+        return static_cast<int>(it - header.begin());
+      };
+      reading_idx = find(options.reading_column, "reading");
+      reference_idx = find(options.reference_column, "reference");
+      if (!options.setpoint_column.empty()) setpoint_idx = find(options.setpoint_column, "setpoint");
+      if (!options.role_column.empty()) role_idx = find(options.role_column, "role");
+      continue;
+    }
+    if (fields.size() != header.size())
+      throw InputError(file, lineno,
+                       fmt::format("the row has {} fields but the header (line {}) has {}", fields.size(),
+                                   header_line, header.size()),
+                       "every row needs one value per column; check for a missing or extra delimiter");
+    Observation ob;
+    ob.line = lineno;
+    ob.reading = parse_number(fields[static_cast<std::size_t>(reading_idx)], options.reading_column, file, lineno);
+    ob.reference = parse_number(fields[static_cast<std::size_t>(reference_idx)], options.reference_column, file, lineno);
+    if (setpoint_idx >= 0) {
+      ob.setpoint = fields[static_cast<std::size_t>(setpoint_idx)];
+      if (ob.setpoint.empty())
+        throw InputError(file, lineno, fmt::format("the setpoint column '{}' is empty", shown(options.setpoint_column)),
+                         "every row needs a setpoint label");
+    } else {
+      ob.setpoint = fmt::format("{}", ob.reference);  // shortest round-trip text
+    }
+    if (role_idx >= 0) {
+      const std::string& cell = fields[static_cast<std::size_t>(role_idx)];
+      try {
+        ob.role = user_role_from_string(cell);
+        if (ob.role == UserRole::Unspecified) throw std::invalid_argument("");
+      } catch (const std::invalid_argument&) {
+        throw InputError(file, lineno,
+                         fmt::format("the role column '{}' holds '{}'", shown(options.role_column), shown(cell)),
+                         "use 'fit' for points to calibrate on and 'check' for held-out check points");
+      }
+    }
+    ds.rows.push_back(std::move(ob));
+  }
+  if (header.empty())
+    throw InputError(file, lineno > 0 ? 1 : 0, "the file is empty", "a calibration CSV needs a header row and data rows");
+  if (ds.rows.empty())
+    throw InputError(file, header_line, "the file has a header but no data rows",
+                     "add one row per observation below the header");
+  return ds;
+}
+
+Dataset read_calibration_csv(const std::string& path, const CsvOptions& options) {
+  return parse_calibration_csv(read_file_bytes(path), path, options);
+}
+
+}  // namespace ridgecal

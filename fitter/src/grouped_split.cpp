@@ -1,0 +1,158 @@
+#include "ridgecal/grouped_split.hpp"
+
+#include <algorithm>
+#include <cassert>
+#include <cmath>
+#include <fmt/format.h>
+#include <map>
+#include <stdexcept>
+
+#include "ridgecal/errors.hpp"
+
+namespace ridgecal {
+
+std::string to_string(SetRole r) { return r == SetRole::Train ? "train" : "test"; }
+SetRole set_role_from_string(const std::string& s) {
+  if (s == "train") return SetRole::Train;
+  if (s == "test") return SetRole::Test;
+  throw std::invalid_argument("set role must be 'train' or 'test', got '" + s + "'");
+}
+
+std::string to_string(FoldScheme s) {
+  return s == FoldScheme::KFold ? "k-fold" : "leave-one-setpoint-out";
+}
+FoldScheme fold_scheme_from_string(const std::string& s) {
+  if (s == "k-fold") return FoldScheme::KFold;
+  if (s == "leave-one-setpoint-out") return FoldScheme::LeaveOneSetpointOut;
+  throw std::invalid_argument("fold scheme must be 'k-fold' or 'leave-one-setpoint-out', got '" + s + "'");
+}
+
+std::string SplitOptions::validate() const {
+  if (!(test_fraction >= 0.0 && test_fraction <= 0.5))
+    return fmt::format("test_fraction is {}; it must be between 0 and 0.5", test_fraction);
+  if (folds < 2) return fmt::format("folds is {}; it must be at least 2", folds);
+  if (loso_below < 0) return fmt::format("loso_below is {}; it must not be negative", loso_below);
+  return {};
+}
+
+std::uint64_t SplitRng::next() {
+  std::uint64_t z = (state_ += 0x9E3779B97F4A7C15ULL);
+  z = (z ^ (z >> 30)) * 0xBF58476D1CE4E5B9ULL;
+  z = (z ^ (z >> 27)) * 0x94D049BB133111EBULL;
+  return z ^ (z >> 31);
+}
+
+std::uint64_t SplitRng::below(std::uint64_t n) {
+  assert(n > 0);
+  // Rejection sampling removes modulo bias.
+  const std::uint64_t limit = ~std::uint64_t{0} - (~std::uint64_t{0} % n);
+  std::uint64_t v;
+  do v = next();
+  while (v >= limit);
+  return v % n;
+}
+
+std::vector<SetpointGroup> group_by_setpoint(const Dataset& ds) {
+  std::map<std::string, std::size_t> index;
+  std::vector<SetpointGroup> groups;
+  for (std::size_t i = 0; i < ds.rows.size(); ++i) {
+    const Observation& ob = ds.rows[i];
+    auto [it, inserted] = index.emplace(ob.setpoint, groups.size());
+    if (inserted) {
+      groups.push_back(SetpointGroup{ob.setpoint, {}, 0.0, 0.0, ob.role});
+    }
+    SetpointGroup& g = groups[it->second];
+    if (g.user_role != ob.role)
+      throw InputError(ds.file, ob.line,
+                       fmt::format("setpoint '{}' has rows with different roles ('{}' here, '{}' on line {})",
+                                   g.id, to_string(ob.role), to_string(g.user_role),
+                                   ds.rows[g.rows.front()].line),
+                       "repeated readings at one setpoint must share one role");
+    g.rows.push_back(i);
+  }
+  for (SetpointGroup& g : groups) {
+    double sr = 0.0, sf = 0.0;
+    for (std::size_t i : g.rows) {
+      sr += ds.rows[i].reading;
+      sf += ds.rows[i].reference;
+    }
+    g.mean_reading = sr / static_cast<double>(g.rows.size());
+    g.mean_reference = sf / static_cast<double>(g.rows.size());
+  }
+  std::sort(groups.begin(), groups.end(), [](const SetpointGroup& a, const SetpointGroup& b) {
+    if (a.mean_reading != b.mean_reading) return a.mean_reading < b.mean_reading;
+    return a.id < b.id;
+  });
+  return groups;
+}
+
+namespace {
+// Picks `count` of the candidate positions, one from each of `count` equal
+// strata of the sorted candidates, so the picks spread over the range.
+std::vector<std::size_t> stratified_pick(const std::vector<std::size_t>& candidates, std::size_t count,
+                                         SplitRng& rng) {
+  std::vector<std::size_t> out;
+  const std::size_t n = candidates.size();
+  for (std::size_t s = 0; s < count; ++s) {
+    const std::size_t lo = s * n / count, hi = (s + 1) * n / count;
+    assert(hi > lo);
+    out.push_back(candidates[lo + rng.below(hi - lo)]);
+  }
+  return out;
+}
+}  // namespace
+
+Split make_split(const std::vector<SetpointGroup>& groups, const SplitOptions& options,
+                 std::size_t min_train_groups) {
+  assert(options.validate().empty());
+  const std::size_t n = groups.size();
+  Split sp;
+  sp.role.assign(n, SetRole::Train);
+  sp.fold.assign(n, -1);
+  SplitRng rng(options.seed);
+
+  const bool user_roles = std::any_of(groups.begin(), groups.end(), [](const SetpointGroup& g) {
+    return g.user_role != UserRole::Unspecified;
+  });
+  if (user_roles) {
+    sp.user_named_test = true;
+    for (std::size_t g = 0; g < n; ++g)
+      if (groups[g].user_role == UserRole::Check) sp.role[g] = SetRole::Test;
+  } else if (n >= 3) {
+    std::size_t want = static_cast<std::size_t>(std::llround(options.test_fraction * static_cast<double>(n)));
+    const std::size_t room = n > min_train_groups ? n - min_train_groups : 0;
+    want = std::min({want, room, n - 2});
+    std::vector<std::size_t> interior;
+    for (std::size_t g = 1; g + 1 < n; ++g) interior.push_back(g);
+    for (std::size_t g : stratified_pick(interior, want, rng)) sp.role[g] = SetRole::Test;
+  }
+
+  // Folds: among training groups, the first and last (by reading) never validate.
+  std::vector<std::size_t> train;
+  for (std::size_t g = 0; g < n; ++g)
+    if (sp.role[g] == SetRole::Train) train.push_back(g);
+  if (train.size() < 3) return sp;  // no interior training setpoints: no CV possible
+  std::vector<std::size_t> interior(train.begin() + 1, train.end() - 1);
+  if (static_cast<int>(interior.size()) < options.loso_below ||
+      static_cast<int>(interior.size()) <= options.folds) {
+    sp.scheme = FoldScheme::LeaveOneSetpointOut;
+    sp.n_folds = static_cast<int>(interior.size());
+    for (std::size_t i = 0; i < interior.size(); ++i) sp.fold[interior[i]] = static_cast<int>(i);
+    return sp;
+  }
+  sp.scheme = FoldScheme::KFold;
+  sp.n_folds = options.folds;
+  // Consecutive blocks of K interior setpoints; inside each block a random
+  // permutation of the fold labels, so every fold spans the whole range.
+  const std::size_t K = static_cast<std::size_t>(options.folds);
+  for (std::size_t start = 0; start < interior.size(); start += K) {
+    std::vector<int> labels(K);
+    for (std::size_t k = 0; k < K; ++k) labels[k] = static_cast<int>(k);
+    for (std::size_t k = K; k > 1; --k) std::swap(labels[k - 1], labels[rng.below(k)]);
+    for (std::size_t k = 0; k < K && start + k < interior.size(); ++k)
+      sp.fold[interior[start + k]] = labels[k];
+  }
+  return sp;
+}
+
+}  // namespace ridgecal
