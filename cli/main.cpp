@@ -5,6 +5,7 @@
 #include <vector>
 
 #include "cli_common.hpp"
+#include "export_command.hpp"
 #include "fit_command.hpp"
 #include "ridgecal/record.hpp"
 
@@ -19,6 +20,7 @@ struct Subcommand {
 // Every subcommand: one file pair in cli/, one line here.
 const Subcommand kSubcommands[] = {
     {"fit", "fit a calibration curve to a CSV run and write a calibration record", ridgecal::cli::fit_main},
+    {"export", "write a freestanding C header (float, double or fixed point) from a record", ridgecal::cli::export_main},
 };
 
 void usage(std::ostream& os) {
