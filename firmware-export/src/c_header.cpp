@@ -292,8 +292,9 @@ void emit_fixed_body(std::ostringstream& o, const Names& n, const FixedPlan& p,
 
   o << "/* " << n.p << "_eval_fixed: round(reference * " << g(s.output_scale, 9) << ") as int32 ("
     << "1/" << g(s.output_scale, 9) << " " << fu << ")\n"
-    << " * for a raw integer reading in [" << n.P << "_RAW_MIN, " << n.P << "_RAW_MAX]. Integer only:\n"
-    << " * int32 coefficients, int64 intermediates, no floating point.\n"
+    << " * for a raw integer reading in [" << n.P << "_RAW_MIN, " << n.P << "_RAW_MAX].\n"
+    << " * Precision: integer only -- int32 coefficients, int64 intermediates, every\n"
+    << " * shift rounds half up; output resolution 1/" << g(s.output_scale, 9) << " " << fu << ".\n"
     << " * t_q = t * 2^" << p.t_frac << " = rshift_round((raw - " << p.r0 << ") * " << p.t_mul
     << " + " << p.t_add << ", " << p.t_shift << ")\n"
     << " * Overflow proof (exact integer interval arithmetic over the whole raw range,\n"

@@ -57,7 +57,7 @@ std::string escape_c_comment(std::string_view text, std::size_t max_chars) {
       out += "?\\?";
       ++i;
     } else if (c == '\\') {
-      out += "\\\\";  // a trailing backslash would splice the next line
+      out += "\\x5C";  // never a literal backslash: at a line end it would splice lines
     } else if (c >= 0x20 && c < 0x7f) {
       out += static_cast<char>(c);
     } else {

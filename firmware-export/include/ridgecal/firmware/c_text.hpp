@@ -23,8 +23,8 @@ std::string macro_case(std::string_view prefix);
 
 /// Makes arbitrary user text safe inside a C block comment: printable ASCII is
 /// kept, except that "*/" and "/*" are broken up ("*\/", "/\*"); every other
-/// byte (control characters, newlines, tabs, non-ASCII/UTF-8 bytes) becomes
-/// "\xHH". Trigraph starts "??" become "?\?". The result is truncated to
+/// byte (control characters, newlines, tabs, non-ASCII/UTF-8 bytes) and the
+/// backslash become "\xHH". Trigraph starts "??" become "?\?". The result is truncated to
 /// max_chars characters (then "...[truncated]" is appended).
 std::string escape_c_comment(std::string_view text, std::size_t max_chars = 200);
 
