@@ -25,5 +25,10 @@ fi
 echo "install-target-tools: installing ${missing[*]}"
 start=$(date +%s)
 $SUDO apt-get -o DPkg::Lock::Timeout=600 update -qq
-DEBIAN_FRONTEND=noninteractive $SUDO apt-get -o DPkg::Lock::Timeout=600 install -y -qq --no-install-recommends "${missing[@]}"
+log=$(mktemp)
+if ! DEBIAN_FRONTEND=noninteractive $SUDO apt-get -o DPkg::Lock::Timeout=600 install -y -qq \
+    --no-install-recommends "${missing[@]}" > "$log" 2>&1; then
+  cat "$log"; rm -f "$log"; exit 1
+fi
+rm -f "$log"
 echo "install-target-tools: done in $(( $(date +%s) - start )) s"
