@@ -69,7 +69,12 @@ inline std::vector<Fixture> target_fixtures() {
   Fixture b;
   b.name = "bridge_fixed";
   b.model = bridge_model();
-  b.meta = base_meta("bridge <pressure> */ sensor", "counts", "kPa", 0.5);
+  // Hostile text in every string field: the headers must still compile clean.
+  b.meta = base_meta("bridge <script>alert(1)</script> */ #define X 1 /* \"quoted\" 'q' ?\?/", "counts\n#error injected",
+                     "k\xc2\xb5Pa \\", 0.5);
+  b.meta.tolerance_description = "+/-0.5 kPa */ int evil; /*\r\n" + std::string(500, '~');
+  b.meta.pass_fail = "PASS \\";
+  b.meta.tool_version = "ridgecal \xe2\x80\xae test";
   b.options.prefix = "fwt";
   b.options.mode = NumericMode::Fixed;
   b.options.output_scale = 100.0;  // centi-kPa
