@@ -1,7 +1,9 @@
 #include "export_command.hpp"
 
 #include <boost/program_options.hpp>
+#include <algorithm>
 #include <cmath>
+#include <limits>
 #include <fmt/format.h>
 #include <ostream>
 #include <sstream>
@@ -37,14 +39,56 @@ po::options_description export_options() {
   return d;
 }
 
-// The record's tolerance, when it carries one: {"tolerance": {"absolute": X,
-// "description": "..."}} (optional member; older records have none).
-void record_tolerance(const nlohmann::json& j, std::optional<double>* abs, std::string* text) {
-  const auto it = j.find("tolerance");
-  if (it == j.end() || !it->is_object()) return;
-  if (const auto a = it->find("absolute"); a != it->end() && a->is_number()) *abs = a->get<double>();
-  if (const auto t = it->find("description"); t != it->end() && t->is_string())
-    *text = t->get<std::string>();
+// The assessment members a record may carry (optional; written by the
+// tolerance/decision work):
+//   tolerance{offset, proportional, percent_of_span, span_low, span_high, text, source}
+//     limit(reference) = offset + proportional*|reference| + percent_of_span/100*(span_high-span_low)
+//   decision{rule, verdict, statement}
+// The refusal rule needs one absolute number: the strictest limit over the
+// calibrated range, min over a grid of limit(p(x)).
+struct RecordAssessment {
+  std::optional<double> tolerance_abs;
+  std::string tolerance_text;
+  std::string verdict;
+};
+
+double number_or(const nlohmann::json& obj, const char* key, double fallback) {
+  const auto it = obj.find(key);
+  return it != obj.end() && it->is_number() ? it->get<double>() : fallback;
+}
+
+RecordAssessment record_assessment(const nlohmann::json& j, const PolyModel& model) {
+  RecordAssessment a;
+  if (const auto t = j.find("tolerance"); t != j.end() && t->is_object()) {
+    const double offset = number_or(*t, "offset", 0.0);
+    const double prop = number_or(*t, "proportional", 0.0);
+    const double pct = number_or(*t, "percent_of_span", 0.0);
+    const double span = number_or(*t, "span_high", 0.0) - number_or(*t, "span_low", 0.0);
+    double strictest = std::numeric_limits<double>::infinity();
+    constexpr int kGrid = 2001;
+    for (int i = 0; i < kGrid; ++i) {
+      const double x = model.scaling.x_min + (model.scaling.x_max - model.scaling.x_min) * i / (kGrid - 1);
+      strictest = std::min(strictest, offset + prop * std::fabs(model.eval(x)) + pct / 100.0 * span);
+    }
+    if (std::isfinite(strictest) && strictest > 0) a.tolerance_abs = strictest;
+    const auto text = t->find("text");
+    const auto source = t->find("source");
+    a.tolerance_text = fmt::format("{} ({}); strictest over the range {:.6g}",
+                                   text != t->end() && text->is_string() ? text->get<std::string>() : "record tolerance",
+                                   source != t->end() && source->is_string() ? source->get<std::string>() : "record",
+                                   strictest);
+  }
+  if (const auto d = j.find("decision"); d != j.end() && d->is_object()) {
+    const auto v = d->find("verdict");
+    const auto r = d->find("rule");
+    const auto st = d->find("statement");
+    if (v != d->end() && v->is_string()) {
+      a.verdict = v->get<std::string>();
+      if (r != d->end() && r->is_string()) a.verdict += " (" + r->get<std::string>() + " acceptance)";
+      if (st != d->end() && st->is_string()) a.verdict += ": " + st->get<std::string>();
+    }
+  }
+  return a;
 }
 }  // namespace
 
@@ -129,15 +173,16 @@ int run_export_command(const ExportCommand& cmd, std::ostream& out, std::ostream
         cal.validation.empty() ? firmware::HeaderMeta::kUnset : cal.validation.max_abs_error;
     meta.test_rmse = cal.test.empty() ? firmware::HeaderMeta::kUnset : cal.test.rmse;
     meta.test_max_abs_error = cal.test.empty() ? firmware::HeaderMeta::kUnset : cal.test.max_abs_error;
-    std::string tol_text;
-    record_tolerance(j, &meta.tolerance_abs, &tol_text);
-    if (cmd.tolerance) meta.tolerance_abs = cmd.tolerance;
-    meta.tolerance_description = !cmd.tolerance_text.empty() ? cmd.tolerance_text
-                                 : !tol_text.empty()         ? tol_text
-                                 : meta.tolerance_abs
-                                     ? fmt::format("+/- {} {}", *meta.tolerance_abs, rec.sensor.reference_unit)
-                                     : std::string("none given");
-    if (meta.tolerance_abs) {
+    const RecordAssessment assessed = record_assessment(j, cal.model);
+    meta.tolerance_abs = cmd.tolerance ? cmd.tolerance : assessed.tolerance_abs;
+    meta.tolerance_description =
+        !cmd.tolerance_text.empty() ? cmd.tolerance_text
+        : cmd.tolerance             ? fmt::format("+/- {} {} (--tolerance)", *cmd.tolerance, rec.sensor.reference_unit)
+        : !assessed.tolerance_text.empty() ? assessed.tolerance_text
+                                           : std::string("none in the record");
+    if (!assessed.verdict.empty() && !cmd.tolerance) {
+      meta.pass_fail = assessed.verdict;
+    } else if (meta.tolerance_abs) {
       const double worst = cal.test.empty() ? cal.validation.max_abs_error : cal.test.max_abs_error;
       const char* set = cal.test.empty() ? "validation" : "test";
       meta.pass_fail = std::isfinite(worst)
@@ -146,7 +191,7 @@ int run_export_command(const ExportCommand& cmd, std::ostream& out, std::ostream
                                          worst <= *meta.tolerance_abs ? "<=" : ">", *meta.tolerance_abs)
                            : std::string("not assessed (no held-out errors)");
     } else {
-      meta.pass_fail = "not assessed (no tolerance given)";
+      meta.pass_fail = "not assessed (no tolerance in the record)";
     }
     meta.record_sha256 = record_digest(j);
     meta.tool_version = std::string("ridgecal ") + tool_version();

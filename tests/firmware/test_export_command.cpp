@@ -145,3 +145,33 @@ BOOST_AUTO_TEST_CASE(help_exits_0) {
   BOOST_TEST(export_main({"--help"}, out, err) == kExitOk);
   BOOST_TEST(out.str().find("--numeric") != std::string::npos);
 }
+
+BOOST_AUTO_TEST_CASE(record_tolerance_and_decision_are_used) {
+  // A record carrying the optional assessment members: tolerance formula and
+  // decision. The refusal rule takes the strictest limit over the range.
+  nlohmann::json j = read_record_json(temp().record.string());
+  j["tolerance"] = {{"offset", 0.05}, {"proportional", 0.001}, {"percent_of_span", 0.0},
+                    {"source", "user"}, {"text", "+-(0.05 + 0.001*|reference|)"}};
+  j["decision"] = {{"rule", "simple"}, {"verdict", "PASS"}, {"statement", "all test points within tolerance"}};
+  j["integrity"]["sha256"] = record_digest(j);
+  const fs::path rec = temp().dir / "assessed.json";
+  std::ofstream(rec) << record_text(j);
+  const fs::path h = temp().dir / "assessed.h";
+  std::string err;
+  BOOST_TEST(run({rec.string(), "--prefix", "ntc", "-o", h.string()}, &err) == kExitOk, err);
+  const std::string text = slurp(h);
+  BOOST_TEST(text.find("+-(0.05 + 0.001*|reference|) (user)") != std::string::npos);
+  BOOST_TEST(text.find("PASS (simple acceptance): all test points within tolerance") != std::string::npos);
+  BOOST_TEST(text.find("(record tolerance)") != std::string::npos);
+  // strictest limit is at the reference value closest to 0: >= 0.05
+  const auto pos = text.find("tolerance used:");
+  BOOST_REQUIRE(pos != std::string::npos);
+  const double used = std::stod(text.substr(pos + 15));
+  BOOST_TEST(used >= 0.05);
+  BOOST_TEST(used < 0.06);
+  // fixed mode: 1/1000 degC rounding (5e-4) is within 0.1 x 0.05
+  BOOST_TEST(run({rec.string(), "--prefix", "ntc", "--numeric", "fixed", "-o", h.string()}) == kExitOk);
+  // an explicit --tolerance wins over the record's
+  BOOST_TEST(run({rec.string(), "--prefix", "ntc", "--numeric", "fixed", "--tolerance", "0.001", "-o",
+                  h.string()}) == kExitOutOfTolerance);
+}
