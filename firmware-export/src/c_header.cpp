@@ -268,7 +268,13 @@ void emit_fixed_body(std::ostringstream& o, const Names& n, const FixedPlan& p,
   o << "/* Valid raw input range (integers; reading = raw / " << g(s.input_scale, 9) << " " << ru
     << "). */\n"
     << "#define " << n.P << "_RAW_MIN " << c_int32_literal(static_cast<std::int32_t>(s.raw_min)) << "\n"
-    << "#define " << n.P << "_RAW_MAX " << c_int32_literal(static_cast<std::int32_t>(s.raw_max)) << "\n"
+    << "#define " << n.P << "_RAW_MAX " << c_int32_literal(static_cast<std::int32_t>(s.raw_max)) << "\n";
+  const double cal_lo = std::ceil(p.calibrated_min * s.input_scale - 1e-9);
+  const double cal_hi = std::floor(p.calibrated_max * s.input_scale + 1e-9);
+  if (static_cast<double>(s.raw_min) < cal_lo || static_cast<double>(s.raw_max) > cal_hi)
+    o << "/* NOTE: this raw range extends beyond the calibrated range (raw " << g(cal_lo, 10) << " .. "
+      << g(cal_hi, 10) << ");\n   results outside it are extrapolations of the fitted curve. */\n";
+  o
     << "/* Output unit: 1 / " << g(s.output_scale, 9) << " " << fu
     << " (output = round(reference * " << g(s.output_scale, 9) << ")). */\n\n"
     << "/* Coefficients of p * " << g(s.output_scale, 9)
@@ -334,7 +340,7 @@ void emit_fixed_body(std::ostringstream& o, const Names& n, const FixedPlan& p,
     else
       o << "    return (int32_t)acc;\n}\n\n";
   }
-  o << "/* " << n.p << "_eval_fixed_checked: as " << n.p << "_eval_fixed, but never extrapolates:\n"
+  o << "/* " << n.p << "_eval_fixed_checked: as " << n.p << "_eval_fixed, but never leaves the raw range:\n"
     << " * raw outside [" << n.P << "_RAW_MIN, " << n.P << "_RAW_MAX] is clamped to the nearest limit and\n"
     << " * *status (if status is not NULL) is set to " << n.P << "_IN_RANGE, _BELOW_RANGE or\n"
     << " * _ABOVE_RANGE. Precision as " << n.p << "_eval_fixed. */\n"

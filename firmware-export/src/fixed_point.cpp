@@ -125,7 +125,10 @@ bool plan_fixed(const PolyModel& model, const FixedSettings& s, FixedPlan* out, 
     return false;
   };
   if (model.cheb.empty()) return fail("model has no coefficients");
-  if (s.raw_min > s.raw_max) return fail("raw_min > raw_max");
+  if (s.raw_min > s.raw_max)
+    return fail("no integer raw input in the range (raw_min " + std::to_string(s.raw_min) + " > raw_max " +
+                std::to_string(s.raw_max) + "); for non-integer readings set input_scale (raw counts per "
+                "reading unit) or raw_min/raw_max");
   if (s.raw_min < -kInt32Max || s.raw_max > kInt32Max) return fail("raw range exceeds int32");
   if (!(s.input_scale > 0) || !std::isfinite(s.input_scale)) return fail("input_scale must be > 0");
   if (!(s.output_scale > 0) || !std::isfinite(s.output_scale))
@@ -136,6 +139,8 @@ bool plan_fixed(const PolyModel& model, const FixedSettings& s, FixedPlan* out, 
 
   FixedPlan p;
   p.settings = s;
+  p.calibrated_min = model.scaling.x_min;
+  p.calibrated_max = model.scaling.x_max;
   const double w = s.input_scale * hw;  // raw counts per unit of t
   const double c_raw = c * s.input_scale;
   if (std::fabs(c_raw) > 2.0e9) return fail("calibrated centre is outside the int32 raw range");

@@ -499,3 +499,24 @@ BOOST_AUTO_TEST_CASE(degenerate_models) {
   BOOST_TEST((generate_c_header(nan, ntc_meta(), opts(NumericMode::Fixed)).status ==
               ExportStatus::InvalidInput));
 }
+
+BOOST_AUTO_TEST_CASE(fixed_raw_range_beyond_calibration_is_flagged) {
+  ExportOptions o = opts(NumericMode::Fixed);
+  BOOST_TEST(generate_c_header(fwtest::ntc_model(), ntc_meta(), o).header.find("extrapolations") ==
+             std::string::npos);
+  o.raw_min = 0;
+  o.raw_max = 4095;  // the whole 12-bit ADC, wider than the calibrated 200..3900
+  const ExportResult r = generate_c_header(fwtest::ntc_model(), ntc_meta(), o);
+  BOOST_REQUIRE(r.ok());
+  BOOST_TEST(r.header.find("beyond the calibrated range") != std::string::npos);
+  // readings 0.2..0.8 with input_scale 1: no integer input at all
+  PolyModel volts;
+  volts.scaling = {0.2, 0.8};
+  volts.cheb = {1.0, 2.0};
+  const ExportResult v = generate_c_header(volts, ntc_meta(), opts(NumericMode::Fixed));
+  BOOST_TEST((v.status == ExportStatus::InvalidInput));
+  BOOST_TEST(v.message.find("input_scale") != std::string::npos, v.message);
+  o = opts(NumericMode::Fixed);
+  o.input_scale = 1000.0;  // millivolts
+  BOOST_TEST(generate_c_header(volts, ntc_meta(), o).ok());
+}

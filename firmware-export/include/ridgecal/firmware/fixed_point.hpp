@@ -41,6 +41,8 @@ struct IntRange {
 
 struct FixedPlan {
   FixedSettings settings;
+  double calibrated_min = 0;  ///< the model's calibrated range (reading units)
+  double calibrated_max = 0;
   std::int64_t r0 = 0;        ///< integer near the centre of the calibrated range (raw counts)
   std::int64_t t_mul = 0;     ///< t_q = rshift_round((r - r0) * t_mul + t_add, t_shift)
   std::int64_t t_add = 0;
