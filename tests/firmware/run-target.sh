@@ -6,7 +6,7 @@
 # (CTest SKIP_RETURN_CODE). Targets:
 #   host-gcc host-clang host-gcc-c89 host-cxx   build machine
 #   host-fma       gcc and clang -march=haswell -ffp-contract=off (FMA available)
-#   m0 m3 m4f      arm-none-eabi-gcc + qemu-system-arm (semihosting)
+#   m0 m3 m4f m7   arm-none-eabi-gcc + qemu-system-arm (semihosting)
 #   avr            avr-gcc (ATmega328P) + simavr
 set -u
 target=$1; fixtures=$2; compare=$3; work=$4
@@ -97,6 +97,8 @@ case $target in
   m3)  need arm-none-eabi-gcc qemu-system-arm; cm_run m3 mps2-an385 -mcpu=cortex-m3 -mthumb ;;
   m4f) need arm-none-eabi-gcc qemu-system-arm
        cm_run m4f mps2-an386 -mcpu=cortex-m4 -mthumb -mfpu=fpv4-sp-d16 -mfloat-abi=hard ;;
+  m7)  need arm-none-eabi-gcc qemu-system-arm   # double-precision FPU: hardware double
+       cm_run m7 mps2-an500 -mcpu=cortex-m7 -mthumb -mfpu=fpv5-d16 -mfloat-abi=hard ;;
   avr)
     need avr-gcc simavr
     AVR="-mmcu=atmega328p -DF_CPU=16000000UL"
