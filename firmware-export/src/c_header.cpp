@@ -242,12 +242,14 @@ void emit_floating_body(std::ostringstream& o, const Names& n, const FloatingPro
     << " * " << n.P << "_IN_RANGE, _BELOW_RANGE, _ABOVE_RANGE or _NOT_A_NUMBER. Precision as "
     << n.p << "_eval. */\n"
     << n.P << "_INLINE " << type << " " << n.p << "_eval_checked(" << type << " x, int *status)\n{\n"
-    << "    int s = " << n.P << "_IN_RANGE;\n"
-    << "    if (x != x) {\n        s = " << n.P << "_NOT_A_NUMBER;\n        x = " << n.P << "_X_MIN;\n"
+    << "    int s;\n"
+    << "    if (x >= " << n.P << "_X_MIN && x <= " << n.P << "_X_MAX) {\n        s = " << n.P << "_IN_RANGE;\n"
     << "    } else if (x < " << n.P << "_X_MIN) {\n        s = " << n.P << "_BELOW_RANGE;\n        x = "
     << n.P << "_X_MIN;\n"
     << "    } else if (x > " << n.P << "_X_MAX) {\n        s = " << n.P << "_ABOVE_RANGE;\n        x = "
-    << n.P << "_X_MAX;\n    }\n"
+    << n.P << "_X_MAX;\n"
+    << "    } else { /* NaN: every comparison above is false */\n        s = " << n.P
+    << "_NOT_A_NUMBER;\n        x = " << n.P << "_X_MIN;\n    }\n"
     << "    if (status != 0)\n        *status = s;\n"
     << "    return " << n.p << "_eval(x);\n}\n\n";
 }

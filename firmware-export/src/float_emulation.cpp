@@ -27,16 +27,19 @@ T eval_impl(const FloatingProgram<T>& p, T x) {
 
 template <typename T>
 T eval_checked_impl(const FloatingProgram<T>& p, T x, int* status) {
-  int s = kInRange;
-  if (x != x) {
-    s = kNotANumber;
-    x = p.x_lo;
+  // Same comparisons, in the same order, as the generated C (no == on floats).
+  int s;
+  if (x >= p.x_lo && x <= p.x_hi) {
+    s = kInRange;
   } else if (x < p.x_lo) {
     s = kBelowRange;
     x = p.x_lo;
   } else if (x > p.x_hi) {
     s = kAboveRange;
     x = p.x_hi;
+  } else {  // NaN
+    s = kNotANumber;
+    x = p.x_lo;
   }
   if (status) *status = s;
   return eval_impl(p, x);

@@ -10,6 +10,8 @@ fixtures=$1; work=$2
 here=$(cd "$(dirname "$0")" && pwd)
 src=$here/target/include_only.c
 WARN="-Wall -Wextra -Werror -pedantic -Wconversion -Wdouble-promotion"
+STRICT="-Wundef -Wshadow -Wcast-qual -Wcast-align -Wstrict-prototypes -Wmissing-prototypes -Wfloat-equal
+        -Wredundant-decls -Wsign-conversion -Wswitch-default -Wbad-function-cast"
 command -v gcc >/dev/null || { echo "SKIP: gcc not found"; exit 77; }
 rm -rf "$work"; mkdir -p "$work"
 fail=0; n=0
@@ -28,6 +30,10 @@ for f in $(cat "$fixtures/fixtures.txt"); do
     try gcc-$std "$f" gcc -std=$std $WARN -ffp-contract=off
     try clang-$std "$f" clang -std=$std $WARN -ffp-contract=off
   done
+  # stricter sets that firmware projects often use
+  try gcc-strict "$f" gcc -std=c99 $WARN -ffp-contract=off $STRICT
+  try clang-everything-c89 "$f" clang -std=c89 -Weverything -Werror -Wno-unused-macros -ffp-contract=off
+  try clang-everything-c99 "$f" clang -std=c99 -Weverything -Werror -Wno-unused-macros -ffp-contract=off
   try gxx-17 "$f" g++ -x c++ -std=c++17 -Wall -Wextra -Werror -pedantic -Wconversion -Wdouble-promotion
   try clangxx-17 "$f" clang++ -x c++ -std=c++17 -Wall -Wextra -Werror -pedantic -Wconversion -Wdouble-promotion
   try m0-c89 "$f" arm-none-eabi-gcc -mcpu=cortex-m0 -mthumb -O2 -std=c89 $WARN -ffp-contract=off
