@@ -109,8 +109,13 @@ std::optional<PolyModel> read_model(const Json& rec) {
 
 struct Tolerance {
   bool present = false;
-  std::optional<double> value;  // symmetric limit on |predicted - reference|
-  std::string text;             // as shown to the reviewer
+  // limit(r) = offset + proportional*|r| + percent_of_span/100*span: the
+  // record's formula. A plain number (older or hand-made records) is an offset.
+  bool readable = false;
+  double offset = 0, proportional = 0, percent_of_span = 0, span = 0;
+  std::string text;  // HTML, as shown to the reviewer
+  double limit(double r) const { return offset + proportional * std::fabs(r) + percent_of_span / 100.0 * span; }
+  bool constant() const { return proportional == 0.0; }
 };
 
 Tolerance read_tolerance(const Json& rec, const Units& u) {
@@ -121,18 +126,34 @@ Tolerance read_tolerance(const Json& rec, const Units& u) {
   std::string unit = u.reference;
   std::string note;
   if (j->is_number()) {
-    t.value = num(j);
+    if (auto v = num(j)) t.offset = std::fabs(*v), t.readable = true;
   } else if (j->is_object()) {
-    t.value = num(find_any(*j, {"value", "abs", "absolute", "limit", "plus_minus", "max_abs_error"}));
+    if (auto v = num(find_any(*j, {"value", "abs", "absolute", "plus_minus", "offset"})))
+      t.offset = std::fabs(*v), t.readable = true;
+    if (auto v = num(find_any(*j, {"proportional"}))) t.proportional = std::fabs(*v), t.readable = true;
+    if (auto v = num(find_any(*j, {"percent_of_span"}))) {
+      t.percent_of_span = std::fabs(*v);
+      const auto lo = num(find_any(*j, {"span_low"})), hi = num(find_any(*j, {"span_high"}));
+      if (lo && hi) t.span = std::fabs(*hi - *lo);
+      else if (t.percent_of_span > 0) t.readable = false;  // cannot evaluate without the span
+    }
     if (auto s = str(find_any(*j, {"unit"}))) unit = *s;
-    if (auto s = str(find_any(*j, {"description", "text", "basis", "source"}))) note = *s;
+    if (auto s = str(find_any(*j, {"description"}))) note = *s;
+    if (auto s = str(find_any(*j, {"source"})); s && !s->empty() && *s != "user") note += (note.empty() ? "" : "; ") + ("source: " + *s);
   } else if (auto s = str(j)) {
     note = *s;
   }
-  if (t.value) t.value = std::fabs(*t.value);
-  t.text = t.value ? esc("\u00B1" + format_sig(*t.value, 4) + (unit.empty() ? "" : " " + unit))
-                   : std::string();
-  if (!note.empty()) t.text += (t.text.empty() ? "" : " — ") + esc(note);
+  if (t.readable && t.offset == 0 && t.proportional == 0 && t.percent_of_span == 0) t.readable = false;
+  const std::string us = unit.empty() ? "" : " " + unit;
+  std::vector<std::string> parts;
+  if (t.offset > 0) parts.push_back(format_sig(t.offset, 4) + us);
+  if (t.proportional > 0) parts.push_back(format_sig(100.0 * t.proportional, 3) + " % of |reference|");
+  if (t.percent_of_span > 0)
+    parts.push_back(format_sig(t.percent_of_span, 3) + " % of the span (" + format_sig(t.span, 4) + us + ")");
+  std::string formula;
+  for (std::size_t i = 0; i < parts.size(); ++i) formula += (i ? " + " : "") + parts[i];
+  if (t.readable) t.text = esc(parts.size() == 1 ? "\u00B1" + formula : "\u00B1(" + formula + ")");
+  if (!note.empty()) t.text += (t.text.empty() ? "" : " \u2014 ") + esc(note);
   if (t.text.empty()) t.text = "given, but without a readable value";
   return t;
 }
@@ -141,6 +162,10 @@ struct Decision {
   bool present = false;
   std::string verdict;  // upper case, e.g. PASS / FAIL
   std::string rule, detail;
+  bool rule_known = false;  // simple or guarded: described by the report itself
+  std::vector<std::string> set_lines;  // one line per judged set
+  std::vector<double> fail_ref, fail_err;  // points that do not conform
+  std::vector<double> acc_ref, acc_limit;  // guarded rule: acceptance limit per point
 };
 
 Decision read_decision(const Json& rec) {
@@ -154,14 +179,39 @@ Decision read_decision(const Json& rec) {
     else if (auto s = str(v)) d.verdict = upper(*s);
     if (const Json* p = find_any(*j, {"pass", "passed"}); p && p->is_boolean() && d.verdict.empty())
       d.verdict = p->get<bool>() ? "PASS" : "FAIL";
-    if (auto s = str(find_any(*j, {"rule", "decision_rule"}))) d.rule = *s;
-    if (auto s = str(find_any(*j, {"reason", "explanation", "detail", "message"}))) d.detail = *s;
+    if (auto s = str(find_any(*j, {"rule", "decision_rule"}))) {
+      d.rule_known = *s == "simple" || *s == "guarded";
+      if (*s == "simple") d.rule = "simple acceptance: a point conforms when |error| \u2264 tolerance";
+      else if (*s == "guarded")
+        d.rule = "guarded acceptance: a point conforms when |error| \u2264 tolerance \u2212 U at that point";
+      else d.rule = *s;
+    }
+    if (auto s = str(find_any(*j, {"statement", "reason", "explanation", "detail", "message"}))) d.detail = *s;
+    for (const Json& set : arr(*j, {"sets"})) {
+      const std::string name = str_or(set, {"name"}, "?");
+      const auto n = num(set, {"n"}), failed = num(set, {"failed"});
+      std::string line = name + ": ";
+      if (n && failed) line += fmt::format("{} of {} points conform", static_cast<long>(*n - *failed), static_cast<long>(*n));
+      line += ", max |error| " + format_sig(num(set, {"max_abs_error"}), 3);
+      if (auto w = num(set, {"worst_ratio"})) line += ", worst " + format_fixed(100.0 * *w, 0) + " % of the limit";
+      line += " \u2014 " + str_or(set, {"verdict"}, "?");
+      if (const Json* c = find(set, {"counts"}); c && c->is_boolean() && !c->get<bool>())
+        line += " (for information, does not decide)";
+      d.set_lines.push_back(line);
+    }
+    for (const Json& p : arr(*j, {"points"})) {
+      const auto r = num(p, {"reference"}), e = num(p, {"error"});
+      if (const Json* ok = find(p, {"pass"}); ok && ok->is_boolean() && !ok->get<bool>() && r && e)
+        d.fail_ref.push_back(*r), d.fail_err.push_back(*e);
+      if (auto a = num(p, {"acceptance_limit"}); a && r && str_or(p, {"set"}, "") != "validation")
+        d.acc_ref.push_back(*r), d.acc_limit.push_back(*a);
+    }
   } else if (j->is_boolean()) {
     d.verdict = j->get<bool>() ? "PASS" : "FAIL";
   } else if (auto s = str(j)) {
     d.verdict = upper(*s);
   }
-  if (auto s = str(rec, {"decision_rule"}); s && d.rule.empty()) d.rule = *s;
+  if (str_or(rec, {"decision", "rule"}, "") != "guarded") d.acc_ref.clear(), d.acc_limit.clear();
   return d;
 }
 
@@ -190,7 +240,7 @@ Uncertainty read_uncertainty(const Json& rec, const Units& u) {
   const Json* band = find_any(*j, {"band"});
   if (band && band->is_array()) {
     for (const Json& b : *band) {
-      auto x = num(find_any(b, {"reference", "x", "at"}));
+      auto x = num(find_any(b, {"reference", "x", "at", "predicted"}));
       auto h = num(find_any(b, {"U", "expanded", "half_width", "u"}));
       if (x && h) out.band_x.push_back(*x), out.band_u.push_back(std::fabs(*h));
     }
@@ -267,6 +317,7 @@ td.num, th.num { text-align: right; font-variant-numeric: tabular-nums; white-sp
 .verdict .word { font-size: 22pt; font-weight: bold; letter-spacing: 0.06em; min-width: 30mm; }
 .verdict .why { font-size: 9.5pt; }
 .verdict .why div { margin: 0.3mm 0; }
+.verdict .why div.set { font-size: 8.5pt; margin: 0 0 0 3mm; }
 .verdict.pass { border: 3px solid #1b5e20; }
 .verdict.pass .word { color: #1b5e20; }
 .verdict.fail { border: 5px double #a0001c; }
@@ -276,6 +327,8 @@ svg.plot { display: block; max-width: 100%; height: auto; }
 figure > svg.plot, figure > .panels { max-width: 170mm; }
 .panels { display: flex; gap: 1mm; }
 .panels > svg { flex: 1 1 0; min-width: 0; }
+.side { display: flex; gap: 4mm; align-items: flex-start; flex-wrap: wrap; }
+.side > table { font-size: 8.5pt; margin-bottom: 0; }
 .cols { display: grid; grid-template-columns: 1fr 1fr; column-gap: 4mm; align-items: start; }
 .cols > table { width: 100%; margin-top: 0; font-size: 8.5pt; }
 .note { color: #444; font-size: 9pt; }
@@ -292,7 +345,7 @@ footer { margin-top: 4mm; font-size: 8pt; color: #555; border-top: 1px solid #bb
   @bottom-right { content: "page " counter(page) " of " counter(pages); font: 8pt "DejaVu Sans", sans-serif; color: #555; } }
 @media print {
   body { max-width: none; margin: 0; padding: 0; }
-  figure > svg.plot, figure > .panels { max-width: 162mm; }
+  figure > svg.plot, figure > .panels { max-width: 150mm; }
 }
 )CSS";
 
@@ -430,16 +483,21 @@ void verdict_section(Builder& b, const Json& rec, const Units& u, const std::vec
     b.o += "<div><b>Decision rule:</b> " +
            (dec.rule.empty() ? std::string("<span class=\"missing\">not stated in the record</span>") : esc(dec.rule)) +
            "</div>\n";
-  if (!dec.detail.empty()) b.o += "<div>" + esc(dec.detail) + "</div>\n";
+  // The record's statement repeats the rule and the counts; show it only when
+  // the rule or the per-set counts are not otherwise known.
+  if (!dec.detail.empty() && (!dec.rule_known || dec.set_lines.empty())) b.o += "<div>" + esc(dec.detail) + "</div>\n";
+  for (const std::string& line : dec.set_lines) b.o += "<div class=\"set\">" + esc(line) + "</div>\n";
   if (unc.present)
     b.o += "<div><b>Expanded uncertainty:</b> U = " + esc(format_sig(unc.expanded, 3)) +
            (unc.unit.empty() ? "" : " " + esc(unc.unit)) +
            (unc.k ? " (k = " + esc(format_sig(*unc.k, 3)) + ")" : std::string()) +
-           (unc.band_x.empty() ? "" : ", varying along the range (see the error plot)") + "</div>\n";
-  const double mt = max_abs_error(pts, "test", false), mv = max_abs_error(pts, "train", true);
+           (unc.band_x.empty() ? "" : ", varying along the range (hatched band in figure 2)") + "</div>\n";
+  if (dec.set_lines.empty()) {
+    const double mt = max_abs_error(pts, "test", false), mv = max_abs_error(pts, "train", true);
   const double mtr = max_abs_error(pts, "train", false);
   b.o += "<div><b>Largest |error|:</b> test " + esc(format_sig(mt, 3)) + ", validation (held-out) " +
          esc(format_sig(mv, 3)) + ", training " + esc(format_sig(mtr, 3)) + esc(u.reference_sfx()) + "</div>\n";
+  }
   b.o += "</div>\n</div>\n";
   (void)rec;
   b.o += "</section>\n";
@@ -490,7 +548,7 @@ void fit_figure(Builder& b, const std::vector<Point>& pts, const std::optional<P
 }
 
 void error_figure(Builder& b, const std::vector<Point>& pts, const Units& u, const Tolerance& tol,
-                  const Uncertainty& unc) {
+                  const Uncertainty& unc, const Decision& dec) {
   SvgPlot p("fig-errors", 680, 250);
   p.description = "Errors of the calibrated value against the reference";
   p.x_axis.label = "reference" + (u.reference.empty() ? "" : " [" + u.reference + "]");
@@ -505,12 +563,16 @@ void error_figure(Builder& b, const std::vector<Point>& pts, const Units& u, con
     const double pad = 0.02 * (hi - lo);
     lo -= pad, hi += pad;
   }
-  if (tol.value && std::isfinite(lo)) {
+  if (tol.readable && std::isfinite(lo)) {
     Band t;
-    t.name = "tolerance \u00B1" + format_sig(*tol.value, 3) + u.reference_sfx();
-    t.x = {lo, hi};
-    t.lo = {-*tol.value, -*tol.value};
-    t.hi = {*tol.value, *tol.value};
+    t.name = tol.constant() ? "tolerance \u00B1" + format_sig(tol.limit(0.0), 3) + u.reference_sfx() : "tolerance";
+    const int n = tol.constant() ? 1 : 80;
+    for (int i = 0; i <= n; ++i) {
+      const double x = lo + (hi - lo) * i / n;
+      t.x.push_back(x);
+      t.lo.push_back(-tol.limit(x));
+      t.hi.push_back(tol.limit(x));
+    }
     t.fill = "#e4e4e4";
     t.edge_color = "#555555";
     t.edge_dash = "6 3";
@@ -565,6 +627,33 @@ void error_figure(Builder& b, const std::vector<Point>& pts, const Units& u, con
   p.series.push_back(train);
   if (!val.x.empty()) p.series.push_back(val);
   if (!test.x.empty()) p.series.push_back(test);
+  if (!dec.acc_ref.empty()) {
+    // Guarded rule: the acceptance limit (tolerance minus U) at each judged point.
+    std::vector<std::size_t> idx(dec.acc_ref.size());
+    for (std::size_t i = 0; i < idx.size(); ++i) idx[i] = i;
+    std::sort(idx.begin(), idx.end(), [&](auto a, auto c) { return dec.acc_ref[a] < dec.acc_ref[c]; });
+    Series up, down;
+    up.name = "acceptance limit (tolerance \u2212 U)";
+    up.style = SeriesStyle{"#222222", 1.2, "2 2", Marker::none, true, 0};
+    down.style = up.style;
+    for (std::size_t i : idx) {
+      up.x.push_back(dec.acc_ref[i]);
+      up.y.push_back(std::max(0.0, dec.acc_limit[i]));
+      down.x.push_back(dec.acc_ref[i]);
+      down.y.push_back(-std::max(0.0, dec.acc_limit[i]));
+    }
+    p.series.push_back(up);
+    p.series.push_back(down);
+  }
+  if (!dec.fail_ref.empty()) {
+    Series bad;
+    bad.name = "does not conform";
+    bad.draw_line = false;
+    bad.style = SeriesStyle{"#000000", 0, "", Marker::cross, true, 13.0};
+    bad.x = dec.fail_ref;
+    bad.y = dec.fail_err;
+    p.series.push_back(bad);
+  }
   p.y_axis.include_zero = true;
   b.o += "<figure id=\"fig-errors-figure\">\n" + p.render() +
          "\n<figcaption><b>Figure 2.</b> Error of the calibrated value (predicted \u2212 reference) against the reference. "
@@ -572,8 +661,10 @@ void error_figure(Builder& b, const std::vector<Point>& pts, const Units& u, con
   if (!val.x.empty()) b.o += "; open squares: the same points predicted by the model fitted without their cross-validation fold";
   else b.o += "; held-out (validation) predictions are not in the record";
   b.o += "; triangles: test points.";
-  if (tol.value) b.o += " Grey band with dashed edges: tolerance.";
+  if (tol.readable) b.o += " Grey band with dashed edges: tolerance.";
   else b.o += " No tolerance band: the record gives no tolerance.";
+  if (!dec.acc_ref.empty()) b.o += " Dotted lines: acceptance limits of the guarded rule.";
+  if (!dec.fail_ref.empty()) b.o += " Crosses: points that do not conform.";
   if (unc.present) b.o += " Hatched band: expanded uncertainty.";
   b.o += "</figcaption>\n</figure>\n";
 }
@@ -670,6 +761,8 @@ void validation_figure(Builder& b, const Json& rec, const Units& u) {
          esc(chosen_text) + ".</figcaption>\n</figure>\n";
 }
 
+void uncertainty_table(Builder& b, const Json& rec, const Units& u);
+
 void metrics_section(Builder& b, const Json& rec, const Units& u) {
   b.open_section("metrics", "Metrics");
   const Json* m = find(rec, {"metrics"});
@@ -685,13 +778,13 @@ void metrics_section(Builder& b, const Json& rec, const Units& u) {
     if (std::find(cols.begin(), cols.end(), it.key()) == cols.end() && it->is_object()) cols.push_back(it.key());
   const std::string ru = u.reference.empty() ? "" : " [" + esc(u.reference) + "]";
   struct Row { const char* key; std::string label; int kind; };  // 0 count, 1 error, 2 r2
-  const Row rows[] = {{"n", "points n", 0},           {"predictors", "predictors p", 0},
+  const Row rows[] = {{"n", "points", 0},           {"predictors", "predictors", 0},
                       {"rmse", "RMSE" + ru, 1},        {"max_abs_error", "max |error|" + ru, 1},
-                      {"bias", "bias (mean error)" + ru, 1}, {"r2", "R\u00B2", 2},
+                      {"bias", "bias" + ru, 1}, {"r2", "R\u00B2", 2},
                       {"adj_r2", "adjusted R\u00B2", 2}};
-  b.o += "<table class=\"metrics\"><tr><th></th>";
+  b.o += "<div class=\"side\">\n<table class=\"metrics\"><tr><th></th>";
   for (const auto& c : cols) {
-    std::string head = c == "validation" ? "validation (cross-validated)" : c == "test" ? "test (held out)" : c;
+    std::string head = c == "validation" ? "validation" : c;
     b.o += "<th class=\"num\">" + esc(head) + "</th>";
   }
   b.o += "</tr>\n";
@@ -707,9 +800,31 @@ void metrics_section(Builder& b, const Json& rec, const Units& u) {
     }
     b.o += "</tr>\n";
   }
-  b.o += "</table>\n<p class=\"note\">Error = predicted \u2212 reference. Validation: each training point predicted by "
-         "the model fitted without its fold. Test: setpoints held out of fitting and of model selection.</p>\n";
+  b.o += "</table>\n";
+  uncertainty_table(b, rec, u);
+  b.o += "</div>\n<p class=\"note\">Error = predicted \u2212 reference; bias = mean error. Validation: each training "
+         "point predicted by the model fitted without its fold (cross-validation). Test: setpoints held out of fitting "
+         "and of model selection.</p>\n";
   b.close_section();
+}
+
+void uncertainty_table(Builder& b, const Json& rec, const Units& u) {
+  const Json& comps = arr(rec, {"uncertainty", "components"});
+  if (comps.empty()) return;
+  const std::string ru = u.reference.empty() ? "" : " [" + esc(u.reference) + "]";
+  b.o += "<table class=\"budget\"><tr><th>uncertainty component</th><th>type</th>"
+         "<th class=\"num\">u" + ru + "</th></tr>\n";
+  for (const Json& c : comps) {
+    std::string type = str_or(c, {"type"}, "");
+    if (auto d = str(c, {"distribution"})) type += (type.empty() ? "" : ", ") + *d;
+    b.o += "<tr><td>" + esc(str_or(c, {"name"}, "?")) + "</td><td>" + esc(type) + "</td><td class=\"num\">" +
+           esc(format_sig(num(c, {"standard"}), 3)) + "</td></tr>\n";
+  }
+  b.o += "<tr><th colspan=\"2\">combined u<sub>c</sub></th><td class=\"num\">" +
+         esc(format_sig(num(rec, {"uncertainty", "combined"}), 3)) + "</td></tr>\n";
+  b.o += "<tr><th colspan=\"2\">expanded U = k\u00B7u<sub>c</sub>, k = " + esc(format_sig(num(rec, {"uncertainty", "k"}), 3)) +
+         "</th><td class=\"num\"><b>" + esc(format_sig(num(rec, {"uncertainty", "expanded"}), 3)) + "</b></td></tr>\n";
+  b.o += "</table>\n";
 }
 
 void warnings_section(Builder& b, const Json& rec) {
@@ -910,7 +1025,7 @@ std::string render_html_report(const nlohmann::json& rec, const ReportOptions& o
   verdict_section(b, rec, u, pts, tol, dec, unc);
   b.o += "<section id=\"plots\">\n<h2>Plots</h2>\n";
   fit_figure(b, pts, model, u);
-  error_figure(b, pts, u, tol, unc);
+  error_figure(b, pts, u, tol, unc, dec);
   validation_figure(b, rec, u);
   b.o += "</section>\n";
   metrics_section(b, rec, u);

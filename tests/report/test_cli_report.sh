@@ -11,7 +11,8 @@ bad() { echo "FAIL: $*"; fails=$((fails + 1)); }
 
 sample=$samples/ntc-coldstore/ntc-coldstore.csv
 "$bin" fit "$sample" --setpoint setpoint --sensor "cold-store NTC ch2 <test>" --reading-unit counts \
-  --reference-unit degC --timestamp 2026-12-02T09:00:00Z -o "$out/ntc.record.json" --report "$out/ntc.fit.html" \
+  --reference-unit degC --tol-offset 0.1 --decision guarded --timestamp 2026-12-02T09:00:00Z \
+  -o "$out/ntc.record.json" --report "$out/ntc.fit.html" \
   >"$out/fit.stdout" 2>&1 || bad "fit --report exit $?: $(cat "$out/fit.stdout")"
 grep -q "report: $out/ntc.fit.html" "$out/fit.stdout" || bad "fit did not announce the report"
 "$bin" report "$out/ntc.record.json" -o "$out/ntc.report.html" --date "2026-12-02 10:00 UTC" >/dev/null ||
@@ -22,6 +23,9 @@ for f in ntc.fit.html ntc.report.html; do
   grep -q '<b>(verified)</b>' "$out/$f" || bad "$f: integrity not confirmed"
 done
 grep -q '<dd>2026-12-02 10:00 UTC</dd>' "$out/ntc.report.html" || bad "--date not shown"
+grep -q 'class="verdict pass"' "$out/ntc.fit.html" || bad "fit report: PASS verdict not shown"
+grep -q 'guarded acceptance' "$out/ntc.fit.html" || bad "fit report: decision rule not shown"
+grep -q '>acceptance limit (tolerance' "$out/ntc.fit.html" || bad "fit report: acceptance limits not drawn"
 grep -q '<dd>2026-12-02T09:00:00Z</dd>' "$out/ntc.fit.html" || bad "fit report: record date not shown"
 
 # Bad input: exit 2, nothing written, an existing report untouched.
