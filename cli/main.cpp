@@ -8,6 +8,7 @@
 #include "export_command.hpp"
 #include "fit_command.hpp"
 #include "verify_command.hpp"
+#include "report_command.hpp"
 #include "ridgecal/record.hpp"
 
 namespace {
@@ -23,6 +24,7 @@ const Subcommand kSubcommands[] = {
     {"fit", "fit a calibration curve to a CSV run and write a calibration record", ridgecal::cli::fit_main},
     {"verify", "as-found check: apply a calibration record to fresh readings, PASS/FAIL", ridgecal::cli::verify_main},
     {"export", "write a freestanding C header (float, double or fixed point) from a record", ridgecal::cli::export_main},
+    {"report", "write the QA calibration report (HTML) of a calibration record", ridgecal::cli::report_main},
 };
 
 void usage(std::ostream& os) {
