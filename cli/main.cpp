@@ -4,8 +4,10 @@
 #include <string>
 #include <vector>
 
+#include "batch_command.hpp"
 #include "cli_common.hpp"
 #include "fit_command.hpp"
+#include "merge_command.hpp"
 #include "ridgecal/record.hpp"
 
 namespace {
@@ -19,12 +21,14 @@ struct Subcommand {
 // Every subcommand: one file pair in cli/, one line here.
 const Subcommand kSubcommands[] = {
     {"fit", "fit a calibration curve to a CSV run and write a calibration record", ridgecal::cli::fit_main},
+    {"batch", "calibrate every unit of a production batch: records and a summary", ridgecal::cli::batch_main},
+    {"merge-summaries", "merge the batch summaries of several shards", ridgecal::cli::merge_main},
 };
 
 void usage(std::ostream& os) {
   os << "ridgecal " << ridgecal::tool_version() << ": calibration curves for sensors\n\n"
      << "usage: ridgecal COMMAND [options]   (ridgecal COMMAND --help for details)\n\ncommands:\n";
-  for (const auto& s : kSubcommands) os << "  " << s.name << std::string(10 - std::strlen(s.name), ' ') << s.summary << "\n";
+  for (const auto& s : kSubcommands) os << "  " << s.name << std::string(std::strlen(s.name) < 10 ? 10 - std::strlen(s.name) : 1, ' ') << s.summary << "\n";
   os << "\nexit codes: 0 pass, 1 out of tolerance, 2 bad input or usage\n"
      << "Safety-relevant calibration must follow local codes and certified procedures.\n";
 }
