@@ -228,7 +228,7 @@ bool UnitReader::next(UnitChunk& out) {
     ++next_index_;
     if (out.unit.empty()) {
       out.error = fmt::format("{}:{}: the unit column '{}' is empty", out.file, out.first_line, options_.unit_column);
-    } else if (!seen_.insert(fnv1a(out.unit)).second) {
+    } else if (seen_before(fnv1a(out.unit))) {
       out.error = fmt::format(
           "{}:{}: unit '{}' appears again after other units; the rows of a unit must be contiguous "
           "(sort the file by the unit column)",
@@ -236,6 +236,20 @@ bool UnitReader::next(UnitChunk& out) {
     }
     return true;
   }
+}
+
+bool UnitReader::seen_before(std::uint64_t h) {
+  if (std::binary_search(seen_sorted_.begin(), seen_sorted_.end(), h)) return true;
+  if (std::find(seen_tail_.begin(), seen_tail_.end(), h) != seen_tail_.end()) return true;
+  seen_tail_.push_back(h);
+  if (seen_tail_.size() >= 1024) {
+    std::sort(seen_tail_.begin(), seen_tail_.end());
+    const std::size_t mid = seen_sorted_.size();
+    seen_sorted_.insert(seen_sorted_.end(), seen_tail_.begin(), seen_tail_.end());
+    std::inplace_merge(seen_sorted_.begin(), seen_sorted_.begin() + static_cast<std::ptrdiff_t>(mid), seen_sorted_.end());
+    seen_tail_.clear();
+  }
+  return false;
 }
 
 Dataset parse_unit_chunk(const UnitChunk& chunk, const CsvOptions& options) {

@@ -8,7 +8,9 @@
 // Requirement: the rows of a unit are contiguous (a file sorted by the unit
 // column satisfies it; the order of units is free). A unit whose label shows
 // up again after other units is reported as a failed chunk ("appears again"),
-// it is never silently merged or fitted twice. Comment and blank lines go with
+// it is never silently merged or fitted twice. (Labels are remembered as
+// 64-bit hashes, 8 bytes per unit; two distinct labels colliding is
+// improbable, about n^2 / 2^65 for n units.) Comment and blank lines go with
 // the unit they follow.
 //
 // A directory of CSV files is read as its *.csv files in name order. Without
@@ -19,7 +21,6 @@
 #include <fstream>
 #include <memory>
 #include <string>
-#include <unordered_set>
 #include <vector>
 
 #include "ridgecal/calibration_csv.hpp"
@@ -81,7 +82,10 @@ class UnitReader {
   std::size_t pending_line_ = 0;
   std::uint64_t next_index_ = 0;
   std::uint64_t bytes_read_ = 0, bytes_total_ = 0;
-  std::unordered_set<std::uint64_t> seen_;  // 64-bit hashes of the unit labels met so far
+  // 64-bit hashes of the unit labels met so far, 8 bytes per unit: a sorted
+  // run plus a small unsorted tail merged into it when full.
+  bool seen_before(std::uint64_t h);
+  std::vector<std::uint64_t> seen_sorted_, seen_tail_;
 };
 
 /// Parses a chunk; observation lines and error lines refer to the original file.
