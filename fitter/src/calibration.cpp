@@ -344,6 +344,14 @@ FitOutcome fit_calibration(const Dataset& data, const FitOptions& options) {
   if (d == 0) {
     cal.model.cheb = {y_train.mean()};
     cal.condition_number = 1.0;
+  } else if (NestedRidge& full = engines[KK]; full.columns() >= d && full.usable() >= d) {
+    // The factorisation of all training points made while scoring: the same
+    // orthogonal-transformation solve, no second factorisation.
+    Eigen::VectorXd b(d);
+    double b0 = 0.0;
+    full.coefficients(d, cal.lambda, b.data(), b0);
+    cal.model.cheb = cheb_from_fit(b, b0, sc, options.intercept);
+    cal.condition_number = full.condition_number(d);
   } else {
     const RidgePath path(take_rows(X, train_rows, d), y_train, options.intercept);
     if (!path.status().ok && cal.lambda == 0.0) {

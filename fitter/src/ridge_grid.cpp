@@ -3,6 +3,7 @@
 #include <algorithm>
 #include <cassert>
 #include <cmath>
+#include <limits>
 
 namespace ridgecal {
 
@@ -240,6 +241,29 @@ void NestedRidge::predict_validation(int d, double lambda, double* out) {
     for (int k = 0; k < d; ++k) p += w[k] * b_[static_cast<std::size_t>(k)][0];
     out[i] = p;
   }
+}
+
+void NestedRidge::coefficients(int d, double lambda, double* b, double& b0) {
+  assert(d >= 1 && d <= usable_);
+  double mu[L];
+  for (int q = 0; q < L; ++q) mu[q] = std::sqrt(static_cast<double>(m_) * lambda);
+  rotate_in_penalty(mu);
+  solve(d);
+  double dot = 0.0;
+  for (int k = 0; k < d; ++k) {
+    b[k] = b_[static_cast<std::size_t>(k)][0];
+    dot += x_mean_[static_cast<std::size_t>(k)] * b[k];
+  }
+  b0 = intercept_ ? y_mean_ - dot : 0.0;
+}
+
+double NestedRidge::condition_number(int d) const {
+  assert(d >= 1 && d <= usable_);
+  Eigen::MatrixXd Rd(d, d);
+  for (int j = 0; j < d; ++j)
+    for (int k = 0; k < d; ++k) Rd(j, k) = R_[at(j, k)];
+  const Eigen::VectorXd s = Eigen::JacobiSVD<Eigen::MatrixXd>(Rd).singularValues();
+  return s(d - 1) > 0.0 ? s(0) / s(d - 1) : std::numeric_limits<double>::infinity();
 }
 
 }  // namespace ridgecal

@@ -110,3 +110,25 @@ BOOST_AUTO_TEST_CASE(rank_deficient_degrees_are_not_usable) {
   nr.factor(p.X, p.y.data(), range(0, 20), 6, true);
   BOOST_TEST(nr.usable() == 3);
 }
+
+BOOST_AUTO_TEST_CASE(coefficients_and_condition_number_match_the_svd_path) {
+  for (bool intercept : {true, false}) {
+    const Problem p = make_problem(40, 7, intercept ? 11 : 12);
+    NestedRidge nr;
+    nr.factor(p.X, p.y.data(), range(0, 40), 7, intercept);
+    for (int d : {1, 4, 7}) {
+      Eigen::MatrixXd Xd = p.X.leftCols(d);
+      const Eigen::VectorXd y = Eigen::Map<const Eigen::VectorXd>(p.y.data(), 40);
+      const RidgePath path(Xd, y, intercept);
+      BOOST_TEST(std::fabs(nr.condition_number(d) - path.condition_number()) <= 1e-10 * path.condition_number());
+      for (double lambda : {0.0, 1e-9, 1e-2}) {
+        Eigen::VectorXd b_svd, b_qr(d);
+        double b0_svd = 0, b0_qr = 0;
+        path.coefficients(lambda, b_svd, b0_svd);
+        nr.coefficients(d, lambda, b_qr.data(), b0_qr);
+        BOOST_TEST((b_qr - b_svd).norm() <= 1e-11 * (1.0 + b_svd.norm()), "d " << d << " lambda " << lambda);
+        BOOST_TEST(std::fabs(b0_qr - b0_svd) <= 1e-11 * (1.0 + std::fabs(b0_svd)));
+      }
+    }
+  }
+}

@@ -64,6 +64,13 @@ class NestedRidge {
   /// degree t and lambda q.
   void score(const double* lambdas, int nl, const int* degrees, int count, double* val_mse, double* train_mse);
 
+  /// Coefficients of degree d <= usable() for penalty lambda: b[0..d) and the
+  /// intercept b0 (as RidgePath::coefficients).
+  void coefficients(int d, double lambda, double* b, double& b0);
+  /// Ratio of the largest to the smallest singular value of the centred
+  /// design of degree d <= usable() (the singular values of R's leading block).
+  double condition_number(int d) const;
+
   /// Predictions at the validation rows of degree d <= usable(), penalty lambda.
   void predict_validation(int d, double lambda, double* out);
 
