@@ -26,7 +26,7 @@ cmake --build "$BUILD" -j2 >/dev/null
 RC="$BUILD/cli/ridgecal"
 GEN="$BUILD/bench/ridgecal_bench_gen"
 
-echo "== machine: $(nproc) cores; load at start: $(cut -d' ' -f1-3 /proc/loadavg)"
+echo "== machine: $(getconf _NPROCESSORS_ONLN) cores; load at start: $(cut -d' ' -f1-3 /proc/loadavg)"
 "$GEN" "$UNITS" > "$WORK/units.csv"
 "$GEN" 1 100 20 > "$WORK/big.csv"          # one unit of 2,000 rows
 "$GEN" "$BIG_UNITS" > "$WORK/many.csv"

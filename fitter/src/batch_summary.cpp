@@ -150,7 +150,19 @@ std::string summary_json_head(const std::string& created_utc, const json& settin
 }
 
 std::string summary_json_unit(const UnitSummary& u, bool first) {
-  return (first ? "\n    " : ",\n    ") + unit_summary_to_json(u).dump(-1, ' ', false, json::error_handler_t::replace);
+  // Written directly (this runs once per unit on the batch's main thread);
+  // the same members and values as unit_summary_to_json, in a fixed order.
+  auto str = [](const std::string& v) { return json(v).dump(-1, ' ', false, json::error_handler_t::replace); };
+  auto jnum = [](double v) { return std::isfinite(v) ? fmt::format("{}", v) : std::string("null"); };
+  std::string w = "[";
+  for (std::size_t i = 0; i < u.warnings.size(); ++i) w += (i ? "," : "") + str(u.warnings[i]);
+  w += "]";
+  return fmt::format(
+      "{}{{\"unit\":{},\"status\":\"{}\",\"rows\":{},\"degree\":{},\"lambda\":{},\"validation_rmse\":{},"
+      "\"test_rmse\":{},\"max_abs_error\":{},\"verdict\":\"{}\",\"warnings\":{},\"error\":{},\"record\":{}}}",
+      first ? "\n    " : ",\n    ", str(u.unit), to_string(u.status), u.rows,
+      u.degree >= 0 ? std::to_string(u.degree) : std::string("null"), jnum(u.lambda), jnum(u.validation_rmse),
+      jnum(u.test_rmse), jnum(u.max_abs_error), to_string(u.verdict), w, str(u.error), str(u.record));
 }
 
 std::string summary_json_tail(std::uint64_t units, std::uint64_t ok, std::uint64_t failed) {
