@@ -27,7 +27,7 @@ po::options_description fit_options() {
     ("delimiter", po::value<std::string>()->default_value(","), "field delimiter: ',', ';' or 'tab'")
     ("degrees", po::value<std::string>()->default_value("1..7"), "candidate degrees, e.g. 1..7 or 1,2,3")
     ("lambdas", po::value<std::string>()->default_value("default"), "candidate penalties: 'default' (0 and 30 values from 1e-12 to 10), or a list like 0,1e-9:1e-1:20")
-    ("rule", po::value<std::string>()->default_value("min-cv"), "selection rule: min-cv (lowest CV error) or one-se (simplest model within one standard error)")
+    ("rule", po::value<std::string>()->default_value("one-se"), "selection rule: one-se (simplest model within one standard error of the lowest CV error) or min-cv (lowest CV error)")
     ("folds", po::value<int>()->default_value(5), "K of grouped K-fold cross-validation (leave-one-setpoint-out below 10 interior setpoints)")
     ("test-fraction", po::value<double>()->default_value(0.2), "share of setpoints held out as the final test set (0 to 0.5)")
     ("seed", po::value<std::uint64_t>()->default_value(1), "seed of the reproducible split")
@@ -125,6 +125,11 @@ int run_fit_command(const FitCommand& cmd, std::ostream& out, std::ostream& err)
     rec.calibration = fit.calibration;
     const nlohmann::json j = record_to_json(rec);
     if (!cmd.output_path.empty()) write_file_atomic(cmd.output_path, record_text(j));
+    if (!cmd.sensor.name.empty() || !cmd.sensor.reading_unit.empty() || !cmd.sensor.reference_unit.empty())
+      out << fmt::format("sensor: {} (reading in {}, reference in {})\n",
+                         cmd.sensor.name.empty() ? "unnamed" : cmd.sensor.name,
+                         cmd.sensor.reading_unit.empty() ? "unstated units" : cmd.sensor.reading_unit,
+                         cmd.sensor.reference_unit.empty() ? "unstated units" : cmd.sensor.reference_unit);
     out << (cmd.full ? rec.calibration.full() : rec.calibration.brief());
     if (!cmd.output_path.empty()) out << "record: " << cmd.output_path << "\n";
     return kExitOk;

@@ -222,7 +222,7 @@ Dataset parse_calibration_csv(const std::string& text, const std::string& file,
     ds.rows.push_back(std::move(ob));
   }
   if (header.empty())
-    throw InputError(file, lineno > 0 ? 1 : 0, "the file is empty", "a calibration CSV needs a header row and data rows");
+    throw InputError(file, 1, "the file is empty", "a calibration CSV needs a header row and data rows");
   if (ds.rows.empty())
     throw InputError(file, header_line, "the file has a header but no data rows",
                      "add one row per observation below the header");

@@ -1,3 +1,60 @@
+// The polynomial model: evaluation and conversions between coefficient forms.
 #define BOOST_TEST_MODULE poly_model
 #include <boost/test/unit_test.hpp>
-BOOST_AUTO_TEST_CASE(placeholder_poly_model) { BOOST_TEST(true); }
+#include <cmath>
+
+#include "ridgecal/poly_model.hpp"
+
+using namespace ridgecal;
+
+namespace {
+// Conversions run in long double; 1e-12 relative to the function's size is
+// ample for degree <= 7 on these ranges (about 1000x double epsilon).
+constexpr double kConversionRelTol = 1e-12;
+}
+
+BOOST_AUTO_TEST_CASE(chebyshev_rows_match_cosine_definition) {
+  double row[8];
+  for (double t : {-1.0, -0.3, 0.0, 0.7, 1.0}) {
+    chebyshev_row(t, 7, row);
+    for (int k = 0; k <= 7; ++k) BOOST_TEST(std::fabs(row[k] - std::cos(k * std::acos(t))) < 1e-14);
+  }
+}
+
+BOOST_AUTO_TEST_CASE(all_forms_agree) {
+  PolyModel m;
+  m.scaling = {2500.0, 3900.0};
+  m.cheb = {-5.0, -20.0, 1.5, -0.4, 0.1, -0.02};
+  const auto mono = m.monomial_in_t();
+  const auto power = m.power_in_x_ld();
+  for (double x = 2500.0; x <= 3900.0; x += 70.0) {
+    const double p = m.eval(x);
+    const double t = m.scaling.to_t(x);
+    double h = 0;
+    for (std::size_t k = mono.size(); k-- > 0;) h = h * t + mono[k];
+    long double hp = 0;
+    for (std::size_t k = power.size(); k-- > 0;) hp = hp * x + power[k];
+    BOOST_TEST(std::fabs(h - p) <= kConversionRelTol * 25.0);
+    BOOST_TEST(std::fabs(static_cast<double>(hp) - p) <= 1e-9 * 25.0);  // power form: cancellation, long double
+  }
+}
+
+BOOST_AUTO_TEST_CASE(derivative_matches_finite_difference) {
+  PolyModel m;
+  m.scaling = {0.0, 10.0};
+  m.cheb = {1.0, 2.0, 0.5, 0.25};
+  for (double x : {0.5, 3.0, 9.0}) {
+    const double h = 1e-5;
+    const double fd = (m.eval(x + h) - m.eval(x - h)) / (2 * h);
+    BOOST_TEST(std::fabs(m.derivative(x) - fd) < 1e-7);
+  }
+}
+
+BOOST_AUTO_TEST_CASE(scaling_maps_range_to_unit_interval) {
+  const Scaling s{-5.0, 15.0};
+  BOOST_TEST(s.to_t(-5.0) == -1.0);
+  BOOST_TEST(s.to_t(15.0) == 1.0);
+  BOOST_TEST(s.to_t(5.0) == 0.0);
+  BOOST_TEST(s.contains(0.0));
+  BOOST_TEST(!s.contains(15.5));
+}

@@ -24,9 +24,12 @@ namespace ridgecal {
 
 /// How the best grid cell is picked from the cross-validation scores.
 enum class SelectionRule {
-  MinCv,  ///< `min-cv`: the lowest mean CV RMSE (the default)
-  OneSe,  ///< `one-se`: the simplest cell (lowest degree, then largest lambda)
-          ///< whose mean CV RMSE is within one standard error of the lowest
+  MinCv,  ///< `min-cv`: the lowest mean CV RMSE
+  OneSe,  ///< `one-se` (the default): the simplest cell (lowest degree, then
+          ///< largest lambda) whose mean CV RMSE is within one standard error
+          ///< of the lowest. With few setpoints the CV scores are noisy and the
+          ///< lowest often belongs to a needlessly high degree; this rule
+          ///< follows the sensor rather than its noise.
 };
 std::string to_string(SelectionRule r);
 SelectionRule selection_rule_from_string(const std::string& s);  ///< throws std::invalid_argument
@@ -43,7 +46,7 @@ std::vector<double> default_lambda_grid();
 struct FitOptions {
   std::vector<int> degrees{1, 2, 3, 4, 5, 6, 7};  ///< candidate degrees, each 0..20 (0 only without CV)
   std::vector<double> lambdas = default_lambda_grid();  ///< candidate penalties, each >= 0
-  SelectionRule rule = SelectionRule::MinCv;
+  SelectionRule rule = SelectionRule::OneSe;
   SplitOptions split;                ///< test hold-out and folds
   std::optional<int> fixed_degree;   ///< with fixed_lambda: skip the selection
   std::optional<double> fixed_lambda;
@@ -64,7 +67,7 @@ struct GridCell {
 
 struct SelectionInfo {
   SelectionMode mode = SelectionMode::CrossValidation;
-  SelectionRule rule = SelectionRule::MinCv;
+  SelectionRule rule = SelectionRule::OneSe;
   FoldScheme scheme = FoldScheme::KFold;
   int n_folds = 0;
   std::vector<int> degrees;      ///< the degrees actually scored

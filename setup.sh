@@ -1,0 +1,63 @@
+#!/usr/bin/env bash
+# ridgecal set-up on Debian 12, as root (or with sudo available).
+#
+#   bash setup.sh demo   install what is missing, build, fit a bundled sample
+#   bash setup.sh test   install what is missing (with the test tools), build,
+#                        run the whole test suite (ends with CTest's summary)
+#
+# Environment: BUILD_DIR (default: build), JOBS (default: number of cores).
+set -euo pipefail
+cd "$(dirname "$0")"
+mode=${1:-demo}
+build=${BUILD_DIR:-build}
+jobs=${JOBS:-$(nproc)}
+
+# Packages for building and running ridgecal.
+base_pkgs=(g++ cmake ninja-build pkg-config libeigen3-dev libboost-dev libboost-program-options-dev
+           libboost-test-dev nlohmann-json3-dev libfmt-dev libssl-dev)
+# Extra packages for the test suite (the firmware target and browser tests
+# install their own toolchains through the scripts listed in test_installers).
+test_pkgs=(python3)
+test_installers=()
+for f in tests/*/install-*.sh; do [[ -e $f ]] && test_installers+=("$f"); done
+
+as_root() { if [[ $(id -u) -eq 0 ]]; then "$@"; else sudo "$@"; fi; }
+
+install_missing() {
+  local missing=()
+  for p in "$@"; do
+    dpkg-query -W -f='${Status}' "$p" 2>/dev/null | grep -q "install ok installed" || missing+=("$p")
+  done
+  if ((${#missing[@]})); then
+    echo "setup: installing ${missing[*]}"
+    as_root apt-get update -qq
+    as_root env DEBIAN_FRONTEND=noninteractive apt-get install -y -qq --no-install-recommends "${missing[@]}" >/dev/null
+  fi
+}
+
+case $mode in
+  demo)
+    install_missing "${base_pkgs[@]}"
+    cmake -S . -B "$build" -G Ninja -DCMAKE_BUILD_TYPE=RelWithDebInfo -DRIDGECAL_BUILD_TESTS=OFF >/dev/null
+    cmake --build "$build" -j "$jobs" --target ridgecal
+    sample=calibration-samples/loadcell-hopper/loadcell-hopper.csv
+    mkdir -p out
+    echo "setup: ridgecal fit $sample"
+    "$build"/cli/ridgecal fit "$sample" --setpoint setpoint --sensor "feed hopper scale LC-3" \
+      --reading-unit counts --reference-unit kg -o out/loadcell-hopper.record.json
+    ;;
+  test)
+    install_missing "${base_pkgs[@]}" "${test_pkgs[@]}"
+    for s in "${test_installers[@]}"; do
+      echo "setup: $s"
+      bash "$s"
+    done
+    cmake -S . -B "$build" -G Ninja -DCMAKE_BUILD_TYPE=RelWithDebInfo -DRIDGECAL_BUILD_TESTS=ON >/dev/null
+    cmake --build "$build" -j "$jobs"
+    ctest --test-dir "$build" --output-on-failure -j "$jobs"
+    ;;
+  *)
+    echo "usage: bash setup.sh demo|test" >&2
+    exit 2
+    ;;
+esac

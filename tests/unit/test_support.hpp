@@ -1,0 +1,50 @@
+// Shared helpers for the unit tests: synthetic calibration runs.
+#pragma once
+
+#include <cmath>
+#include <cstdint>
+#include <functional>
+#include <string>
+
+#include "ridgecal/calibration_csv.hpp"
+#include "ridgecal/grouped_split.hpp"
+
+namespace ridgecal::test {
+
+/// Standard normal deviates from the project's portable RNG (Box-Muller).
+class Gauss {
+ public:
+  explicit Gauss(std::uint64_t seed) : rng_(seed) {}
+  double next() {
+    const double u1 = (static_cast<double>(rng_.next() >> 11) + 0.5) * 0x1.0p-53;
+    const double u2 = (static_cast<double>(rng_.next() >> 11) + 0.5) * 0x1.0p-53;
+    return std::sqrt(-2.0 * std::log(u1)) * std::cos(6.283185307179586 * u2);
+  }
+
+ private:
+  SplitRng rng_;
+};
+
+/// `setpoints` equally spaced readings over [x0, x1], `repeats` rows each,
+/// reference = f(reading) + noise_sd * N(0,1). Setpoints are labelled S01...
+inline Dataset synthetic_run(const std::function<double(double)>& f, double x0, double x1, int setpoints,
+                             int repeats, double noise_sd, std::uint64_t seed) {
+  Gauss g(seed);
+  Dataset ds;
+  ds.file = "synthetic.csv";
+  std::size_t line = 2;
+  for (int s = 0; s < setpoints; ++s) {
+    const double x = x0 + (x1 - x0) * s / (setpoints - 1);
+    for (int r = 0; r < repeats; ++r) {
+      Observation ob;
+      ob.reading = x + 1e-3 * (x1 - x0) * g.next();
+      ob.reference = f(ob.reading) + noise_sd * g.next();
+      ob.setpoint = "S" + std::to_string(100 + s).substr(1);
+      ob.line = line++;
+      ds.rows.push_back(ob);
+    }
+  }
+  return ds;
+}
+
+}  // namespace ridgecal::test
