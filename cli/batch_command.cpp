@@ -51,7 +51,7 @@ po::options_description batch_options() {
     ("delimiter", po::value<std::string>()->default_value(","), "field delimiter: ',', ';' or 'tab'")
     ("degrees", po::value<std::string>()->default_value("1..7"), "candidate degrees, e.g. 1..7 or 1,2,3")
     ("lambdas", po::value<std::string>()->default_value("default"), "candidate penalties: 'default' (0 and 30 values from 1e-12 to 10), or a list like 0,1e-9:1e-1:20")
-    ("rule", po::value<std::string>()->default_value("min-cv"), "selection rule: min-cv or one-se")
+    ("rule", po::value<std::string>()->default_value(to_string(FitOptions{}.rule)), "selection rule: one-se (simplest model within one standard error of the lowest CV error) or min-cv (lowest CV error)")
     ("folds", po::value<int>()->default_value(5), "K of grouped K-fold cross-validation")
     ("loso-below", po::value<int>()->default_value(10), "leave-one-setpoint-out when fewer interior training setpoints than this (0: always K-fold when possible)")
     ("test-fraction", po::value<double>()->default_value(0.2), "share of setpoints held out as the final test set (0 to 0.5)")
