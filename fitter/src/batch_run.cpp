@@ -20,6 +20,7 @@
 #include <thread>
 
 #include "ridgecal/errors.hpp"
+#include "ridgecal/sha256.hpp"
 
 namespace ridgecal {
 
@@ -153,10 +154,12 @@ UnitSummary process_unit(const UnitChunk& chunk, const BatchOptions& options) {
   };
   if (!chunk.error.empty()) return fail(chunk.error);
   Dataset data;
-  try {
-    data = parse_unit_chunk(chunk, options.input.csv);
-  } catch (const InputError& e) {
-    return fail(format_input_error(e));
+  if (!parse_unit_chunk_fast(chunk, options.input.csv, data)) {
+    try {
+      data = parse_unit_chunk(chunk, options.input.csv);
+    } catch (const InputError& e) {
+      return fail(format_input_error(e));
+    }
   }
   const FitOutcome fit = fit_calibration(data, options.fit);
   if (!fit.status.ok) return fail(fit.status.message);
@@ -185,7 +188,8 @@ UnitSummary process_unit(const UnitChunk& chunk, const BatchOptions& options) {
     rec.created_utc = options.created_utc;
     rec.sensor = options.sensor;
     rec.sensor.name = options.sensor.name.empty() ? chunk.unit : options.sensor.name + " / unit " + chunk.unit;
-    rec.input = InputInfo{chunk.file, data.sha256, data.rows.size(), options.input.csv};
+    rec.input = InputInfo{chunk.file, data.sha256.empty() ? sha256_hex(chunk.text) : data.sha256, data.rows.size(),
+                          options.input.csv};
     rec.calibration = cal;
     write_whole_file_atomic(options.out_dir + "/" + rel, record_text(record_to_json(rec)), options.sync_records);
     u.record = rel;

@@ -231,3 +231,66 @@ BOOST_AUTO_TEST_CASE(hostile_unit_labels_get_safe_distinct_file_names) {
   BOOST_TEST(unit_file_stem("..") != "..");
   BOOST_TEST(unit_file_stem("").size() > 0u);
 }
+
+namespace {
+UnitChunk chunk_of(const std::string& header, const std::string& rows, std::size_t first_line = 5) {
+  UnitChunk c;
+  c.unit = "u";
+  c.file = "f.csv";
+  c.header_line = 2;
+  c.first_line = first_line;
+  c.text = header + "\n" + rows;
+  return c;
+}
+}  // namespace
+
+BOOST_AUTO_TEST_CASE(the_fast_chunk_parser_agrees_with_the_general_parser) {
+  CsvOptions with_sp;
+  with_sp.setpoint_column = "setpoint";
+  CsvOptions with_role = with_sp;
+  with_role.role_column = "role";
+  const CsvOptions plain;
+  struct Case {
+    CsvOptions opt;
+    std::string header, rows;
+  };
+  std::string synth = synthetic_file(3, 1);
+  synth = synth.substr(synth.find('\n') + 1);
+  const Case cases[] = {
+      {with_sp, "unit,setpoint,reading,reference", synth},
+      {with_sp, " unit , setpoint ,reading, reference ", "u, S1 , +12.5,1e-3\n# note\n\nu,S2,13,\t2.0e0\n"},
+      {plain, "unit,reading,reference", "u,1,0.1\nu,2,0.30000000000000004\nu,3,-0\n"},
+      {with_role, "unit,setpoint,reading,reference,role", "u,A,1,1,fit\nu,B,2,2,CHECK\nu,C,3,3,Fit\n"},
+  };
+  for (const Case& c : cases) {
+    const UnitChunk ch = chunk_of(c.header, c.rows);
+    Dataset fast;
+    BOOST_REQUIRE(parse_unit_chunk_fast(ch, c.opt, fast));
+    const Dataset slow = parse_unit_chunk(ch, c.opt);
+    BOOST_REQUIRE(fast.rows.size() == slow.rows.size());
+    for (std::size_t i = 0; i < slow.rows.size(); ++i) {
+      BOOST_TEST(fast.rows[i].reading == slow.rows[i].reading);
+      BOOST_TEST(fast.rows[i].reference == slow.rows[i].reference);
+      BOOST_TEST(fast.rows[i].setpoint == slow.rows[i].setpoint);
+      BOOST_TEST((fast.rows[i].role == slow.rows[i].role));
+      BOOST_TEST(fast.rows[i].line == slow.rows[i].line);
+    }
+  }
+  // Anything unusual goes to the general parser, which reports it (or, for
+  // quotes, handles it).
+  const Case unusual[] = {
+      {with_sp, "unit,setpoint,reading,reference", "u,\"S,1\",1,1\nu,S2,2,2\n"},
+      {with_sp, "unit,setpoint,reading,reference", "u,S1,1\n"},
+      {with_sp, "unit,setpoint,reading,reference", "u,S1,nan,1\n"},
+      {with_sp, "unit,setpoint,reading,reference", "u,S1,1,1,\n"},
+      {with_sp, "unit,setpoint,reading,reference", "u,,1,1\n"},
+      {with_sp, "unit,setpoint,reading,reading", "u,S1,1,1\n"},
+      {with_role, "unit,setpoint,reading,reference,role", "u,A,1,1,maybe\n"},
+      {with_sp, "unit,setpoint,reading,reference", "# only a comment\n"},
+  };
+  for (const Case& c : unusual) {
+    Dataset fast;
+    BOOST_TEST(!parse_unit_chunk_fast(chunk_of(c.header, c.rows), c.opt, fast), c.rows);
+  }
+  BOOST_CHECK_THROW(parse_unit_chunk(chunk_of(unusual[2].header, unusual[2].rows), with_sp), InputError);
+}
