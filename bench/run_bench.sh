@@ -6,13 +6,15 @@
 # degrees 1..8, lambda 0 + 30 log-spaced values, grouped 5-fold CV.
 #
 # usage: bench/run_bench.sh [BUILD_DIR]       (default: build-bench)
-# env:   UNITS (20000) units for the batch runs, BIG_UNITS (100000) for the
+# env:   UNITS (20000) units for the batch runs, REC_UNITS (2000) for the
+#        runs that also write records, BIG_UNITS (100000) for the
 #        memory run, SK_UNITS (3) scikit-learn units, NP_UNITS (500) numpy
 #        units, PY (/usr/bin/python3, needs python3-numpy python3-sklearn).
 set -euo pipefail
 SRC=$(cd "$(dirname "$0")/.." && pwd)
 BUILD=${1:-$SRC/build-bench}
 UNITS=${UNITS:-20000}
+REC_UNITS=${REC_UNITS:-2000}
 BIG_UNITS=${BIG_UNITS:-100000}
 SK_UNITS=${SK_UNITS:-3}
 NP_UNITS=${NP_UNITS:-500}
@@ -28,6 +30,7 @@ GEN="$BUILD/bench/ridgecal_bench_gen"
 
 echo "== machine: $(getconf _NPROCESSORS_ONLN) cores; load at start: $(cut -d' ' -f1-3 /proc/loadavg)"
 "$GEN" "$UNITS" > "$WORK/units.csv"
+"$GEN" "$REC_UNITS" > "$WORK/rec_units.csv"
 "$GEN" 1 100 20 > "$WORK/big.csv"          # one unit of 2,000 rows
 "$GEN" "$BIG_UNITS" > "$WORK/many.csv"
 
@@ -37,15 +40,15 @@ echo "== kernels (Google Benchmark)"
   | grep -E "^(BM_|-|Benchmark)" || true
 
 FIT="--unit unit --setpoint setpoint --degrees 1..8 --folds 5 --loso-below 0 --timestamp none --progress none"
-run_batch() {  # jobs extra-args -> "wall_s maxrss_kib user_s sys_s"
-  local jobs=$1; shift
+run_batch() {  # file jobs extra-args -> "wall_s maxrss_kib user_s sys_s"
+  local file=$1 jobs=$2; shift 2
   rm -rf "$WORK/out"
-  /usr/bin/time -f "%e %M %U %S" -o "$WORK/time" "$RC" batch "$WORK/units.csv" $FIT -o "$WORK/out" -j "$jobs" "$@" >/dev/null 2>&1
+  /usr/bin/time -f "%e %M %U %S" -o "$WORK/time" "$RC" batch "$file" $FIT -o "$WORK/out" -j "$jobs" "$@" >/dev/null 2>&1
   cat "$WORK/time"
 }
-echo "== whole process: ridgecal batch on $UNITS units"
-B1=$(run_batch 1 --no-records); B2=$(run_batch 2 --no-records)
-R1=$(run_batch 1 --no-sync); R2=$(run_batch 2 --no-sync)
+echo "== whole process: ridgecal batch on $UNITS units (summaries only), $REC_UNITS units (with records)"
+B1=$(run_batch "$WORK/units.csv" 1 --no-records); B2=$(run_batch "$WORK/units.csv" 2 --no-records)
+R1=$(run_batch "$WORK/rec_units.csv" 1 --no-sync); R2=$(run_batch "$WORK/rec_units.csv" 2 --no-sync)
 rm -rf "$WORK/out"
 /usr/bin/time -f "%e %M %U %S" -o "$WORK/time" "$RC" batch "$WORK/many.csv" $FIT -o "$WORK/out" -j 2 --no-records >/dev/null 2>&1
 M=$(cat "$WORK/time")
@@ -55,11 +58,12 @@ echo "== Python baselines (numpy $NP_UNITS units, scikit-learn $SK_UNITS units)"
   --numpy-units "$NP_UNITS" --sklearn-units "$SK_UNITS" > "$WORK/py.json"
 
 echo "== load at end: $(cut -d' ' -f1-3 /proc/loadavg)"
-"$PY" - "$WORK/kernels.json" "$WORK/py.json" "$UNITS" "$BIG_UNITS" "$B1" "$B2" "$R1" "$R2" "$M" <<'PYEOF'
+"$PY" - "$WORK/kernels.json" "$WORK/py.json" "$UNITS" "$BIG_UNITS" "$B1" "$B2" "$R1" "$R2" "$M" "$REC_UNITS" <<'PYEOF'
 import json, sys
 k = json.load(open(sys.argv[1])); py = json.load(open(sys.argv[2]))
 units, big_units = int(sys.argv[3]), int(sys.argv[4])
 b1, b2, r1, r2, m = (tuple(float(v) for v in a.split()) for a in sys.argv[5:10])
+rec_units = int(sys.argv[10])
 def median(name):
     for b in k["benchmarks"]:
         if b["name"] == name + "_median":
@@ -80,8 +84,8 @@ rows = [
     ("fit kernel, 2 threads (units/s)", k2, None, ">= 12000", k2 >= 12000, k2 / np_rate),
     ("ridgecal batch -j1, summaries only (units/s)", units / b1[0], per_cpu(b1), ">= 7000", units / b1[0] >= 7000, units / b1[0] / np_rate),
     ("ridgecal batch -j2, summaries only (units/s)", units / b2[0], None, ">= 12000", units / b2[0] >= 12000, units / b2[0] / np_rate),
-    ("ridgecal batch -j1, + records, no fsync (units/s)", units / r1[0], per_cpu(r1), "", None, units / r1[0] / np_rate),
-    ("ridgecal batch -j2, + records, no fsync (units/s)", units / r2[0], None, "", None, units / r2[0] / np_rate),
+    ("ridgecal batch -j1, + records, no fsync (units/s)", rec_units / r1[0], rec_units / (r1[2] + r1[3]), "", None, rec_units / r1[0] / np_rate),
+    ("ridgecal batch -j2, + records, no fsync (units/s)", rec_units / r2[0], None, "", None, rec_units / r2[0] / np_rate),
     ("2,000-row fit (ms)", big_ms, big["cpu_time"] * {"ms": 1, "us": 1e-3, "ns": 1e-6}[big["time_unit"]], "<= 4", big_ms <= 4, np_big_ms / big_ms),
     (f"peak RSS, {big_units} units, -j2 (MiB)", m[1] / 1024, None, "< 64", m[1] / 1024 < 64, None),
 ]
