@@ -161,7 +161,12 @@ UnitSummary process_unit(const UnitChunk& chunk, const BatchOptions& options) {
       return fail(format_input_error(e));
     }
   }
-  const FitOutcome fit = fit_calibration(data, options.fit);
+  FitOutcome fit;
+  try {
+    fit = fit_calibration(data, options.fit);  // throws InputError e.g. for a setpoint with mixed roles
+  } catch (const InputError& e) {
+    return fail(format_input_error(e));
+  }
   if (!fit.status.ok) return fail(fit.status.message);
   const Calibration& cal = fit.calibration;
   u.status = UnitStatus::Ok;

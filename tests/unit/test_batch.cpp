@@ -5,6 +5,7 @@
 
 #include <boost/test/unit_test.hpp>
 #include <filesystem>
+#include <fmt/format.h>
 #include <fstream>
 #include <string>
 
@@ -293,4 +294,25 @@ BOOST_AUTO_TEST_CASE(the_fast_chunk_parser_agrees_with_the_general_parser) {
     BOOST_TEST(!parse_unit_chunk_fast(chunk_of(c.header, c.rows), c.opt, fast), c.rows);
   }
   BOOST_CHECK_THROW(parse_unit_chunk(chunk_of(unusual[2].header, unusual[2].rows), with_sp), InputError);
+}
+
+BOOST_AUTO_TEST_CASE(a_unit_whose_data_the_fit_rejects_does_not_stop_the_batch) {
+  // Unit M has a setpoint with both roles: the fit's grouping rejects it.
+  TempDir tmp;
+  std::string csv = "unit,setpoint,reading,reference,role\n";
+  for (const char* u : {"A", "M", "B"})
+    for (int s = 0; s < 8; ++s)
+      for (int r = 0; r < 2; ++r)
+        csv += fmt::format("{},S{},{},{},{}\n", u, s, 100 * s + r, 2.0 * s + 0.01 * s * s,
+                           (std::string(u) == "M" && s == 3 && r == 1) ? "check" : (s == 4 ? "check" : "fit"));
+  write(tmp / "in.csv", csv);
+  BatchOptions o = options_for(tmp / "out", 2);
+  o.input.csv.role_column = "role";
+  o.fit.degrees = {1, 2};
+  const BatchResult r = run_batch({tmp / "in.csv"}, o);
+  BOOST_TEST(r.ok == 2u);
+  BOOST_TEST(r.failed == 1u);
+  const BatchSummary s = read_batch_summary(tmp / "out/summary.json");
+  BOOST_TEST(s.units[1].unit == "M");
+  BOOST_TEST(s.units[1].error.find("different roles") != std::string::npos, s.units[1].error);
 }
