@@ -6,8 +6,10 @@
 
 #include "batch_command.hpp"
 #include "cli_common.hpp"
+#include "export_command.hpp"
 #include "fit_command.hpp"
 #include "merge_command.hpp"
+#include "verify_command.hpp"
 #include "ridgecal/record.hpp"
 
 namespace {
@@ -23,6 +25,8 @@ const Subcommand kSubcommands[] = {
     {"fit", "fit a calibration curve to a CSV run and write a calibration record", ridgecal::cli::fit_main},
     {"batch", "calibrate every unit of a production batch: records and a summary", ridgecal::cli::batch_main},
     {"merge-summaries", "merge the batch summaries of several shards", ridgecal::cli::merge_main},
+    {"verify", "as-found check: apply a calibration record to fresh readings, PASS/FAIL", ridgecal::cli::verify_main},
+    {"export", "write a freestanding C header (float, double or fixed point) from a record", ridgecal::cli::export_main},
 };
 
 void usage(std::ostream& os) {
