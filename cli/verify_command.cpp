@@ -25,6 +25,7 @@ po::options_description verify_options() {
     ("reference", po::value<std::string>(), "column holding the reference value (default: the record's)")
     ("setpoint", po::value<std::string>(), "column naming the setpoint (default: the record's)")
     ("delimiter", po::value<std::string>(), "field delimiter: ',', ';' or 'tab' (default: the record's)")
+    ("full", po::bool_switch(), "print every point's error, not only those out of tolerance")
     ("allow-modified", po::bool_switch(), "use a record whose integrity digest does not match (the output says so)")
     ("timestamp", po::value<std::string>()->default_value(""), "creation time to record (ISO 8601), 'none' to omit");
   // clang-format on
@@ -74,6 +75,7 @@ VerifyCommand parse_verify_command(const std::vector<std::string>& args) {
   if (vm.count("setpoint")) cmd.setpoint_column = vm["setpoint"].as<std::string>();
   if (vm.count("delimiter")) cmd.delimiter = parse_delimiter(vm["delimiter"].as<std::string>());
   cmd.allow_modified = vm["allow-modified"].as<bool>();
+  cmd.full = vm["full"].as<bool>();
   cmd.timestamp = vm["timestamp"].as<std::string>();
   const JudgementCli jc = parse_judgement_options(vm);
   cmd.as_found.tolerance = jc.tolerance;
@@ -103,7 +105,7 @@ int run_verify_command(const VerifyCommand& cmd, std::ostream& out, std::ostream
     const AsFoundResult res = evaluate_as_found(rec, data, cmd.as_found);
     const nlohmann::json j = as_found_to_json(res, creation_time(cmd.timestamp));
     if (!cmd.output_path.empty()) write_file_atomic(cmd.output_path, record_text(j));
-    out << res.brief(rec.record.sensor.reference_unit);
+    out << (cmd.full ? res.full(rec.record.sensor.reference_unit) : res.brief(rec.record.sensor.reference_unit));
     err << format_warnings(res.warnings);
     if (!cmd.output_path.empty()) out << "as-found result: " << cmd.output_path << "\n";
     if (res.decision && !res.decision->pass()) {

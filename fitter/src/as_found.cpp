@@ -107,8 +107,18 @@ std::string AsFoundResult::brief(const std::string& unit) const {
   if (tolerance)
     s += fmt::format("tolerance: {}{} (from the {})\n", tolerance->describe(), unit.empty() ? "" : " " + unit,
                      tolerance_source);
-  if (decision) s += decision->brief();
+  if (decision) s += decision->brief();  // lists the points out of tolerance
   else s += "decision: none (no tolerance in the record or on the command line)\n";
+  return s;
+}
+
+std::string AsFoundResult::full(const std::string& unit) const {
+  std::string s = brief(unit);
+  if (decision) s += "  " + decision->statement + "\n";
+  s += "points (line, setpoint, reading, reference, calibrated value, error):\n";
+  for (const AsFoundPoint& p : points)
+    s += fmt::format("  {:>6} {:<10} {:<14g} {:<14g} {:<14.8g} {:+.4g}{}\n", p.line, p.setpoint, p.reading, p.reference,
+                     p.predicted, p.error, p.in_range ? "" : "  (outside the calibrated range)");
   return s;
 }
 

@@ -85,6 +85,22 @@ Decision judge(const std::vector<PointToJudge>& points, const ToleranceSpec& tol
   return d;
 }
 
+namespace {
+std::string failing_points(const std::vector<PointJudgement>& points, std::size_t max_shown) {
+  std::string s;
+  std::size_t shown = 0, failed = 0;
+  for (const PointJudgement& p : points) {
+    if (p.pass) continue;
+    ++failed;
+    if (shown++ < max_shown)
+      s += fmt::format("  out of tolerance: line {} ({}), reference {:g}, error {:+.4g}, acceptance limit {:.4g}\n",
+                       p.line, p.set, p.reference, p.error, p.acceptance_limit);
+  }
+  if (failed > max_shown) s += fmt::format("  ... and {} more points out of tolerance\n", failed - max_shown);
+  return s;
+}
+}  // namespace
+
 std::string Decision::brief() const {
   std::string s = fmt::format("decision: {} ({} acceptance)\n", to_string(verdict),
                               rule == DecisionRule::SimpleAcceptance ? "simple" : "guarded");
@@ -92,7 +108,18 @@ std::string Decision::brief() const {
     s += fmt::format("  {:<10} {} of {} points within tolerance, max |error| {:.4g}, worst {:.0f}% of the limit{}\n",
                      set.name, set.n - set.failed, set.n, set.max_abs_error, 100.0 * set.worst_ratio,
                      set.counts ? "" : " (informative)");
-  return s;
+  return s + failing_points(points, 10);
+}
+
+std::string Decision::full() const {
+  std::string s = fmt::format("decision: {} ({} acceptance)\n", to_string(verdict),
+                              rule == DecisionRule::SimpleAcceptance ? "simple" : "guarded");
+  s += "  " + statement + "\n";
+  for (const SetJudgement& set : sets)
+    s += fmt::format("  {:<10} {} of {} points within tolerance, max |error| {:.4g}, worst {:.0f}% of the limit{}\n",
+                     set.name, set.n - set.failed, set.n, set.max_abs_error, 100.0 * set.worst_ratio,
+                     set.counts ? "" : " (informative)");
+  return s + failing_points(points, points.size());
 }
 
 nlohmann::json to_json(const Decision& d) {

@@ -149,6 +149,16 @@ std::string UncertaintyBudget::brief(const std::string& unit) const {
   return s;
 }
 
+std::string UncertaintyBudget::full(const std::string& unit) const {
+  std::string s = brief(unit);
+  for (const UncertaintyComponent& c : components) s += fmt::format("  {}: {}\n", c.name, c.note);
+  s += "  band: " + band_method + "\n";
+  for (const BandPoint& p : band)
+    s += fmt::format("    reading {:<12g} value {:<12.6g} u_fit {:<10.3g} U {:.3g}\n", p.reading, p.predicted, p.u_fit,
+                     p.expanded);
+  return s;
+}
+
 UncertaintyBudget evaluate_uncertainty(const Calibration& cal, const UncertaintyOptions& options) {
   UncertaintyBudget b;
   b.k = options.coverage_k;

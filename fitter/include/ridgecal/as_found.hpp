@@ -81,6 +81,7 @@ struct AsFoundResult {
   std::vector<Warning> warnings;
 
   std::string brief(const std::string& unit) const;  ///< a few lines for a terminal
+  std::string full(const std::string& unit) const;   ///< brief() plus every point's error
 };
 
 /// Applies the record to the data and judges it. Throws InputError when the

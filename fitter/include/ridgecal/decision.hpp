@@ -66,8 +66,11 @@ struct Decision {
   std::vector<PointJudgement> points;
 
   bool pass() const { return verdict == Verdict::Pass; }
-  /// A few lines for a terminal: verdict, rule, one line per set.
+  /// A few lines for a terminal: verdict, rule, one line per set, and the
+  /// first 10 points that do not conform.
   std::string brief() const;
+  /// brief() plus the statement and every point that does not conform.
+  std::string full() const;
 };
 
 /// Judges every point; sets appear in order of first appearance. A set named

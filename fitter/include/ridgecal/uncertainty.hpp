@@ -81,6 +81,7 @@ struct UncertaintyBudget {
   /// to `expanded` when the band is empty.
   double expanded_at(double reading) const;
   std::string brief(const std::string& unit) const;  ///< a few lines for a terminal
+  std::string full(const std::string& unit) const;   ///< brief() plus the notes and the band
 };
 
 /// Leverages and curve variances of a fitted calibration, rebuilt from its
