@@ -6,6 +6,7 @@
 //  * ITS-90 type K, T(E) over 0..500 degC from the NIST reference function.
 #define BOOST_TEST_MODULE thermometry
 #include <boost/test/unit_test.hpp>
+#include <algorithm>
 #include <cmath>
 #include <fmt/format.h>
 #include <nlohmann/json.hpp>
@@ -13,6 +14,7 @@
 
 #include "ridgecal/as_found.hpp"
 #include "ridgecal/assessment.hpp"
+#include "ridgecal/diagnostics.hpp"
 #include "ridgecal/atomic_file.hpp"
 #include "ridgecal/calibration.hpp"
 #include "test_support.hpp"
@@ -248,4 +250,18 @@ BOOST_AUTO_TEST_CASE(type_k_inverse_over_0_to_500) {
                                  "inverse band -0.05..0.04)",
                                  fit.calibration.model.degree(), fit.calibration.lambda, worst));
   BOOST_TEST(worst <= kTypeKMaxError);
+
+  // The default degrees (1..7) are not enough here (max error about 0.16 degC);
+  // the fit then says so with a degree-at-grid-edge warning.
+  const FitOutcome narrow = fit_calibration(ds, FitOptions{});
+  BOOST_REQUIRE(narrow.status.ok);
+  double worst_narrow = 0;
+  for (double t = 0; t <= 500; t += 0.05)
+    worst_narrow = std::max(worst_narrow, std::fabs(narrow.calibration.model.eval(k.emf(t)) - t));
+  BOOST_TEST_MESSAGE(fmt::format("type K with the default degrees 1..7: degree {}, max error {:.3f} degC",
+                                 narrow.calibration.model.degree(), worst_narrow));
+  const auto edge = check_grid_edges(narrow.calibration);
+  BOOST_TEST((worst_narrow <= kTypeKMaxError ||
+              std::any_of(edge.begin(), edge.end(),
+                          [](const Warning& w) { return w.code == DiagnosticCode::DegreeAtGridEdge; })));
 }
