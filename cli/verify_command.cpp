@@ -1,7 +1,8 @@
 #include "verify_command.hpp"
 
-#include <boost/program_options.hpp>
 #include <fmt/format.h>
+
+#include <boost/program_options.hpp>
 #include <ostream>
 #include <sstream>
 
@@ -38,7 +39,8 @@ std::string verify_usage() {
   std::ostringstream s;
   s << verify_options();
   s << "\nWithout tolerance options the record's tolerance and decision rule apply.\n"
-       "Exit codes: 0 PASS (or no tolerance to judge against), 1 FAIL (the result is still written,\n"
+       "Exit codes: 0 PASS (or no tolerance to judge against), 1 FAIL (the result is still "
+       "written,\n"
        "marked FAIL), 2 bad input or usage, or a modified record (nothing written).\n";
   return s.str();
 }
@@ -64,9 +66,10 @@ VerifyCommand parse_verify_command(const std::vector<std::string>& args) {
   const std::vector<std::string> files =
       vm.count("files") ? vm["files"].as<std::vector<std::string>>() : std::vector<std::string>{};
   if (files.size() != 2)
-    throw UsageError(fmt::format("give a record and a data file (got {} file(s)): ridgecal verify RECORD.json "
-                                 "NEWDATA.csv -o ASFOUND.json",
-                                 files.size()));
+    throw UsageError(
+        fmt::format("give a record and a data file (got {} file(s)): ridgecal verify RECORD.json "
+                    "NEWDATA.csv -o ASFOUND.json",
+                    files.size()));
   cmd.record_path = files[0];
   cmd.data_path = files[1];
   if (vm.count("output")) cmd.output_path = vm["output"].as<std::string>();
@@ -80,9 +83,11 @@ VerifyCommand parse_verify_command(const std::vector<std::string>& args) {
   const JudgementCli jc = parse_judgement_options(vm);
   cmd.as_found.tolerance = jc.tolerance;
   cmd.as_found.rule = jc.rule;
-  if (jc.tolerance && jc.tolerance->percent_of_span > 0 && !(jc.tolerance->span_high > jc.tolerance->span_low))
-    throw UsageError("--tol-percent-span needs --span LO..HI with verify (the span of the new data is not the "
-                     "instrument's span)");
+  if (jc.tolerance && jc.tolerance->percent_of_span > 0 &&
+      !(jc.tolerance->span_high > jc.tolerance->span_low))
+    throw UsageError(
+        "--tol-percent-span needs --span LO..HI with verify (the span of the new data is not the "
+        "instrument's span)");
   if (const std::string e = cmd.as_found.validate(); !e.empty()) throw UsageError(e);
   return cmd;
 }
@@ -105,7 +110,8 @@ int run_verify_command(const VerifyCommand& cmd, std::ostream& out, std::ostream
     const AsFoundResult res = evaluate_as_found(rec, data, cmd.as_found);
     const nlohmann::json j = as_found_to_json(res, creation_time(cmd.timestamp));
     if (!cmd.output_path.empty()) write_file_atomic(cmd.output_path, record_text(j));
-    out << (cmd.full ? res.full(rec.record.sensor.reference_unit) : res.brief(rec.record.sensor.reference_unit));
+    out << (cmd.full ? res.full(rec.record.sensor.reference_unit)
+                     : res.brief(rec.record.sensor.reference_unit));
     err << format_warnings(res.warnings);
     if (!cmd.output_path.empty()) out << "as-found result: " << cmd.output_path << "\n";
     if (res.decision && !res.decision->pass()) {
