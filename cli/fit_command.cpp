@@ -155,9 +155,10 @@ int run_fit_command(const FitCommand& cmd, std::ostream& out, std::ostream& err)
                          cmd.sensor.reading_unit.empty() ? "unstated units" : cmd.sensor.reading_unit,
                          cmd.sensor.reference_unit.empty() ? "unstated units" : cmd.sensor.reference_unit);
     out << (cmd.full ? rec.calibration.full() : rec.calibration.brief());
-    out << assessment.uncertainty.brief(cmd.sensor.reference_unit);
+    out << (cmd.full ? assessment.uncertainty.full(cmd.sensor.reference_unit)
+                     : assessment.uncertainty.brief(cmd.sensor.reference_unit));
     if (assessment.tolerance) out << "tolerance: " << assessment.tolerance->describe() << "\n";
-    if (assessment.decision) out << assessment.decision->brief();
+    if (assessment.decision) out << (cmd.full ? assessment.decision->full() : assessment.decision->brief());
     else out << "decision: none (no tolerance given)\n";
     err << format_warnings(assessment.warnings);
     if (!cmd.output_path.empty()) out << "record: " << cmd.output_path << "\n";
