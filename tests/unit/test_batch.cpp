@@ -316,3 +316,28 @@ BOOST_AUTO_TEST_CASE(a_unit_whose_data_the_fit_rejects_does_not_stop_the_batch) 
   BOOST_TEST(s.units[1].unit == "M");
   BOOST_TEST(s.units[1].error.find("different roles") != std::string::npos, s.units[1].error);
 }
+
+BOOST_AUTO_TEST_CASE(with_a_tolerance_every_fitted_unit_gets_a_verdict) {
+  // The synthetic units have max errors of a few tenths of a degree: a
+  // tolerance of +-10 passes them all, +-0.01 fails them all.
+  TempDir tmp;
+  write(tmp / "in.csv", synthetic_file(0, 4) + "BAD,S01,1,1\n");
+  for (const double tol : {10.0, 0.01}) {
+    const std::string out = tmp / ("out" + std::to_string(tol));
+    BatchOptions o = options_for(out, 2);
+    ToleranceSpec t;
+    t.offset = tol;
+    o.assess.tolerance = t;
+    const BatchResult r = run_batch({tmp / "in.csv"}, o);
+    BOOST_TEST(r.ok == 4u);
+    BOOST_TEST(r.failed == 1u);
+    BOOST_TEST(r.out_of_tolerance == (tol > 1 ? 0u : 4u));
+    const BatchSummary s = read_batch_summary(out + "/summary.json");
+    for (std::size_t i = 0; i < 4; ++i)
+      BOOST_TEST((s.units[i].verdict == (tol > 1 ? UnitVerdict::Pass : UnitVerdict::Fail)));
+    BOOST_TEST((s.units[4].verdict == UnitVerdict::NotAssessed));
+    const auto rec = nlohmann::json::parse(read_file_bytes(out + "/records/U000001.json"));
+    BOOST_TEST(rec.contains("decision"));
+    BOOST_TEST(read_file_bytes(out + "/summary.csv").find(tol > 1 ? ",PASS," : ",FAIL,") != std::string::npos);
+  }
+}
