@@ -192,8 +192,12 @@ UnitSummary process_unit(const UnitChunk& chunk, const BatchOptions& options) {
     if (sel.lambdas.size() > 1 && cal.lambda == sel.lambdas.back())
       u.warnings.push_back(fmt::format("the chosen lambda {} is the largest candidate", cal.lambda));
   }
-  // Tolerance, decision, uncertainty and diagnostics, as `ridgecal fit` does.
-  Assessment assessment = assess_calibration(data, cal, options.assess);
+  // Tolerance, decision, uncertainty and diagnostics, as `ridgecal fit` does,
+  // whenever there is a verdict to give or a record to write. (The assessment
+  // costs about 15 times the fit itself, so a summary-only run without a
+  // tolerance skips it; its summary then has no diagnostic warnings.)
+  Assessment assessment;
+  if (options.assess.tolerance || options.write_records) assessment = assess_calibration(data, cal, options.assess);
   if (assessment.decision) u.verdict = assessment.decision->pass() ? UnitVerdict::Pass : UnitVerdict::Fail;
   for (const Warning& w : assessment.warnings) u.warnings.push_back(to_string(w.code) + ": " + w.message);
   if (options.write_records) {

@@ -17,7 +17,11 @@
 // Failure of one unit (bad row, too few setpoints, a reappearing unit) is
 // recorded in its summary row and does not stop the others. With a tolerance
 // (assess.tolerance) every fitted unit is judged as `ridgecal fit` judges it
-// (assessment.hpp): verdict PASS or FAIL in the summary and the record.
+// (assessment.hpp): verdict PASS or FAIL in the summary and the record. Units
+// are assessed when a tolerance is given or records are written (a record
+// carries the assessment, as `ridgecal fit` writes it); a summary-only run
+// without a tolerance skips the assessment, which costs about 15 times the
+// fit, and its summary has no diagnostic warnings.
 #pragma once
 
 #include <cstdint>
