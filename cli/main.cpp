@@ -10,6 +10,7 @@
 #include "fit_command.hpp"
 #include "merge_command.hpp"
 #include "verify_command.hpp"
+#include "report_command.hpp"
 #include "ridgecal/record.hpp"
 
 namespace {
@@ -27,6 +28,7 @@ const Subcommand kSubcommands[] = {
     {"merge-summaries", "merge the batch summaries of several shards", ridgecal::cli::merge_main},
     {"verify", "as-found check: apply a calibration record to fresh readings, PASS/FAIL", ridgecal::cli::verify_main},
     {"export", "write a freestanding C header (float, double or fixed point) from a record", ridgecal::cli::export_main},
+    {"report", "write the QA calibration report (HTML) of a calibration record", ridgecal::cli::report_main},
 };
 
 void usage(std::ostream& os) {
