@@ -9,6 +9,7 @@
 #include <sstream>
 
 #include "cli_common.hpp"
+#include "judgement_options.hpp"
 #include "ridgecal/errors.hpp"
 
 namespace po = boost::program_options;
@@ -64,6 +65,8 @@ po::options_description batch_options() {
     ("reference-unit", po::value<std::string>()->default_value(""), "unit of the reference, e.g. degC")
     ("timestamp", po::value<std::string>()->default_value(""), "creation time for records and summary (ISO 8601), 'none' to omit; default: now or SOURCE_DATE_EPOCH");
   // clang-format on
+  add_tolerance_options(d);
+  add_uncertainty_options(d);
   return d;
 }
 }  // namespace
@@ -73,7 +76,8 @@ std::string batch_usage() {
   s << batch_options();
   s << "\nOutputs are written atomically. Units that fail are listed in the summary with their error;\n"
        "the others are unaffected.\n"
-       "Exit codes: 0 every unit fitted, 1 at least one unit failed, 2 bad usage or unusable input.\n";
+       "Exit codes: 0 every unit fitted (and PASS, with a tolerance), 1 at least one unit failed or is\n"
+       "out of tolerance, 2 bad usage or unusable input (no summary written).\n";
   return s.str();
 }
 
@@ -143,6 +147,13 @@ BatchCommand parse_batch_command(const std::vector<std::string>& args) {
   b.sensor.reading_unit = vm["reading-unit"].as<std::string>();
   b.sensor.reference_unit = vm["reference-unit"].as<std::string>();
   cmd.timestamp = vm["timestamp"].as<std::string>();
+  const JudgementCli jc = parse_judgement_options(vm);
+  b.assess.tolerance = jc.tolerance;
+  b.assess.rule = jc.rule.value_or(DecisionRule::SimpleAcceptance);
+  b.assess.uncertainty = jc.uncertainty;
+  b.assess.diagnostics = jc.diagnostics;
+  if (jc.rule && !jc.tolerance)
+    throw UsageError("--decision needs a tolerance: give --tol-offset, --tol-proportional, --tol-percent-span or --tol-class");
   if (const std::string e = b.validate(); !e.empty()) throw UsageError(e);
   return cmd;
 }
@@ -188,9 +199,10 @@ int run_batch_command(const BatchCommand& cmd, std::ostream& out, std::ostream& 
   try {
     const std::vector<std::string> inputs = batch_input_files(cmd.data_path);
     const BatchResult r = run_batch(inputs, opt, cb, interval);
-    out << fmt::format("{} units: {} ok, {} failed\n", r.units, r.ok, r.failed);
-    out << "summary: " << opt.out_dir << "/summary.csv, " << opt.out_dir << "/summary.json\n";
-    return r.failed > 0 ? kExitOutOfTolerance : kExitOk;
+    out << fmt::format("{} units: {} ok, {} failed", r.units, r.ok, r.failed);
+    if (opt.assess.tolerance) out << fmt::format(", {} out of tolerance", r.out_of_tolerance);
+    out << "\nsummary: " << opt.out_dir << "/summary.csv, " << opt.out_dir << "/summary.json\n";
+    return r.failed > 0 || r.out_of_tolerance > 0 ? kExitOutOfTolerance : kExitOk;
   } catch (const InputError& e) {
     err << "\nridgecal batch: " << format_input_error(e) << "\n";
     return kExitBadInput;

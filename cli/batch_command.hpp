@@ -2,9 +2,10 @@
 // directory of CSV files) with one set of fit options; records per unit and a
 // summary. See fitter/include/ridgecal/batch_run.hpp and docs/batch.md.
 //
-// Exit codes: 0 every unit fitted; 1 at least one unit failed (its summary
-// row says why; the others are complete); 2 bad usage or an unusable input
-// as a whole (no file, no header, missing column): no summary is written.
+// Exit codes: 0 every unit fitted (and PASS when a tolerance is given); 1 at
+// least one unit failed (its summary row says why; the others are complete)
+// or is out of tolerance; 2 bad usage or an unusable input as a whole (no
+// file, no header, missing column): no summary is written.
 #pragma once
 
 #include <iosfwd>

@@ -30,7 +30,8 @@ std::string merge_usage() {
   std::ostringstream s;
   s << merge_options();
   s << "\nEach SHARD is a summary.json written by 'ridgecal batch', or the batch output directory holding it.\n"
-       "Exit codes: 0 merged and every unit ok, 1 merged with failed units, 2 bad usage or input (nothing written).\n";
+       "Exit codes: 0 merged and every unit ok, 1 merged with failed or out-of-tolerance units, 2 bad usage or input\n"
+       "(nothing written).\n";
   return s.str();
 }
 
@@ -78,11 +79,14 @@ int run_merge_command(const MergeCommand& cmd, std::ostream& out, std::ostream& 
     std::filesystem::create_directories(cmd.out_dir, ec);
     if (ec) throw InputError(cmd.out_dir, 0, "cannot create the output directory: " + ec.message(), "check the path");
     write_batch_summary(merged, cmd.out_dir);
-    std::size_t failed = 0;
-    for (const auto& u : merged.units) failed += u.status == UnitStatus::Failed;
-    out << fmt::format("{} shards, {} units: {} ok, {} failed\n", shards.size(), merged.units.size(),
-                       merged.units.size() - failed, failed);
-    return failed ? kExitOutOfTolerance : kExitOk;
+    std::size_t failed = 0, oot = 0;
+    for (const auto& u : merged.units) {
+      failed += u.status == UnitStatus::Failed;
+      oot += u.verdict == UnitVerdict::Fail;
+    }
+    out << fmt::format("{} shards, {} units: {} ok, {} failed, {} out of tolerance\n", shards.size(),
+                       merged.units.size(), merged.units.size() - failed, failed, oot);
+    return failed || oot ? kExitOutOfTolerance : kExitOk;
   } catch (const InputError& e) {
     err << "ridgecal merge-summaries: " << format_input_error(e) << "\n";
     return kExitBadInput;

@@ -3,8 +3,8 @@
 // Units are sorted by label; a unit found in two shards, or shards fitted
 // with different settings, are refused (exit 2) unless --allow-mixed-settings.
 //
-// Exit codes: 0 merged, every unit ok; 1 merged, some unit failed; 2 bad
-// usage or input (nothing written).
+// Exit codes: 0 merged, every unit ok; 1 merged, some unit failed or is out
+// of tolerance; 2 bad usage or input (nothing written).
 #pragma once
 
 #include <iosfwd>

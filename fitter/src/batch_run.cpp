@@ -30,6 +30,7 @@ using nlohmann::json;
 std::string BatchOptions::validate() const {
   if (const std::string e = input.validate(); !e.empty()) return e;
   if (const std::string e = fit.validate(); !e.empty()) return e;
+  if (const std::string e = assess.validate(); !e.empty()) return e;
   if (out_dir.empty()) return "out_dir is empty; give the output directory";
   if (jobs < 0 || jobs > 1024) return fmt::format("jobs is {}; it must be between 0 (all cores) and 1024", jobs);
   if (window_per_job < 1 || window_per_job > 4096)
@@ -62,6 +63,12 @@ json batch_settings_json(const BatchOptions& o) {
               {"loso_below", f.split.loso_below},
               {"fixed_degree", f.fixed_degree ? json(*f.fixed_degree) : json(nullptr)},
               {"fixed_lambda", f.fixed_lambda ? json(*f.fixed_lambda) : json(nullptr)}};
+  s["judgement"] = {{"tolerance", o.assess.tolerance ? json(o.assess.tolerance->describe()) : json(nullptr)},
+                    {"decision", to_string(o.assess.rule)},
+                    {"reference_uncertainty", o.assess.uncertainty.reference_uncertainty},
+                    {"reference_k", o.assess.uncertainty.reference_k},
+                    {"resolution", o.assess.uncertainty.resolution},
+                    {"coverage_k", o.assess.uncertainty.coverage_k}};
   s["sensor"] = {{"name", o.sensor.name}, {"reading_unit", o.sensor.reading_unit},
                  {"reference_unit", o.sensor.reference_unit}};
   return s;
@@ -185,8 +192,14 @@ UnitSummary process_unit(const UnitChunk& chunk, const BatchOptions& options) {
     if (sel.lambdas.size() > 1 && cal.lambda == sel.lambdas.back())
       u.warnings.push_back(fmt::format("the chosen lambda {} is the largest candidate", cal.lambda));
   }
-  // Hook: a tolerance verdict (issue 4) sets u.verdict here once that module
-  // is on main; until then every unit is "n/a".
+  // Tolerance, decision, uncertainty and diagnostics, as `ridgecal fit` does,
+  // whenever there is a verdict to give or a record to write. (The assessment
+  // costs about 15 times the fit itself, so a summary-only run without a
+  // tolerance skips it; its summary then has no diagnostic warnings.)
+  Assessment assessment;
+  if (options.assess.tolerance || options.write_records) assessment = assess_calibration(data, cal, options.assess);
+  if (assessment.decision) u.verdict = assessment.decision->pass() ? UnitVerdict::Pass : UnitVerdict::Fail;
+  for (const Warning& w : assessment.warnings) u.warnings.push_back(to_string(w.code) + ": " + w.message);
   if (options.write_records) {
     CalibrationRecord rec;
     rec.tool_version = tool_version();
@@ -196,6 +209,10 @@ UnitSummary process_unit(const UnitChunk& chunk, const BatchOptions& options) {
     rec.input = InputInfo{chunk.file, data.sha256.empty() ? sha256_hex(chunk.text) : data.sha256, data.rows.size(),
                           options.input.csv};
     rec.calibration = cal;
+    rec.tolerance = std::move(assessment.tolerance);
+    rec.decision = std::move(assessment.decision);
+    rec.uncertainty = std::move(assessment.uncertainty);
+    rec.warnings = std::move(assessment.warnings);
     write_whole_file_atomic(options.out_dir + "/" + rel, record_text(record_to_json(rec)), options.sync_records);
     u.record = rel;
     // Hook: the per-unit HTML report (issue 5) and firmware header (issue 3)
@@ -231,6 +248,7 @@ BatchResult run_batch(const std::vector<std::string>& inputs, const BatchOptions
     js.append(summary_json_unit(u, res.units == 0));
     ++res.units;
     (u.status == UnitStatus::Ok ? res.ok : res.failed)++;
+    if (u.verdict == UnitVerdict::Fail) ++res.out_of_tolerance;
     if (progress && std::chrono::duration<double>(Clock::now() - last_report).count() >= progress_interval_s) {
       last_report = Clock::now();
       prog = BatchProgress{res.units, res.failed, reader.bytes_read(), reader.bytes_total(), seconds(), false};
@@ -324,7 +342,7 @@ BatchResult run_batch(const std::vector<std::string>& inputs, const BatchOptions
     if (error) std::rethrow_exception(error);
   }
 
-  js.append(summary_json_tail(res.units, res.ok, res.failed));
+  js.append(summary_json_tail(res.units, res.ok, res.failed, res.out_of_tolerance));
   csv.commit(true);
   js.commit(true);
   res.seconds = seconds();

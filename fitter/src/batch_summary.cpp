@@ -165,8 +165,11 @@ std::string summary_json_unit(const UnitSummary& u, bool first) {
       jnum(u.test_rmse), jnum(u.max_abs_error), to_string(u.verdict), w, str(u.error), str(u.record));
 }
 
-std::string summary_json_tail(std::uint64_t units, std::uint64_t ok, std::uint64_t failed) {
-  return fmt::format("\n  ],\n  \"totals\": {{\"units\": {}, \"ok\": {}, \"failed\": {}}}\n}}\n", units, ok, failed);
+std::string summary_json_tail(std::uint64_t units, std::uint64_t ok, std::uint64_t failed,
+                              std::uint64_t out_of_tolerance) {
+  return fmt::format(
+      "\n  ],\n  \"totals\": {{\"units\": {}, \"ok\": {}, \"failed\": {}, \"out_of_tolerance\": {}}}\n}}\n", units,
+      ok, failed, out_of_tolerance);
 }
 
 BatchSummary read_batch_summary(const std::string& path) {
@@ -237,13 +240,14 @@ BatchSummary merge_batch_summaries(const std::vector<BatchSummary>& shards, cons
 void write_batch_summary(const BatchSummary& s, const std::string& dir) {
   std::string js = summary_json_head(s.created_utc, s.settings, s.inputs);
   std::string csv = summary_csv_header();
-  std::uint64_t ok = 0;
+  std::uint64_t ok = 0, oot = 0;
   for (std::size_t i = 0; i < s.units.size(); ++i) {
     js += summary_json_unit(s.units[i], i == 0);
     csv += summary_csv_row(s.units[i]);
     if (s.units[i].status == UnitStatus::Ok) ++ok;
+    if (s.units[i].verdict == UnitVerdict::Fail) ++oot;
   }
-  js += summary_json_tail(s.units.size(), ok, s.units.size() - ok);
+  js += summary_json_tail(s.units.size(), ok, s.units.size() - ok, oot);
   if (s.settings_sha256 == "mixed") {
     const std::string key = "\"settings_sha256\": \"";
     const auto p = js.find(key);

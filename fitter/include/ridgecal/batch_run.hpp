@@ -15,7 +15,13 @@
 // order, so all outputs are byte-identical for any number of jobs.
 //
 // Failure of one unit (bad row, too few setpoints, a reappearing unit) is
-// recorded in its summary row and does not stop the others.
+// recorded in its summary row and does not stop the others. With a tolerance
+// (assess.tolerance) every fitted unit is judged as `ridgecal fit` judges it
+// (assessment.hpp): verdict PASS or FAIL in the summary and the record. Units
+// are assessed when a tolerance is given or records are written (a record
+// carries the assessment, as `ridgecal fit` writes it); a summary-only run
+// without a tolerance skips the assessment, which costs about 15 times the
+// fit, and its summary has no diagnostic warnings.
 #pragma once
 
 #include <cstdint>
@@ -23,6 +29,7 @@
 #include <string>
 #include <vector>
 
+#include "ridgecal/assessment.hpp"
 #include "ridgecal/batch_reader.hpp"
 #include "ridgecal/batch_summary.hpp"
 #include "ridgecal/calibration.hpp"
@@ -33,6 +40,7 @@ namespace ridgecal {
 struct BatchOptions {
   BatchInputOptions input;   ///< unit column and the other columns
   FitOptions fit;            ///< the same fit settings for every unit
+  AssessmentOptions assess;  ///< tolerance, decision rule, uncertainty, diagnostics (as `fit`)
   SensorInfo sensor;         ///< copied into every record (name may be empty)
   std::string out_dir;       ///< created if missing; required
   int jobs = 0;              ///< worker threads; 0 = all cores (std::thread::hardware_concurrency)
@@ -58,8 +66,9 @@ struct BatchProgress {
 
 struct BatchResult {
   std::uint64_t units = 0;
-  std::uint64_t ok = 0;
-  std::uint64_t failed = 0;
+  std::uint64_t ok = 0;              ///< fitted (whatever their verdict)
+  std::uint64_t failed = 0;          ///< not fitted
+  std::uint64_t out_of_tolerance = 0;  ///< fitted with verdict FAIL
   double seconds = 0.0;
 };
 

@@ -8,7 +8,7 @@
 //   inputs[]       the input files,
 //   units[{unit, status, rows, degree, lambda, validation_rmse, test_rmse,
 //          max_abs_error, verdict, warnings[], error, record}],
-//   totals{units, ok, failed}
+//   totals{units, ok, failed, out_of_tolerance}
 // Non-finite or absent numbers are null. The summary CSV has the same unit
 // fields, one row per unit, warnings joined by "; ".
 #pragma once
@@ -44,7 +44,7 @@ struct UnitSummary {
   double validation_rmse = 0.0;   ///< held-out CV RMSE of the chosen cell (NaN: none)
   double test_rmse = 0.0;         ///< on the test setpoints (NaN: none)
   double max_abs_error = 0.0;     ///< largest |error| of the final curve over all the unit's points
-  UnitVerdict verdict = UnitVerdict::NotAssessed;
+  UnitVerdict verdict = UnitVerdict::NotAssessed;  ///< PASS/FAIL when a tolerance was given
   std::vector<std::string> warnings;
   std::string error;   ///< why the unit failed
   std::string record;  ///< record file, relative to the output directory ("" if none)
@@ -66,7 +66,8 @@ std::string summary_json_head(const std::string& created_utc, const nlohmann::js
 /// One unit entry; `first` says whether it is the first (no leading comma).
 std::string summary_json_unit(const UnitSummary& u, bool first);
 /// Closes the units array and writes the totals.
-std::string summary_json_tail(std::uint64_t units, std::uint64_t ok, std::uint64_t failed);
+std::string summary_json_tail(std::uint64_t units, std::uint64_t ok, std::uint64_t failed,
+                              std::uint64_t out_of_tolerance);
 
 /// A parsed summary JSON file.
 struct BatchSummary {
