@@ -12,6 +12,9 @@
 
 namespace ridgecal {
 
+/// Longest sensor or unit name accepted into a record.
+inline constexpr std::size_t kMaxRecordNameBytes = 1024;
+
 /// True when `s` is well-formed UTF-8 (no overlong forms, no surrogates, no
 /// code points above U+10FFFF, no truncated sequences).
 bool is_valid_utf8(std::string_view s);
