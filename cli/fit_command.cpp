@@ -145,6 +145,11 @@ int run_fit_command(const FitCommand& cmd, std::ostream& out, std::ostream& err)
     rec.calibration = fit.calibration;
     const nlohmann::json j = record_to_json(rec);
     if (!cmd.output_path.empty()) write_file_atomic(cmd.output_path, record_text(j));
+    if (!cmd.sensor.name.empty() || !cmd.sensor.reading_unit.empty() || !cmd.sensor.reference_unit.empty())
+      out << fmt::format("sensor: {} (reading in {}, reference in {})\n",
+                         cmd.sensor.name.empty() ? "unnamed" : cmd.sensor.name,
+                         cmd.sensor.reading_unit.empty() ? "unstated units" : cmd.sensor.reading_unit,
+                         cmd.sensor.reference_unit.empty() ? "unstated units" : cmd.sensor.reference_unit);
     out << (cmd.full ? rec.calibration.full() : rec.calibration.brief());
     if (!cmd.output_path.empty()) out << "record: " << cmd.output_path << "\n";
     return kExitOk;
