@@ -438,11 +438,15 @@ std::string Calibration::brief() const {
 
 std::string Calibration::full() const {
   std::string s = brief();
+  // Non-finite figures print as n/a (never nan or inf).
+  const auto g = [](double v, const char* spec) {
+    return std::isfinite(v) ? fmt::format(fmt::runtime(spec), v) : std::string("n/a");
+  };
   s += "chebyshev coefficients (scaled reading t):";
-  for (double c : model.cheb) s += fmt::format(" {:.17g}", c);
+  for (double c : model.cheb) s += " " + g(c, "{:.17g}");
   s += "\npower coefficients (raw reading x):";
-  for (double c : model.power_in_x()) s += fmt::format(" {:.17g}", c);
-  s += fmt::format("\ncondition number: {:.3g}\n", condition_number);
+  for (double c : model.power_in_x()) s += " " + g(c, "{:.17g}");
+  s += "\ncondition number: " + g(condition_number, "{:.3g}") + "\n";
   for (const auto& note : selection.notes) s += "note: " + note + "\n";
   return s;
 }
