@@ -68,7 +68,7 @@ case $mode in
       cmake --build build-asan -j "$jobs"
       ASAN_OPTIONS=detect_leaks=1:strict_string_checks=1:detect_stack_use_after_return=1 \
         UBSAN_OPTIONS=print_stacktrace=1:halt_on_error=1 \
-        ctest --test-dir build-asan --output-on-failure -j "$jobs" -LE external
+        ctest --test-dir build-asan --output-on-failure -j "$jobs" -LE "external|firmware"
     fi
     # Fuzzers: each for RIDGECAL_FUZZ_SECONDS (default 60) under libFuzzer.
     if [[ ${RIDGECAL_SKIP_FUZZ:-0} != 1 ]]; then

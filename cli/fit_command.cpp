@@ -6,6 +6,7 @@
 #include <sstream>
 
 #include "cli_common.hpp"
+#include "judgement_options.hpp"
 #include "ridgecal/atomic_file.hpp"
 #include "ridgecal/errors.hpp"
 #include "ridgecal/text_check.hpp"
@@ -44,8 +45,11 @@ po::options_description fit_options() {
     ("reading-unit", po::value<std::string>()->default_value(""), "unit of the reading, e.g. counts")
     ("reference-unit", po::value<std::string>()->default_value(""), "unit of the reference, e.g. degC")
     ("timestamp", po::value<std::string>()->default_value(""), "creation time to record (ISO 8601), 'none' to omit; default: now or SOURCE_DATE_EPOCH")
-    ("full", po::bool_switch(), "print the full summary (coefficients, notes)");
+    ("full", po::bool_switch(), "print the full summary (coefficients, notes)")
+    ("direction", po::value<std::string>(), "column with 'up' or 'down' per row: the sweep direction (hysteresis check)");
   // clang-format on
+  add_tolerance_options(d);
+  add_uncertainty_options(d);
   return d;
 }
 }  // namespace
@@ -53,7 +57,8 @@ po::options_description fit_options() {
 std::string fit_usage() {
   std::ostringstream s;
   s << fit_options();
-  s << "\nExit codes: 0 done, 1 out of tolerance, 2 bad input or usage (nothing written).\n";
+  s << "\nExit codes: 0 done (PASS, or no tolerance given), 1 out of tolerance (FAIL; the record is still written,\n"
+       "marked FAIL), 2 bad input or usage (nothing written).\n";
   return s.str();
 }
 
@@ -84,6 +89,7 @@ FitCommand parse_fit_command(const std::vector<std::string>& args) {
   cmd.csv.reference_column = vm["reference"].as<std::string>();
   if (vm.count("setpoint")) cmd.csv.setpoint_column = vm["setpoint"].as<std::string>();
   if (vm.count("role")) cmd.csv.role_column = vm["role"].as<std::string>();
+  if (vm.count("direction")) cmd.csv.direction_column = vm["direction"].as<std::string>();
   cmd.csv.delimiter = parse_delimiter(vm["delimiter"].as<std::string>());
   cmd.csv.decimal_comma = vm["decimal-comma"].as<bool>();
   cmd.csv.limits.max_rows = vm["max-rows"].as<std::size_t>();
@@ -124,6 +130,14 @@ FitCommand parse_fit_command(const std::vector<std::string>& args) {
                                  shown_text(cmd.data_path)));
   cmd.timestamp = vm["timestamp"].as<std::string>();
   cmd.full = vm["full"].as<bool>();
+  const JudgementCli jc = parse_judgement_options(vm);
+  cmd.assess.tolerance = jc.tolerance;
+  cmd.assess.rule = jc.rule.value_or(DecisionRule::SimpleAcceptance);
+  cmd.assess.uncertainty = jc.uncertainty;
+  cmd.assess.diagnostics = jc.diagnostics;
+  if (jc.rule && !jc.tolerance)
+    throw UsageError("--decision needs a tolerance: give --tol-offset, --tol-proportional, --tol-percent-span or --tol-class");
+  if (const std::string e = cmd.assess.validate(); !e.empty()) throw UsageError(e);
   return cmd;
 }
 
@@ -143,6 +157,11 @@ int run_fit_command(const FitCommand& cmd, std::ostream& out, std::ostream& err)
     rec.sensor = cmd.sensor;
     rec.input = InputInfo{cmd.data_path, data.sha256, data.rows.size(), cmd.csv};
     rec.calibration = fit.calibration;
+    const Assessment assessment = assess_calibration(data, rec.calibration, cmd.assess);
+    rec.tolerance = assessment.tolerance;
+    rec.decision = assessment.decision;
+    rec.uncertainty = assessment.uncertainty;
+    rec.warnings = assessment.warnings;
     const nlohmann::json j = record_to_json(rec);
     if (!cmd.output_path.empty()) write_file_atomic(cmd.output_path, record_text(j));
     if (!cmd.sensor.name.empty() || !cmd.sensor.reading_unit.empty() || !cmd.sensor.reference_unit.empty())
@@ -151,7 +170,17 @@ int run_fit_command(const FitCommand& cmd, std::ostream& out, std::ostream& err)
                          cmd.sensor.reading_unit.empty() ? "unstated units" : cmd.sensor.reading_unit,
                          cmd.sensor.reference_unit.empty() ? "unstated units" : cmd.sensor.reference_unit);
     out << (cmd.full ? rec.calibration.full() : rec.calibration.brief());
+    out << assessment.uncertainty.brief(cmd.sensor.reference_unit);
+    if (assessment.tolerance) out << "tolerance: " << assessment.tolerance->describe() << "\n";
+    if (assessment.decision) out << assessment.decision->brief();
+    else out << "decision: none (no tolerance given)\n";
+    err << format_warnings(assessment.warnings);
     if (!cmd.output_path.empty()) out << "record: " << cmd.output_path << "\n";
+    if (assessment.decision && !assessment.decision->pass()) {
+      out << "FAIL: out of tolerance; the record is written and marked FAIL\n";
+      return kExitOutOfTolerance;
+    }
+    if (assessment.decision) out << "PASS\n";
     return kExitOk;
   } catch (const InputError& e) {
     err << "ridgecal fit: " << format_input_error(e) << "\n";

@@ -5,6 +5,7 @@
 #include <string>
 #include <vector>
 
+#include "ridgecal/assessment.hpp"
 #include "ridgecal/calibration.hpp"
 #include "ridgecal/calibration_csv.hpp"
 #include "ridgecal/record.hpp"
@@ -19,6 +20,7 @@ struct FitCommand {
   SensorInfo sensor;
   std::string timestamp;  ///< injected creation time ("" = now, "none" = omit)
   bool full = false;      ///< print the full text form
+  AssessmentOptions assess;  ///< tolerance, decision rule, uncertainty inputs, diagnostics
 };
 
 /// Parses `ridgecal fit` arguments. Throws UsageError on a bad command line

@@ -5,7 +5,9 @@
 #include <vector>
 
 #include "cli_common.hpp"
+#include "export_command.hpp"
 #include "fit_command.hpp"
+#include "verify_command.hpp"
 #include "ridgecal/record.hpp"
 
 namespace {
@@ -19,6 +21,8 @@ struct Subcommand {
 // Every subcommand: one file pair in cli/, one line here.
 const Subcommand kSubcommands[] = {
     {"fit", "fit a calibration curve to a CSV run and write a calibration record", ridgecal::cli::fit_main},
+    {"verify", "as-found check: apply a calibration record to fresh readings, PASS/FAIL", ridgecal::cli::verify_main},
+    {"export", "write a freestanding C header (float, double or fixed point) from a record", ridgecal::cli::export_main},
 };
 
 void usage(std::ostream& os) {

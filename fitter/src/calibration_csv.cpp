@@ -29,12 +29,17 @@ std::string CsvOptions::validate() const {
                        reading_column);
   if (delimiter != ',' && delimiter != ';' && delimiter != '\t')
     return fmt::format("delimiter is '{}'; it must be ',', ';' or a tab", shown_text(std::string(1, delimiter)));
+  if (!direction_column.empty() &&
+      (direction_column == reading_column || direction_column == reference_column))
+    return fmt::format("direction_column is '{}'; it must differ from the reading and reference columns",
+                       direction_column);
   if (decimal_comma && delimiter == ',')
     return "decimal_comma is set with delimiter ','; a decimal comma needs delimiter ';' or a tab";
   const std::pair<const char*, const std::string*> names[] = {{"reading_column", &reading_column},
                                                               {"reference_column", &reference_column},
                                                               {"setpoint_column", &setpoint_column},
-                                                              {"role_column", &role_column}};
+                                                              {"role_column", &role_column},
+                                                              {"direction_column", &direction_column}};
   for (const auto& [field, value] : names)
     if (const std::string why = name_problem(*value, limits.max_field_bytes); !why.empty())
       return fmt::format("{} '{}' {}", field, shown_text(*value), why);
@@ -57,6 +62,24 @@ UserRole user_role_from_string(const std::string& s) {
   if (l == "check") return UserRole::Check;
   if (l == "unspecified") return UserRole::Unspecified;
   throw std::invalid_argument("role must be 'fit' or 'check', got '" + s + "'");
+}
+
+std::string to_string(SweepDirection d) {
+  switch (d) {
+    case SweepDirection::Unspecified: return "unspecified";
+    case SweepDirection::Up: return "up";
+    case SweepDirection::Down: return "down";
+  }
+  return "unspecified";
+}
+
+SweepDirection sweep_direction_from_string(const std::string& s) {
+  std::string l = s;
+  std::transform(l.begin(), l.end(), l.begin(), [](unsigned char c) { return std::tolower(c); });
+  if (l == "up") return SweepDirection::Up;
+  if (l == "down") return SweepDirection::Down;
+  if (l == "unspecified") return SweepDirection::Unspecified;
+  throw std::invalid_argument("direction must be 'up' or 'down', got '" + s + "'");
 }
 
 namespace {
@@ -184,6 +207,7 @@ Dataset parse_calibration_csv(const std::string& text, const std::string& file,
   std::vector<std::string> header;
   std::size_t header_line = 0;
   int reading_idx = -1, reference_idx = -1, setpoint_idx = -1, role_idx = -1;
+  int direction_idx = -1;
   std::size_t lineno = 0;
   while (!rest.empty()) {
     const std::size_t nl = rest.find('\n');
@@ -225,6 +249,7 @@ Dataset parse_calibration_csv(const std::string& text, const std::string& file,
       reference_idx = find(options.reference_column, "reference");
       if (!options.setpoint_column.empty()) setpoint_idx = find(options.setpoint_column, "setpoint");
       if (!options.role_column.empty()) role_idx = find(options.role_column, "role");
+      if (!options.direction_column.empty()) direction_idx = find(options.direction_column, "direction");
       continue;
     }
     if (fields.size() != header.size())
@@ -265,6 +290,18 @@ Dataset parse_calibration_csv(const std::string& text, const std::string& file,
         throw InputError(file, lineno,
                          fmt::format("the role column '{}' holds '{}'", shown(options.role_column), shown(cell)),
                          "use 'fit' for points to calibrate on and 'check' for held-out check points");
+      }
+    }
+    if (direction_idx >= 0) {
+      const std::string& cell = fields[static_cast<std::size_t>(direction_idx)];
+      try {
+        ob.direction = sweep_direction_from_string(trim(cell));
+        if (ob.direction == SweepDirection::Unspecified) throw std::invalid_argument("");
+      } catch (const std::invalid_argument&) {
+        throw InputError(file, lineno,
+                         fmt::format("the direction column '{}' holds '{}'", shown(options.direction_column),
+                                     shown(cell)),
+                         "use 'up' for rows taken on the rising sweep and 'down' for the falling sweep");
       }
     }
     ds.rows.push_back(std::move(ob));

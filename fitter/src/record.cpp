@@ -233,6 +233,12 @@ json record_to_json(const CalibrationRecord& rec) {
                    {"fold", p.fold},
                    {"cv_predicted", num(p.cv_predicted)}});
   j["points"] = pts;
+  if (!rec.input.columns.direction_column.empty())
+    j["input"]["columns"]["direction"] = rec.input.columns.direction_column;
+  if (rec.tolerance) j["tolerance"] = to_json(*rec.tolerance);
+  if (rec.decision) j["decision"] = to_json(*rec.decision);
+  if (rec.uncertainty) j["uncertainty"] = to_json(*rec.uncertainty);
+  if (rec.uncertainty || !rec.warnings.empty()) j["warnings"] = to_json(rec.warnings);
   j["integrity"] = {{"algorithm", "sha256"}, {"sha256", record_digest(j)}};
   return j;
 }
@@ -276,6 +282,7 @@ CalibrationRecord record_from_json(const json& j, const std::string& file) {
   rec.input.columns.reference_column = r.text(cols, "reference", "input.columns");
   rec.input.columns.setpoint_column = r.text_or(cols, "setpoint", "");
   rec.input.columns.role_column = r.text_or(cols, "role", "");
+  rec.input.columns.direction_column = r.text_or(cols, "direction", "");
   const std::string delim = r.text_or(cols, "delimiter", ",");
   rec.input.columns.delimiter = delim.size() == 1 ? delim[0] : ',';
 
@@ -357,6 +364,10 @@ CalibrationRecord record_from_json(const json& j, const std::string& file) {
     pr.cv_predicted = r.number(p, "cv_predicted", "points[]");
     cal.points.push_back(pr);
   }
+  if (j.contains("tolerance")) rec.tolerance = tolerance_from_json(j["tolerance"], file);
+  if (j.contains("decision")) rec.decision = decision_from_json(j["decision"], file);
+  if (j.contains("uncertainty")) rec.uncertainty = uncertainty_from_json(j["uncertainty"], file);
+  if (j.contains("warnings")) rec.warnings = warnings_from_json(j["warnings"], file);
   return rec;
 }
 

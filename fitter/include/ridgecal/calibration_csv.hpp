@@ -44,6 +44,7 @@ struct CsvOptions {
   std::string reference_column = "reference";
   std::string setpoint_column;  ///< empty: rows with equal reference values form a group
   std::string role_column;      ///< empty: no user-named check points; values `fit` / `check`
+  std::string direction_column;  ///< empty: no sweep direction; values `up` / `down` (hysteresis check)
   char delimiter = ',';         ///< one of ',' ';' '\t'
   /// Numbers use ',' as the decimal point ("12,5"); requires delimiter ';' or
   /// tab, and then a '.' in a number is rejected (no thousands separators).
@@ -60,12 +61,19 @@ std::string to_string(UserRole r);
 /// Accepts `fit` and `check` (case-insensitive). Throws std::invalid_argument otherwise.
 UserRole user_role_from_string(const std::string& s);
 
+/// Sweep direction of a row, from the direction column (hysteresis check).
+enum class SweepDirection { Unspecified, Up, Down };
+std::string to_string(SweepDirection d);  ///< `unspecified`, `up`, `down`
+/// Accepts `up` and `down` (case-insensitive), and `unspecified`. Throws std::invalid_argument otherwise.
+SweepDirection sweep_direction_from_string(const std::string& s);
+
 struct Observation {
   double reading = 0.0;    ///< raw sensor reading (reading units)
   double reference = 0.0;  ///< reference value (reference units)
   std::string setpoint;    ///< group key: the setpoint cell, or the reference value as text
   UserRole role = UserRole::Unspecified;
   std::size_t line = 0;  ///< 1-based physical line in the file
+  SweepDirection direction = SweepDirection::Unspecified;  ///< from the direction column, if any
 };
 
 struct Dataset {

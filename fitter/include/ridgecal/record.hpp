@@ -15,6 +15,9 @@
 //           max_abs_error, bias, r2, adj_r2, residual_sd}},
 //   points[{line, setpoint, reading, reference, predicted, error, role, fold,
 //           cv_predicted}],
+//   tolerance{...}, decision{...}, uncertainty{...}, warnings[{code, message, ...}]
+//   (optional, written when the fit was assessed; see tolerance.hpp,
+//   decision.hpp, uncertainty.hpp, diagnostics.hpp),
 //   integrity{algorithm: "sha256", sha256}
 // Non-finite numbers are written as null. integrity.sha256 is the SHA-256 of
 // the record without its "integrity" member, serialised compactly with keys
@@ -26,6 +29,10 @@
 #include <vector>
 
 #include "ridgecal/calibration.hpp"
+#include "ridgecal/decision.hpp"
+#include "ridgecal/diagnostics.hpp"
+#include "ridgecal/tolerance.hpp"
+#include "ridgecal/uncertainty.hpp"
 
 namespace ridgecal {
 
@@ -58,6 +65,11 @@ struct CalibrationRecord {
   InputInfo input;
   Calibration calibration;
   std::vector<std::string> cautions = standard_cautions();
+  // Assessment (optional members of the record).
+  std::optional<ToleranceSpec> tolerance;
+  std::optional<Decision> decision;
+  std::optional<UncertaintyBudget> uncertainty;
+  std::vector<Warning> warnings;  ///< written when not empty or when `uncertainty` is present
 };
 
 /// Serialises to JSON with the integrity member filled in.

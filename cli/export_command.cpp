@@ -1,0 +1,231 @@
+#include "export_command.hpp"
+
+#include <boost/program_options.hpp>
+#include <algorithm>
+#include <cmath>
+#include <limits>
+#include <fmt/format.h>
+#include <ostream>
+#include <sstream>
+
+#include "cli_common.hpp"
+#include "ridgecal/atomic_file.hpp"
+#include "ridgecal/errors.hpp"
+#include "ridgecal/record.hpp"
+
+namespace po = boost::program_options;
+
+namespace ridgecal::cli {
+
+namespace {
+po::options_description export_options() {
+  po::options_description d(
+      "ridgecal export RECORD.json --prefix NAME --numeric float|double|fixed -o NAME.h [options]");
+  // clang-format off
+  d.add_options()
+    ("help,h", "show this help")
+    ("output,o", po::value<std::string>(), "header file to write (replaced only when the export succeeds)")
+    ("prefix", po::value<std::string>(), "prefix of the generated C symbols: [A-Za-z][A-Za-z0-9_]*, at most 40 characters, no '__', no trailing '_'")
+    ("numeric", po::value<std::string>()->default_value("float"), "arithmetic of the header: float, double or fixed (integer only)")
+    ("max-deviation-fraction", po::value<std::string>()->default_value("0.1"), "refuse when the header deviates from the model by more than this fraction of the tolerance")
+    ("tolerance", po::value<std::string>(), "absolute tolerance in reference units for the refusal rule (default: the record's; without one, the validation RMSE)")
+    ("tolerance-text", po::value<std::string>()->default_value(""), "tolerance description for the header's QA block")
+    ("grid-points", po::value<int>()->default_value(2001), "points of the proof grid over the calibrated range")
+    ("raw-min", po::value<std::int64_t>(), "fixed: smallest raw integer input (default: ceil(x_min * input-scale))")
+    ("raw-max", po::value<std::int64_t>(), "fixed: largest raw integer input (default: floor(x_max * input-scale))")
+    ("input-scale", po::value<std::string>()->default_value("1"), "fixed: raw counts per reading unit (reading = raw / input-scale)")
+    ("output-scale", po::value<std::string>()->default_value("1000"), "fixed: output units per reference unit (1000: milli-units)");
+  // clang-format on
+  return d;
+}
+
+// The assessment members a record may carry (optional; written by the
+// tolerance/decision work):
+//   tolerance{offset, proportional, percent_of_span, span_low, span_high, text, source}
+//     limit(reference) = offset + proportional*|reference| + percent_of_span/100*(span_high-span_low)
+//   decision{rule, verdict, statement}
+// The refusal rule needs one absolute number: the strictest limit over the
+// calibrated range, min over a grid of limit(p(x)).
+struct RecordAssessment {
+  std::optional<double> tolerance_abs;
+  std::string tolerance_text;
+  std::string verdict;
+};
+
+double number_or(const nlohmann::json& obj, const char* key, double fallback) {
+  const auto it = obj.find(key);
+  return it != obj.end() && it->is_number() ? it->get<double>() : fallback;
+}
+
+RecordAssessment record_assessment(const nlohmann::json& j, const PolyModel& model) {
+  RecordAssessment a;
+  if (const auto t = j.find("tolerance"); t != j.end() && t->is_object()) {
+    const double offset = number_or(*t, "offset", 0.0);
+    const double prop = number_or(*t, "proportional", 0.0);
+    const double pct = number_or(*t, "percent_of_span", 0.0);
+    const double span = number_or(*t, "span_high", 0.0) - number_or(*t, "span_low", 0.0);
+    double strictest = std::numeric_limits<double>::infinity();
+    constexpr int kGrid = 2001;
+    for (int i = 0; i < kGrid; ++i) {
+      const double x = model.scaling.x_min + (model.scaling.x_max - model.scaling.x_min) * i / (kGrid - 1);
+      strictest = std::min(strictest, offset + prop * std::fabs(model.eval(x)) + pct / 100.0 * span);
+    }
+    if (std::isfinite(strictest) && strictest > 0) a.tolerance_abs = strictest;
+    const auto text = t->find("text");
+    const auto source = t->find("source");
+    a.tolerance_text = fmt::format("{} ({}); strictest over the range {:.6g}",
+                                   text != t->end() && text->is_string() ? text->get<std::string>() : "record tolerance",
+                                   source != t->end() && source->is_string() ? source->get<std::string>() : "record",
+                                   strictest);
+  }
+  if (const auto d = j.find("decision"); d != j.end() && d->is_object()) {
+    const auto v = d->find("verdict");
+    const auto r = d->find("rule");
+    const auto st = d->find("statement");
+    if (v != d->end() && v->is_string()) {
+      a.verdict = v->get<std::string>();
+      if (r != d->end() && r->is_string()) a.verdict += " (" + r->get<std::string>() + " acceptance)";
+      if (st != d->end() && st->is_string()) a.verdict += ": " + st->get<std::string>();
+    }
+  }
+  return a;
+}
+}  // namespace
+
+std::string export_usage() {
+  std::ostringstream s;
+  s << export_options();
+  s << "\nExit codes: 0 written, 1 refused (the header's arithmetic deviates more than allowed;\n"
+       "nothing written), 2 bad input or usage (nothing written).\n"
+       "Build firmware that includes the header with -ffp-contract=off.\n";
+  return s.str();
+}
+
+ExportCommand parse_export_command(const std::vector<std::string>& args) {
+  const po::options_description desc = export_options();
+  po::options_description all;
+  all.add(desc).add_options()("record", po::value<std::vector<std::string>>(), "");
+  po::positional_options_description pos;
+  pos.add("record", -1);
+  po::variables_map vm;
+  try {
+    po::store(po::command_line_parser(args).options(all).positional(pos).run(), vm);
+    po::notify(vm);
+  } catch (const po::error& e) {
+    throw UsageError(e.what());
+  }
+  ExportCommand cmd;
+  if (vm.count("help")) {
+    cmd.help = true;
+    return cmd;
+  }
+  if (!vm.count("record"))
+    throw UsageError("give the calibration record: ridgecal export RECORD.json --prefix NAME -o NAME.h");
+  const auto& rec = vm["record"].as<std::vector<std::string>>();
+  if (rec.size() != 1) throw UsageError(fmt::format("give exactly one record, not {}", rec.size()));
+  cmd.record_path = rec[0];
+  if (!vm.count("output")) throw UsageError("--output (-o) is required: the header file to write");
+  cmd.output_path = vm["output"].as<std::string>();
+  if (!vm.count("prefix")) throw UsageError("--prefix is required: the prefix of the C symbols");
+  cmd.options.prefix = vm["prefix"].as<std::string>();
+  const std::string mode = vm["numeric"].as<std::string>();
+  const auto m = firmware::numeric_mode_from_string(mode);
+  if (!m) throw UsageError(fmt::format("--numeric '{}': must be float, double or fixed", mode));
+  cmd.options.mode = *m;
+  cmd.options.max_deviation_fraction = parse_number_option(
+      "--max-deviation-fraction", vm["max-deviation-fraction"].as<std::string>());
+  if (vm.count("tolerance")) {
+    cmd.tolerance = parse_number_option("--tolerance", vm["tolerance"].as<std::string>());
+    if (!(*cmd.tolerance > 0))
+      throw UsageError(fmt::format("--tolerance {}: must be > 0", *cmd.tolerance));
+  }
+  cmd.tolerance_text = vm["tolerance-text"].as<std::string>();
+  cmd.options.grid_points = vm["grid-points"].as<int>();
+  if (vm.count("raw-min")) cmd.options.raw_min = vm["raw-min"].as<std::int64_t>();
+  if (vm.count("raw-max")) cmd.options.raw_max = vm["raw-max"].as<std::int64_t>();
+  cmd.options.input_scale = parse_number_option("--input-scale", vm["input-scale"].as<std::string>());
+  cmd.options.output_scale = parse_number_option("--output-scale", vm["output-scale"].as<std::string>());
+  if (const std::string e = cmd.options.validate(); !e.empty()) throw UsageError(e);
+  return cmd;
+}
+
+int run_export_command(const ExportCommand& cmd, std::ostream& out, std::ostream& err) {
+  if (cmd.help) {
+    out << export_usage();
+    return kExitOk;
+  }
+  try {
+    const nlohmann::json j = read_record_json(cmd.record_path);
+    if (!record_integrity_ok(j))
+      throw InputError(cmd.record_path, 0, "the record's integrity digest does not match its content",
+                       "the record was edited; re-create it with 'ridgecal fit'");
+    const CalibrationRecord rec = record_from_json(j, cmd.record_path);
+    const Calibration& cal = rec.calibration;
+
+    firmware::HeaderMeta meta;
+    meta.sensor_name = rec.sensor.name;
+    meta.reading_unit = rec.sensor.reading_unit;
+    meta.reference_unit = rec.sensor.reference_unit;
+    meta.degree = cal.model.degree();
+    meta.lambda = cal.lambda;
+    meta.validation_rmse = cal.validation.empty() ? firmware::HeaderMeta::kUnset : cal.validation.rmse;
+    meta.validation_max_abs_error =
+        cal.validation.empty() ? firmware::HeaderMeta::kUnset : cal.validation.max_abs_error;
+    meta.test_rmse = cal.test.empty() ? firmware::HeaderMeta::kUnset : cal.test.rmse;
+    meta.test_max_abs_error = cal.test.empty() ? firmware::HeaderMeta::kUnset : cal.test.max_abs_error;
+    const RecordAssessment assessed = record_assessment(j, cal.model);
+    meta.tolerance_abs = cmd.tolerance ? cmd.tolerance : assessed.tolerance_abs;
+    meta.tolerance_description =
+        !cmd.tolerance_text.empty() ? cmd.tolerance_text
+        : cmd.tolerance             ? fmt::format("+/- {} {} (--tolerance)", *cmd.tolerance, rec.sensor.reference_unit)
+        : !assessed.tolerance_text.empty() ? assessed.tolerance_text
+                                           : std::string("none in the record");
+    if (!assessed.verdict.empty() && !cmd.tolerance) {
+      meta.pass_fail = assessed.verdict;
+    } else if (meta.tolerance_abs) {
+      const double worst = cal.test.empty() ? cal.validation.max_abs_error : cal.test.max_abs_error;
+      const char* set = cal.test.empty() ? "validation" : "test";
+      meta.pass_fail = std::isfinite(worst)
+                           ? fmt::format("{}: {} max |error| {:.4g} {} tolerance {:.4g}",
+                                         worst <= *meta.tolerance_abs ? "PASS" : "FAIL", set, worst,
+                                         worst <= *meta.tolerance_abs ? "<=" : ">", *meta.tolerance_abs)
+                           : std::string("not assessed (no held-out errors)");
+    } else {
+      meta.pass_fail = "not assessed (no tolerance in the record)";
+    }
+    meta.record_sha256 = record_digest(j);
+    meta.tool_version = std::string("ridgecal ") + tool_version();
+    for (const auto& p : cal.points) meta.calibration_readings.push_back(p.reading);
+
+    const firmware::ExportResult r = firmware::generate_c_header(cal.model, meta, cmd.options);
+    if (r.status == firmware::ExportStatus::InvalidInput)
+      throw InputError(cmd.record_path, 0, r.message, "see 'ridgecal export --help'");
+    if (r.status == firmware::ExportStatus::Refused) {
+      err << "ridgecal export: " << r.message << "; nothing written\n"
+          << "  try --numeric double, or for fixed a larger --output-scale\n";
+      return kExitOutOfTolerance;
+    }
+    write_file_atomic(cmd.output_path, r.header);
+    out << "header: " << cmd.output_path << " (" << r.message << ")\n"
+        << "formats: " << r.formats << "\n"
+        << "table CRC-32: " << fmt::format("0x{:08X}", r.table_crc32) << ", "
+        << r.stats.header_lines << " lines\n";
+    return kExitOk;
+  } catch (const InputError& e) {
+    err << "ridgecal export: " << format_input_error(e) << "\n";
+    return kExitBadInput;
+  }
+}
+
+int export_main(const std::vector<std::string>& args, std::ostream& out, std::ostream& err) {
+  ExportCommand cmd;
+  try {
+    cmd = parse_export_command(args);
+  } catch (const UsageError& e) {
+    err << "ridgecal export: " << e.what() << "\nTry 'ridgecal export --help'.\n";
+    return kExitBadInput;
+  }
+  return run_export_command(cmd, out, err);
+}
+
+}  // namespace ridgecal::cli

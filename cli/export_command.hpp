@@ -1,0 +1,39 @@
+// ridgecal export: calibration record -> freestanding C header for firmware.
+#pragma once
+
+#include <iosfwd>
+#include <optional>
+#include <string>
+#include <vector>
+
+#include "ridgecal/firmware/export.hpp"
+
+namespace ridgecal::cli {
+
+struct ExportCommand {
+  std::string record_path;
+  std::string output_path;  ///< the header; written atomically, only on success
+  firmware::ExportOptions options;
+  /// Absolute tolerance (reference units) for the refusal rule when the record
+  /// has none; overrides the record's when given.
+  std::optional<double> tolerance;
+  std::string tolerance_text;  ///< description for the header's QA block
+  bool help = false;
+};
+
+/// Parses `ridgecal export` arguments. Throws UsageError on a bad command line
+/// (the message names the option, the value and the rule).
+ExportCommand parse_export_command(const std::vector<std::string>& args);
+
+/// Reads the record, generates the header and writes it. Exit codes: 0 ok,
+/// 1 refused (the header's arithmetic deviates more than allowed), 2 bad input.
+/// An existing output file is left untouched unless the export succeeds.
+int run_export_command(const ExportCommand& cmd, std::ostream& out, std::ostream& err);
+
+/// Entry point: parse, then run; usage errors give exit code 2.
+int export_main(const std::vector<std::string>& args, std::ostream& out, std::ostream& err);
+
+/// Help text for `ridgecal export --help`.
+std::string export_usage();
+
+}  // namespace ridgecal::cli

@@ -1,0 +1,132 @@
+#include "verify_command.hpp"
+
+#include <boost/program_options.hpp>
+#include <fmt/format.h>
+#include <ostream>
+#include <sstream>
+
+#include "cli_common.hpp"
+#include "judgement_options.hpp"
+#include "ridgecal/atomic_file.hpp"
+#include "ridgecal/errors.hpp"
+
+namespace po = boost::program_options;
+
+namespace ridgecal::cli {
+
+namespace {
+po::options_description verify_options() {
+  po::options_description d("ridgecal verify RECORD.json NEWDATA.csv [-o ASFOUND.json] [options]");
+  // clang-format off
+  d.add_options()
+    ("help,h", "show this help")
+    ("output,o", po::value<std::string>(), "write the as-found result (JSON) to this file")
+    ("reading", po::value<std::string>(), "column holding the raw reading (default: the record's)")
+    ("reference", po::value<std::string>(), "column holding the reference value (default: the record's)")
+    ("setpoint", po::value<std::string>(), "column naming the setpoint (default: the record's)")
+    ("delimiter", po::value<std::string>(), "field delimiter: ',', ';' or 'tab' (default: the record's)")
+    ("allow-modified", po::bool_switch(), "use a record whose integrity digest does not match (the output says so)")
+    ("timestamp", po::value<std::string>()->default_value(""), "creation time to record (ISO 8601), 'none' to omit");
+  // clang-format on
+  add_tolerance_options(d);
+  return d;
+}
+}  // namespace
+
+std::string verify_usage() {
+  std::ostringstream s;
+  s << verify_options();
+  s << "\nWithout tolerance options the record's tolerance and decision rule apply.\n"
+       "Exit codes: 0 PASS (or no tolerance to judge against), 1 FAIL (the result is still written,\n"
+       "marked FAIL), 2 bad input or usage, or a modified record (nothing written).\n";
+  return s.str();
+}
+
+VerifyCommand parse_verify_command(const std::vector<std::string>& args) {
+  const po::options_description desc = verify_options();
+  po::options_description all;
+  all.add(desc).add_options()("files", po::value<std::vector<std::string>>(), "");
+  po::positional_options_description pos;
+  pos.add("files", -1);
+  po::variables_map vm;
+  try {
+    po::store(po::command_line_parser(args).options(all).positional(pos).run(), vm);
+    po::notify(vm);
+  } catch (const po::error& e) {
+    throw UsageError(e.what());
+  }
+  VerifyCommand cmd;
+  if (vm.count("help")) {
+    cmd.help = true;
+    return cmd;
+  }
+  const std::vector<std::string> files =
+      vm.count("files") ? vm["files"].as<std::vector<std::string>>() : std::vector<std::string>{};
+  if (files.size() != 2)
+    throw UsageError(fmt::format("give a record and a data file (got {} file(s)): ridgecal verify RECORD.json "
+                                 "NEWDATA.csv -o ASFOUND.json",
+                                 files.size()));
+  cmd.record_path = files[0];
+  cmd.data_path = files[1];
+  if (vm.count("output")) cmd.output_path = vm["output"].as<std::string>();
+  if (vm.count("reading")) cmd.reading_column = vm["reading"].as<std::string>();
+  if (vm.count("reference")) cmd.reference_column = vm["reference"].as<std::string>();
+  if (vm.count("setpoint")) cmd.setpoint_column = vm["setpoint"].as<std::string>();
+  if (vm.count("delimiter")) cmd.delimiter = parse_delimiter(vm["delimiter"].as<std::string>());
+  cmd.allow_modified = vm["allow-modified"].as<bool>();
+  cmd.timestamp = vm["timestamp"].as<std::string>();
+  const JudgementCli jc = parse_judgement_options(vm);
+  cmd.as_found.tolerance = jc.tolerance;
+  cmd.as_found.rule = jc.rule;
+  if (jc.tolerance && jc.tolerance->percent_of_span > 0 && !(jc.tolerance->span_high > jc.tolerance->span_low))
+    throw UsageError("--tol-percent-span needs --span LO..HI with verify (the span of the new data is not the "
+                     "instrument's span)");
+  if (const std::string e = cmd.as_found.validate(); !e.empty()) throw UsageError(e);
+  return cmd;
+}
+
+int run_verify_command(const VerifyCommand& cmd, std::ostream& out, std::ostream& err) {
+  if (cmd.help) {
+    out << verify_usage();
+    return kExitOk;
+  }
+  try {
+    const CheckedRecord rec = read_checked_record(cmd.record_path, cmd.allow_modified);
+    CsvOptions csv;
+    csv.reading_column = cmd.reading_column.value_or(rec.record.input.columns.reading_column);
+    csv.reference_column = cmd.reference_column.value_or(rec.record.input.columns.reference_column);
+    csv.setpoint_column = cmd.setpoint_column.value_or(rec.record.input.columns.setpoint_column);
+    csv.delimiter = cmd.delimiter.value_or(rec.record.input.columns.delimiter);
+    if (const std::string e = csv.validate(); !e.empty())
+      throw InputError("", 0, "invalid column options: " + e, "see 'ridgecal verify --help'");
+    const Dataset data = read_calibration_csv(cmd.data_path, csv);
+    const AsFoundResult res = evaluate_as_found(rec, data, cmd.as_found);
+    const nlohmann::json j = as_found_to_json(res, creation_time(cmd.timestamp));
+    if (!cmd.output_path.empty()) write_file_atomic(cmd.output_path, record_text(j));
+    out << res.brief(rec.record.sensor.reference_unit);
+    err << format_warnings(res.warnings);
+    if (!cmd.output_path.empty()) out << "as-found result: " << cmd.output_path << "\n";
+    if (res.decision && !res.decision->pass()) {
+      out << "FAIL: as found out of tolerance\n";
+      return kExitOutOfTolerance;
+    }
+    if (res.decision) out << "PASS\n";
+    return kExitOk;
+  } catch (const InputError& e) {
+    err << "ridgecal verify: " << format_input_error(e) << "\n";
+    return kExitBadInput;
+  }
+}
+
+int verify_main(const std::vector<std::string>& args, std::ostream& out, std::ostream& err) {
+  VerifyCommand cmd;
+  try {
+    cmd = parse_verify_command(args);
+  } catch (const UsageError& e) {
+    err << "ridgecal verify: " << e.what() << "\nTry 'ridgecal verify --help'.\n";
+    return kExitBadInput;
+  }
+  return run_verify_command(cmd, out, err);
+}
+
+}  // namespace ridgecal::cli

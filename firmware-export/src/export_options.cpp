@@ -1,0 +1,69 @@
+#include <cmath>
+#include <sstream>
+
+#include "ridgecal/firmware/c_text.hpp"
+#include "ridgecal/firmware/export.hpp"
+
+namespace ridgecal::firmware {
+
+namespace {
+std::string num(double v) {
+  std::ostringstream os;
+  os.precision(17);
+  os << v;
+  return os.str();
+}
+}  // namespace
+
+const char* to_string(ExportStatus status) {
+  switch (status) {
+    case ExportStatus::Ok: return "ok";
+    case ExportStatus::Refused: return "refused";
+    case ExportStatus::InvalidInput: return "invalid input";
+  }
+  return "unknown";
+}
+
+std::string ExportOptions::validate() const {
+  if (std::string m = check_c_prefix(prefix); !m.empty()) return "option prefix: " + m;
+  if (!(max_deviation_fraction > 0.0 && max_deviation_fraction <= 1.0))
+    return "option max_deviation_fraction = " + num(max_deviation_fraction) +
+           ": must be > 0 and <= 1";
+  if (grid_points < 2 || grid_points > 1000000)
+    return "option grid_points = " + std::to_string(grid_points) +
+           ": must be between 2 and 1000000";
+  if (!(std::isfinite(input_scale) && input_scale > 0.0))
+    return "option input_scale = " + num(input_scale) + ": must be finite and > 0";
+  if (!(std::isfinite(output_scale) && output_scale > 0.0 && output_scale <= 1e9))
+    return "option output_scale = " + num(output_scale) + ": must be finite, > 0 and <= 1e9";
+  const std::int64_t lim = 2147483647LL;
+  if (raw_min && (*raw_min < -lim || *raw_min > lim))
+    return "option raw_min = " + std::to_string(*raw_min) +
+           ": must be in [-2147483647, 2147483647]";
+  if (raw_max && (*raw_max < -lim || *raw_max > lim))
+    return "option raw_max = " + std::to_string(*raw_max) +
+           ": must be in [-2147483647, 2147483647]";
+  if (raw_min && raw_max && *raw_min > *raw_max)
+    return "option raw_min = " + std::to_string(*raw_min) + ": must be <= raw_max (" +
+           std::to_string(*raw_max) + ")";
+  if (exhaustive_limit < 0 || exhaustive_limit > 100000000)
+    return "option exhaustive_limit = " + std::to_string(exhaustive_limit) +
+           ": must be between 0 and 100000000";
+  return {};
+}
+
+FixedSettings fixed_settings_for(const PolyModel& model, const ExportOptions& o) {
+  FixedSettings s;
+  s.input_scale = o.input_scale;
+  s.output_scale = o.output_scale;
+  const double lo = std::ceil(model.scaling.x_min * o.input_scale - 1e-9);
+  const double hi = std::floor(model.scaling.x_max * o.input_scale + 1e-9);
+  const auto clamp32 = [](double v) {
+    return static_cast<std::int64_t>(std::fmax(-2147483647.0, std::fmin(2147483647.0, v)));
+  };
+  s.raw_min = o.raw_min ? *o.raw_min : clamp32(lo);
+  s.raw_max = o.raw_max ? *o.raw_max : clamp32(hi);
+  return s;
+}
+
+}  // namespace ridgecal::firmware

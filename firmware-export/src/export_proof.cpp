@@ -1,0 +1,126 @@
+#include "export_proof.hpp"
+
+#include <cmath>
+#include <limits>
+
+namespace ridgecal::firmware::detail {
+
+namespace {
+
+template <typename T>
+std::optional<FloatingProgram<T>> make_program(const PolyModel& m, Basis b) {
+  FloatingProgram<T> p;
+  p.basis = b;
+  // valid range rounded inward, so a clamped input never leaves [x_min, x_max]
+  p.x_lo = static_cast<T>(m.scaling.x_min);
+  if (static_cast<double>(p.x_lo) < m.scaling.x_min)
+    p.x_lo = std::nextafter(p.x_lo, std::numeric_limits<T>::infinity());
+  p.x_hi = static_cast<T>(m.scaling.x_max);
+  if (static_cast<double>(p.x_hi) > m.scaling.x_max)
+    p.x_hi = std::nextafter(p.x_hi, -std::numeric_limits<T>::infinity());
+  if (b == Basis::ScaledT) {
+    p.center = static_cast<T>(m.scaling.center());
+    p.inv_half_width = static_cast<T>(1.0L / static_cast<long double>(m.scaling.half_width()));
+    for (double c : m.monomial_in_t()) p.coef.push_back(static_cast<T>(c));
+  } else {
+    for (long double c : m.power_in_x_ld()) p.coef.push_back(static_cast<T>(c));
+  }
+  bool ok = std::isfinite(p.center) && std::isfinite(p.inv_half_width) && std::isfinite(p.x_lo) &&
+            std::isfinite(p.x_hi) && p.x_lo <= p.x_hi;
+  for (T c : p.coef) ok = ok && std::isfinite(c);
+  if (!ok) return std::nullopt;
+  return p;
+}
+
+template <typename T>
+void check_point(const PolyModel& m, const FloatingProgram<T>& p, T x, Deviation* d) {
+  const T y = eval_program(p, x);
+  const double ref = m.eval(static_cast<double>(x));
+  ++d->points;
+  if (!std::isfinite(y)) {
+    d->finite = false;
+    d->max = std::numeric_limits<double>::infinity();
+    d->at = static_cast<double>(x);
+    return;
+  }
+  const double e = std::fabs(static_cast<double>(y) - ref);
+  if (e > d->max) {
+    d->max = e;
+    d->at = static_cast<double>(x);
+  }
+}
+
+template <typename T>
+Deviation measure_floating(const PolyModel& m, const FloatingProgram<T>& p, int grid_points,
+                           const std::vector<double>& readings) {
+  Deviation d;
+  const double lo = static_cast<double>(p.x_lo), hi = static_cast<double>(p.x_hi);
+  for (int i = 0; i < grid_points; ++i) {
+    const double x = i + 1 == grid_points ? hi : lo + (hi - lo) * i / (grid_points - 1);
+    T xt = static_cast<T>(x);
+    if (xt < p.x_lo) xt = p.x_lo;
+    if (xt > p.x_hi) xt = p.x_hi;
+    check_point(m, p, xt, &d);
+  }
+  for (double r : readings) {
+    if (!std::isfinite(r)) continue;
+    const T xt = static_cast<T>(r);
+    if (!(xt >= p.x_lo && xt <= p.x_hi)) continue;
+    check_point(m, p, xt, &d);
+    ++d.readings;
+  }
+  return d;
+}
+
+}  // namespace
+
+std::optional<FloatProgram> make_float_program(const PolyModel& m, Basis b) {
+  return make_program<float>(m, b);
+}
+std::optional<DoubleProgram> make_double_program(const PolyModel& m, Basis b) {
+  return make_program<double>(m, b);
+}
+
+Deviation measure(const PolyModel& m, const FloatProgram& p, int grid_points,
+                  const std::vector<double>& readings) {
+  return measure_floating(m, p, grid_points, readings);
+}
+Deviation measure(const PolyModel& m, const DoubleProgram& p, int grid_points,
+                  const std::vector<double>& readings) {
+  return measure_floating(m, p, grid_points, readings);
+}
+
+Deviation measure(const PolyModel& m, const FixedPlan& p, int grid_points,
+                  std::int64_t exhaustive_limit, const std::vector<double>& readings) {
+  Deviation d;
+  const auto& s = p.settings;
+  const auto check = [&](std::int64_t raw) {
+    const std::int32_t out = eval_fixed(p, static_cast<std::int32_t>(raw));
+    const double x = static_cast<double>(raw) / s.input_scale;
+    const double e = std::fabs(static_cast<double>(out) / s.output_scale - m.eval(x));
+    ++d.points;
+    if (e > d.max) {
+      d.max = e;
+      d.at = x;
+    }
+  };
+  const std::int64_t count = s.raw_max - s.raw_min + 1;
+  if (count <= exhaustive_limit) {
+    for (std::int64_t r = s.raw_min; r <= s.raw_max; ++r) check(r);
+  } else {
+    for (int i = 0; i < grid_points; ++i) {
+      const long double f = grid_points == 1 ? 0.0L : static_cast<long double>(i) / (grid_points - 1);
+      check(s.raw_min + std::llround(f * static_cast<long double>(s.raw_max - s.raw_min)));
+    }
+  }
+  for (double r : readings) {
+    if (!std::isfinite(r)) continue;
+    const double raw = std::nearbyint(r * s.input_scale);
+    if (raw < static_cast<double>(s.raw_min) || raw > static_cast<double>(s.raw_max)) continue;
+    check(static_cast<std::int64_t>(raw));
+    ++d.readings;
+  }
+  return d;
+}
+
+}  // namespace ridgecal::firmware::detail

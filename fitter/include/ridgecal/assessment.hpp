@@ -1,0 +1,47 @@
+// ridgecal: from a fitted calibration to a decision QA can sign off:
+// tolerance, uncertainty budget, PASS/FAIL and warnings, in one step.
+#pragma once
+
+#include <optional>
+#include <string>
+#include <vector>
+
+#include "ridgecal/calibration.hpp"
+#include "ridgecal/calibration_csv.hpp"
+#include "ridgecal/decision.hpp"
+#include "ridgecal/diagnostics.hpp"
+#include "ridgecal/tolerance.hpp"
+#include "ridgecal/uncertainty.hpp"
+
+namespace ridgecal {
+
+struct AssessmentOptions {
+  /// None: no decision (nothing is judged, the exit code stays 0). With
+  /// percent_of_span and no span set (span_high <= span_low), the span is
+  /// taken from diagnostics.span_low/high, else from the calibrated reference range.
+  std::optional<ToleranceSpec> tolerance;
+  DecisionRule rule = DecisionRule::SimpleAcceptance;  ///< default: simple acceptance
+  UncertaintyOptions uncertainty;
+  DiagnosticOptions diagnostics;
+
+  /// Empty when valid, else a message naming the field, the value and the rule.
+  std::string validate() const;
+};
+
+struct Assessment {
+  std::optional<ToleranceSpec> tolerance;  ///< as applied (span resolved)
+  std::optional<Decision> decision;        ///< present when a tolerance was given
+  UncertaintyBudget uncertainty;
+  std::vector<Warning> warnings;
+};
+
+/// The span a %-of-span tolerance uses when none is given: the declared span,
+/// else the smallest..largest training setpoint reference.
+void resolve_span(ToleranceSpec& tol, const Calibration& cal, const DiagnosticOptions& diag);
+
+/// Judges the points of the final model: `training` and `test` (counting for
+/// the verdict) and `validation` (the cross-validated predictions, judged for
+/// information only). Preconditions: options.validate() is empty.
+Assessment assess_calibration(const Dataset& data, const Calibration& cal, const AssessmentOptions& options);
+
+}  // namespace ridgecal

@@ -1,0 +1,62 @@
+#include "ridgecal/assessment.hpp"
+
+#include <algorithm>
+#include <cassert>
+#include <cmath>
+
+namespace ridgecal {
+
+std::string AssessmentOptions::validate() const {
+  if (tolerance) {
+    ToleranceSpec t = *tolerance;
+    if (t.percent_of_span > 0.0 && !(t.span_high > t.span_low)) {
+      t.span_low = 0.0;  // resolved later; validate the other terms
+      t.span_high = 1.0;
+    }
+    if (std::string e = t.validate(); !e.empty()) return "tolerance: " + e;
+  }
+  if (std::string e = uncertainty.validate(); !e.empty()) return "uncertainty: " + e;
+  if (std::string e = diagnostics.validate(); !e.empty()) return "diagnostics: " + e;
+  return {};
+}
+
+void resolve_span(ToleranceSpec& tol, const Calibration& cal, const DiagnosticOptions& diag) {
+  if (!(tol.percent_of_span > 0.0) || tol.span_high > tol.span_low) return;
+  if (diag.has_span()) {
+    tol.span_low = diag.span_low;
+    tol.span_high = diag.span_high;
+    return;
+  }
+  bool any = false;
+  for (const SetpointResult& sp : cal.setpoints)
+    if (sp.role == SetRole::Train) {
+      tol.span_low = any ? std::min(tol.span_low, sp.mean_reference) : sp.mean_reference;
+      tol.span_high = any ? std::max(tol.span_high, sp.mean_reference) : sp.mean_reference;
+      any = true;
+    }
+}
+
+Assessment assess_calibration(const Dataset& data, const Calibration& cal, const AssessmentOptions& options) {
+  assert(options.validate().empty());
+  Assessment a;
+  a.uncertainty = evaluate_uncertainty(cal, options.uncertainty);
+  if (options.tolerance) {
+    ToleranceSpec tol = *options.tolerance;
+    resolve_span(tol, cal, options.diagnostics);
+    a.tolerance = tol;
+    std::vector<PointToJudge> pts;
+    for (const PointResult& p : cal.points) {
+      const double u = a.uncertainty.expanded_at(p.reading);
+      pts.push_back({p.line, p.role == SetRole::Train ? "training" : "test", p.reference, p.error, u});
+    }
+    for (const PointResult& p : cal.points)
+      if (p.role == SetRole::Train && std::isfinite(p.cv_predicted))
+        pts.push_back({p.line, "validation", p.reference, p.cv_predicted - p.reference,
+                       a.uncertainty.expanded_at(p.reading)});
+    if (tol.validate().empty()) a.decision = judge(pts, tol, options.rule, {"validation"});
+  }
+  a.warnings = diagnose_fit(data, cal, a.uncertainty, a.tolerance ? &*a.tolerance : nullptr, options.diagnostics);
+  return a;
+}
+
+}  // namespace ridgecal

@@ -1,0 +1,154 @@
+#include "ridgecal/decision.hpp"
+
+#include <algorithm>
+#include <cctype>
+#include <cmath>
+#include <fmt/format.h>
+#include <stdexcept>
+
+#include "json_read.hpp"
+
+namespace ridgecal {
+
+std::string to_string(DecisionRule r) { return r == DecisionRule::SimpleAcceptance ? "simple" : "guarded"; }
+DecisionRule decision_rule_from_string(const std::string& s) {
+  if (s == "simple") return DecisionRule::SimpleAcceptance;
+  if (s == "guarded") return DecisionRule::GuardedAcceptance;
+  throw std::invalid_argument("decision rule must be 'simple' or 'guarded', got '" + s + "'");
+}
+
+std::string to_string(Verdict v) { return v == Verdict::Pass ? "PASS" : "FAIL"; }
+Verdict verdict_from_string(const std::string& s) {
+  std::string u = s;
+  std::transform(u.begin(), u.end(), u.begin(), [](unsigned char c) { return std::toupper(c); });
+  if (u == "PASS") return Verdict::Pass;
+  if (u == "FAIL") return Verdict::Fail;
+  throw std::invalid_argument("verdict must be 'PASS' or 'FAIL', got '" + s + "'");
+}
+
+Decision judge(const std::vector<PointToJudge>& points, const ToleranceSpec& tolerance, DecisionRule rule,
+               const std::vector<std::string>& informative_sets) {
+  Decision d;
+  d.rule = rule;
+  const bool guarded = rule == DecisionRule::GuardedAcceptance;
+  std::size_t no_room = 0;
+  for (const PointToJudge& p : points) {
+    PointJudgement pj;
+    pj.line = p.line;
+    pj.set = p.set;
+    pj.reference = p.reference;
+    pj.error = p.error;
+    pj.limit = tolerance.limit(p.reference);
+    pj.guard = guarded ? (std::isfinite(p.uncertainty) ? p.uncertainty : pj.limit) : 0.0;
+    pj.acceptance_limit = std::max(pj.limit - pj.guard, 0.0);
+    if (guarded && pj.acceptance_limit <= 0.0) ++no_room;
+    pj.pass = std::isfinite(p.error) && std::fabs(p.error) <= pj.acceptance_limit && !(guarded && pj.acceptance_limit <= 0.0);
+    auto it = std::find_if(d.sets.begin(), d.sets.end(), [&](const SetJudgement& s) { return s.name == p.set; });
+    if (it == d.sets.end()) {
+      SetJudgement s;
+      s.name = p.set;
+      s.counts = std::find(informative_sets.begin(), informative_sets.end(), p.set) == informative_sets.end();
+      d.sets.push_back(s);
+      it = d.sets.end() - 1;
+    }
+    ++it->n;
+    if (!pj.pass) {
+      ++it->failed;
+      it->verdict = Verdict::Fail;
+    }
+    it->max_abs_error = std::max(it->max_abs_error, std::fabs(p.error));
+    if (pj.limit > 0.0) it->worst_ratio = std::max(it->worst_ratio, std::fabs(p.error) / pj.limit);
+    d.points.push_back(pj);
+  }
+  std::size_t failed = 0, counted = 0;
+  for (const SetJudgement& s : d.sets)
+    if (s.counts) {
+      counted += s.n;
+      failed += s.failed;
+      if (s.verdict == Verdict::Fail) d.verdict = Verdict::Fail;
+    }
+  const std::string rule_text =
+      guarded ? fmt::format("Guarded acceptance: a point conforms when |error| <= tolerance {} minus the expanded "
+                            "uncertainty U at that point.",
+                            tolerance.describe())
+              : fmt::format("Simple acceptance: a point conforms when |error| <= tolerance {}; the measurement "
+                            "uncertainty is reported but not subtracted.",
+                            tolerance.describe());
+  if (counted == 0)
+    d.statement = rule_text + " No points were judged.";
+  else
+    d.statement = rule_text + fmt::format(" {}: {} of {} judged points conform.", to_string(d.verdict),
+                                          counted - failed, counted);
+  if (no_room > 0)
+    d.statement += fmt::format(" At {} point(s) U is as large as the tolerance, so no error can be accepted there.",
+                               no_room);
+  return d;
+}
+
+std::string Decision::brief() const {
+  std::string s = fmt::format("decision: {} ({} acceptance)\n", to_string(verdict),
+                              rule == DecisionRule::SimpleAcceptance ? "simple" : "guarded");
+  for (const SetJudgement& set : sets)
+    s += fmt::format("  {:<10} {} of {} points within tolerance, max |error| {:.4g}, worst {:.0f}% of the limit{}\n",
+                     set.name, set.n - set.failed, set.n, set.max_abs_error, 100.0 * set.worst_ratio,
+                     set.counts ? "" : " (informative)");
+  return s;
+}
+
+nlohmann::json to_json(const Decision& d) {
+  using detail::num;
+  nlohmann::json sets = nlohmann::json::array(), pts = nlohmann::json::array();
+  for (const SetJudgement& s : d.sets)
+    sets.push_back({{"name", s.name},
+                    {"n", s.n},
+                    {"failed", s.failed},
+                    {"max_abs_error", num(s.max_abs_error)},
+                    {"worst_ratio", num(s.worst_ratio)},
+                    {"counts", s.counts},
+                    {"verdict", to_string(s.verdict)}});
+  for (const PointJudgement& p : d.points)
+    pts.push_back({{"line", p.line},
+                   {"set", p.set},
+                   {"reference", num(p.reference)},
+                   {"error", num(p.error)},
+                   {"limit", num(p.limit)},
+                   {"guard", num(p.guard)},
+                   {"acceptance_limit", num(p.acceptance_limit)},
+                   {"pass", p.pass}});
+  return {{"rule", to_string(d.rule)}, {"verdict", to_string(d.verdict)}, {"statement", d.statement},
+          {"sets", sets},              {"points", pts}};
+}
+
+Decision decision_from_json(const nlohmann::json& j, const std::string& file) {
+  const detail::JsonReader r{file};
+  Decision d;
+  d.rule = r.enum_value(j, "rule", "decision", decision_rule_from_string);
+  d.verdict = r.enum_value(j, "verdict", "decision", verdict_from_string);
+  d.statement = r.text(j, "statement", "decision");
+  for (const nlohmann::json& s : r.array(j, "sets", "decision")) {
+    SetJudgement sj;
+    sj.name = r.text(s, "name", "decision.sets[]");
+    sj.n = static_cast<std::size_t>(r.integer(s, "n", "decision.sets[]"));
+    sj.failed = static_cast<std::size_t>(r.integer(s, "failed", "decision.sets[]"));
+    sj.max_abs_error = r.number(s, "max_abs_error", "decision.sets[]");
+    sj.worst_ratio = r.number(s, "worst_ratio", "decision.sets[]");
+    sj.counts = r.boolean(s, "counts", "decision.sets[]");
+    sj.verdict = r.enum_value(s, "verdict", "decision.sets[]", verdict_from_string);
+    d.sets.push_back(sj);
+  }
+  for (const nlohmann::json& p : r.array(j, "points", "decision")) {
+    PointJudgement pj;
+    pj.line = static_cast<std::size_t>(r.integer(p, "line", "decision.points[]"));
+    pj.set = r.text(p, "set", "decision.points[]");
+    pj.reference = r.number(p, "reference", "decision.points[]");
+    pj.error = r.number(p, "error", "decision.points[]");
+    pj.limit = r.number(p, "limit", "decision.points[]");
+    pj.guard = r.number(p, "guard", "decision.points[]");
+    pj.acceptance_limit = r.number(p, "acceptance_limit", "decision.points[]");
+    pj.pass = r.boolean(p, "pass", "decision.points[]");
+    d.points.push_back(pj);
+  }
+  return d;
+}
+
+}  // namespace ridgecal

@@ -1,0 +1,118 @@
+#!/usr/bin/env bash
+# run-target.sh TARGET FIXTURE_DIR FW_COMPARE WORK_DIR
+# Builds the test driver against every generated header in FIXTURE_DIR (made
+# by fw_fixture), runs it on TARGET and compares its output bit for bit with
+# the host emulation (fw_compare). Exit 0 pass, 1 fail, 77 = a tool is missing
+# (CTest SKIP_RETURN_CODE). Targets:
+#   host-gcc host-clang host-gcc-c89 host-cxx   build machine
+#   host-fma       gcc and clang -march=haswell -ffp-contract=off (FMA available)
+#   m0 m3 m4f m7   arm-none-eabi-gcc + qemu-system-arm (semihosting)
+#   avr            avr-gcc (ATmega328P) + simavr
+set -u
+target=$1; fixtures=$2; compare=$3; work=$4
+here=$(cd "$(dirname "$0")" && pwd)
+drv=$here/target
+WARN="-Wall -Wextra -Werror -pedantic -Wconversion -Wdouble-promotion"
+FP="-ffp-contract=off"
+
+need() {
+  for t in "$@"; do
+    if ! command -v "$t" >/dev/null 2>&1; then
+      echo "SKIP: $t not found (run tests/firmware/install-target-tools.sh)"
+      exit 77
+    fi
+  done
+}
+
+rm -rf "$work"; mkdir -p "$work"
+fail=0
+
+# run_one NAME FIXTURE -- builds with $build_cmd, runs with $run_cmd
+check() {  # check LABEL FIXTURE OUTPUT
+  if "$compare" "$fixtures/$2/expected.txt" "$3" > "$3.cmp" 2>&1; then
+    echo "PASS $1 $2: $(head -1 "$3.cmp")"
+  else
+    echo "FAIL $1 $2:"; sed 's/^/    /' "$3.cmp"; fail=1
+  fi
+}
+
+host_run() {  # host_run LABEL COMPILER FLAGS...
+  local label=$1 cc=$2; shift 2
+  for f in $(cat "$fixtures/fixtures.txt"); do
+    local exe=$work/$label-$f
+    if ! $cc "$@" -I"$fixtures/$f" -I"$drv" "$drv/driver.c" "$drv/plat_host.c" -o "$exe" 2> "$exe.log"; then
+      echo "FAIL $label $f: compile"; sed 's/^/    /' "$exe.log" | head -30; fail=1; continue
+    fi
+    "$exe" > "$exe.out" 2>&1
+    check "$label" "$f" "$exe.out"
+  done
+}
+
+cm_run() {  # cm_run LABEL BOARD CPUFLAGS...
+  local label=$1 board=$2; shift 2
+  for f in $(cat "$fixtures/fixtures.txt"); do
+    local o=$work/$label-$f
+    if ! { arm-none-eabi-gcc "$@" -O2 -std=c99 $WARN $FP -ffunction-sections -fdata-sections \
+             -I"$fixtures/$f" -I"$drv" -c "$drv/driver.c" -o "$o-drv.o" &&
+           arm-none-eabi-gcc "$@" -O2 -std=gnu99 -Wall -Wextra -Werror -fno-tree-loop-distribute-patterns \
+             -ffunction-sections -I"$drv" -c "$drv/plat_cortexm.c" -o "$o-plat.o" &&
+           arm-none-eabi-gcc "$@" -nostdlib -T "$drv/cortexm.ld" -Wl,--gc-sections \
+             -o "$o.elf" "$o-drv.o" "$o-plat.o" -lgcc; } 2> "$o.log"; then
+      echo "FAIL $label $f: build"; sed 's/^/    /' "$o.log" | head -30; fail=1; continue
+    fi
+    timeout 60 qemu-system-arm -M "$board" -display none -monitor none -serial none \
+      -chardev stdio,id=fwsh -semihosting-config enable=on,target=native,chardev=fwsh \
+      -kernel "$o.elf" < /dev/null > "$o.out" 2> "$o.err"
+    local rc=$?
+    if [ $rc -ne 0 ]; then echo "FAIL $label $f: qemu exit $rc"; cat "$o.err" | head -5; fail=1; continue; fi
+    check "$label" "$f" "$o.out"
+  done
+}
+
+case $target in
+  host-gcc)     need gcc;   host_run host-gcc gcc -O2 -std=c99 $WARN $FP ;;
+  host-clang)   need clang; host_run host-clang clang -O2 -std=c99 $WARN $FP ;;
+  host-gcc-c89) need gcc;   host_run host-gcc-c89 gcc -O2 -std=c89 $WARN $FP ;;
+  host-cxx)     need g++;   host_run host-cxx g++ -O2 -x c++ -std=c++17 -Wall -Wextra -Werror $FP ;;
+  host-fma)
+    need gcc clang
+    if ! grep -qw fma /proc/cpuinfo; then echo "SKIP: this CPU has no FMA"; exit 77; fi
+    host_run host-fma-gcc gcc -O2 -std=gnu99 -march=haswell $WARN $FP
+    host_run host-fma-clang clang -O2 -std=c99 -march=haswell $WARN $FP
+    # Control: the same build with contraction allowed must differ somewhere in
+    # float mode, otherwise this machine/compiler does not exercise the FMA
+    # case and the two lines above prove less than they claim.
+    for f in $(cat "$fixtures/fixtures.txt"); do
+      grep -q "mode=float" "$fixtures/$f/expected.txt" || continue
+      exe=$work/control-$f
+      gcc -O2 -std=gnu99 -march=haswell -ffp-contract=fast -I"$fixtures/$f" -I"$drv" \
+        "$drv/driver.c" "$drv/plat_host.c" -o "$exe" && "$exe" > "$exe.out"
+      if "$compare" "$fixtures/$f/expected.txt" "$exe.out" > "$exe.cmp" 2>&1; then
+        echo "NOTE control $f: -ffp-contract=fast gave identical bits (FMA not used here)"
+      else
+        echo "OK control $f: with -ffp-contract=fast the bits differ, as expected: $(tail -1 "$exe.cmp")"
+      fi
+    done ;;
+  m0)  need arm-none-eabi-gcc qemu-system-arm; cm_run m0 microbit -mcpu=cortex-m0 -mthumb ;;
+  m3)  need arm-none-eabi-gcc qemu-system-arm; cm_run m3 mps2-an385 -mcpu=cortex-m3 -mthumb ;;
+  m4f) need arm-none-eabi-gcc qemu-system-arm
+       cm_run m4f mps2-an386 -mcpu=cortex-m4 -mthumb -mfpu=fpv4-sp-d16 -mfloat-abi=hard ;;
+  m7)  need arm-none-eabi-gcc qemu-system-arm   # double-precision FPU: hardware double
+       cm_run m7 mps2-an500 -mcpu=cortex-m7 -mthumb -mfpu=fpv5-d16 -mfloat-abi=hard ;;
+  avr)
+    need avr-gcc simavr
+    AVR="-mmcu=atmega328p -DF_CPU=16000000UL"
+    for f in $(cat "$fixtures/fixtures.txt"); do
+      o=$work/avr-$f
+      if ! { avr-gcc $AVR -O2 -std=c99 $WARN $FP -I"$fixtures/$f" -I"$drv" -c "$drv/driver.c" -o "$o-drv.o" &&
+             avr-gcc $AVR -O2 -std=gnu99 -Wall -Wextra -Werror -I"$drv" -c "$drv/plat_avr.c" -o "$o-plat.o" &&
+             avr-gcc $AVR -o "$o.elf" "$o-drv.o" "$o-plat.o"; } 2> "$o.log"; then
+        echo "FAIL avr $f: build"; sed 's/^/    /' "$o.log" | head -30; fail=1; continue
+      fi
+      timeout 60 simavr -m atmega328p -f 16000000 "$o.elf" 2> "$o.sim" > /dev/null
+      sed -e 's/\x1b\[[0-9;]*m//g' -e 's/\.$//' "$o.sim" | grep -E '^(P|I|C|V|K|END) ' > "$o.out"
+      check avr "$f" "$o.out"
+    done ;;
+  *) echo "unknown target $target"; exit 2 ;;
+esac
+exit $fail

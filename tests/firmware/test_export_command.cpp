@@ -1,0 +1,177 @@
+// Tests of `ridgecal export`: parsing (no files) and running (temp directory).
+#define BOOST_TEST_MODULE export_command
+#include <boost/test/unit_test.hpp>
+
+#include <filesystem>
+#include <fstream>
+#include <sstream>
+#include <unistd.h>
+
+#include "cli_common.hpp"
+#include "export_command.hpp"
+#include "fit_command.hpp"
+#include "ridgecal/record.hpp"
+
+namespace fs = std::filesystem;
+using namespace ridgecal;
+using namespace ridgecal::cli;
+
+namespace {
+
+std::string slurp(const fs::path& p) {
+  std::ifstream in(p, std::ios::binary);
+  std::ostringstream s;
+  s << in.rdbuf();
+  return s.str();
+}
+
+// A record made by `ridgecal fit` from the NTC demo sample, once per process.
+struct TempDir {
+  fs::path dir;
+  fs::path record;
+  TempDir() {
+    dir = fs::temp_directory_path() / ("ridgecal-export-test-" + std::to_string(::getpid()));
+    fs::remove_all(dir);
+    fs::create_directories(dir);
+    record = dir / "ntc.json";
+    std::ostringstream out, err;
+    const int rc = fit_main({std::string(RIDGECAL_SAMPLES_DIR) + "/ntc-coldstore/ntc-coldstore.csv", "-o",
+                             record.string(), "--sensor", "cold store NTC", "--reading-unit", "counts",
+                             "--reference-unit", "degC", "--timestamp", "none"},
+                            out, err);
+    BOOST_REQUIRE_MESSAGE(rc == 0, err.str());
+  }
+  ~TempDir() { fs::remove_all(dir); }
+};
+
+TempDir& temp() {
+  static TempDir t;
+  return t;
+}
+
+int run(const std::vector<std::string>& args, std::string* err_text = nullptr) {
+  std::ostringstream out, err;
+  const int rc = export_main(args, out, err);
+  if (err_text) *err_text = err.str();
+  return rc;
+}
+
+}  // namespace
+
+BOOST_AUTO_TEST_CASE(parse_full_command) {
+  const ExportCommand c = parse_export_command({"rec.json", "--prefix", "ntc", "--numeric", "fixed", "-o",
+                                                "ntc.h", "--raw-min", "100", "--raw-max", "4000",
+                                                "--output-scale", "100", "--tolerance", "0.2"});
+  BOOST_TEST(c.record_path == "rec.json");
+  BOOST_TEST(c.output_path == "ntc.h");
+  BOOST_TEST(c.options.prefix == "ntc");
+  BOOST_TEST((c.options.mode == firmware::NumericMode::Fixed));
+  BOOST_TEST(*c.options.raw_min == 100);
+  BOOST_TEST(*c.options.raw_max == 4000);
+  BOOST_TEST(c.options.output_scale == 100.0);
+  BOOST_TEST(*c.tolerance == 0.2);
+  const ExportCommand d = parse_export_command({"r.json", "--prefix", "p", "-o", "p.h"});
+  BOOST_TEST((d.options.mode == firmware::NumericMode::Float));
+  BOOST_TEST(d.options.max_deviation_fraction == 0.1);
+}
+
+BOOST_AUTO_TEST_CASE(parse_errors_are_usage_errors) {
+  const std::vector<std::vector<std::string>> bad = {
+      {},                                                       // no record
+      {"r.json", "--prefix", "p"},                              // no output
+      {"r.json", "-o", "p.h"},                                  // no prefix
+      {"r.json", "--prefix", "1p", "-o", "p.h"},                // bad prefix
+      {"r.json", "--prefix", "p", "-o", "p.h", "--numeric", "half"},
+      {"r.json", "--prefix", "p", "-o", "p.h", "--max-deviation-fraction", "0"},
+      {"r.json", "--prefix", "p", "-o", "p.h", "--tolerance", "-1"},
+      {"r.json", "--prefix", "p", "-o", "p.h", "--raw-min", "9", "--raw-max", "3"},
+      {"a.json", "b.json", "--prefix", "p", "-o", "p.h"},
+      {"r.json", "--prefix", "p", "-o", "p.h", "--bogus"},
+  };
+  for (const auto& args : bad) BOOST_CHECK_THROW(parse_export_command(args), UsageError);
+}
+
+BOOST_AUTO_TEST_CASE(export_writes_header_exit_0) {
+  for (const char* mode : {"float", "double", "fixed"}) {
+    const fs::path h = temp().dir / (std::string("ok_") + mode + ".h");
+    std::string err;
+    BOOST_TEST(run({temp().record.string(), "--prefix", "ntc", "--numeric", mode, "-o", h.string()}, &err) ==
+                   kExitOk,
+               err);
+    const std::string text = slurp(h);
+    BOOST_TEST(text.find("#define NTC_FORMAT_VERSION 1") != std::string::npos);
+    BOOST_TEST(text.find("cold store NTC") != std::string::npos);
+    // the record's integrity digest is the SHA-256 in the QA block
+    const std::string digest = record_digest(read_record_json(temp().record.string()));
+    BOOST_TEST(text.find(digest) != std::string::npos);
+  }
+}
+
+BOOST_AUTO_TEST_CASE(refused_export_exit_1_keeps_existing_file) {
+  const fs::path h = temp().dir / "keep.h";
+  std::ofstream(h) << "previous header\n";
+  std::string err;
+  // tolerance 1e-6: even binary32 rounding exceeds 0.1 x 1e-6
+  BOOST_TEST(run({temp().record.string(), "--prefix", "ntc", "--numeric", "float", "--tolerance", "1e-6",
+                  "-o", h.string()},
+                 &err) == kExitOutOfTolerance);
+  BOOST_TEST(err.find("refused") != std::string::npos, err);
+  BOOST_TEST(slurp(h) == "previous header\n");
+  // no temporary files left behind
+  int files = 0;
+  for (const auto& e : fs::directory_iterator(temp().dir)) files += e.path().filename().string().rfind("keep", 0) == 0;
+  BOOST_TEST(files == 1);
+}
+
+BOOST_AUTO_TEST_CASE(bad_input_exit_2_writes_nothing) {
+  const fs::path h = temp().dir / "never.h";
+  BOOST_TEST(run({(temp().dir / "missing.json").string(), "--prefix", "p", "-o", h.string()}) == kExitBadInput);
+  BOOST_TEST(run({temp().record.string(), "--prefix", "_P", "-o", h.string()}) == kExitBadInput);
+  // a record edited after it was written fails its integrity check
+  std::string text = slurp(temp().record);
+  const auto pos = text.find("\"reading_unit\": \"counts\"");
+  BOOST_REQUIRE(pos != std::string::npos);
+  text.replace(pos, 24, "\"reading_unit\": \"COUNTS\"");
+  const fs::path edited = temp().dir / "edited.json";
+  std::ofstream(edited) << text;
+  std::string err;
+  BOOST_TEST(run({edited.string(), "--prefix", "p", "-o", h.string()}, &err) == kExitBadInput);
+  BOOST_TEST(err.find("integrity") != std::string::npos, err);
+  BOOST_TEST(!fs::exists(h));
+}
+
+BOOST_AUTO_TEST_CASE(help_exits_0) {
+  std::ostringstream out, err;
+  BOOST_TEST(export_main({"--help"}, out, err) == kExitOk);
+  BOOST_TEST(out.str().find("--numeric") != std::string::npos);
+}
+
+BOOST_AUTO_TEST_CASE(record_tolerance_and_decision_are_used) {
+  // A record carrying the optional assessment members: tolerance formula and
+  // decision. The refusal rule takes the strictest limit over the range.
+  nlohmann::json j = read_record_json(temp().record.string());
+  j["tolerance"] = {{"offset", 0.05}, {"proportional", 0.001}, {"percent_of_span", 0.0},
+                    {"source", "user"}, {"text", "+-(0.05 + 0.001*|reference|)"}};
+  j["decision"] = {{"rule", "simple"}, {"verdict", "PASS"}, {"statement", "all test points within tolerance"}};
+  j["integrity"]["sha256"] = record_digest(j);
+  const fs::path rec = temp().dir / "assessed.json";
+  std::ofstream(rec) << record_text(j);
+  const fs::path h = temp().dir / "assessed.h";
+  std::string err;
+  BOOST_TEST(run({rec.string(), "--prefix", "ntc", "-o", h.string()}, &err) == kExitOk, err);
+  const std::string text = slurp(h);
+  BOOST_TEST(text.find("+-(0.05 + 0.001*|reference|) (user)") != std::string::npos);
+  BOOST_TEST(text.find("PASS (simple acceptance): all test points within tolerance") != std::string::npos);
+  BOOST_TEST(text.find("(record tolerance)") != std::string::npos);
+  // strictest limit is at the reference value closest to 0: >= 0.05
+  const auto pos = text.find("tolerance used:");
+  BOOST_REQUIRE(pos != std::string::npos);
+  const double used = std::stod(text.substr(pos + 15));
+  BOOST_TEST(used >= 0.05);
+  BOOST_TEST(used < 0.06);
+  // fixed mode: 1/1000 degC rounding (5e-4) is within 0.1 x 0.05
+  BOOST_TEST(run({rec.string(), "--prefix", "ntc", "--numeric", "fixed", "-o", h.string()}) == kExitOk);
+  // an explicit --tolerance wins over the record's
+  BOOST_TEST(run({rec.string(), "--prefix", "ntc", "--numeric", "fixed", "--tolerance", "0.001", "-o",
+                  h.string()}) == kExitOutOfTolerance);
+}

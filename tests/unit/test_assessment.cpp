@@ -1,0 +1,250 @@
+// Tolerance formulas, the decision rule, the uncertainty budget, the record's
+// new members and the as-found check.
+#define BOOST_TEST_MODULE assessment
+#include <boost/test/unit_test.hpp>
+#include <cmath>
+#include <cstdio>
+#include <filesystem>
+#include <unistd.h>
+
+#include "ridgecal/as_found.hpp"
+#include "ridgecal/assessment.hpp"
+#include "ridgecal/atomic_file.hpp"
+#include "ridgecal/record.hpp"
+#include "test_support.hpp"
+
+using namespace ridgecal;
+
+namespace {
+
+Calibration fit_line(double noise, double lambda = 0.0, std::uint64_t seed = 1) {
+  const Dataset ds = test::synthetic_run([](double x) { return 2.0 * x + 1.0; }, 0, 10, 11, 2, noise, seed);
+  FitOptions o;
+  o.fixed_degree = 1;
+  o.fixed_lambda = lambda;
+  o.split.test_fraction = 0.0;
+  const FitOutcome f = fit_calibration(ds, o);
+  BOOST_REQUIRE(f.status.ok);
+  return f.calibration;
+}
+
+}  // namespace
+
+BOOST_AUTO_TEST_CASE(enums_round_trip) {
+  for (auto r : {DecisionRule::SimpleAcceptance, DecisionRule::GuardedAcceptance})
+    BOOST_TEST((decision_rule_from_string(to_string(r)) == r));
+  for (auto v : {Verdict::Pass, Verdict::Fail}) BOOST_TEST((verdict_from_string(to_string(v)) == v));
+  for (auto p : {TolerancePreset::Iec60751AA, TolerancePreset::Iec60751A, TolerancePreset::Iec60751B,
+                 TolerancePreset::Iec60751C})
+    BOOST_TEST((tolerance_preset_from_string(to_string(p)) == p));
+  for (auto t : {EvaluationType::A, EvaluationType::B}) BOOST_TEST((evaluation_type_from_string(to_string(t)) == t));
+  for (auto d : {Distribution::Normal, Distribution::Rectangular})
+    BOOST_TEST((distribution_from_string(to_string(d)) == d));
+  for (auto d : {SweepDirection::Up, SweepDirection::Down, SweepDirection::Unspecified})
+    BOOST_TEST((sweep_direction_from_string(to_string(d)) == d));
+  BOOST_CHECK_THROW(decision_rule_from_string("lenient"), std::invalid_argument);
+  BOOST_CHECK_THROW(sweep_direction_from_string("sideways"), std::invalid_argument);
+}
+
+BOOST_AUTO_TEST_CASE(tolerance_formula_and_validation) {
+  ToleranceSpec t;
+  BOOST_TEST(t.validate().find("all 0") != std::string::npos);
+  t.offset = -1;
+  BOOST_TEST(t.validate().find("offset is -1") != std::string::npos);
+  t.offset = 0.1;
+  t.proportional = 0.01;
+  t.percent_of_span = 0.5;
+  BOOST_TEST(t.validate().find("span") != std::string::npos);
+  t.span_low = 0;
+  t.span_high = 200;
+  BOOST_TEST(t.validate().empty());
+  BOOST_TEST(t.limit(-50.0) == 0.1 + 0.5 + 1.0, boost::test_tools::tolerance(1e-12));
+  BOOST_TEST(t.describe().find("0.5% of span") != std::string::npos);
+}
+
+BOOST_AUTO_TEST_CASE(guarded_rule_subtracts_u) {
+  ToleranceSpec t;
+  t.offset = 1.0;
+  const std::vector<PointToJudge> pts{{1, "training", 0, 0.7, 0.2}, {2, "training", 0, 0.85, 0.2}};
+  const Decision simple = judge(pts, t, DecisionRule::SimpleAcceptance);
+  BOOST_TEST(simple.pass());
+  BOOST_TEST(simple.points[1].acceptance_limit == 1.0);
+  const Decision guarded = judge(pts, t, DecisionRule::GuardedAcceptance);
+  BOOST_TEST(!guarded.pass());
+  BOOST_TEST(guarded.points[0].pass);
+  BOOST_TEST(!guarded.points[1].pass);
+  BOOST_TEST(guarded.points[1].acceptance_limit == 0.8, boost::test_tools::tolerance(1e-12));
+  BOOST_TEST(guarded.statement.find("Guarded acceptance") != std::string::npos);
+  // U larger than the tolerance: nothing can be accepted.
+  const Decision none = judge({{1, "training", 0, 0.0, 1.5}}, t, DecisionRule::GuardedAcceptance);
+  BOOST_TEST(!none.pass());
+  // Informative sets do not decide.
+  const Decision info = judge({{1, "training", 0, 0.1, 0}, {1, "validation", 0, 2.0, 0}}, t,
+                              DecisionRule::SimpleAcceptance, {"validation"});
+  BOOST_TEST(info.pass());
+  BOOST_TEST(info.sets[1].failed == 1u);
+}
+
+BOOST_AUTO_TEST_CASE(least_squares_band_matches_the_textbook_formula) {
+  // Straight line: Var(p(x0)) = s^2 (1/n + (x0 - mean)^2 / Sxx).
+  const Calibration cal = fit_line(0.05);
+  const FitCovariance cov(cal);
+  double mean = 0, sxx = 0, rss = 0;
+  std::size_t n = 0;
+  for (const auto& p : cal.points) mean += p.reading, ++n;
+  mean /= static_cast<double>(n);
+  for (const auto& p : cal.points) sxx += (p.reading - mean) * (p.reading - mean), rss += p.error * p.error;
+  const double s = std::sqrt(rss / (static_cast<double>(n) - 2));
+  BOOST_TEST(cov.effective_parameters() == 2.0, boost::test_tools::tolerance(1e-12));
+  BOOST_TEST(cov.residual_sd() == s, boost::test_tools::tolerance(1e-10));
+  for (double x0 : {0.0, 3.0, 10.0}) {
+    const double expected = 1.0 / static_cast<double>(n) + (x0 - mean) * (x0 - mean) / sxx;
+    BOOST_TEST(cov.variance_factor(x0) == expected, boost::test_tools::tolerance(1e-9));
+    BOOST_TEST(cov.leverage(x0) == expected, boost::test_tools::tolerance(1e-9));  // same for least squares
+  }
+  // Ridge: shrinkage lowers the variance.
+  const FitCovariance ridge(fit_line(0.05, 0.1));
+  BOOST_TEST(ridge.effective_parameters() < 2.0);
+  BOOST_TEST(ridge.variance_factor(10.0) < cov.variance_factor(10.0));
+}
+
+BOOST_AUTO_TEST_CASE(budget_components) {
+  const Calibration cal = fit_line(0.05);
+  UncertaintyOptions o;
+  o.reference_uncertainty = 0.04;
+  o.reference_k = 2.0;
+  o.resolution = 0.5;  // reading units; slope 2 -> u = 2 * 0.5 / (2 sqrt 3)
+  BOOST_TEST(o.validate().empty());
+  const UncertaintyBudget u = evaluate_uncertainty(cal, o);
+  BOOST_REQUIRE_EQUAL(u.components.size(), 4u);
+  BOOST_TEST(u.components[2].standard == 0.02, boost::test_tools::tolerance(1e-12));
+  BOOST_TEST(u.components[3].standard == 0.5 / std::sqrt(3.0), boost::test_tools::tolerance(0.01));
+  double sum = 0;
+  for (const auto& c : u.components) sum += c.standard * c.standard;
+  BOOST_TEST(u.combined == std::sqrt(sum), boost::test_tools::tolerance(1e-12));
+  BOOST_TEST(u.expanded == 2.0 * u.combined, boost::test_tools::tolerance(1e-12));
+  BOOST_TEST(u.band.size() == 21u);
+  for (const auto& b : u.band) BOOST_TEST(b.expanded <= u.expanded * (1 + 1e-12));
+  // The band is widest at the ends of the range.
+  BOOST_TEST(u.band.front().u_fit > u.band[10].u_fit);
+  BOOST_TEST(u.expanded_at(u.band[3].reading) == u.band[3].expanded, boost::test_tools::tolerance(1e-12));
+  o.reference_k = 0.5;
+  BOOST_TEST(o.validate().find("reference_k") != std::string::npos);
+}
+
+BOOST_AUTO_TEST_CASE(record_round_trips_the_assessment) {
+  const Dataset ds = test::synthetic_run([](double x) { return 2.0 * x + 1.0; }, 0, 10, 11, 2, 0.05, 2);
+  FitOptions fo;
+  fo.degrees = {1, 2};
+  const FitOutcome f = fit_calibration(ds, fo);
+  BOOST_REQUIRE(f.status.ok);
+  AssessmentOptions ao;
+  ao.tolerance = ToleranceSpec{};
+  ao.tolerance->percent_of_span = 1.0;  // span: the calibrated reference range
+  ao.rule = DecisionRule::GuardedAcceptance;
+  BOOST_REQUIRE(ao.validate().empty());
+  const Assessment a = assess_calibration(ds, f.calibration, ao);
+  BOOST_REQUIRE(a.tolerance && a.decision);
+  BOOST_TEST(a.tolerance->span() > 19.0);
+  CalibrationRecord rec;
+  rec.tool_version = "test";
+  rec.calibration = f.calibration;
+  rec.tolerance = a.tolerance;
+  rec.decision = a.decision;
+  rec.uncertainty = a.uncertainty;
+  rec.warnings = a.warnings;
+  Warning w;
+  w.code = DiagnosticCode::Outlier;
+  w.message = "m";
+  w.lines = {7};
+  w.value = 4.2;
+  rec.warnings.push_back(w);
+  const nlohmann::json j = record_to_json(rec);
+  BOOST_TEST(record_integrity_ok(j));
+  BOOST_TEST(j["decision"]["verdict"].get<std::string>() == to_string(a.decision->verdict));
+  BOOST_TEST(j["uncertainty"]["k"].get<double>() == 2.0);
+  const CalibrationRecord back = record_from_json(j, "r.json");
+  BOOST_REQUIRE(back.tolerance && back.decision && back.uncertainty);
+  BOOST_TEST(back.tolerance->percent_of_span == 1.0);
+  BOOST_TEST(back.tolerance->span_high == a.tolerance->span_high);
+  BOOST_TEST((back.decision->rule == DecisionRule::GuardedAcceptance));
+  BOOST_TEST(back.decision->points.size() == a.decision->points.size());
+  BOOST_TEST(back.uncertainty->expanded == a.uncertainty.expanded);
+  BOOST_TEST(back.uncertainty->band.size() == a.uncertainty.band.size());
+  BOOST_REQUIRE_EQUAL(back.warnings.size(), rec.warnings.size());
+  BOOST_TEST(back.warnings.back().lines == std::vector<std::size_t>{7});
+  BOOST_TEST(back.warnings.back().value == 4.2);
+  // Writing the read-back record again gives the same JSON (and digest).
+  BOOST_TEST(record_to_json(back) == j);
+  // A record without the new members still reads (older records).
+  nlohmann::json old = j;
+  for (const char* k : {"tolerance", "decision", "uncertainty", "warnings"}) old.erase(k);
+  const CalibrationRecord plain = record_from_json(old, "old.json");
+  BOOST_TEST(!plain.tolerance.has_value());
+  BOOST_TEST(plain.warnings.empty());
+  // A broken member is an InputError naming it.
+  nlohmann::json bad = j;
+  bad["decision"]["verdict"] = "MAYBE";
+  try {
+    record_from_json(bad, "bad.json");
+    BOOST_FAIL("no error");
+  } catch (const InputError& e) {
+    BOOST_TEST(e.message().find("decision.verdict") != std::string::npos);
+  }
+}
+
+BOOST_AUTO_TEST_CASE(as_found_refuses_a_modified_record) {
+  const auto dir = std::filesystem::temp_directory_path() / ("ridgecal_asfound_" + std::to_string(::getpid()));
+  std::filesystem::create_directories(dir);
+  const Calibration cal = fit_line(0.01);
+  CalibrationRecord rec;
+  rec.tool_version = "test";
+  rec.calibration = cal;
+  rec.tolerance = ToleranceSpec{};
+  rec.tolerance->offset = 0.1;
+  rec.decision = Decision{};
+  nlohmann::json j = record_to_json(rec);
+  const std::string good = (dir / "good.json").string(), bad = (dir / "bad.json").string();
+  write_file_atomic(good, record_text(j));
+  j["model"]["chebyshev_coefficients"][0] = j["model"]["chebyshev_coefficients"][0].get<double>() + 0.5;
+  write_file_atomic(bad, record_text(j));
+
+  BOOST_TEST(read_checked_record(good, false).integrity_ok);
+  try {
+    read_checked_record(bad, false);
+    BOOST_FAIL("modified record accepted");
+  } catch (const InputError& e) {
+    BOOST_TEST(e.message().find("modified") != std::string::npos);
+    BOOST_TEST(e.hint().find("ridgecal fit") != std::string::npos);
+    BOOST_TEST(e.hint().find("--allow-modified") != std::string::npos);
+  }
+  const CheckedRecord allowed = read_checked_record(bad, true);
+  BOOST_TEST(!allowed.integrity_ok);
+
+  // Fresh readings of the same sensor: PASS with the good record; the modified
+  // record (offset by 0.5) fails the record's own 0.1 tolerance and says so.
+  const Dataset fresh = test::synthetic_run([](double x) { return 2.0 * x + 1.0; }, 0, 10, 6, 1, 0.01, 9);
+  const AsFoundResult ok = evaluate_as_found(read_checked_record(good, false), fresh, AsFoundOptions{});
+  BOOST_REQUIRE(ok.decision.has_value());
+  BOOST_TEST(ok.decision->pass());
+  BOOST_TEST(ok.tolerance_source == "record");
+  const AsFoundResult mod = evaluate_as_found(allowed, fresh, AsFoundOptions{});
+  BOOST_TEST(!mod.decision->pass());
+  BOOST_TEST((mod.warnings.front().code == DiagnosticCode::RecordModified));
+  const nlohmann::json out = as_found_to_json(mod, "");
+  BOOST_TEST(out["record"]["integrity_ok"].get<bool>() == false);
+  BOOST_TEST(out["decision"]["verdict"].get<std::string>() == "FAIL");
+  BOOST_TEST(record_integrity_ok(out));
+  // A new tolerance from the command line replaces the record's.
+  AsFoundOptions wide;
+  wide.tolerance = ToleranceSpec{};
+  wide.tolerance->offset = 1.0;
+  const AsFoundResult w = evaluate_as_found(allowed, fresh, wide);
+  BOOST_TEST(w.decision->pass());
+  BOOST_TEST(w.tolerance_source == "command line");
+  // Guarded acceptance needs the record's uncertainty.
+  AsFoundOptions guarded;
+  guarded.rule = DecisionRule::GuardedAcceptance;
+  BOOST_CHECK_THROW(evaluate_as_found(allowed, fresh, guarded), InputError);
+  std::filesystem::remove_all(dir);
+}
