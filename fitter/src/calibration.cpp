@@ -116,6 +116,26 @@ FitOutcome fit_calibration(const Dataset& data, const FitOptions& options) {
   for (std::size_t i = 0; i < n; ++i) {
     x[i] = data.rows[i].reading;
     y[i] = data.rows[i].reference;
+    for (const double v : {x[i], y[i]})
+      if (!std::isfinite(v) || (v != 0.0 && (std::fabs(v) > kMaxMagnitude || std::fabs(v) < kMinMagnitude))) {
+        out.status = Status::failure(fmt::format(
+            "line {}: the value {} is not finite or its magnitude is outside the supported range [{:g}, {:g}]",
+            data.rows[i].line, v, kMinMagnitude, kMaxMagnitude));
+        return out;
+      }
+  }
+  // Work on references scaled by an exact power of two when their magnitude is
+  // extreme, so that squared errors neither overflow nor underflow (1e300 and
+  // 1e-300 fit like 1). Ridge regression is linear in the references, so the
+  // choice and the coefficients are the same; they are scaled back below.
+  int y_exp = 0;
+  {
+    double ymax = 0.0;
+    for (double v : y) ymax = std::max(ymax, std::fabs(v));
+    if (ymax > 0.0 && (ymax < 0x1p-64 || ymax > 0x1p64)) {
+      std::frexp(ymax, &y_exp);
+      for (double& v : y) v = std::ldexp(v, -y_exp);
+    }
   }
   const auto [xmin_it, xmax_it] = std::minmax_element(x.begin(), x.end());
   if (n == 0 || *xmin_it == *xmax_it) {
@@ -224,6 +244,19 @@ FitOutcome fit_calibration(const Dataset& data, const FitOptions& options) {
   }
 
   const int Dmax = std::max(1, sel.degrees.back());
+  if (!options.intercept) {
+    // Through the origin the design holds T_k(t(0)); refuse when reading 0 is
+    // so far outside the calibrated range that these overflow.
+    std::vector<double> row0(static_cast<std::size_t>(Dmax) + 1);
+    chebyshev_row(sc.to_t(0.0), Dmax, row0.data());
+    for (double v : row0)
+      if (!std::isfinite(v) || std::fabs(v) > 1e150) {
+        out.status = Status::failure(fmt::format(
+            "reading 0 lies too far outside the calibrated range {:g} .. {:g} for a fit through the origin",
+            sc.x_min, sc.x_max));
+        return out;
+      }
+  }
   const Eigen::MatrixXd X = design(x, sc, Dmax, options.intercept);
   const Eigen::VectorXd y_train = take(y, train_rows);
 
@@ -383,13 +416,31 @@ FitOutcome fit_calibration(const Dataset& data, const FitOptions& options) {
     }
   }
 
+  // Back to reference units (exact: powers of two).
+  if (y_exp != 0) {
+    for (double& c : cal.model.cheb) c = std::ldexp(c, y_exp);
+    for (double& v : cv_pred) v = std::ldexp(v, y_exp);
+    for (GridCell& c : sel.grid) {
+      c.cv_rmse = std::ldexp(c.cv_rmse, y_exp);
+      c.cv_se = std::ldexp(c.cv_se, y_exp);
+      c.train_rmse = std::ldexp(c.train_rmse, y_exp);
+    }
+  }
+  for (double c : cal.model.cheb)
+    if (!std::isfinite(c)) {
+      out.status = Status::failure(
+          "the fit produced a non-finite coefficient; the data are too extreme for this model (lower the degree, "
+          "use lambda > 0, or rescale the columns)");
+      return out;
+    }
+
   std::vector<double> tr_ref, tr_pred, va_ref, va_pred, te_ref, te_pred;
   for (std::size_t r = 0; r < n; ++r) {
     PointResult p;
     p.line = data.rows[r].line;
     p.setpoint = data.rows[r].setpoint;
     p.reading = x[r];
-    p.reference = y[r];
+    p.reference = data.rows[r].reference;
     p.predicted = cal.model.eval(x[r]);
     p.error = p.predicted - p.reference;
     p.role = row_role[r];
@@ -405,6 +456,13 @@ FitOutcome fit_calibration(const Dataset& data, const FitOptions& options) {
     } else {
       te_ref.push_back(p.reference);
       te_pred.push_back(p.predicted);
+    }
+    if (!std::isfinite(p.predicted) || !std::isfinite(p.error)) {
+      out.status = Status::failure(fmt::format(
+          "line {}: the fitted curve gives a non-finite value at reading {}; the data are too extreme for this "
+          "model (lower the degree, or rescale the columns)",
+          p.line, p.reading));
+      return out;
     }
     cal.points.push_back(std::move(p));
   }
@@ -433,11 +491,15 @@ std::string Calibration::brief() const {
 
 std::string Calibration::full() const {
   std::string s = brief();
+  // Non-finite figures print as n/a (never nan or inf).
+  const auto g = [](double v, const char* spec) {
+    return std::isfinite(v) ? fmt::format(fmt::runtime(spec), v) : std::string("n/a");
+  };
   s += "chebyshev coefficients (scaled reading t):";
-  for (double c : model.cheb) s += fmt::format(" {:.17g}", c);
+  for (double c : model.cheb) s += " " + g(c, "{:.17g}");
   s += "\npower coefficients (raw reading x):";
-  for (double c : model.power_in_x()) s += fmt::format(" {:.17g}", c);
-  s += fmt::format("\ncondition number: {:.3g}\n", condition_number);
+  for (double c : model.power_in_x()) s += " " + g(c, "{:.17g}");
+  s += "\ncondition number: " + g(condition_number, "{:.3g}") + "\n";
   for (const auto& note : selection.notes) s += "note: " + note + "\n";
   return s;
 }
