@@ -3,9 +3,13 @@
 #
 #   bash setup.sh demo   install what is missing, build, fit a bundled sample
 #   bash setup.sh test   install what is missing (with the test tools), build,
-#                        run the whole test suite (ends with CTest's summary)
+#                        run the whole test suite, then the sanitizer suite
+#                        (ASan+UBSan build in build-asan) and the fuzzers
+#                        (clang build in build-fuzz); see docs/robustness.md
 #
-# Environment: BUILD_DIR (default: build), JOBS (default: number of cores).
+# Environment: BUILD_DIR (default: build), JOBS (default: number of cores),
+# RIDGECAL_FUZZ_SECONDS (default 60, per fuzzer), RIDGECAL_SKIP_ASAN=1 and
+# RIDGECAL_SKIP_FUZZ=1 to skip those stages locally (CI runs them).
 set -euo pipefail
 cd "$(dirname "$0")"
 mode=${1:-demo}
@@ -17,7 +21,7 @@ base_pkgs=(g++ cmake ninja-build pkg-config libeigen3-dev libboost-dev libboost-
            libboost-test-dev nlohmann-json3-dev libfmt-dev libssl-dev)
 # Extra packages for the test suite (the firmware target and browser tests
 # install their own toolchains through the scripts listed in test_installers).
-test_pkgs=(python3)
+test_pkgs=(python3 clang-14 libclang-rt-14-dev)  # clang + libFuzzer runtime for tests/fuzz
 test_installers=()
 for f in tests/*/install-*.sh; do [[ -e $f ]] && test_installers+=("$f"); done
 
@@ -55,6 +59,21 @@ case $mode in
     cmake -S . -B "$build" -G Ninja -DCMAKE_BUILD_TYPE=RelWithDebInfo -DRIDGECAL_BUILD_TESTS=ON >/dev/null
     cmake --build "$build" -j "$jobs"
     ctest --test-dir "$build" --output-on-failure -j "$jobs"
+    # Sanitizer suite: the whole test suite again, built with ASan + UBSan
+    # (assertions on). Tests labelled `external` only drive outside toolchains
+    # or browsers and are left out here (docs/robustness.md).
+    if [[ ${RIDGECAL_SKIP_ASAN:-0} != 1 ]]; then
+      cmake -S . -B build-asan -G Ninja -DRIDGECAL_SANITIZE=ON -DCMAKE_BUILD_TYPE=Debug \
+        -DCMAKE_CXX_FLAGS_DEBUG="-O1 -g" -DCMAKE_C_FLAGS_DEBUG="-O1 -g" -DRIDGECAL_BUILD_TESTS=ON >/dev/null
+      cmake --build build-asan -j "$jobs"
+      ASAN_OPTIONS=detect_leaks=1:strict_string_checks=1:detect_stack_use_after_return=1 \
+        UBSAN_OPTIONS=print_stacktrace=1:halt_on_error=1 \
+        ctest --test-dir build-asan --output-on-failure -j "$jobs" -LE "external|firmware"
+    fi
+    # Fuzzers: each for RIDGECAL_FUZZ_SECONDS (default 60) under libFuzzer.
+    if [[ ${RIDGECAL_SKIP_FUZZ:-0} != 1 ]]; then
+      CXX_FUZZ=clang++-14 CC_FUZZ=clang-14 JOBS=$jobs bash tests/fuzz/run-fuzz-build.sh
+    fi
     ;;
   *)
     echo "usage: bash setup.sh demo|test" >&2

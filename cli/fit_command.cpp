@@ -10,6 +10,7 @@
 #include "ridgecal/atomic_file.hpp"
 #include "ridgecal/errors.hpp"
 #include "ridgecal/report/html_report.hpp"
+#include "ridgecal/text_check.hpp"
 
 namespace po = boost::program_options;
 
@@ -28,6 +29,11 @@ po::options_description fit_options() {
     ("setpoint", po::value<std::string>(), "column naming the setpoint of repeated readings (default: equal reference values form a setpoint)")
     ("role", po::value<std::string>(), "column with 'fit' or 'check' per row: the check setpoints become the test set")
     ("delimiter", po::value<std::string>()->default_value(","), "field delimiter: ',', ';' or 'tab'")
+    ("decimal-comma", po::bool_switch(), "numbers use ',' as the decimal point (12,5); needs --delimiter ';' or tab")
+    ("max-rows", po::value<std::size_t>()->default_value(CsvLimits{}.max_rows), "refuse input with more data rows than this (memory: see docs/robustness.md)")
+    ("max-bytes", po::value<std::size_t>()->default_value(CsvLimits{}.max_bytes), "refuse an input file larger than this many bytes")
+    ("max-fields", po::value<std::size_t>()->default_value(CsvLimits{}.max_fields), "refuse rows with more fields than this")
+    ("max-field-bytes", po::value<std::size_t>()->default_value(CsvLimits{}.max_field_bytes), "refuse fields (cells, column names, labels) longer than this many bytes")
     ("degrees", po::value<std::string>()->default_value("1..7"), "candidate degrees, e.g. 1..7 or 1,2,3")
     ("lambdas", po::value<std::string>()->default_value("default"), "candidate penalties: 'default' (0 and 30 values from 1e-12 to 10), or a list like 0,1e-9:1e-1:20")
     ("rule", po::value<std::string>()->default_value("one-se"), "selection rule: one-se (simplest model within one standard error of the lowest CV error) or min-cv (lowest CV error)")
@@ -88,6 +94,11 @@ FitCommand parse_fit_command(const std::vector<std::string>& args) {
   if (vm.count("role")) cmd.csv.role_column = vm["role"].as<std::string>();
   if (vm.count("direction")) cmd.csv.direction_column = vm["direction"].as<std::string>();
   cmd.csv.delimiter = parse_delimiter(vm["delimiter"].as<std::string>());
+  cmd.csv.decimal_comma = vm["decimal-comma"].as<bool>();
+  cmd.csv.limits.max_rows = vm["max-rows"].as<std::size_t>();
+  cmd.csv.limits.max_bytes = vm["max-bytes"].as<std::size_t>();
+  cmd.csv.limits.max_fields = vm["max-fields"].as<std::size_t>();
+  cmd.csv.limits.max_field_bytes = vm["max-field-bytes"].as<std::size_t>();
   if (const std::string e = cmd.csv.validate(); !e.empty()) throw UsageError(e);
 
   cmd.fit.degrees = parse_degree_list(vm["degrees"].as<std::string>());
@@ -111,6 +122,15 @@ FitCommand parse_fit_command(const std::vector<std::string>& args) {
   cmd.sensor.name = vm["sensor"].as<std::string>();
   cmd.sensor.reading_unit = vm["reading-unit"].as<std::string>();
   cmd.sensor.reference_unit = vm["reference-unit"].as<std::string>();
+  const std::pair<const char*, const std::string*> texts[] = {{"--sensor", &cmd.sensor.name},
+                                                              {"--reading-unit", &cmd.sensor.reading_unit},
+                                                              {"--reference-unit", &cmd.sensor.reference_unit}};
+  for (const auto& [option, value] : texts)
+    if (const std::string why = name_problem(*value, kMaxRecordNameBytes); !why.empty())
+      throw UsageError(fmt::format("{}: '{}' {}", option, shown_text(*value), why));
+  if (!is_valid_utf8(cmd.data_path) || cmd.data_path.size() > 4096)
+    throw UsageError(fmt::format("the data file name '{}' is not valid UTF-8 or too long; rename the file",
+                                 shown_text(cmd.data_path)));
   cmd.timestamp = vm["timestamp"].as<std::string>();
   cmd.full = vm["full"].as<bool>();
   const JudgementCli jc = parse_judgement_options(vm);
@@ -155,9 +175,10 @@ int run_fit_command(const FitCommand& cmd, std::ostream& out, std::ostream& err)
                          cmd.sensor.reading_unit.empty() ? "unstated units" : cmd.sensor.reading_unit,
                          cmd.sensor.reference_unit.empty() ? "unstated units" : cmd.sensor.reference_unit);
     out << (cmd.full ? rec.calibration.full() : rec.calibration.brief());
-    out << assessment.uncertainty.brief(cmd.sensor.reference_unit);
+    out << (cmd.full ? assessment.uncertainty.full(cmd.sensor.reference_unit)
+                     : assessment.uncertainty.brief(cmd.sensor.reference_unit));
     if (assessment.tolerance) out << "tolerance: " << assessment.tolerance->describe() << "\n";
-    if (assessment.decision) out << assessment.decision->brief();
+    if (assessment.decision) out << (cmd.full ? assessment.decision->full() : assessment.decision->brief());
     else out << "decision: none (no tolerance given)\n";
     err << format_warnings(assessment.warnings);
     if (!cmd.output_path.empty()) out << "record: " << cmd.output_path << "\n";

@@ -6,7 +6,9 @@
 
 #include <cerrno>
 #include <cstdlib>
+#include <cstdint>
 #include <cstring>
+#include <fmt/format.h>
 #include <fstream>
 #include <sstream>
 #include <vector>
@@ -54,6 +56,25 @@ std::string read_file_bytes(const std::string& path) {
   std::ostringstream ss;
   ss << in.rdbuf();
   return ss.str();
+}
+
+std::string read_file_bytes_limited(const std::string& path, std::size_t max_bytes, const std::string& hint) {
+  std::ifstream in(path, std::ios::binary);
+  if (!in) throw InputError(path, 0, "cannot open the file", "check the path and the permissions");
+  struct stat st {};
+  if (::stat(path.c_str(), &st) == 0 && S_ISREG(st.st_mode) && static_cast<std::uintmax_t>(st.st_size) > max_bytes)
+    throw InputError(path, 0, fmt::format("the file is {} bytes; the limit is {} bytes", st.st_size, max_bytes), hint);
+  std::string out;
+  char buf[1 << 16];
+  while (in) {
+    in.read(buf, sizeof buf);
+    const std::size_t got = static_cast<std::size_t>(in.gcount());
+    if (got > max_bytes - out.size())
+      throw InputError(path, 0, fmt::format("the input is longer than the limit of {} bytes", max_bytes), hint);
+    out.append(buf, got);
+  }
+  if (in.bad()) throw InputError(path, 0, "cannot read the file", "check the path and the permissions");
+  return out;
 }
 
 }  // namespace ridgecal

@@ -9,8 +9,17 @@
 #include "ridgecal/atomic_file.hpp"
 #include "ridgecal/errors.hpp"
 #include "ridgecal/sha256.hpp"
+#include "ridgecal/text_check.hpp"
 
 namespace ridgecal {
+
+std::string CsvLimits::validate() const {
+  if (max_bytes == 0) return "limits.max_bytes is 0; it must be at least 1";
+  if (max_rows == 0) return "limits.max_rows is 0; it must be at least 1";
+  if (max_fields < 2) return fmt::format("limits.max_fields is {}; it must be at least 2", max_fields);
+  if (max_field_bytes == 0) return "limits.max_field_bytes is 0; it must be at least 1";
+  return {};
+}
 
 std::string CsvOptions::validate() const {
   if (reading_column.empty()) return "reading_column is empty; it must name a column";
@@ -19,12 +28,22 @@ std::string CsvOptions::validate() const {
     return fmt::format("reading_column and reference_column are both '{}'; they must differ",
                        reading_column);
   if (delimiter != ',' && delimiter != ';' && delimiter != '\t')
-    return fmt::format("delimiter is '{}'; it must be ',', ';' or a tab", delimiter);
+    return fmt::format("delimiter is '{}'; it must be ',', ';' or a tab", shown_text(std::string(1, delimiter)));
   if (!direction_column.empty() &&
       (direction_column == reading_column || direction_column == reference_column))
     return fmt::format("direction_column is '{}'; it must differ from the reading and reference columns",
                        direction_column);
-  return {};
+  if (decimal_comma && delimiter == ',')
+    return "decimal_comma is set with delimiter ','; a decimal comma needs delimiter ';' or a tab";
+  const std::pair<const char*, const std::string*> names[] = {{"reading_column", &reading_column},
+                                                              {"reference_column", &reference_column},
+                                                              {"setpoint_column", &setpoint_column},
+                                                              {"role_column", &role_column},
+                                                              {"direction_column", &direction_column}};
+  for (const auto& [field, value] : names)
+    if (const std::string why = name_problem(*value, limits.max_field_bytes); !why.empty())
+      return fmt::format("{} '{}' {}", field, shown_text(*value), why);
+  return limits.validate();
 }
 
 std::string to_string(UserRole r) {
@@ -72,26 +91,26 @@ std::string trim(std::string_view s) {
   return std::string(s.substr(b, e - b));
 }
 
-// Printable form of a cell for messages: bounded length, control chars escaped.
-std::string shown(std::string_view s) {
-  std::string out;
-  for (char c : s.substr(0, 40)) {
-    if (static_cast<unsigned char>(c) < 0x20) out += fmt::format("\\x{:02x}", static_cast<unsigned char>(c));
-    else out += c;
-  }
-  if (s.size() > 40) out += "...";
-  return out;
-}
+// Printable form of a cell for messages: bounded length, control chars and
+// invalid UTF-8 escaped.
+std::string shown(std::string_view s) { return shown_text(s, 40); }
 
 // Splits one record into fields. Quotes may wrap a field; a quote inside a
 // quoted field is doubled. Throws on an unterminated quote.
-std::vector<std::string> split_fields(std::string_view line, char delim, const std::string& file,
-                                      std::size_t lineno) {
+// Fields and their lengths are bounded by `limits` (checked as they grow, so a
+// hostile line never makes us allocate more than the limits allow).
+std::vector<std::string> split_fields(std::string_view line, char delim, const CsvLimits& limits,
+                                      const std::string& file, std::size_t lineno) {
   std::vector<std::string> out;
   std::string cur;
   bool in_quotes = false, was_quoted = false;
   for (std::size_t i = 0; i < line.size(); ++i) {
     const char c = line[i];
+    if (cur.size() >= limits.max_field_bytes)
+      throw InputError(file, lineno,
+                       fmt::format("field {} is longer than {} bytes", out.size() + 1, limits.max_field_bytes),
+                       in_quotes ? "is a closing quote missing? (raise the limit with --max-field-bytes)"
+                                 : "raise the limit with --max-field-bytes if this is intended");
     if (in_quotes) {
       if (c == '"') {
         if (i + 1 < line.size() && line[i + 1] == '"') {
@@ -108,6 +127,9 @@ std::vector<std::string> split_fields(std::string_view line, char delim, const s
       was_quoted = true;
       cur.clear();
     } else if (c == delim) {
+      if (out.size() + 1 >= limits.max_fields)
+        throw InputError(file, lineno, fmt::format("the row has more than {} fields", limits.max_fields),
+                         "raise the limit with --max-fields if this is intended");
       out.push_back(was_quoted ? cur : trim(cur));
       cur.clear();
       was_quoted = false;
@@ -122,8 +144,17 @@ std::vector<std::string> split_fields(std::string_view line, char delim, const s
   return out;
 }
 
-double parse_number(const std::string& cell, const std::string& column, const std::string& file,
-                    std::size_t lineno) {
+double parse_number(const std::string& raw, const std::string& column, bool decimal_comma,
+                    const std::string& file, std::size_t lineno) {
+  std::string cell = raw;
+  if (decimal_comma) {
+    if (cell.find('.') != std::string::npos)
+      throw InputError(file, lineno,
+                       fmt::format("column '{}' holds '{}', which has a '.' although --decimal-comma is given",
+                                   shown(column), shown(raw)),
+                       "write numbers as 12,5 without thousands separators, or drop --decimal-comma");
+    std::replace(cell.begin(), cell.end(), ',', '.');
+  }
   const char* b = cell.data();
   const char* e = cell.data() + cell.size();
   if (b != e && *b == '+') ++b;  // from_chars does not take a leading '+'
@@ -138,11 +169,11 @@ double parse_number(const std::string& cell, const std::string& column, const st
                                  shown(column), shown(cell)),
                      "check the value");
   if (res.ec != std::errc() || res.ptr != e) {
-    const bool comma = cell.find(',') != std::string::npos;
+    const bool comma = raw.find(',') != std::string::npos && !decimal_comma;
     throw InputError(file, lineno,
                      fmt::format("column '{}' holds '{}', which is not a number", shown(column),
-                                 shown(cell)),
-                     comma ? "use '.' as the decimal point (a decimal comma is not accepted)"
+                                 shown(raw)),
+                     comma ? "use '.' as the decimal point, or give --decimal-comma (with --delimiter ';' or tab)"
                            : "write a plain decimal number such as 12.5 or 1.25e3");
   }
   if (!std::isfinite(v))
@@ -150,6 +181,12 @@ double parse_number(const std::string& cell, const std::string& column, const st
                      fmt::format("column '{}' holds '{}', which is not a finite number",
                                  shown(column), shown(cell)),
                      "NaN and infinities cannot be calibrated; remove the row");
+  if (v != 0.0 && (std::fabs(v) > kMaxMagnitude || std::fabs(v) < kMinMagnitude))
+    throw InputError(file, lineno,
+                     fmt::format("column '{}' holds '{}', whose magnitude is outside the supported range "
+                                 "[{:g}, {:g}]",
+                                 shown(column), shown(raw), kMinMagnitude, kMaxMagnitude),
+                     "express the column in another unit (e.g. mV instead of V) so its values are moderate");
   return v;
 }
 
@@ -183,7 +220,7 @@ Dataset parse_calibration_csv(const std::string& text, const std::string& file,
     if (line.find('\0') != std::string_view::npos)
       throw InputError(file, lineno, "the line contains a NUL byte", "is this a text CSV file?");
 
-    std::vector<std::string> fields = split_fields(line, options.delimiter, file, lineno);
+    std::vector<std::string> fields = split_fields(line, options.delimiter, options.limits, file, lineno);
     if (header.empty()) {
       header = std::move(fields);
       header_line = lineno;
@@ -219,16 +256,28 @@ Dataset parse_calibration_csv(const std::string& text, const std::string& file,
       throw InputError(file, lineno,
                        fmt::format("the row has {} fields but the header (line {}) has {}", fields.size(),
                                    header_line, header.size()),
-                       "every row needs one value per column; check for a missing or extra delimiter");
+                       fields.size() > header.size() && options.delimiter == ','
+                           ? "every row needs one value per column; check for an extra delimiter (numbers with a "
+                             "decimal comma need --delimiter ';' and --decimal-comma)"
+                           : "every row needs one value per column; check for a missing or extra delimiter");
+    if (ds.rows.size() >= options.limits.max_rows)
+      throw InputError(file, lineno, fmt::format("the file has more than {} data rows", options.limits.max_rows),
+                       "raise the limit with --max-rows (see docs/robustness.md for the memory it needs)");
     Observation ob;
     ob.line = lineno;
-    ob.reading = parse_number(fields[static_cast<std::size_t>(reading_idx)], options.reading_column, file, lineno);
-    ob.reference = parse_number(fields[static_cast<std::size_t>(reference_idx)], options.reference_column, file, lineno);
+    ob.reading = parse_number(fields[static_cast<std::size_t>(reading_idx)], options.reading_column,
+                              options.decimal_comma, file, lineno);
+    ob.reference = parse_number(fields[static_cast<std::size_t>(reference_idx)], options.reference_column,
+                                options.decimal_comma, file, lineno);
     if (setpoint_idx >= 0) {
       ob.setpoint = fields[static_cast<std::size_t>(setpoint_idx)];
       if (ob.setpoint.empty())
         throw InputError(file, lineno, fmt::format("the setpoint column '{}' is empty", shown(options.setpoint_column)),
                          "every row needs a setpoint label");
+      if (const std::string why = name_problem(ob.setpoint, options.limits.max_field_bytes); !why.empty())
+        throw InputError(file, lineno,
+                         fmt::format("the setpoint label '{}' {}", shown(ob.setpoint), why),
+                         "save the file as UTF-8 and keep labels to printable text");
     } else {
       ob.setpoint = fmt::format("{}", ob.reference);  // shortest round-trip text
     }
@@ -266,7 +315,11 @@ Dataset parse_calibration_csv(const std::string& text, const std::string& file,
 }
 
 Dataset read_calibration_csv(const std::string& path, const CsvOptions& options) {
-  return parse_calibration_csv(read_file_bytes(path), path, options);
+  if (const std::string err = options.validate(); !err.empty())
+    throw InputError("", 0, "invalid column options: " + err);
+  return parse_calibration_csv(
+      read_file_bytes_limited(path, options.limits.max_bytes, "raise the limit with --max-bytes if this is intended"),
+      path, options);
 }
 
 }  // namespace ridgecal

@@ -9,7 +9,12 @@ namespace ridgecal {
 
 std::string Metrics::brief() const {
   if (n == 0) return "no points";
-  return fmt::format("n={} RMSE={:.6g} max|err|={:.6g} bias={:+.3g} R2={:.8f}", n, rmse, max_abs_error, bias, r2);
+  // Figures that cannot be computed print as n/a, never as nan.
+  const auto f = [](double v, const char* spec) {
+    return std::isfinite(v) ? fmt::format(fmt::runtime(spec), v) : std::string("n/a");
+  };
+  return fmt::format("n={} RMSE={} max|err|={} bias={} R2={}", n, f(rmse, "{:.6g}"), f(max_abs_error, "{:.6g}"),
+                     f(bias, "{:+.3g}"), f(r2, "{:.8f}"));
 }
 
 Metrics compute_metrics(const std::vector<double>& reference, const std::vector<double>& predicted,

@@ -1,6 +1,7 @@
 #include "ridgecal/record.hpp"
 
 #include <cmath>
+#include <cstdint>
 #include <fmt/format.h>
 #include <limits>
 
@@ -77,7 +78,35 @@ struct Reader {
   long long integer(const json& obj, const std::string& key, const std::string& where) const {
     const json& v = member(obj, key, where);
     if (!v.is_number_integer()) fail(where + "." + key, "is not an integer");
+    if (v.is_number_unsigned() && v.get<std::uint64_t>() > static_cast<std::uint64_t>(
+                                      std::numeric_limits<long long>::max()))
+      fail(where + "." + key, "is too large");
     return v.get<long long>();
+  }
+  // An integer in [lo, hi].
+  long long bounded(const json& obj, const std::string& key, const std::string& where, long long lo,
+                    long long hi) const {
+    const long long v = integer(obj, key, where);
+    if (v < lo || v > hi) fail(where + "." + key, fmt::format("is {}; it must be between {} and {}", v, lo, hi));
+    return v;
+  }
+  std::size_t count(const json& obj, const std::string& key, const std::string& where) const {
+    return static_cast<std::size_t>(bounded(obj, key, where, 0, std::numeric_limits<long long>::max()));
+  }
+  int small(const json& obj, const std::string& key, const std::string& where, int lo = -1,
+            int hi = 1'000'000) const {
+    return static_cast<int>(bounded(obj, key, where, lo, hi));
+  }
+  int small_value(const json& v, const std::string& where, int lo, int hi) const {
+    if (!v.is_number_integer()) fail(where, "holds a value that is not an integer");
+    if (v.is_number_unsigned() ? v.get<std::uint64_t>() > static_cast<std::uint64_t>(hi)
+                               : (v.get<long long>() < lo || v.get<long long>() > hi))
+      fail(where, fmt::format("holds a value outside {}..{}", lo, hi));
+    return static_cast<int>(v.get<long long>());
+  }
+  double number_value(const json& v, const std::string& where) const {
+    if (!v.is_number()) fail(where, "holds a value that is not a number");
+    return v.get<double>();
   }
   std::string text(const json& obj, const std::string& key, const std::string& where) const {
     const json& v = member(obj, key, where);
@@ -109,8 +138,8 @@ struct Reader {
   }
   Metrics metrics(const json& obj, const std::string& where) const {
     Metrics m;
-    m.n = static_cast<std::size_t>(integer(obj, "n", where));
-    m.predictors = static_cast<int>(integer(obj, "predictors", where));
+    m.n = count(obj, "n", where);
+    m.predictors = small(obj, "predictors", where, 0, 64);
     m.centered = boolean(obj, "centered", where);
     m.rmse = number(obj, "rmse", where);
     m.max_abs_error = number(obj, "max_abs_error", where);
@@ -247,7 +276,7 @@ CalibrationRecord record_from_json(const json& j, const std::string& file) {
   const json& in = r.member(j, "input", "record");
   rec.input.file = r.text(in, "file", "input");
   rec.input.sha256 = r.text(in, "sha256", "input");
-  rec.input.rows = static_cast<std::size_t>(r.integer(in, "rows", "input"));
+  rec.input.rows = r.count(in, "rows", "input");
   const json& cols = r.member(in, "columns", "input");
   rec.input.columns.reading_column = r.text(cols, "reading", "input.columns");
   rec.input.columns.reference_column = r.text(cols, "reference", "input.columns");
@@ -280,12 +309,14 @@ CalibrationRecord record_from_json(const json& j, const std::string& file) {
   cal.selection.mode = r.enum_value(sel, "mode", "selection", selection_mode_from_string);
   cal.selection.rule = r.enum_value(sel, "rule", "selection", selection_rule_from_string);
   cal.selection.scheme = r.enum_value(sel, "fold_scheme", "selection", fold_scheme_from_string);
-  cal.selection.n_folds = static_cast<int>(r.integer(sel, "folds", "selection"));
-  for (const json& d : r.array(sel, "degrees", "selection")) cal.selection.degrees.push_back(d.get<int>());
-  for (const json& l : r.array(sel, "lambdas", "selection")) cal.selection.lambdas.push_back(l.get<double>());
+  cal.selection.n_folds = r.small(sel, "folds", "selection", 0);
+  for (const json& d : r.array(sel, "degrees", "selection"))
+    cal.selection.degrees.push_back(r.small_value(d, "selection.degrees", 0, 64));
+  for (const json& l : r.array(sel, "lambdas", "selection"))
+    cal.selection.lambdas.push_back(r.number_value(l, "selection.lambdas"));
   for (const json& c : r.array(sel, "grid", "selection")) {
     GridCell g;
-    g.degree = static_cast<int>(r.integer(c, "degree", "selection.grid[]"));
+    g.degree = r.small(c, "degree", "selection.grid[]", 0, 64);
     g.lambda = r.number(c, "lambda", "selection.grid[]");
     g.cv_rmse = r.number(c, "cv_rmse", "selection.grid[]");
     g.cv_se = r.number(c, "cv_se", "selection.grid[]");
@@ -297,18 +328,23 @@ CalibrationRecord record_from_json(const json& j, const std::string& file) {
     if (n.is_string()) cal.selection.notes.push_back(n.get<std::string>());
 
   const json& sp = r.member(j, "split", "record");
-  cal.split_options.seed = static_cast<std::uint64_t>(r.integer(sp, "seed", "split"));
+  {
+    const json& seed = r.member(sp, "seed", "split");
+    if (!seed.is_number_integer() || (!seed.is_number_unsigned() && seed.get<long long>() < 0))
+      r.fail("split.seed", "is not an integer >= 0");
+    cal.split_options.seed = seed.get<std::uint64_t>();
+  }
   cal.split_options.test_fraction = r.finite(sp, "test_fraction", "split");
-  cal.split_options.folds = static_cast<int>(r.integer(sp, "folds_requested", "split"));
+  cal.split_options.folds = r.small(sp, "folds_requested", "split", 0);
   cal.user_named_test = r.boolean(sp, "test_named_by_user", "split");
   for (const json& g : r.array(sp, "setpoints", "split")) {
     SetpointResult s2;
     s2.id = r.text(g, "id", "split.setpoints[]");
     s2.mean_reading = r.finite(g, "reading", "split.setpoints[]");
     s2.mean_reference = r.finite(g, "reference", "split.setpoints[]");
-    s2.count = static_cast<std::size_t>(r.integer(g, "count", "split.setpoints[]"));
+    s2.count = r.count(g, "count", "split.setpoints[]");
     s2.role = r.enum_value(g, "role", "split.setpoints[]", set_role_from_string);
-    s2.fold = static_cast<int>(r.integer(g, "fold", "split.setpoints[]"));
+    s2.fold = r.small(g, "fold", "split.setpoints[]");
     cal.setpoints.push_back(s2);
   }
   const json& met = r.member(j, "metrics", "record");
@@ -317,14 +353,14 @@ CalibrationRecord record_from_json(const json& j, const std::string& file) {
   cal.test = r.metrics(r.member(met, "test", "metrics"), "metrics.test");
   for (const json& p : r.array(j, "points", "record")) {
     PointResult pr;
-    pr.line = static_cast<std::size_t>(r.integer(p, "line", "points[]"));
+    pr.line = r.count(p, "line", "points[]");
     pr.setpoint = r.text(p, "setpoint", "points[]");
     pr.reading = r.finite(p, "reading", "points[]");
     pr.reference = r.finite(p, "reference", "points[]");
     pr.predicted = r.number(p, "predicted", "points[]");
     pr.error = r.number(p, "error", "points[]");
     pr.role = r.enum_value(p, "role", "points[]", set_role_from_string);
-    pr.fold = static_cast<int>(r.integer(p, "fold", "points[]"));
+    pr.fold = r.small(p, "fold", "points[]");
     pr.cv_predicted = r.number(p, "cv_predicted", "points[]");
     cal.points.push_back(pr);
   }
@@ -335,17 +371,44 @@ CalibrationRecord record_from_json(const json& j, const std::string& file) {
   return rec;
 }
 
-json read_record_json(const std::string& path) {
-  const std::string text = read_file_bytes(path);
+json parse_record_json(const std::string& text, const std::string& file) {
+  // Nesting depth, counted outside strings, before the parser builds anything.
+  int depth = 0;
+  bool in_string = false, escaped = false;
+  std::size_t line = 1;
+  for (const char c : text) {
+    if (c == '\n') ++line;
+    if (in_string) {
+      if (escaped) escaped = false;
+      else if (c == '\\') escaped = true;
+      else if (c == '"') in_string = false;
+    } else if (c == '"') {
+      in_string = true;
+    } else if (c == '[' || c == '{') {
+      if (++depth > kMaxRecordDepth)
+        throw InputError(file, line, fmt::format("the JSON nests deeper than {} levels", kMaxRecordDepth),
+                         "is it a record written by 'ridgecal fit'?");
+    } else if (c == ']' || c == '}') {
+      --depth;
+    }
+  }
   try {
     return json::parse(text);
   } catch (const json::parse_error& e) {
     // e.byte is 1-based offset of the failure; turn it into a line number.
-    std::size_t line = 1;
+    std::size_t at = 1;
     for (std::size_t i = 0; i + 1 < e.byte && i < text.size(); ++i)
-      if (text[i] == '\n') ++line;
-    throw InputError(path, line, "the file is not valid JSON", "is it a record written by 'ridgecal fit'?");
+      if (text[i] == '\n') ++at;
+    throw InputError(file, at, "the file is not valid JSON", "is it a record written by 'ridgecal fit'?");
+  } catch (const json::exception& e) {
+    // e.g. out_of_range 406: a number literal beyond the range of a double.
+    throw InputError(file, 0, std::string("the file is not a usable JSON document: ") + e.what(),
+                     "is it a record written by 'ridgecal fit'?");
   }
+}
+
+json read_record_json(const std::string& path) {
+  return parse_record_json(read_file_bytes_limited(path, kMaxRecordBytes, "a record is never this large"), path);
 }
 
 std::string record_text(const json& j) {

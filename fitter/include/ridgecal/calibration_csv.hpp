@@ -4,7 +4,9 @@
 // Lines whose first non-blank character is '#' are comments; blank lines are
 // skipped. CRLF line endings and a UTF-8 byte-order mark are accepted. Fields
 // may be double-quoted ("a,b"; "" is a literal quote). Numbers use a '.'
-// decimal point; NaN and infinities are rejected.
+// decimal point (or ',' with CsvOptions::decimal_comma); NaN and infinities
+// are rejected, and so is a nonzero magnitude outside [kMinMagnitude,
+// kMaxMagnitude]. The input is bounded by CsvLimits (see docs/robustness.md).
 #pragma once
 
 #include <cstddef>
@@ -12,6 +14,27 @@
 #include <vector>
 
 namespace ridgecal {
+
+/// Largest accepted magnitude of a reading or reference. Beyond it squares and
+/// spans overflow a double; rescale the column (another unit) instead.
+inline constexpr double kMaxMagnitude = 1e300;
+/// Smallest accepted nonzero magnitude. Below it values approach the
+/// subnormal range, where precision is lost; 0 itself is accepted.
+inline constexpr double kMinMagnitude = 1e-300;
+
+/// Bounds on what one input may make ridgecal allocate. The defaults suit a
+/// calibration run of up to a million rows (about 1.5 GiB peak for a whole
+/// `ridgecal fit`, see docs/robustness.md); raise them with the matching
+/// `ridgecal fit` options (--max-rows, --max-bytes, --max-field-bytes).
+struct CsvLimits {
+  std::size_t max_bytes = std::size_t{256} << 20;  ///< size of the file: 256 MiB
+  std::size_t max_rows = 1'000'000;                ///< data rows (comments and blank lines not counted)
+  std::size_t max_fields = 1024;                   ///< fields in one row
+  std::size_t max_field_bytes = 4096;              ///< bytes in one field (after unquoting)
+
+  /// Empty when valid (every limit >= 1), else a message naming the field.
+  std::string validate() const;
+};
 
 /// Which columns to read. Defaults: `reading`, `reference`, no setpoint and no
 /// role column. Column names are matched exactly (case-sensitive), after
@@ -23,6 +46,10 @@ struct CsvOptions {
   std::string role_column;      ///< empty: no user-named check points; values `fit` / `check`
   std::string direction_column;  ///< empty: no sweep direction; values `up` / `down` (hysteresis check)
   char delimiter = ',';         ///< one of ',' ';' '\t'
+  /// Numbers use ',' as the decimal point ("12,5"); requires delimiter ';' or
+  /// tab, and then a '.' in a number is rejected (no thousands separators).
+  bool decimal_comma = false;
+  CsvLimits limits;
 
   /// Empty when valid, else a message naming the field, the value and the rule.
   std::string validate() const;
@@ -59,11 +86,13 @@ struct Dataset {
 /// Parses CSV text. `file` is used in messages only.
 /// Throws InputError (`file:line: what. hint`) on: an empty file or header
 /// only, a missing column, a ragged row, a non-numeric, NaN or infinite cell,
-/// an empty setpoint cell, a bad role value, a duplicated column name.
+/// a magnitude out of range, an empty or non-UTF-8 setpoint cell, a bad role
+/// value, a duplicated column name, or input beyond options.limits.
 Dataset parse_calibration_csv(const std::string& text, const std::string& file,
                               const CsvOptions& options);
 
-/// Reads and parses a file (see parse_calibration_csv).
+/// Reads and parses a file (see parse_calibration_csv). A file larger than
+/// options.limits.max_bytes is refused before it is read.
 Dataset read_calibration_csv(const std::string& path, const CsvOptions& options);
 
 }  // namespace ridgecal

@@ -87,7 +87,20 @@ bool record_integrity_ok(const nlohmann::json& j);
 /// Integrity is NOT checked here (see record_integrity_ok).
 CalibrationRecord record_from_json(const nlohmann::json& j, const std::string& file);
 
-/// Reads a record file; throws InputError on unreadable or invalid JSON.
+/// Largest record file read_record_json accepts (a record of a million-row
+/// run is about 300 MB).
+inline constexpr std::size_t kMaxRecordBytes = std::size_t{1} << 30;
+/// Deepest nesting of arrays and objects accepted in a record (a real record
+/// nests 4 deep); deeper documents are refused before they are parsed, so a
+/// hostile file cannot exhaust the stack of the recursive serialiser.
+inline constexpr int kMaxRecordDepth = 32;
+
+/// Parses record text (`file` for messages). Throws InputError on invalid
+/// JSON (with the line), or nesting deeper than kMaxRecordDepth.
+nlohmann::json parse_record_json(const std::string& text, const std::string& file);
+
+/// Reads a record file (at most kMaxRecordBytes) and parses it with
+/// parse_record_json; throws InputError on unreadable or invalid JSON.
 nlohmann::json read_record_json(const std::string& path);
 
 /// Pretty JSON text (2-space indent, trailing newline) for writing to disk.
