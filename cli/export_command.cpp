@@ -41,54 +41,36 @@ po::options_description export_options() {
   return d;
 }
 
-// The assessment members a record may carry (optional; written by the
-// tolerance/decision work):
-//   tolerance{offset, proportional, percent_of_span, span_low, span_high, text, source}
-//     limit(reference) = offset + proportional*|reference| + percent_of_span/100*(span_high-span_low)
-//   decision{rule, verdict, statement}
-// The refusal rule needs one absolute number: the strictest limit over the
-// calibrated range, min over a grid of limit(p(x)).
+// The record's optional assessment (rec.tolerance, rec.decision; see
+// tolerance.hpp and decision.hpp). The refusal rule needs one absolute number:
+// the strictest tolerance limit over the calibrated range, the minimum of
+// limit(p(x)) on a grid.
 struct RecordAssessment {
   std::optional<double> tolerance_abs;
   std::string tolerance_text;
   std::string verdict;
 };
 
-double number_or(const nlohmann::json& obj, const char* key, double fallback) {
-  const auto it = obj.find(key);
-  return it != obj.end() && it->is_number() ? it->get<double>() : fallback;
-}
-
-RecordAssessment record_assessment(const nlohmann::json& j, const PolyModel& model) {
+RecordAssessment record_assessment(const CalibrationRecord& rec) {
   RecordAssessment a;
-  if (const auto t = j.find("tolerance"); t != j.end() && t->is_object()) {
-    const double offset = number_or(*t, "offset", 0.0);
-    const double prop = number_or(*t, "proportional", 0.0);
-    const double pct = number_or(*t, "percent_of_span", 0.0);
-    const double span = number_or(*t, "span_high", 0.0) - number_or(*t, "span_low", 0.0);
+  const PolyModel& model = rec.calibration.model;
+  if (rec.tolerance) {
     double strictest = std::numeric_limits<double>::infinity();
     constexpr int kGrid = 2001;
     for (int i = 0; i < kGrid; ++i) {
       const double x = model.scaling.x_min + (model.scaling.x_max - model.scaling.x_min) * i / (kGrid - 1);
-      strictest = std::min(strictest, offset + prop * std::fabs(model.eval(x)) + pct / 100.0 * span);
+      strictest = std::min(strictest, rec.tolerance->limit(model.eval(x)));
     }
     if (std::isfinite(strictest) && strictest > 0) a.tolerance_abs = strictest;
-    const auto text = t->find("text");
-    const auto source = t->find("source");
-    a.tolerance_text = fmt::format("{} ({}); strictest over the range {:.6g}",
-                                   text != t->end() && text->is_string() ? text->get<std::string>() : "record tolerance",
-                                   source != t->end() && source->is_string() ? source->get<std::string>() : "record",
-                                   strictest);
+    a.tolerance_text = fmt::format("{} ({}); strictest over the range {:.6g}", rec.tolerance->describe(),
+                                   rec.tolerance->source, strictest);
   }
-  if (const auto d = j.find("decision"); d != j.end() && d->is_object()) {
-    const auto v = d->find("verdict");
-    const auto r = d->find("rule");
-    const auto st = d->find("statement");
-    if (v != d->end() && v->is_string()) {
-      a.verdict = v->get<std::string>();
-      if (r != d->end() && r->is_string()) a.verdict += " (" + r->get<std::string>() + " acceptance)";
-      if (st != d->end() && st->is_string()) a.verdict += ": " + st->get<std::string>();
-    }
+  if (rec.decision) {
+    a.verdict = to_string(rec.decision->verdict);
+    if (!rec.decision->statement.empty())
+      a.verdict += ": " + rec.decision->statement;  // the statement names the rule
+    else
+      a.verdict += " (" + to_string(rec.decision->rule) + " acceptance)";
   }
   return a;
 }
@@ -175,7 +157,7 @@ int run_export_command(const ExportCommand& cmd, std::ostream& out, std::ostream
         cal.validation.empty() ? firmware::HeaderMeta::kUnset : cal.validation.max_abs_error;
     meta.test_rmse = cal.test.empty() ? firmware::HeaderMeta::kUnset : cal.test.rmse;
     meta.test_max_abs_error = cal.test.empty() ? firmware::HeaderMeta::kUnset : cal.test.max_abs_error;
-    const RecordAssessment assessed = record_assessment(j, cal.model);
+    const RecordAssessment assessed = record_assessment(rec);
     meta.tolerance_abs = cmd.tolerance ? cmd.tolerance : assessed.tolerance_abs;
     meta.tolerance_description =
         !cmd.tolerance_text.empty() ? cmd.tolerance_text

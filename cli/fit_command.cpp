@@ -9,6 +9,7 @@
 #include "judgement_options.hpp"
 #include "ridgecal/atomic_file.hpp"
 #include "ridgecal/errors.hpp"
+#include "ridgecal/report/html_report.hpp"
 #include "ridgecal/text_check.hpp"
 
 namespace po = boost::program_options;
@@ -22,6 +23,7 @@ po::options_description fit_options() {
   d.add_options()
     ("help,h", "show this help")
     ("output,o", po::value<std::string>(), "write the calibration record (JSON) to this file")
+    ("report", po::value<std::string>(), "also write the QA calibration report (HTML) to this file")
     ("reading", po::value<std::string>()->default_value("reading"), "column holding the raw sensor reading")
     ("reference", po::value<std::string>()->default_value("reference"), "column holding the reference value")
     ("setpoint", po::value<std::string>(), "column naming the setpoint of repeated readings (default: equal reference values form a setpoint)")
@@ -85,6 +87,7 @@ FitCommand parse_fit_command(const std::vector<std::string>& args) {
   if (data.size() != 1) throw UsageError(fmt::format("give exactly one data file, not {}", data.size()));
   cmd.data_path = data[0];
   if (vm.count("output")) cmd.output_path = vm["output"].as<std::string>();
+  if (vm.count("report")) cmd.report_path = vm["report"].as<std::string>();
   cmd.csv.reading_column = vm["reading"].as<std::string>();
   cmd.csv.reference_column = vm["reference"].as<std::string>();
   if (vm.count("setpoint")) cmd.csv.setpoint_column = vm["setpoint"].as<std::string>();
@@ -163,19 +166,23 @@ int run_fit_command(const FitCommand& cmd, std::ostream& out, std::ostream& err)
     rec.uncertainty = assessment.uncertainty;
     rec.warnings = assessment.warnings;
     const nlohmann::json j = record_to_json(rec);
+    const std::string report_html = cmd.report_path.empty() ? std::string() : report::render_html_report(j);
     if (!cmd.output_path.empty()) write_file_atomic(cmd.output_path, record_text(j));
+    if (!cmd.report_path.empty()) write_file_atomic(cmd.report_path, report_html);
     if (!cmd.sensor.name.empty() || !cmd.sensor.reading_unit.empty() || !cmd.sensor.reference_unit.empty())
       out << fmt::format("sensor: {} (reading in {}, reference in {})\n",
                          cmd.sensor.name.empty() ? "unnamed" : cmd.sensor.name,
                          cmd.sensor.reading_unit.empty() ? "unstated units" : cmd.sensor.reading_unit,
                          cmd.sensor.reference_unit.empty() ? "unstated units" : cmd.sensor.reference_unit);
     out << (cmd.full ? rec.calibration.full() : rec.calibration.brief());
-    out << assessment.uncertainty.brief(cmd.sensor.reference_unit);
+    out << (cmd.full ? assessment.uncertainty.full(cmd.sensor.reference_unit)
+                     : assessment.uncertainty.brief(cmd.sensor.reference_unit));
     if (assessment.tolerance) out << "tolerance: " << assessment.tolerance->describe() << "\n";
-    if (assessment.decision) out << assessment.decision->brief();
+    if (assessment.decision) out << (cmd.full ? assessment.decision->full() : assessment.decision->brief());
     else out << "decision: none (no tolerance given)\n";
     err << format_warnings(assessment.warnings);
     if (!cmd.output_path.empty()) out << "record: " << cmd.output_path << "\n";
+    if (!cmd.report_path.empty()) out << "report: " << cmd.report_path << "\n";
     if (assessment.decision && !assessment.decision->pass()) {
       out << "FAIL: out of tolerance; the record is written and marked FAIL\n";
       return kExitOutOfTolerance;

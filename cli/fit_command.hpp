@@ -15,6 +15,7 @@ namespace ridgecal::cli {
 struct FitCommand {
   std::string data_path;
   std::string output_path;  ///< record; empty: print only
+  std::string report_path;  ///< QA report (HTML); empty: none
   CsvOptions csv;
   FitOptions fit;
   SensorInfo sensor;

@@ -32,10 +32,12 @@ void add_uncertainty_options(po::options_description& d) {
 std::pair<double, double> parse_range_option(const std::string& option, const std::string& text) {
   const std::size_t dots = text.find("..", 1);
   if (dots == std::string::npos)
-    throw UsageError(fmt::format("{}: '{}' is not a range; write LO..HI, e.g. 0..400", option, text));
+    throw UsageError(
+        fmt::format("{}: '{}' is not a range; write LO..HI, e.g. 0..400", option, text));
   const double lo = parse_number_option(option, text.substr(0, dots));
   const double hi = parse_number_option(option, text.substr(dots + 2));
-  if (!(hi > lo)) throw UsageError(fmt::format("{}: '{}' has HI <= LO; write LO..HI with LO < HI", option, text));
+  if (!(hi > lo))
+    throw UsageError(fmt::format("{}: '{}' has HI <= LO; write LO..HI with LO < HI", option, text));
   return {lo, hi};
 }
 
@@ -55,10 +57,13 @@ JudgementCli parse_judgement_options(const po::variables_map& vm) {
   }
   if (vm.count("tol-class")) {
     if (offset || prop)
-      throw UsageError("--tol-class sets the whole +-(a + b*|reference|) formula; do not combine it with --tol-offset "
-                       "or --tol-proportional");
+      throw UsageError(
+          "--tol-class sets the whole +-(a + b*|reference|) formula; do not combine it with "
+          "--tol-offset "
+          "or --tol-proportional");
     try {
-      j.tolerance = preset_tolerance(tolerance_preset_from_string(vm["tol-class"].as<std::string>()));
+      j.tolerance =
+          preset_tolerance(tolerance_preset_from_string(vm["tol-class"].as<std::string>()));
     } catch (const std::invalid_argument& e) {
       throw UsageError(std::string("--tol-class: ") + e.what());
     }
@@ -76,7 +81,8 @@ JudgementCli parse_judgement_options(const po::variables_map& vm) {
   }
   if (j.tolerance) {
     ToleranceSpec check = *j.tolerance;
-    if (check.percent_of_span > 0 && !(check.span_high > check.span_low)) check.span_high = check.span_low + 1;
+    if (check.percent_of_span > 0 && !(check.span_high > check.span_low))
+      check.span_high = check.span_low + 1;
     if (const std::string e = check.validate(); !e.empty()) throw UsageError("tolerance: " + e);
   }
   if (vm.count("decision")) {
@@ -90,9 +96,12 @@ JudgementCli parse_judgement_options(const po::variables_map& vm) {
   if (const auto k = number("ref-k")) j.uncertainty.reference_k = *k;
   if (const auto r = number("resolution")) j.uncertainty.resolution = *r;
   if (vm.count("ref-k") && !vm.count("ref-uncertainty"))
-    throw UsageError("--ref-k states the coverage factor of --ref-uncertainty; give --ref-uncertainty too");
-  if (const std::string e = j.uncertainty.validate(); !e.empty()) throw UsageError("uncertainty: " + e);
-  if (const std::string e = j.diagnostics.validate(); !e.empty()) throw UsageError("diagnostics: " + e);
+    throw UsageError(
+        "--ref-k states the coverage factor of --ref-uncertainty; give --ref-uncertainty too");
+  if (const std::string e = j.uncertainty.validate(); !e.empty())
+    throw UsageError("uncertainty: " + e);
+  if (const std::string e = j.diagnostics.validate(); !e.empty())
+    throw UsageError("diagnostics: " + e);
   return j;
 }
 

@@ -1,7 +1,8 @@
 #include "verify_command.hpp"
 
-#include <boost/program_options.hpp>
 #include <fmt/format.h>
+
+#include <boost/program_options.hpp>
 #include <ostream>
 #include <sstream>
 
@@ -25,6 +26,7 @@ po::options_description verify_options() {
     ("reference", po::value<std::string>(), "column holding the reference value (default: the record's)")
     ("setpoint", po::value<std::string>(), "column naming the setpoint (default: the record's)")
     ("delimiter", po::value<std::string>(), "field delimiter: ',', ';' or 'tab' (default: the record's)")
+    ("full", po::bool_switch(), "print every point's error, not only those out of tolerance")
     ("allow-modified", po::bool_switch(), "use a record whose integrity digest does not match (the output says so)")
     ("timestamp", po::value<std::string>()->default_value(""), "creation time to record (ISO 8601), 'none' to omit");
   // clang-format on
@@ -37,7 +39,8 @@ std::string verify_usage() {
   std::ostringstream s;
   s << verify_options();
   s << "\nWithout tolerance options the record's tolerance and decision rule apply.\n"
-       "Exit codes: 0 PASS (or no tolerance to judge against), 1 FAIL (the result is still written,\n"
+       "Exit codes: 0 PASS (or no tolerance to judge against), 1 FAIL (the result is still "
+       "written,\n"
        "marked FAIL), 2 bad input or usage, or a modified record (nothing written).\n";
   return s.str();
 }
@@ -63,9 +66,10 @@ VerifyCommand parse_verify_command(const std::vector<std::string>& args) {
   const std::vector<std::string> files =
       vm.count("files") ? vm["files"].as<std::vector<std::string>>() : std::vector<std::string>{};
   if (files.size() != 2)
-    throw UsageError(fmt::format("give a record and a data file (got {} file(s)): ridgecal verify RECORD.json "
-                                 "NEWDATA.csv -o ASFOUND.json",
-                                 files.size()));
+    throw UsageError(
+        fmt::format("give a record and a data file (got {} file(s)): ridgecal verify RECORD.json "
+                    "NEWDATA.csv -o ASFOUND.json",
+                    files.size()));
   cmd.record_path = files[0];
   cmd.data_path = files[1];
   if (vm.count("output")) cmd.output_path = vm["output"].as<std::string>();
@@ -74,13 +78,16 @@ VerifyCommand parse_verify_command(const std::vector<std::string>& args) {
   if (vm.count("setpoint")) cmd.setpoint_column = vm["setpoint"].as<std::string>();
   if (vm.count("delimiter")) cmd.delimiter = parse_delimiter(vm["delimiter"].as<std::string>());
   cmd.allow_modified = vm["allow-modified"].as<bool>();
+  cmd.full = vm["full"].as<bool>();
   cmd.timestamp = vm["timestamp"].as<std::string>();
   const JudgementCli jc = parse_judgement_options(vm);
   cmd.as_found.tolerance = jc.tolerance;
   cmd.as_found.rule = jc.rule;
-  if (jc.tolerance && jc.tolerance->percent_of_span > 0 && !(jc.tolerance->span_high > jc.tolerance->span_low))
-    throw UsageError("--tol-percent-span needs --span LO..HI with verify (the span of the new data is not the "
-                     "instrument's span)");
+  if (jc.tolerance && jc.tolerance->percent_of_span > 0 &&
+      !(jc.tolerance->span_high > jc.tolerance->span_low))
+    throw UsageError(
+        "--tol-percent-span needs --span LO..HI with verify (the span of the new data is not the "
+        "instrument's span)");
   if (const std::string e = cmd.as_found.validate(); !e.empty()) throw UsageError(e);
   return cmd;
 }
@@ -103,7 +110,8 @@ int run_verify_command(const VerifyCommand& cmd, std::ostream& out, std::ostream
     const AsFoundResult res = evaluate_as_found(rec, data, cmd.as_found);
     const nlohmann::json j = as_found_to_json(res, creation_time(cmd.timestamp));
     if (!cmd.output_path.empty()) write_file_atomic(cmd.output_path, record_text(j));
-    out << res.brief(rec.record.sensor.reference_unit);
+    out << (cmd.full ? res.full(rec.record.sensor.reference_unit)
+                     : res.brief(rec.record.sensor.reference_unit));
     err << format_warnings(res.warnings);
     if (!cmd.output_path.empty()) out << "as-found result: " << cmd.output_path << "\n";
     if (res.decision && !res.decision->pass()) {

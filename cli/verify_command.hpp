@@ -23,6 +23,7 @@ struct VerifyCommand {
   bool allow_modified = false;
   std::string timestamp;  ///< injected creation time ("" = now, "none" = omit)
   bool help = false;
+  bool full = false;  ///< print every point's error
 };
 
 /// Parses `ridgecal verify` arguments. Throws UsageError on a bad command line.

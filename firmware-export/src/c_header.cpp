@@ -72,7 +72,7 @@ void emit_banner(std::ostringstream& o, const Names& n, const PolyModel& model,
     << " *   tolerance:           " << esc(meta.tolerance_description) << "\n"
     << " *   tolerance used:      " << g(proof.tolerance) << " " << fu << " ("
     << proof.tolerance_source << ")\n"
-    << " *   result:              " << esc(meta.pass_fail) << "\n"
+    << " *   result:              " << esc(meta.pass_fail, 400) << "\n"
     << " *   record SHA-256:      " << esc(meta.record_sha256, 80) << "\n"
     << " *   tool version:        " << esc(meta.tool_version, 60) << "\n"
     << " *\n"

@@ -1,8 +1,9 @@
 #include "ridgecal/as_found.hpp"
 
+#include <fmt/format.h>
+
 #include <cassert>
 #include <cmath>
-#include <fmt/format.h>
 
 #include "json_read.hpp"
 
@@ -13,16 +14,18 @@ CheckedRecord read_checked_record(const std::string& path, bool allow_modified) 
   CheckedRecord c;
   c.file = path;
   c.integrity_ok = record_integrity_ok(j);
-  if (j.is_object() && j.contains("integrity") && j["integrity"].is_object() && j["integrity"].contains("sha256") &&
-      j["integrity"]["sha256"].is_string())
+  if (j.is_object() && j.contains("integrity") && j["integrity"].is_object() &&
+      j["integrity"].contains("sha256") && j["integrity"]["sha256"].is_string())
     c.digest = j["integrity"]["sha256"].get<std::string>();
   if (!c.integrity_ok && !allow_modified)
-    throw InputError(path, 0,
-                     c.digest.empty() ? "the record has no integrity digest, so it cannot be trusted"
-                                      : "the record's integrity digest does not match its content: the record was "
-                                        "modified after 'ridgecal fit' wrote it",
-                     "re-create it with 'ridgecal fit DATA.csv -o RECORD.json' from the original data, or pass "
-                     "--allow-modified to use it anyway (the output will say so)");
+    throw InputError(
+        path, 0,
+        c.digest.empty()
+            ? "the record has no integrity digest, so it cannot be trusted"
+            : "the record's integrity digest does not match its content: the record was "
+              "modified after 'ridgecal fit' wrote it",
+        "re-create it with 'ridgecal fit DATA.csv -o RECORD.json' from the original data, or pass "
+        "--allow-modified to use it anyway (the output will say so)");
   c.modified_allowed = !c.integrity_ok;
   c.record = record_from_json(j, path);
   return c;
@@ -34,7 +37,8 @@ std::string AsFoundOptions::validate() const {
   return {};
 }
 
-AsFoundResult evaluate_as_found(const CheckedRecord& rec, const Dataset& data, const AsFoundOptions& options) {
+AsFoundResult evaluate_as_found(const CheckedRecord& rec, const Dataset& data,
+                                const AsFoundOptions& options) {
   assert(options.validate().empty());
   const Calibration& cal = rec.record.calibration;
   AsFoundResult r;
@@ -51,9 +55,10 @@ AsFoundResult evaluate_as_found(const CheckedRecord& rec, const Dataset& data, c
   if (rec.modified_allowed) {
     Warning w;
     w.code = DiagnosticCode::RecordModified;
-    w.message = fmt::format("The record {} does not match its integrity digest (modified after it was written); it "
-                            "was used only because --allow-modified was given.",
-                            rec.file);
+    w.message = fmt::format(
+        "The record {} does not match its integrity digest (modified after it was written); it "
+        "was used only because --allow-modified was given.",
+        rec.file);
     r.warnings.push_back(w);
   }
 
@@ -75,7 +80,8 @@ AsFoundResult evaluate_as_found(const CheckedRecord& rec, const Dataset& data, c
     r.points.push_back(p);
   }
   r.metrics = compute_metrics(refs, preds, cal.model.degree(), cal.intercept);
-  for (Warning& w : check_extrapolation(xs, lines, cal.model.scaling, "as-found readings")) r.warnings.push_back(w);
+  for (Warning& w : check_extrapolation(xs, lines, cal.model.scaling, "as-found readings"))
+    r.warnings.push_back(w);
 
   if (options.tolerance) {
     r.tolerance = options.tolerance;
@@ -85,30 +91,47 @@ AsFoundResult evaluate_as_found(const CheckedRecord& rec, const Dataset& data, c
     r.tolerance_source = "record";
   }
   if (r.tolerance) {
-    const DecisionRule rule =
-        options.rule ? *options.rule
-                     : (rec.record.decision ? rec.record.decision->rule : DecisionRule::SimpleAcceptance);
+    const DecisionRule rule = options.rule ? *options.rule
+                                           : (rec.record.decision ? rec.record.decision->rule
+                                                                  : DecisionRule::SimpleAcceptance);
     if (rule == DecisionRule::GuardedAcceptance && !r.uncertainty)
-      throw InputError(rec.file, 0, "guarded acceptance needs the record's uncertainty, and the record has none",
-                       "use --decision simple, or re-create the record with a current 'ridgecal fit'");
+      throw InputError(
+          rec.file, 0, "guarded acceptance needs the record's uncertainty, and the record has none",
+          "use --decision simple, or re-create the record with a current 'ridgecal fit'");
     std::vector<PointToJudge> pts;
     for (const AsFoundPoint& p : r.points)
-      pts.push_back({p.line, "as-found", p.reference, p.error, r.uncertainty ? r.uncertainty->expanded_at(p.reading) : 0.0});
+      pts.push_back({p.line, "as-found", p.reference, p.error,
+                     r.uncertainty ? r.uncertainty->expanded_at(p.reading) : 0.0});
     r.decision = judge(pts, *r.tolerance, rule);
   }
   return r;
 }
 
 std::string AsFoundResult::brief(const std::string& unit) const {
-  std::string s = fmt::format("as-found: {} points of {} against the record {} (degree {}, range {:g}..{:g})\n",
-                              points.size(), data_file, record_file, degree, range.x_min, range.x_max);
-  if (!integrity_ok) s += "record: MODIFIED (integrity digest does not match; used with --allow-modified)\n";
+  std::string s =
+      fmt::format("as-found: {} points of {} against the record {} (degree {}, range {:g}..{:g})\n",
+                  points.size(), data_file, record_file, degree, range.x_min, range.x_max);
+  if (!integrity_ok)
+    s += "record: MODIFIED (integrity digest does not match; used with --allow-modified)\n";
   s += "as-found:   " + metrics.brief() + "\n";
   if (tolerance)
-    s += fmt::format("tolerance: {}{} (from the {})\n", tolerance->describe(), unit.empty() ? "" : " " + unit,
-                     tolerance_source);
-  if (decision) s += decision->brief();
-  else s += "decision: none (no tolerance in the record or on the command line)\n";
+    s += fmt::format("tolerance: {}{} (from the {})\n", tolerance->describe(),
+                     unit.empty() ? "" : " " + unit, tolerance_source);
+  if (decision)
+    s += decision->brief();  // lists the points out of tolerance
+  else
+    s += "decision: none (no tolerance in the record or on the command line)\n";
+  return s;
+}
+
+std::string AsFoundResult::full(const std::string& unit) const {
+  std::string s = brief(unit);
+  if (decision) s += "  " + decision->statement + "\n";
+  s += "points (line, setpoint, reading, reference, calibrated value, error):\n";
+  for (const AsFoundPoint& p : points)
+    s += fmt::format("  {:>6} {:<10} {:<14g} {:<14g} {:<14.8g} {:+.4g}{}\n", p.line, p.setpoint,
+                     p.reading, p.reference, p.predicted, p.error,
+                     p.in_range ? "" : "  (outside the calibrated range)");
   return s;
 }
 

@@ -36,7 +36,8 @@ void resolve_span(ToleranceSpec& tol, const Calibration& cal, const DiagnosticOp
     }
 }
 
-Assessment assess_calibration(const Dataset& data, const Calibration& cal, const AssessmentOptions& options) {
+Assessment assess_calibration(const Dataset& data, const Calibration& cal,
+                              const AssessmentOptions& options) {
   assert(options.validate().empty());
   Assessment a;
   a.uncertainty = evaluate_uncertainty(cal, options.uncertainty);
@@ -47,7 +48,8 @@ Assessment assess_calibration(const Dataset& data, const Calibration& cal, const
     std::vector<PointToJudge> pts;
     for (const PointResult& p : cal.points) {
       const double u = a.uncertainty.expanded_at(p.reading);
-      pts.push_back({p.line, p.role == SetRole::Train ? "training" : "test", p.reference, p.error, u});
+      pts.push_back(
+          {p.line, p.role == SetRole::Train ? "training" : "test", p.reference, p.error, u});
     }
     for (const PointResult& p : cal.points)
       if (p.role == SetRole::Train && std::isfinite(p.cv_predicted))
@@ -55,7 +57,8 @@ Assessment assess_calibration(const Dataset& data, const Calibration& cal, const
                        a.uncertainty.expanded_at(p.reading)});
     if (tol.validate().empty()) a.decision = judge(pts, tol, options.rule, {"validation"});
   }
-  a.warnings = diagnose_fit(data, cal, a.uncertainty, a.tolerance ? &*a.tolerance : nullptr, options.diagnostics);
+  a.warnings = diagnose_fit(data, cal, a.uncertainty, a.tolerance ? &*a.tolerance : nullptr,
+                            options.diagnostics);
   return a;
 }
 

@@ -8,6 +8,7 @@
 #include <memory>
 #include <stdexcept>
 
+#include "ridgecal/ridge_grid.hpp"
 #include "ridgecal/ridge_path.hpp"
 
 namespace ridgecal {
@@ -84,10 +85,6 @@ Eigen::VectorXd take(const std::vector<double>& v, const std::vector<std::size_t
   Eigen::VectorXd out(static_cast<Eigen::Index>(idx.size()));
   for (std::size_t i = 0; i < idx.size(); ++i) out(static_cast<Eigen::Index>(i)) = v[idx[i]];
   return out;
-}
-
-double rmse_of(const Eigen::VectorXd& pred, const Eigen::VectorXd& ref) {
-  return std::sqrt((pred - ref).squaredNorm() / static_cast<double>(ref.size()));
 }
 
 std::vector<double> cheb_from_fit(const Eigen::VectorXd& b, double b0, const Scaling& sc, bool intercept) {
@@ -203,6 +200,8 @@ FitOutcome fit_calibration(const Dataset& data, const FitOptions& options) {
   std::vector<std::size_t> fold_groups(static_cast<std::size_t>(K), 0);
   for (std::size_t g = 0; g < groups.size(); ++g)
     if (split.fold[g] >= 0) ++fold_groups[static_cast<std::size_t>(split.fold[g])];
+  for (auto& v : fold_train) v.reserve(train_rows.size());
+  for (auto& v : fold_val) v.reserve(train_rows.size());
   for (std::size_t r : train_rows)
     for (int k = 0; k < K; ++k) (row_fold[r] == k ? fold_val : fold_train)[static_cast<std::size_t>(k)].push_back(r);
   std::size_t min_fold_train_groups = n_train_groups;
@@ -261,49 +260,89 @@ FitOutcome fit_calibration(const Dataset& data, const FitOptions& options) {
   const Eigen::MatrixXd X = design(x, sc, Dmax, options.intercept);
   const Eigen::VectorXd y_train = take(y, train_rows);
 
-  // Score the grid.
+  // Score the grid. One NestedRidge factorisation per fold (and one for all
+  // training points) serves every degree and lambda (see ridge_grid.hpp);
+  // degrees it cannot solve safely (near rank deficiency) use RidgePath.
   const std::size_t L = lambdas.size();
+  const std::size_t ND = sel.degrees.size();
+  std::vector<int> pos_degrees;  // the scored degrees > 0, ascending
+  for (int d : sel.degrees)
+    if (d > 0) pos_degrees.push_back(d);
+  const std::size_t first_pos = ND - pos_degrees.size();  // index of the first positive degree in sel.degrees
+  const std::size_t KK = static_cast<std::size_t>(std::max(K, 0));
+  // fold_mse[(k * ND + di) * L + l], train_mse[di * L + l]
+  std::vector<double> fold_mse(can_cv ? KK * ND * L : 0), train_mse(ND * L);
+  // One factorisation per fold plus one for all training points, kept for
+  // the held-out predictions of the chosen cell. Thread-local so that their
+  // buffers are reused from unit to unit (no allocation once warm).
+  thread_local std::vector<NestedRidge> engines;
+  if (engines.size() < KK + 1) engines.resize(KK + 1);
+  std::vector<double> val_buf(pos_degrees.size() * NestedRidge::kLanes), train_buf(val_buf.size());
   Eigen::VectorXd pred;
-  for (int d : sel.degrees) {
-    std::vector<std::vector<double>> fold_rmse(L);
-    if (can_cv && d > 0) {
-      for (int k = 0; k < K; ++k) {
-        const auto& tr = fold_train[static_cast<std::size_t>(k)];
-        const auto& va = fold_val[static_cast<std::size_t>(k)];
-        const RidgePath path(take_rows(X, tr, d), take(y, tr), options.intercept);
-        const Eigen::MatrixXd W = path.project(take_rows(X, va, d));
-        const Eigen::VectorXd yv = take(y, va);
-        for (std::size_t l = 0; l < L; ++l) {
-          path.predict(W, lambdas[l], pred);
-          fold_rmse[l].push_back(rmse_of(pred, yv));
+  // Scores one problem (fold k, or k = -1: all training points) into the tables.
+  auto score_problem = [&](int k, const std::vector<std::size_t>& tr, const std::vector<std::size_t>* va) {
+    if (pos_degrees.empty()) return;
+    NestedRidge& engine = engines[k >= 0 ? static_cast<std::size_t>(k) : KK];
+    engine.factor(X, y.data(), tr, pos_degrees.back(), options.intercept);
+    if (va) engine.set_validation(X, y.data(), *va);
+    const int fast = static_cast<int>(std::upper_bound(pos_degrees.begin(), pos_degrees.end(), engine.usable()) -
+                                      pos_degrees.begin());
+    constexpr std::size_t kLanes = NestedRidge::kLanes;
+    for (std::size_t l0 = 0; l0 < L; l0 += kLanes) {
+      const std::size_t nl = std::min(kLanes, L - l0);
+      engine.score(lambdas.data() + l0, static_cast<int>(nl), pos_degrees.data(), fast,
+                   va ? val_buf.data() : nullptr, va ? nullptr : train_buf.data());
+      for (int t = 0; t < fast; ++t) {
+        const std::size_t di = first_pos + static_cast<std::size_t>(t);
+        for (std::size_t q = 0; q < nl; ++q) {
+          const std::size_t src = static_cast<std::size_t>(t) * kLanes + q;
+          if (va) fold_mse[(static_cast<std::size_t>(k) * ND + di) * L + l0 + q] = val_buf[src];
+          else train_mse[di * L + l0 + q] = train_buf[src];
         }
       }
     }
-    std::unique_ptr<RidgePath> full;
-    Eigen::MatrixXd Wt;
-    if (d > 0) {
-      full = std::make_unique<RidgePath>(take_rows(X, train_rows, d), y_train, options.intercept);
-      Wt = full->project(take_rows(X, train_rows, d));
+    for (std::size_t t = static_cast<std::size_t>(fast); t < pos_degrees.size(); ++t) {
+      const int d = pos_degrees[t];
+      const std::size_t di = first_pos + t;
+      const RidgePath path(take_rows(X, tr, d), take(y, tr), options.intercept);
+      const Eigen::MatrixXd W = path.project(take_rows(X, va ? *va : tr, d));
+      const Eigen::VectorXd ref = take(y, va ? *va : tr);
+      for (std::size_t l = 0; l < L; ++l) {
+        path.predict(W, lambdas[l], pred);
+        const double mse = (pred - ref).squaredNorm() / static_cast<double>(ref.size());
+        if (va) fold_mse[(static_cast<std::size_t>(k) * ND + di) * L + l] = mse;
+        else train_mse[di * L + l] = mse;
+      }
     }
+  };
+  if (can_cv)
+    for (int k = 0; k < K; ++k)
+      score_problem(k, fold_train[static_cast<std::size_t>(k)], &fold_val[static_cast<std::size_t>(k)]);
+  score_problem(-1, train_rows, nullptr);
+
+  sel.grid.reserve(ND * L);
+  for (std::size_t di = 0; di < ND; ++di) {
+    const int d = sel.degrees[di];
     for (std::size_t l = 0; l < L; ++l) {
       GridCell c;
       c.degree = d;
       c.lambda = lambdas[l];
-      const auto& fr = fold_rmse[l];
-      if (!fr.empty()) {
+      if (can_cv && d > 0) {
         double m = 0;
-        for (double v : fr) m += v;
-        m /= static_cast<double>(fr.size());
+        for (std::size_t k = 0; k < KK; ++k) m += std::sqrt(fold_mse[(k * ND + di) * L + l]);
+        m /= static_cast<double>(KK);
         double ss = 0;
-        for (double v : fr) ss += (v - m) * (v - m);
+        for (std::size_t k = 0; k < KK; ++k) {
+          const double v = std::sqrt(fold_mse[(k * ND + di) * L + l]);
+          ss += (v - m) * (v - m);
+        }
         c.cv_rmse = m;
-        c.cv_se = fr.size() > 1 ? std::sqrt(ss / static_cast<double>(fr.size() - 1)) / std::sqrt(static_cast<double>(fr.size())) : 0.0;
+        c.cv_se = KK > 1 ? std::sqrt(ss / static_cast<double>(KK - 1)) / std::sqrt(static_cast<double>(KK)) : 0.0;
       } else {
         c.cv_rmse = c.cv_se = std::numeric_limits<double>::quiet_NaN();
       }
-      if (full) {
-        full->predict(Wt, lambdas[l], pred);
-        c.train_rmse = rmse_of(pred, y_train);
+      if (d > 0) {
+        c.train_rmse = std::sqrt(train_mse[di * L + l]);
       } else {
         const double m = y_train.mean();
         c.train_rmse = std::sqrt((y_train.array() - m).square().mean());
@@ -338,6 +377,14 @@ FitOutcome fit_calibration(const Dataset& data, const FitOptions& options) {
   if (d == 0) {
     cal.model.cheb = {y_train.mean()};
     cal.condition_number = 1.0;
+  } else if (NestedRidge& full = engines[KK]; full.columns() >= d && full.usable() >= d) {
+    // The factorisation of all training points made while scoring: the same
+    // orthogonal-transformation solve, no second factorisation.
+    Eigen::VectorXd b(d);
+    double b0 = 0.0;
+    full.coefficients(d, cal.lambda, b.data(), b0);
+    cal.model.cheb = cheb_from_fit(b, b0, sc, options.intercept);
+    cal.condition_number = full.condition_number(d);
   } else {
     const RidgePath path(take_rows(X, train_rows, d), y_train, options.intercept);
     if (!path.status().ok && cal.lambda == 0.0) {
@@ -357,8 +404,14 @@ FitOutcome fit_calibration(const Dataset& data, const FitOptions& options) {
     for (int k = 0; k < K; ++k) {
       const auto& tr = fold_train[static_cast<std::size_t>(k)];
       const auto& va = fold_val[static_cast<std::size_t>(k)];
-      const RidgePath path(take_rows(X, tr, d), take(y, tr), options.intercept);
-      path.predict(path.project(take_rows(X, va, d)), cal.lambda, pred);
+      NestedRidge& engine = engines[static_cast<std::size_t>(k)];  // factorised while scoring
+      if (engine.usable() >= d) {
+        pred.resize(static_cast<Eigen::Index>(va.size()));
+        engine.predict_validation(d, cal.lambda, pred.data());
+      } else {
+        const RidgePath path(take_rows(X, tr, d), take(y, tr), options.intercept);
+        path.predict(path.project(take_rows(X, va, d)), cal.lambda, pred);
+      }
       for (std::size_t i = 0; i < va.size(); ++i) cv_pred[va[i]] = pred(static_cast<Eigen::Index>(i));
     }
   }

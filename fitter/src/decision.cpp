@@ -1,23 +1,28 @@
 #include "ridgecal/decision.hpp"
 
+#include <fmt/format.h>
+
 #include <algorithm>
 #include <cctype>
 #include <cmath>
-#include <fmt/format.h>
 #include <stdexcept>
 
 #include "json_read.hpp"
 
 namespace ridgecal {
 
-std::string to_string(DecisionRule r) { return r == DecisionRule::SimpleAcceptance ? "simple" : "guarded"; }
+std::string to_string(DecisionRule r) {
+  return r == DecisionRule::SimpleAcceptance ? "simple" : "guarded";
+}
 DecisionRule decision_rule_from_string(const std::string& s) {
   if (s == "simple") return DecisionRule::SimpleAcceptance;
   if (s == "guarded") return DecisionRule::GuardedAcceptance;
   throw std::invalid_argument("decision rule must be 'simple' or 'guarded', got '" + s + "'");
 }
 
-std::string to_string(Verdict v) { return v == Verdict::Pass ? "PASS" : "FAIL"; }
+std::string to_string(Verdict v) {
+  return v == Verdict::Pass ? "PASS" : "FAIL";
+}
 Verdict verdict_from_string(const std::string& s) {
   std::string u = s;
   std::transform(u.begin(), u.end(), u.begin(), [](unsigned char c) { return std::toupper(c); });
@@ -26,8 +31,8 @@ Verdict verdict_from_string(const std::string& s) {
   throw std::invalid_argument("verdict must be 'PASS' or 'FAIL', got '" + s + "'");
 }
 
-Decision judge(const std::vector<PointToJudge>& points, const ToleranceSpec& tolerance, DecisionRule rule,
-               const std::vector<std::string>& informative_sets) {
+Decision judge(const std::vector<PointToJudge>& points, const ToleranceSpec& tolerance,
+               DecisionRule rule, const std::vector<std::string>& informative_sets) {
   Decision d;
   d.rule = rule;
   const bool guarded = rule == DecisionRule::GuardedAcceptance;
@@ -42,12 +47,15 @@ Decision judge(const std::vector<PointToJudge>& points, const ToleranceSpec& tol
     pj.guard = guarded ? (std::isfinite(p.uncertainty) ? p.uncertainty : pj.limit) : 0.0;
     pj.acceptance_limit = std::max(pj.limit - pj.guard, 0.0);
     if (guarded && pj.acceptance_limit <= 0.0) ++no_room;
-    pj.pass = std::isfinite(p.error) && std::fabs(p.error) <= pj.acceptance_limit && !(guarded && pj.acceptance_limit <= 0.0);
-    auto it = std::find_if(d.sets.begin(), d.sets.end(), [&](const SetJudgement& s) { return s.name == p.set; });
+    pj.pass = std::isfinite(p.error) && std::fabs(p.error) <= pj.acceptance_limit &&
+              !(guarded && pj.acceptance_limit <= 0.0);
+    auto it = std::find_if(d.sets.begin(), d.sets.end(),
+                           [&](const SetJudgement& s) { return s.name == p.set; });
     if (it == d.sets.end()) {
       SetJudgement s;
       s.name = p.set;
-      s.counts = std::find(informative_sets.begin(), informative_sets.end(), p.set) == informative_sets.end();
+      s.counts = std::find(informative_sets.begin(), informative_sets.end(), p.set) ==
+                 informative_sets.end();
       d.sets.push_back(s);
       it = d.sets.end() - 1;
     }
@@ -68,31 +76,70 @@ Decision judge(const std::vector<PointToJudge>& points, const ToleranceSpec& tol
       if (s.verdict == Verdict::Fail) d.verdict = Verdict::Fail;
     }
   const std::string rule_text =
-      guarded ? fmt::format("Guarded acceptance: a point conforms when |error| <= tolerance {} minus the expanded "
-                            "uncertainty U at that point.",
-                            tolerance.describe())
-              : fmt::format("Simple acceptance: a point conforms when |error| <= tolerance {}; the measurement "
-                            "uncertainty is reported but not subtracted.",
-                            tolerance.describe());
+      guarded
+          ? fmt::format(
+                "Guarded acceptance: a point conforms when |error| <= tolerance {} minus the "
+                "expanded "
+                "uncertainty U at that point.",
+                tolerance.describe())
+          : fmt::format(
+                "Simple acceptance: a point conforms when |error| <= tolerance {}; the measurement "
+                "uncertainty is reported but not subtracted.",
+                tolerance.describe());
   if (counted == 0)
     d.statement = rule_text + " No points were judged.";
   else
-    d.statement = rule_text + fmt::format(" {}: {} of {} judged points conform.", to_string(d.verdict),
-                                          counted - failed, counted);
+    d.statement = rule_text + fmt::format(" {}: {} of {} judged points conform.",
+                                          to_string(d.verdict), counted - failed, counted);
   if (no_room > 0)
-    d.statement += fmt::format(" At {} point(s) U is as large as the tolerance, so no error can be accepted there.",
-                               no_room);
+    d.statement += fmt::format(
+        " At {} point(s) U is as large as the tolerance, so no error can be accepted there.",
+        no_room);
   return d;
 }
+
+namespace {
+std::string failing_points(const std::vector<PointJudgement>& points, std::size_t max_shown) {
+  std::string s;
+  std::size_t shown = 0, failed = 0;
+  for (const PointJudgement& p : points) {
+    if (p.pass) continue;
+    ++failed;
+    if (shown++ < max_shown)
+      s += fmt::format(
+          "  out of tolerance: line {} ({}), reference {:g}, error {:+.4g}, acceptance limit "
+          "{:.4g}\n",
+          p.line, p.set, p.reference, p.error, p.acceptance_limit);
+  }
+  if (failed > max_shown)
+    s += fmt::format("  ... and {} more points out of tolerance\n", failed - max_shown);
+  return s;
+}
+}  // namespace
 
 std::string Decision::brief() const {
   std::string s = fmt::format("decision: {} ({} acceptance)\n", to_string(verdict),
                               rule == DecisionRule::SimpleAcceptance ? "simple" : "guarded");
   for (const SetJudgement& set : sets)
-    s += fmt::format("  {:<10} {} of {} points within tolerance, max |error| {:.4g}, worst {:.0f}% of the limit{}\n",
-                     set.name, set.n - set.failed, set.n, set.max_abs_error, 100.0 * set.worst_ratio,
-                     set.counts ? "" : " (informative)");
-  return s;
+    s += fmt::format(
+        "  {:<10} {} of {} points within tolerance, max |error| {:.4g}, worst {:.0f}% of the "
+        "limit{}\n",
+        set.name, set.n - set.failed, set.n, set.max_abs_error, 100.0 * set.worst_ratio,
+        set.counts ? "" : " (informative)");
+  return s + failing_points(points, 10);
+}
+
+std::string Decision::full() const {
+  std::string s = fmt::format("decision: {} ({} acceptance)\n", to_string(verdict),
+                              rule == DecisionRule::SimpleAcceptance ? "simple" : "guarded");
+  s += "  " + statement + "\n";
+  for (const SetJudgement& set : sets)
+    s += fmt::format(
+        "  {:<10} {} of {} points within tolerance, max |error| {:.4g}, worst {:.0f}% of the "
+        "limit{}\n",
+        set.name, set.n - set.failed, set.n, set.max_abs_error, 100.0 * set.worst_ratio,
+        set.counts ? "" : " (informative)");
+  return s + failing_points(points, points.size());
 }
 
 nlohmann::json to_json(const Decision& d) {
@@ -115,8 +162,11 @@ nlohmann::json to_json(const Decision& d) {
                    {"guard", num(p.guard)},
                    {"acceptance_limit", num(p.acceptance_limit)},
                    {"pass", p.pass}});
-  return {{"rule", to_string(d.rule)}, {"verdict", to_string(d.verdict)}, {"statement", d.statement},
-          {"sets", sets},              {"points", pts}};
+  return {{"rule", to_string(d.rule)},
+          {"verdict", to_string(d.verdict)},
+          {"statement", d.statement},
+          {"sets", sets},
+          {"points", pts}};
 }
 
 Decision decision_from_json(const nlohmann::json& j, const std::string& file) {

@@ -1,8 +1,9 @@
 #include "ridgecal/diagnostics.hpp"
 
+#include <fmt/format.h>
+
 #include <algorithm>
 #include <cmath>
-#include <fmt/format.h>
 #include <map>
 #include <stdexcept>
 
@@ -35,12 +36,14 @@ constexpr CodeName kCodes[] = {
 
 std::string line_list(const std::vector<std::size_t>& lines, std::size_t max_shown = 8) {
   std::string s;
-  for (std::size_t i = 0; i < lines.size() && i < max_shown; ++i) s += (i ? ", " : "") + std::to_string(lines[i]);
+  for (std::size_t i = 0; i < lines.size() && i < max_shown; ++i)
+    s += (i ? ", " : "") + std::to_string(lines[i]);
   if (lines.size() > max_shown) s += fmt::format(" and {} more", lines.size() - max_shown);
   return s;
 }
 
-Warning make(DiagnosticCode c, std::string msg, std::vector<std::size_t> lines = {}, double value = kNaN) {
+Warning make(DiagnosticCode c, std::string msg, std::vector<std::size_t> lines = {},
+             double value = kNaN) {
   Warning w;
   w.code = c;
   w.message = std::move(msg);
@@ -74,38 +77,48 @@ std::vector<DiagnosticCode> all_diagnostic_codes() {
 
 std::string DiagnosticOptions::validate() const {
   if (!(std::isfinite(test_validation_ratio) && test_validation_ratio > 1.0))
-    return fmt::format("test_validation_ratio is {}; it must be a finite number > 1", test_validation_ratio);
+    return fmt::format("test_validation_ratio is {}; it must be a finite number > 1",
+                       test_validation_ratio);
   if (!(std::isfinite(min_setpoints_per_coefficient) && min_setpoints_per_coefficient >= 0.0))
     return fmt::format("min_setpoints_per_coefficient is {}; it must be a finite number >= 0",
                        min_setpoints_per_coefficient);
   if (!(coverage_end_fraction >= 0.0 && coverage_end_fraction <= 0.5))
-    return fmt::format("coverage_end_fraction is {}; it must be between 0 and 0.5", coverage_end_fraction);
+    return fmt::format("coverage_end_fraction is {}; it must be between 0 and 0.5",
+                       coverage_end_fraction);
   if (!(std::isfinite(gap_factor) && gap_factor > 1.0))
     return fmt::format("gap_factor is {}; it must be a finite number > 1", gap_factor);
   if (!(std::isfinite(outlier_limit) && outlier_limit > 0.0))
     return fmt::format("outlier_limit is {}; it must be a finite number > 0", outlier_limit);
-  if (!(std::isfinite(runs_z) && runs_z > 0.0)) return fmt::format("runs_z is {}; it must be a finite number > 0", runs_z);
-  if (runs_min_setpoints < 4) return fmt::format("runs_min_setpoints is {}; it must be >= 4", runs_min_setpoints);
-  if (!(condition_limit > 1.0)) return fmt::format("condition_limit is {}; it must be > 1", condition_limit);
+  if (!(std::isfinite(runs_z) && runs_z > 0.0))
+    return fmt::format("runs_z is {}; it must be a finite number > 0", runs_z);
+  if (runs_min_setpoints < 4)
+    return fmt::format("runs_min_setpoints is {}; it must be >= 4", runs_min_setpoints);
+  if (!(condition_limit > 1.0))
+    return fmt::format("condition_limit is {}; it must be > 1", condition_limit);
   if (std::isnan(span_low) != std::isnan(span_high))
     return "span_low and span_high go together; give both or neither";
   if (has_span() && !(span_high > span_low))
-    return fmt::format("span is {}..{}; span_high must be greater than span_low", span_low, span_high);
+    return fmt::format("span is {}..{}; span_high must be greater than span_low", span_low,
+                       span_high);
   return {};
 }
 
 std::vector<Warning> check_test_vs_validation(const Calibration& cal, const DiagnosticOptions& o) {
   const Metrics& t = cal.test;
   const Metrics& v = cal.validation;
-  if (t.empty() || v.empty() || !(std::isfinite(t.rmse) && std::isfinite(v.rmse)) || !(v.rmse > 0.0)) return {};
+  if (t.empty() || v.empty() || !(std::isfinite(t.rmse) && std::isfinite(v.rmse)) ||
+      !(v.rmse > 0.0))
+    return {};
   const double ratio = t.rmse / v.rmse;
   if (!(ratio > o.test_validation_ratio)) return {};
-  return {make(DiagnosticCode::TestMuchWorseThanValidation,
-               fmt::format("The test RMSE ({:.3g}) is {:.1f} times the validation RMSE ({:.3g}): the model may be "
-                           "overfitted, or the test points differ from the training points (a leak, a drift, or "
-                           "setpoints unlike the others).",
-                           t.rmse, ratio, v.rmse),
-               {}, ratio)};
+  return {make(
+      DiagnosticCode::TestMuchWorseThanValidation,
+      fmt::format(
+          "The test RMSE ({:.3g}) is {:.1f} times the validation RMSE ({:.3g}): the model may be "
+          "overfitted, or the test points differ from the training points (a leak, a drift, or "
+          "setpoints unlike the others).",
+          t.rmse, ratio, v.rmse),
+      {}, ratio)};
 }
 
 std::vector<Warning> check_grid_edges(const Calibration& cal) {
@@ -117,37 +130,44 @@ std::vector<Warning> check_grid_edges(const Calibration& cal) {
     const int lo = *std::min_element(s.degrees.begin(), s.degrees.end());
     const int hi = *std::max_element(s.degrees.begin(), s.degrees.end());
     if (c.degree == hi)
-      out.push_back(make(DiagnosticCode::DegreeAtGridEdge,
-                         fmt::format("The chosen degree {} is the highest candidate: a higher degree might fit "
-                                     "better; widen --degrees and refit.",
-                                     c.degree),
-                         {}, c.degree));
+      out.push_back(make(
+          DiagnosticCode::DegreeAtGridEdge,
+          fmt::format("The chosen degree {} is the highest candidate: a higher degree might fit "
+                      "better; widen --degrees and refit.",
+                      c.degree),
+          {}, c.degree));
     else if (c.degree == lo && lo > 1)
-      out.push_back(make(DiagnosticCode::DegreeAtGridEdge,
-                         fmt::format("The chosen degree {} is the lowest candidate: a lower degree might do as well; "
-                                     "widen --degrees and refit.",
-                                     c.degree),
-                         {}, c.degree));
+      out.push_back(
+          make(DiagnosticCode::DegreeAtGridEdge,
+               fmt::format(
+                   "The chosen degree {} is the lowest candidate: a lower degree might do as well; "
+                   "widen --degrees and refit.",
+                   c.degree),
+               {}, c.degree));
   }
   if (s.lambdas.size() > 1) {
     const double lo = s.lambdas.front(), hi = s.lambdas.back();
     if (c.lambda == hi)
-      out.push_back(make(DiagnosticCode::LambdaAtGridEdge,
-                         fmt::format("The chosen lambda {:g} is the largest candidate: the curve is shrunk as far as "
-                                     "the grid allows; widen --lambdas or lower the degree.",
-                                     c.lambda),
-                         {}, c.lambda));
+      out.push_back(
+          make(DiagnosticCode::LambdaAtGridEdge,
+               fmt::format(
+                   "The chosen lambda {:g} is the largest candidate: the curve is shrunk as far as "
+                   "the grid allows; widen --lambdas or lower the degree.",
+                   c.lambda),
+               {}, c.lambda));
     else if (c.lambda == lo && lo > 0.0)
-      out.push_back(make(DiagnosticCode::LambdaAtGridEdge,
-                         fmt::format("The chosen lambda {:g} is the smallest candidate and the grid has no 0: a "
-                                     "smaller penalty might fit better; widen --lambdas.",
-                                     c.lambda),
-                         {}, c.lambda));
+      out.push_back(make(
+          DiagnosticCode::LambdaAtGridEdge,
+          fmt::format("The chosen lambda {:g} is the smallest candidate and the grid has no 0: a "
+                      "smaller penalty might fit better; widen --lambdas.",
+                      c.lambda),
+          {}, c.lambda));
   }
   return out;
 }
 
-std::vector<Warning> check_setpoints_per_coefficient(const Calibration& cal, const DiagnosticOptions& o) {
+std::vector<Warning> check_setpoints_per_coefficient(const Calibration& cal,
+                                                     const DiagnosticOptions& o) {
   std::size_t ntr = 0;
   for (const SetpointResult& sp : cal.setpoints)
     if (sp.role == SetRole::Train) ++ntr;
@@ -155,11 +175,14 @@ std::vector<Warning> check_setpoints_per_coefficient(const Calibration& cal, con
   if (coefs <= 0) return {};
   const double per = static_cast<double>(ntr) / coefs;
   if (!(per < o.min_setpoints_per_coefficient)) return {};
-  return {make(DiagnosticCode::FewSetpointsPerCoefficient,
-               fmt::format("Only {} training setpoints for {} coefficients ({:.1f} per coefficient, fewer than {:g}): "
-                           "the curve between setpoints is poorly constrained; add setpoints or lower the degree.",
-                           ntr, coefs, per, o.min_setpoints_per_coefficient),
-               {}, per)};
+  return {make(
+      DiagnosticCode::FewSetpointsPerCoefficient,
+      fmt::format(
+          "Only {} training setpoints for {} coefficients ({:.1f} per coefficient, fewer than "
+          "{:g}): "
+          "the curve between setpoints is poorly constrained; add setpoints or lower the degree.",
+          ntr, coefs, per, o.min_setpoints_per_coefficient),
+      {}, per)};
 }
 
 std::vector<Warning> check_coverage(const Calibration& cal, const DiagnosticOptions& o) {
@@ -167,8 +190,9 @@ std::vector<Warning> check_coverage(const Calibration& cal, const DiagnosticOpti
   // All setpoints, training and test: a test setpoint inside a gap checks the curve there.
   std::vector<const SetpointResult*> tr;
   for (const SetpointResult& sp : cal.setpoints) tr.push_back(&sp);
-  std::sort(tr.begin(), tr.end(),
-            [](const SetpointResult* a, const SetpointResult* b) { return a->mean_reading < b->mean_reading; });
+  std::sort(tr.begin(), tr.end(), [](const SetpointResult* a, const SetpointResult* b) {
+    return a->mean_reading < b->mean_reading;
+  });
   if (tr.size() < 2) return out;
   if (o.has_span()) {
     double rmin = tr.front()->mean_reference, rmax = rmin;
@@ -178,12 +202,14 @@ std::vector<Warning> check_coverage(const Calibration& cal, const DiagnosticOpti
     }
     const double slack = o.coverage_end_fraction * (o.span_high - o.span_low);
     if (rmin > o.span_low + slack || rmax < o.span_high - slack)
-      out.push_back(make(DiagnosticCode::RangeNotCovered,
-                         fmt::format("The setpoints cover references {:g}..{:g} but the declared span is {:g}..{:g}: "
-                                     "outside the covered part the curve is an extrapolation; add setpoints near the "
-                                     "span ends.",
-                                     rmin, rmax, o.span_low, o.span_high),
-                         {}, (rmax - rmin) / (o.span_high - o.span_low)));
+      out.push_back(
+          make(DiagnosticCode::RangeNotCovered,
+               fmt::format(
+                   "The setpoints cover references {:g}..{:g} but the declared span is {:g}..{:g}: "
+                   "outside the covered part the curve is an extrapolation; add setpoints near the "
+                   "span ends.",
+                   rmin, rmax, o.span_low, o.span_high),
+               {}, (rmax - rmin) / (o.span_high - o.span_low)));
   }
   if (tr.size() >= 3) {
     const double range = tr.back()->mean_reading - tr.front()->mean_reading;
@@ -198,13 +224,15 @@ std::vector<Warning> check_coverage(const Calibration& cal, const DiagnosticOpti
       }
     }
     if (mean_gap > 0 && worst > o.gap_factor * mean_gap)
-      out.push_back(make(DiagnosticCode::CoverageGap,
-                         fmt::format("There is a gap in coverage between setpoints '{}' and '{}' (readings {:g} to "
-                                     "{:g}), {:.1f} times the mean spacing: the curve is poorly constrained there; "
-                                     "add a setpoint inside the gap.",
-                                     tr[at - 1]->id, tr[at]->id, tr[at - 1]->mean_reading, tr[at]->mean_reading,
-                                     worst / mean_gap),
-                         {}, worst / mean_gap));
+      out.push_back(
+          make(DiagnosticCode::CoverageGap,
+               fmt::format(
+                   "There is a gap in coverage between setpoints '{}' and '{}' (readings {:g} to "
+                   "{:g}), {:.1f} times the mean spacing: the curve is poorly constrained there; "
+                   "add a setpoint inside the gap.",
+                   tr[at - 1]->id, tr[at]->id, tr[at - 1]->mean_reading, tr[at]->mean_reading,
+                   worst / mean_gap),
+               {}, worst / mean_gap));
   }
   return out;
 }
@@ -223,11 +251,12 @@ std::vector<Warning> check_outliers(const Calibration& cal, const DiagnosticOpti
     if (!(denom > 1e-12)) continue;
     const double t = r * std::sqrt((dof - 1.0) / denom);  // externally studentized
     if (std::fabs(t) > o.outlier_limit)
-      out.push_back(make(DiagnosticCode::Outlier,
-                         fmt::format("Line {} (setpoint '{}', reading {:g}) is an outlier: studentized residual "
-                                     "{:.1f} (limit {:g}); check the reading and the reference there.",
-                                     p.line, p.setpoint, p.reading, t, o.outlier_limit),
-                         {p.line}, t));
+      out.push_back(make(
+          DiagnosticCode::Outlier,
+          fmt::format("Line {} (setpoint '{}', reading {:g}) is an outlier: studentized residual "
+                      "{:.1f} (limit {:g}); check the reading and the reference there.",
+                      p.line, p.setpoint, p.reading, t, o.outlier_limit),
+          {p.line}, t));
   }
   return out;
 }
@@ -235,8 +264,10 @@ std::vector<Warning> check_outliers(const Calibration& cal, const DiagnosticOpti
 double runs_test_z(const std::vector<double>& values) {
   std::vector<int> signs;
   for (double v : values)
-    if (v > 0) signs.push_back(1);
-    else if (v < 0) signs.push_back(-1);
+    if (v > 0)
+      signs.push_back(1);
+    else if (v < 0)
+      signs.push_back(-1);
   double n1 = 0, n2 = 0;
   for (int sg : signs) (sg > 0 ? n1 : n2) += 1;
   if (n1 < 2 || n2 < 2) return kNaN;
@@ -263,7 +294,8 @@ std::vector<Warning> check_residual_runs(const Calibration& cal, const Diagnosti
   std::vector<double> seq;
   for (const SetpointResult& sp : cal.setpoints) {
     const auto it = by_id.find(sp.id);
-    if (sp.role == SetRole::Train && it != by_id.end()) seq.push_back(it->second.first / it->second.second);
+    if (sp.role == SetRole::Train && it != by_id.end())
+      seq.push_back(it->second.first / it->second.second);
   }
   if (seq.size() < o.runs_min_setpoints) return {};
   const double z = runs_test_z(seq);
@@ -271,12 +303,14 @@ std::vector<Warning> check_residual_runs(const Calibration& cal, const Diagnosti
   double rms = 0;
   for (double v : seq) rms += v * v;
   rms = std::sqrt(rms / static_cast<double>(seq.size()));
-  return {make(DiagnosticCode::ResidualPattern,
-               fmt::format("The residuals of the {} training setpoints (RMS {:.3g}) change sign less often than "
-                           "chance allows (runs test z = {:.2f}): a systematic pattern, a sign that the curve "
-                           "underfits; consider a higher degree or a smaller lambda.",
-                           seq.size(), rms, z),
-               {}, z)};
+  return {make(
+      DiagnosticCode::ResidualPattern,
+      fmt::format(
+          "The residuals of the {} training setpoints (RMS {:.3g}) change sign less often than "
+          "chance allows (runs test z = {:.2f}): a systematic pattern, a sign that the curve "
+          "underfits; consider a higher degree or a smaller lambda.",
+          seq.size(), rms, z),
+      {}, z)};
 }
 
 std::vector<Warning> check_monotonic(const PolyModel& model) {
@@ -297,12 +331,14 @@ std::vector<Warning> check_monotonic(const PolyModel& model) {
     const int sg = v > 0 ? 1 : -1;
     if (sign != 0 && sg != sign) {
       const double x = sc.x_min + (sc.x_max - sc.x_min) * i / m;
-      return {make(DiagnosticCode::NonMonotonic,
-                   fmt::format("The curve is not monotonic over the calibrated range: its slope changes sign near "
-                               "reading {:g}, so one calibrated value can come from two readings (a problem when "
-                               "firmware inverts the curve); lower the degree or raise lambda.",
-                               x),
-                   {}, x)};
+      return {make(
+          DiagnosticCode::NonMonotonic,
+          fmt::format(
+              "The curve is not monotonic over the calibrated range: its slope changes sign near "
+              "reading {:g}, so one calibrated value can come from two readings (a problem when "
+              "firmware inverts the curve); lower the degree or raise lambda.",
+              x),
+          {}, x)};
     }
     sign = sg;
   }
@@ -310,7 +346,8 @@ std::vector<Warning> check_monotonic(const PolyModel& model) {
 }
 
 std::vector<Warning> check_hysteresis(const Dataset& data, const Calibration& cal,
-                                      const UncertaintyBudget& uncertainty, const ToleranceSpec* tolerance) {
+                                      const UncertaintyBudget& uncertainty,
+                                      const ToleranceSpec* tolerance) {
   (void)uncertainty;
   if (!tolerance || data.rows.size() != cal.points.size()) return {};
   struct Acc {
@@ -355,26 +392,31 @@ std::vector<Warning> check_hysteresis(const Dataset& data, const Calibration& ca
     }
   }
   if (exceeded == 0) return {};
-  return {make(DiagnosticCode::Hysteresis,
-               fmt::format("Hysteresis: at {} of {} setpoints measured in both directions the up and down sweeps "
-                           "differ by more than the tolerance; worst at setpoint '{}', up minus down = {:.3g} against {:.3g}. "
-                           "One curve cannot serve both directions within the tolerance.",
-                           exceeded, paired, worst_id, worst_diff,
-                           worst_limit),
-               worst_lines, worst_ratio)};
+  return {make(
+      DiagnosticCode::Hysteresis,
+      fmt::format(
+          "Hysteresis: at {} of {} setpoints measured in both directions the up and down sweeps "
+          "differ by more than the tolerance; worst at setpoint '{}', up minus down = {:.3g} "
+          "against {:.3g}. "
+          "One curve cannot serve both directions within the tolerance.",
+          exceeded, paired, worst_id, worst_diff, worst_limit),
+      worst_lines, worst_ratio)};
 }
 
 std::vector<Warning> check_condition(const Calibration& cal, const DiagnosticOptions& o) {
   if (!(cal.condition_number > o.condition_limit)) return {};
-  return {make(DiagnosticCode::HighConditionNumber,
-               fmt::format("The fit's design has condition number {:.3g} (above {:.3g}): the coefficients are "
-                           "sensitive to small changes in the data; lower the degree, raise lambda or spread the "
-                           "setpoints.",
-                           cal.condition_number, o.condition_limit),
-               {}, cal.condition_number)};
+  return {make(
+      DiagnosticCode::HighConditionNumber,
+      fmt::format(
+          "The fit's design has condition number {:.3g} (above {:.3g}): the coefficients are "
+          "sensitive to small changes in the data; lower the degree, raise lambda or spread the "
+          "setpoints.",
+          cal.condition_number, o.condition_limit),
+      {}, cal.condition_number)};
 }
 
-std::vector<Warning> check_extrapolation(const std::vector<double>& readings, const std::vector<std::size_t>& lines,
+std::vector<Warning> check_extrapolation(const std::vector<double>& readings,
+                                         const std::vector<std::size_t>& lines,
                                          const Scaling& range, const std::string& what) {
   std::vector<std::size_t> outside;
   double worst = 0;
@@ -385,16 +427,20 @@ std::vector<Warning> check_extrapolation(const std::vector<double>& readings, co
       worst = std::max(worst, std::fabs(range.to_t(readings[i])) - 1.0);
     }
   if (outside.empty()) return {};
-  return {make(DiagnosticCode::Extrapolation,
-               fmt::format("{} {} lie outside the calibrated reading range {:g}..{:g} (lines {}), up to {:.3g} "
-                           "reading units beyond it: there the curve is an extrapolation and the uncertainty is not "
-                           "valid.",
-                           outside.size(), what, range.x_min, range.x_max, line_list(outside), worst * hw),
-               outside, worst * hw)};
+  return {make(
+      DiagnosticCode::Extrapolation,
+      fmt::format(
+          "{} {} lie outside the calibrated reading range {:g}..{:g} (lines {}), up to {:.3g} "
+          "reading units beyond it: there the curve is an extrapolation and the uncertainty is not "
+          "valid.",
+          outside.size(), what, range.x_min, range.x_max, line_list(outside), worst * hw),
+      outside, worst * hw)};
 }
 
-std::vector<Warning> diagnose_fit(const Dataset& data, const Calibration& cal, const UncertaintyBudget& uncertainty,
-                                  const ToleranceSpec* tolerance, const DiagnosticOptions& options) {
+std::vector<Warning> diagnose_fit(const Dataset& data, const Calibration& cal,
+                                  const UncertaintyBudget& uncertainty,
+                                  const ToleranceSpec* tolerance,
+                                  const DiagnosticOptions& options) {
   std::vector<Warning> out;
   append(out, check_test_vs_validation(cal, options));
   append(out, check_grid_edges(cal));
@@ -439,7 +485,8 @@ std::vector<Warning> warnings_from_json(const nlohmann::json& j, const std::stri
     w.message = r.text(e, "message", "warnings[]");
     if (e.contains("lines"))
       for (const nlohmann::json& l : r.array(e, "lines", "warnings[]")) {
-        if (!l.is_number_unsigned()) r.fail("warnings[].lines", "holds a value that is not a line number");
+        if (!l.is_number_unsigned())
+          r.fail("warnings[].lines", "holds a value that is not a line number");
         w.lines.push_back(l.get<std::size_t>());
       }
     if (e.contains("value")) w.value = r.number(e, "value", "warnings[]");

@@ -3,8 +3,9 @@
 // InputError naming the member.
 #pragma once
 
-#include <cmath>
 #include <fmt/format.h>
+
+#include <cmath>
 #include <limits>
 #include <nlohmann/json.hpp>
 #include <string>
@@ -20,7 +21,8 @@ struct JsonReader {
     throw InputError(file, 0, fmt::format("record member '{}' {}", where, what),
                      "re-create the record with 'ridgecal fit'");
   }
-  const nlohmann::json& member(const nlohmann::json& obj, const std::string& key, const std::string& where) const {
+  const nlohmann::json& member(const nlohmann::json& obj, const std::string& key,
+                               const std::string& where) const {
     if (!obj.is_object()) fail(where, "is not an object");
     const auto it = obj.find(key);
     if (it == obj.end()) fail(where + "." + key, "is missing");
@@ -37,17 +39,20 @@ struct JsonReader {
     if (!std::isfinite(v)) fail(where + "." + key, "is not a finite number");
     return v;
   }
-  long long integer(const nlohmann::json& obj, const std::string& key, const std::string& where) const {
+  long long integer(const nlohmann::json& obj, const std::string& key,
+                    const std::string& where) const {
     const nlohmann::json& v = member(obj, key, where);
     if (!v.is_number_integer()) fail(where + "." + key, "is not an integer");
     return v.get<long long>();
   }
-  std::string text(const nlohmann::json& obj, const std::string& key, const std::string& where) const {
+  std::string text(const nlohmann::json& obj, const std::string& key,
+                   const std::string& where) const {
     const nlohmann::json& v = member(obj, key, where);
     if (!v.is_string()) fail(where + "." + key, "is not a string");
     return v.get<std::string>();
   }
-  std::string text_or(const nlohmann::json& obj, const std::string& key, const std::string& fallback) const {
+  std::string text_or(const nlohmann::json& obj, const std::string& key,
+                      const std::string& fallback) const {
     const auto it = obj.find(key);
     return (it != obj.end() && it->is_string()) ? it->get<std::string>() : fallback;
   }
@@ -56,13 +61,15 @@ struct JsonReader {
     if (!v.is_boolean()) fail(where + "." + key, "is not true or false");
     return v.get<bool>();
   }
-  const nlohmann::json& array(const nlohmann::json& obj, const std::string& key, const std::string& where) const {
+  const nlohmann::json& array(const nlohmann::json& obj, const std::string& key,
+                              const std::string& where) const {
     const nlohmann::json& v = member(obj, key, where);
     if (!v.is_array()) fail(where + "." + key, "is not an array");
     return v;
   }
   template <class F>
-  auto enum_value(const nlohmann::json& obj, const std::string& key, const std::string& where, F parse) const {
+  auto enum_value(const nlohmann::json& obj, const std::string& key, const std::string& where,
+                  F parse) const {
     const std::string s = text(obj, key, where);
     try {
       return parse(s);
@@ -72,6 +79,8 @@ struct JsonReader {
   }
 };
 
-inline nlohmann::json num(double v) { return std::isfinite(v) ? nlohmann::json(v) : nlohmann::json(nullptr); }
+inline nlohmann::json num(double v) {
+  return std::isfinite(v) ? nlohmann::json(v) : nlohmann::json(nullptr);
+}
 
 }  // namespace ridgecal::detail

@@ -1,8 +1,9 @@
 #include "ridgecal/uncertainty.hpp"
 
+#include <fmt/format.h>
+
 #include <algorithm>
 #include <cmath>
-#include <fmt/format.h>
 #include <limits>
 #include <stdexcept>
 
@@ -17,10 +18,13 @@ constexpr double kNaN = std::numeric_limits<double>::quiet_NaN();
 std::string UncertaintyOptions::validate() const {
   auto bad = [](double v) { return !(std::isfinite(v) && v >= 0.0); };
   if (bad(reference_uncertainty))
-    return fmt::format("reference_uncertainty is {}; it must be a finite number >= 0", reference_uncertainty);
+    return fmt::format("reference_uncertainty is {}; it must be a finite number >= 0",
+                       reference_uncertainty);
   if (!(std::isfinite(reference_k) && reference_k >= 1.0 && reference_k <= 10.0))
-    return fmt::format("reference_k is {}; it must be between 1 (a standard uncertainty) and 10", reference_k);
-  if (bad(resolution)) return fmt::format("resolution is {}; it must be a finite number >= 0", resolution);
+    return fmt::format("reference_k is {}; it must be between 1 (a standard uncertainty) and 10",
+                       reference_k);
+  if (bad(resolution))
+    return fmt::format("resolution is {}; it must be a finite number >= 0", resolution);
   if (!(std::isfinite(coverage_k) && coverage_k >= 1.0 && coverage_k <= 10.0))
     return fmt::format("coverage_k is {}; it must be between 1 and 10", coverage_k);
   if (band_points < 2 || band_points > 1001)
@@ -28,14 +32,18 @@ std::string UncertaintyOptions::validate() const {
   return {};
 }
 
-std::string to_string(EvaluationType t) { return t == EvaluationType::A ? "A" : "B"; }
+std::string to_string(EvaluationType t) {
+  return t == EvaluationType::A ? "A" : "B";
+}
 EvaluationType evaluation_type_from_string(const std::string& s) {
   if (s == "A") return EvaluationType::A;
   if (s == "B") return EvaluationType::B;
   throw std::invalid_argument("evaluation type must be 'A' or 'B', got '" + s + "'");
 }
 
-std::string to_string(Distribution d) { return d == Distribution::Normal ? "normal" : "rectangular"; }
+std::string to_string(Distribution d) {
+  return d == Distribution::Normal ? "normal" : "rectangular";
+}
 Distribution distribution_from_string(const std::string& s) {
   if (s == "normal") return Distribution::Normal;
   if (s == "rectangular") return Distribution::Rectangular;
@@ -50,12 +58,17 @@ void design_row(double x, const Scaling& sc, int D, bool intercept, double* out)
   std::vector<double> row(static_cast<std::size_t>(D) + 1), row0(static_cast<std::size_t>(D) + 1);
   chebyshev_row(sc.to_t(x), D, row.data());
   if (!intercept) chebyshev_row(sc.to_t(0.0), D, row0.data());
-  for (int k = 1; k <= D; ++k) out[k - 1] = intercept ? row[static_cast<std::size_t>(k)] : row[static_cast<std::size_t>(k)] - row0[static_cast<std::size_t>(k)];
+  for (int k = 1; k <= D; ++k)
+    out[k - 1] = intercept ? row[static_cast<std::size_t>(k)]
+                           : row[static_cast<std::size_t>(k)] - row0[static_cast<std::size_t>(k)];
 }
 }  // namespace
 
 FitCovariance::FitCovariance(const Calibration& cal)
-    : intercept_(cal.intercept), lambda_(cal.lambda), degree_(cal.model.degree()), scaling_(cal.model.scaling) {
+    : intercept_(cal.intercept),
+      lambda_(cal.lambda),
+      degree_(cal.model.degree()),
+      scaling_(cal.model.scaling) {
   std::vector<const PointResult*> tr;
   for (const PointResult& p : cal.points)
     if (p.role == SetRole::Train) tr.push_back(&p);
@@ -64,7 +77,8 @@ FitCovariance::FitCovariance(const Calibration& cal)
     df_ = intercept_ ? 1.0 : 0.0;
     double rss = 0;
     for (const PointResult* p : tr) rss += p->error * p->error;
-    sigma_ = static_cast<double>(n_) > df_ ? std::sqrt(rss / (static_cast<double>(n_) - df_)) : kNaN;
+    sigma_ =
+        static_cast<double>(n_) > df_ ? std::sqrt(rss / (static_cast<double>(n_) - df_)) : kNaN;
     return;
   }
   const int D = degree_;
@@ -73,7 +87,8 @@ FitCovariance::FitCovariance(const Calibration& cal)
   double rss = 0;
   for (std::size_t i = 0; i < n_; ++i) {
     design_row(tr[i]->reading, scaling_, D, intercept_, row.data());
-    for (int k = 0; k < D; ++k) X(static_cast<Eigen::Index>(i), k) = row[static_cast<std::size_t>(k)];
+    for (int k = 0; k < D; ++k)
+      X(static_cast<Eigen::Index>(i), k) = row[static_cast<std::size_t>(k)];
     rss += tr[i]->error * tr[i]->error;
   }
   mean_ = intercept_ ? Eigen::RowVectorXd(X.colwise().mean()) : Eigen::RowVectorXd::Zero(D);
@@ -82,14 +97,16 @@ FitCovariance::FitCovariance(const Calibration& cal)
   V_ = svd.matrixV();
   s_ = svd.singularValues();
   const double smax = s_.size() ? s_(0) : 0.0;
-  const double tol = smax * std::numeric_limits<double>::epsilon() * static_cast<double>(std::max<std::size_t>(n_, static_cast<std::size_t>(D)));
+  const double tol = smax * std::numeric_limits<double>::epsilon() *
+                     static_cast<double>(std::max<std::size_t>(n_, static_cast<std::size_t>(D)));
   df_ = intercept_ ? 1.0 : 0.0;
   const double nl = static_cast<double>(n_) * lambda_;
   for (Eigen::Index j = 0; j < s_.size(); ++j) {
     if (s_(j) > tol) ++rank_;
     if (s_(j) > tol || lambda_ > 0.0) df_ += s_(j) * s_(j) / (s_(j) * s_(j) + nl);
   }
-  sigma_ = static_cast<double>(n_) > df_ + 1e-9 ? std::sqrt(rss / (static_cast<double>(n_) - df_)) : kNaN;
+  sigma_ = static_cast<double>(n_) > df_ + 1e-9 ? std::sqrt(rss / (static_cast<double>(n_) - df_))
+                                                : kNaN;
   ok_ = true;
 }
 
@@ -141,11 +158,22 @@ double UncertaintyBudget::expanded_at(double reading) const {
 
 std::string UncertaintyBudget::brief(const std::string& unit) const {
   const std::string u = unit.empty() ? "" : " " + unit;
-  std::string s = fmt::format("uncertainty: U = {:.3g}{} (k = {:g}), combined standard u = {:.3g}{}\n", expanded, u,
-                              k, combined, u);
+  std::string s =
+      fmt::format("uncertainty: U = {:.3g}{} (k = {:g}), combined standard u = {:.3g}{}\n",
+                  expanded, u, k, combined, u);
   for (const UncertaintyComponent& c : components)
     s += fmt::format("  {:<19} {:.3g}{} (type {}, {})\n", c.name, c.standard, u, to_string(c.type),
                      to_string(c.distribution));
+  return s;
+}
+
+std::string UncertaintyBudget::full(const std::string& unit) const {
+  std::string s = brief(unit);
+  for (const UncertaintyComponent& c : components) s += fmt::format("  {}: {}\n", c.name, c.note);
+  s += "  band: " + band_method + "\n";
+  for (const BandPoint& p : band)
+    s += fmt::format("    reading {:<12g} value {:<12.6g} u_fit {:<10.3g} U {:.3g}\n", p.reading,
+                     p.predicted, p.u_fit, p.expanded);
   return s;
 }
 
@@ -179,36 +207,43 @@ UncertaintyBudget evaluate_uncertainty(const Calibration& cal, const Uncertainty
   }
   // The slope can peak between band points: refine on a finer grid.
   for (int i = 0; i <= 1000; ++i)
-    max_slope = std::max(max_slope, std::fabs(cal.model.derivative(sc.x_min + (sc.x_max - sc.x_min) * i / 1000.0)));
+    max_slope = std::max(
+        max_slope, std::fabs(cal.model.derivative(sc.x_min + (sc.x_max - sc.x_min) * i / 1000.0)));
 
-  b.components.push_back({"fit-residual", EvaluationType::A, Distribution::Normal, s_used, 1.0, 1.0, s_used,
-                          fmt::format("residual standard deviation of the {} training points, {:.3g} degrees of "
-                                      "freedom (n minus effective parameters)",
-                                      cov.n(), cov.dof())});
-  b.components.push_back({"fit-coefficients", EvaluationType::A, Distribution::Normal, max_ufit, 1.0, 1.0, max_ufit,
-                          cal.lambda > 0.0 ? "largest standard deviation of the fitted curve over the range, from the "
-                                             "ridge sandwich covariance (shrinkage bias not included)"
-                                           : "largest standard deviation of the fitted curve over the range, from the "
-                                             "least-squares covariance"});
-  b.components.push_back({"reference-standard", EvaluationType::B, Distribution::Normal, options.reference_uncertainty,
-                          options.reference_k, 1.0, u_ref,
-                          options.reference_k == 1.0
-                              ? "standard uncertainty of the reference as stated by the user"
-                              : fmt::format("expanded uncertainty of the reference as stated by the user, k = {:g}",
-                                            options.reference_k)});
-  b.components.push_back({"reading-resolution", EvaluationType::B, Distribution::Rectangular, options.resolution,
-                          res_div, max_slope, max_slope * options.resolution / res_div,
-                          "one digit step of the reading, rectangular, through the largest slope dp/dx over the range"});
+  b.components.push_back(
+      {"fit-residual", EvaluationType::A, Distribution::Normal, s_used, 1.0, 1.0, s_used,
+       fmt::format("residual standard deviation of the {} training points, {:.3g} degrees of "
+                   "freedom (n minus effective parameters)",
+                   cov.n(), cov.dof())});
+  b.components.push_back(
+      {"fit-coefficients", EvaluationType::A, Distribution::Normal, max_ufit, 1.0, 1.0, max_ufit,
+       cal.lambda > 0.0 ? "largest standard deviation of the fitted curve over the range, from the "
+                          "ridge sandwich covariance (shrinkage bias not included)"
+                        : "largest standard deviation of the fitted curve over the range, from the "
+                          "least-squares covariance"});
+  b.components.push_back(
+      {"reference-standard", EvaluationType::B, Distribution::Normal, options.reference_uncertainty,
+       options.reference_k, 1.0, u_ref,
+       options.reference_k == 1.0
+           ? "standard uncertainty of the reference as stated by the user"
+           : fmt::format("expanded uncertainty of the reference as stated by the user, k = {:g}",
+                         options.reference_k)});
+  b.components.push_back({"reading-resolution", EvaluationType::B, Distribution::Rectangular,
+                          options.resolution, res_div, max_slope,
+                          max_slope * options.resolution / res_div,
+                          "one digit step of the reading, rectangular, through the largest slope "
+                          "dp/dx over the range"});
   double sum = 0;
   for (const UncertaintyComponent& c : b.components) sum += c.standard * c.standard;
   b.combined = std::sqrt(sum);
   b.expanded = b.k * b.combined;
-  b.band_method = cal.lambda > 0.0
-                      ? "U(x) = k*sqrt(s^2 + u_fit(x)^2 + u_ref^2 + u_res(x)^2); u_fit from the ridge sandwich "
-                        "covariance s^2 V diag(s_j^2/(s_j^2+n*lambda)^2) V' of the centred Chebyshev design "
-                        "(approximation: ignores the shrinkage bias)"
-                      : "U(x) = k*sqrt(s^2 + u_fit(x)^2 + u_ref^2 + u_res(x)^2); u_fit from the least-squares "
-                        "covariance s^2 (Xc'Xc)^-1 of the centred Chebyshev design";
+  b.band_method =
+      cal.lambda > 0.0
+          ? "U(x) = k*sqrt(s^2 + u_fit(x)^2 + u_ref^2 + u_res(x)^2); u_fit from the ridge sandwich "
+            "covariance s^2 V diag(s_j^2/(s_j^2+n*lambda)^2) V' of the centred Chebyshev design "
+            "(approximation: ignores the shrinkage bias)"
+          : "U(x) = k*sqrt(s^2 + u_fit(x)^2 + u_ref^2 + u_res(x)^2); u_fit from the least-squares "
+            "covariance s^2 (Xc'Xc)^-1 of the centred Chebyshev design";
   return b;
 }
 
@@ -254,7 +289,8 @@ UncertaintyBudget uncertainty_from_json(const nlohmann::json& j, const std::stri
     UncertaintyComponent uc;
     uc.name = r.text(c, "name", "uncertainty.components[]");
     uc.type = r.enum_value(c, "type", "uncertainty.components[]", evaluation_type_from_string);
-    uc.distribution = r.enum_value(c, "distribution", "uncertainty.components[]", distribution_from_string);
+    uc.distribution =
+        r.enum_value(c, "distribution", "uncertainty.components[]", distribution_from_string);
     uc.value = r.number(c, "value", "uncertainty.components[]");
     uc.divisor = r.number(c, "divisor", "uncertainty.components[]");
     uc.sensitivity = r.number(c, "sensitivity", "uncertainty.components[]");

@@ -70,6 +70,9 @@ check "tolerance from the record" grep -q 'from the record' "$work/out"
 "$bin" verify "$work/pass.json" "$ntc" --tol-offset 0.001 -o "$work/af2.json" >"$work/out" 2>"$work/err"
 check "verify FAIL exits 1" test $? -eq 1
 check "verify FAIL still writes the result" test "$(jq_verdict "$work/af2.json")" = FAIL
+check "verify FAIL names the points out of tolerance" grep -q 'out of tolerance: line [0-9]' "$work/out"
+"$bin" verify "$work/pass.json" "$ntc" --full >"$work/out" 2>"$work/err"
+check "verify --full lists every point" test "$(grep -c '^ *[0-9][0-9]* S[0-9]' "$work/out")" -eq 60
 
 # a modified record is refused
 sed 's/"tool_version": "/"tool_version": "x/' "$work/pass.json" >"$work/mod.json"

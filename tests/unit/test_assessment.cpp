@@ -1,11 +1,12 @@
 // Tolerance formulas, the decision rule, the uncertainty budget, the record's
 // new members and the as-found check.
 #define BOOST_TEST_MODULE assessment
+#include <unistd.h>
+
 #include <boost/test/unit_test.hpp>
 #include <cmath>
 #include <cstdio>
 #include <filesystem>
-#include <unistd.h>
 
 #include "ridgecal/as_found.hpp"
 #include "ridgecal/assessment.hpp"
@@ -18,7 +19,8 @@ using namespace ridgecal;
 namespace {
 
 Calibration fit_line(double noise, double lambda = 0.0, std::uint64_t seed = 1) {
-  const Dataset ds = test::synthetic_run([](double x) { return 2.0 * x + 1.0; }, 0, 10, 11, 2, noise, seed);
+  const Dataset ds =
+      test::synthetic_run([](double x) { return 2.0 * x + 1.0; }, 0, 10, 11, 2, noise, seed);
   FitOptions o;
   o.fixed_degree = 1;
   o.fixed_lambda = lambda;
@@ -33,11 +35,13 @@ Calibration fit_line(double noise, double lambda = 0.0, std::uint64_t seed = 1) 
 BOOST_AUTO_TEST_CASE(enums_round_trip) {
   for (auto r : {DecisionRule::SimpleAcceptance, DecisionRule::GuardedAcceptance})
     BOOST_TEST((decision_rule_from_string(to_string(r)) == r));
-  for (auto v : {Verdict::Pass, Verdict::Fail}) BOOST_TEST((verdict_from_string(to_string(v)) == v));
-  for (auto p : {TolerancePreset::Iec60751AA, TolerancePreset::Iec60751A, TolerancePreset::Iec60751B,
-                 TolerancePreset::Iec60751C})
+  for (auto v : {Verdict::Pass, Verdict::Fail})
+    BOOST_TEST((verdict_from_string(to_string(v)) == v));
+  for (auto p : {TolerancePreset::Iec60751AA, TolerancePreset::Iec60751A,
+                 TolerancePreset::Iec60751B, TolerancePreset::Iec60751C})
     BOOST_TEST((tolerance_preset_from_string(to_string(p)) == p));
-  for (auto t : {EvaluationType::A, EvaluationType::B}) BOOST_TEST((evaluation_type_from_string(to_string(t)) == t));
+  for (auto t : {EvaluationType::A, EvaluationType::B})
+    BOOST_TEST((evaluation_type_from_string(to_string(t)) == t));
   for (auto d : {Distribution::Normal, Distribution::Rectangular})
     BOOST_TEST((distribution_from_string(to_string(d)) == d));
   for (auto d : {SweepDirection::Up, SweepDirection::Down, SweepDirection::Unspecified})
@@ -93,14 +97,16 @@ BOOST_AUTO_TEST_CASE(least_squares_band_matches_the_textbook_formula) {
   std::size_t n = 0;
   for (const auto& p : cal.points) mean += p.reading, ++n;
   mean /= static_cast<double>(n);
-  for (const auto& p : cal.points) sxx += (p.reading - mean) * (p.reading - mean), rss += p.error * p.error;
+  for (const auto& p : cal.points)
+    sxx += (p.reading - mean) * (p.reading - mean), rss += p.error * p.error;
   const double s = std::sqrt(rss / (static_cast<double>(n) - 2));
   BOOST_TEST(cov.effective_parameters() == 2.0, boost::test_tools::tolerance(1e-12));
   BOOST_TEST(cov.residual_sd() == s, boost::test_tools::tolerance(1e-10));
   for (double x0 : {0.0, 3.0, 10.0}) {
     const double expected = 1.0 / static_cast<double>(n) + (x0 - mean) * (x0 - mean) / sxx;
     BOOST_TEST(cov.variance_factor(x0) == expected, boost::test_tools::tolerance(1e-9));
-    BOOST_TEST(cov.leverage(x0) == expected, boost::test_tools::tolerance(1e-9));  // same for least squares
+    BOOST_TEST(cov.leverage(x0) == expected,
+               boost::test_tools::tolerance(1e-9));  // same for least squares
   }
   // Ridge: shrinkage lowers the variance.
   const FitCovariance ridge(fit_line(0.05, 0.1));
@@ -127,13 +133,15 @@ BOOST_AUTO_TEST_CASE(budget_components) {
   for (const auto& b : u.band) BOOST_TEST(b.expanded <= u.expanded * (1 + 1e-12));
   // The band is widest at the ends of the range.
   BOOST_TEST(u.band.front().u_fit > u.band[10].u_fit);
-  BOOST_TEST(u.expanded_at(u.band[3].reading) == u.band[3].expanded, boost::test_tools::tolerance(1e-12));
+  BOOST_TEST(u.expanded_at(u.band[3].reading) == u.band[3].expanded,
+             boost::test_tools::tolerance(1e-12));
   o.reference_k = 0.5;
   BOOST_TEST(o.validate().find("reference_k") != std::string::npos);
 }
 
 BOOST_AUTO_TEST_CASE(record_round_trips_the_assessment) {
-  const Dataset ds = test::synthetic_run([](double x) { return 2.0 * x + 1.0; }, 0, 10, 11, 2, 0.05, 2);
+  const Dataset ds =
+      test::synthetic_run([](double x) { return 2.0 * x + 1.0; }, 0, 10, 11, 2, 0.05, 2);
   FitOptions fo;
   fo.degrees = {1, 2};
   const FitOutcome f = fit_calibration(ds, fo);
@@ -194,7 +202,8 @@ BOOST_AUTO_TEST_CASE(record_round_trips_the_assessment) {
 }
 
 BOOST_AUTO_TEST_CASE(as_found_refuses_a_modified_record) {
-  const auto dir = std::filesystem::temp_directory_path() / ("ridgecal_asfound_" + std::to_string(::getpid()));
+  const auto dir =
+      std::filesystem::temp_directory_path() / ("ridgecal_asfound_" + std::to_string(::getpid()));
   std::filesystem::create_directories(dir);
   const Calibration cal = fit_line(0.01);
   CalibrationRecord rec;
@@ -206,7 +215,8 @@ BOOST_AUTO_TEST_CASE(as_found_refuses_a_modified_record) {
   nlohmann::json j = record_to_json(rec);
   const std::string good = (dir / "good.json").string(), bad = (dir / "bad.json").string();
   write_file_atomic(good, record_text(j));
-  j["model"]["chebyshev_coefficients"][0] = j["model"]["chebyshev_coefficients"][0].get<double>() + 0.5;
+  j["model"]["chebyshev_coefficients"][0] =
+      j["model"]["chebyshev_coefficients"][0].get<double>() + 0.5;
   write_file_atomic(bad, record_text(j));
 
   BOOST_TEST(read_checked_record(good, false).integrity_ok);
@@ -223,8 +233,10 @@ BOOST_AUTO_TEST_CASE(as_found_refuses_a_modified_record) {
 
   // Fresh readings of the same sensor: PASS with the good record; the modified
   // record (offset by 0.5) fails the record's own 0.1 tolerance and says so.
-  const Dataset fresh = test::synthetic_run([](double x) { return 2.0 * x + 1.0; }, 0, 10, 6, 1, 0.01, 9);
-  const AsFoundResult ok = evaluate_as_found(read_checked_record(good, false), fresh, AsFoundOptions{});
+  const Dataset fresh =
+      test::synthetic_run([](double x) { return 2.0 * x + 1.0; }, 0, 10, 6, 1, 0.01, 9);
+  const AsFoundResult ok =
+      evaluate_as_found(read_checked_record(good, false), fresh, AsFoundOptions{});
   BOOST_REQUIRE(ok.decision.has_value());
   BOOST_TEST(ok.decision->pass());
   BOOST_TEST(ok.tolerance_source == "record");

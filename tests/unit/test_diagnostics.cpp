@@ -1,7 +1,7 @@
 // Every diagnostic: one data set that triggers it and one that does not.
 #define BOOST_TEST_MODULE diagnostics
-#include <boost/test/unit_test.hpp>
 #include <algorithm>
+#include <boost/test/unit_test.hpp>
 #include <cmath>
 
 #include "ridgecal/assessment.hpp"
@@ -44,12 +44,15 @@ Dataset rows(const std::vector<double>& x, const std::function<double(double)>& 
   return ds;
 }
 
-double noisy_line(double x) { return 2.0 * x + 1.0; }
+double noisy_line(double x) {
+  return 2.0 * x + 1.0;
+}
 
 }  // namespace
 
 BOOST_AUTO_TEST_CASE(codes_round_trip) {
-  for (DiagnosticCode c : all_diagnostic_codes()) BOOST_TEST((diagnostic_code_from_string(to_string(c)) == c));
+  for (DiagnosticCode c : all_diagnostic_codes())
+    BOOST_TEST((diagnostic_code_from_string(to_string(c)) == c));
   BOOST_CHECK_THROW(diagnostic_code_from_string("no-such-code"), std::invalid_argument);
   BOOST_TEST(all_diagnostic_codes().size() == 13u);
 }
@@ -74,10 +77,12 @@ BOOST_AUTO_TEST_CASE(test_much_worse_than_validation) {
   }
   FitOptions fo;
   fo.degrees = {1, 2, 3};
-  BOOST_TEST(has(check_test_vs_validation(fit(ds, fo), o), DiagnosticCode::TestMuchWorseThanValidation));
+  BOOST_TEST(
+      has(check_test_vs_validation(fit(ds, fo), o), DiagnosticCode::TestMuchWorseThanValidation));
   for (auto& ob : ds.rows)
     if (ob.role == UserRole::Check) ob.reference -= 0.2;
-  BOOST_TEST(!has(check_test_vs_validation(fit(ds, fo), o), DiagnosticCode::TestMuchWorseThanValidation));
+  BOOST_TEST(
+      !has(check_test_vs_validation(fit(ds, fo), o), DiagnosticCode::TestMuchWorseThanValidation));
 }
 
 BOOST_AUTO_TEST_CASE(degree_and_lambda_at_grid_edge) {
@@ -105,9 +110,12 @@ BOOST_AUTO_TEST_CASE(degree_and_lambda_at_grid_edge) {
 BOOST_AUTO_TEST_CASE(few_setpoints_per_coefficient) {
   DiagnosticOptions o;
   const auto f = [](double x) { return x * x; };
-  BOOST_TEST(has(check_setpoints_per_coefficient(fit(test::synthetic_run(f, 0, 1, 6, 3, 0.001, 5), fixed(3)), o),
+  BOOST_TEST(has(check_setpoints_per_coefficient(
+                     fit(test::synthetic_run(f, 0, 1, 6, 3, 0.001, 5), fixed(3)), o),
                  DiagnosticCode::FewSetpointsPerCoefficient));
-  BOOST_TEST(check_setpoints_per_coefficient(fit(test::synthetic_run(f, 0, 1, 12, 1, 0.001, 5), fixed(3)), o).empty());
+  BOOST_TEST(check_setpoints_per_coefficient(
+                 fit(test::synthetic_run(f, 0, 1, 12, 1, 0.001, 5), fixed(3)), o)
+                 .empty());
 }
 
 BOOST_AUTO_TEST_CASE(range_not_covered_and_coverage_gap) {
@@ -140,7 +148,8 @@ BOOST_AUTO_TEST_CASE(residual_pattern_by_runs_test) {
   DiagnosticOptions o;
   const auto quad = [](double x) { return x * x; };
   const Dataset ds = test::synthetic_run(quad, 0, 1, 20, 1, 0.001, 8);
-  BOOST_TEST(has(check_residual_runs(fit(ds, fixed(1)), o), DiagnosticCode::ResidualPattern));  // underfit
+  BOOST_TEST(
+      has(check_residual_runs(fit(ds, fixed(1)), o), DiagnosticCode::ResidualPattern));  // underfit
   BOOST_TEST(check_residual_runs(fit(ds, fixed(2)), o).empty());
   BOOST_TEST(runs_test_z({1, 1, 1, 1, 1, -1, -1, -1, -1, -1}) < -2.0);
   BOOST_TEST(runs_test_z({1, -1, 1, -1, 1, -1, 1, -1, 1, -1}) > 2.0);
@@ -171,14 +180,16 @@ BOOST_AUTO_TEST_CASE(hysteresis_with_direction_column) {
     const Dataset ds = make(off);
     const Calibration cal = fit(ds, fixed(1));
     const UncertaintyBudget u = evaluate_uncertainty(cal, UncertaintyOptions{});
-    BOOST_TEST(has(check_hysteresis(ds, cal, u, &tol), DiagnosticCode::Hysteresis) == (off > 0), "offset " << off);
+    BOOST_TEST(has(check_hysteresis(ds, cal, u, &tol), DiagnosticCode::Hysteresis) == (off > 0),
+               "offset " << off);
     BOOST_TEST(check_hysteresis(ds, cal, u, nullptr).empty());  // no tolerance: not judged
   }
   // No direction column: nothing to compare.
   Dataset plain = make(0.3);
   for (auto& ob : plain.rows) ob.direction = SweepDirection::Unspecified;
   const Calibration cal = fit(plain, fixed(1));
-  BOOST_TEST(check_hysteresis(plain, cal, evaluate_uncertainty(cal, UncertaintyOptions{}), &tol).empty());
+  BOOST_TEST(
+      check_hysteresis(plain, cal, evaluate_uncertainty(cal, UncertaintyOptions{}), &tol).empty());
 }
 
 BOOST_AUTO_TEST_CASE(high_condition_number) {
@@ -195,7 +206,8 @@ BOOST_AUTO_TEST_CASE(extrapolation_outside_range) {
   const auto w = check_extrapolation({9.0, 15.0, 21.0}, {3, 4, 5}, range, "as-found readings");
   BOOST_REQUIRE_EQUAL(w.size(), 1u);
   BOOST_TEST(w[0].lines == (std::vector<std::size_t>{3, 5}));
-  BOOST_TEST(check_extrapolation({10.0, 15.0, 20.0}, {3, 4, 5}, range, "as-found readings").empty());
+  BOOST_TEST(
+      check_extrapolation({10.0, 15.0, 20.0}, {3, 4, 5}, range, "as-found readings").empty());
 }
 
 BOOST_AUTO_TEST_CASE(clean_fits_rarely_warn) {
@@ -210,7 +222,8 @@ BOOST_AUTO_TEST_CASE(clean_fits_rarely_warn) {
   int chance_alarms = 0;
   const int seeds = 20;
   for (int seed = 1; seed <= seeds; ++seed) {
-    const Dataset ds = test::synthetic_run(f, 0, 100, 21, 3, 0.01, static_cast<std::uint64_t>(seed));
+    const Dataset ds =
+        test::synthetic_run(f, 0, 100, 21, 3, 0.01, static_cast<std::uint64_t>(seed));
     FitOptions fo;
     fo.split.seed = static_cast<std::uint64_t>(seed);
     fo.lambdas = {0.0};  // least squares: ridge shrinkage of the gain is a real (detectable) bias
@@ -220,14 +233,17 @@ BOOST_AUTO_TEST_CASE(clean_fits_rarely_warn) {
     const auto w = diagnose_fit(ds, cal, evaluate_uncertainty(cal, UncertaintyOptions{}), &tol, o);
     bool alarm = false;
     for (const Warning& x : w) {
-      const bool statistical = x.code == DiagnosticCode::Outlier || x.code == DiagnosticCode::ResidualPattern;
+      const bool statistical =
+          x.code == DiagnosticCode::Outlier || x.code == DiagnosticCode::ResidualPattern;
       BOOST_TEST(statistical, "seed " << seed << ": " << x.message);
       alarm = alarm || statistical;
-      BOOST_TEST_MESSAGE("seed " << seed << " degree " << cal.model.degree() << " lambda " << cal.lambda << ": " << x.message);
+      BOOST_TEST_MESSAGE("seed " << seed << " degree " << cal.model.degree() << " lambda "
+                                 << cal.lambda << ": " << x.message);
     }
     if (alarm) ++chance_alarms;
   }
-  BOOST_TEST_MESSAGE("clean runs with a chance outlier or runs-test warning: " << chance_alarms << " of " << seeds);
+  BOOST_TEST_MESSAGE("clean runs with a chance outlier or runs-test warning: " << chance_alarms
+                                                                               << " of " << seeds);
   BOOST_TEST(chance_alarms <= 5);
 }
 

@@ -50,7 +50,7 @@ CheckedRecord read_checked_record(const std::string& path, bool allow_modified);
 
 struct AsFoundOptions {
   std::optional<ToleranceSpec> tolerance;  ///< none (default): the record's tolerance, if any
-  std::optional<DecisionRule> rule;        ///< none (default): the record's rule, else simple acceptance
+  std::optional<DecisionRule> rule;  ///< none (default): the record's rule, else simple acceptance
   /// Empty when valid, else a message naming the field, the value and the rule.
   std::string validate() const;
 };
@@ -81,12 +81,14 @@ struct AsFoundResult {
   std::vector<Warning> warnings;
 
   std::string brief(const std::string& unit) const;  ///< a few lines for a terminal
+  std::string full(const std::string& unit) const;   ///< brief() plus every point's error
 };
 
 /// Applies the record to the data and judges it. Throws InputError when the
 /// guarded rule is asked for and the record holds no uncertainty.
 /// Precondition: options.validate() is empty.
-AsFoundResult evaluate_as_found(const CheckedRecord& rec, const Dataset& data, const AsFoundOptions& options);
+AsFoundResult evaluate_as_found(const CheckedRecord& rec, const Dataset& data,
+                                const AsFoundOptions& options);
 
 /// The as-found file's JSON, integrity member included. `created_utc` may be empty.
 nlohmann::json as_found_to_json(const AsFoundResult& r, const std::string& created_utc);

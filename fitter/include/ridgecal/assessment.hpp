@@ -42,6 +42,7 @@ void resolve_span(ToleranceSpec& tol, const Calibration& cal, const DiagnosticOp
 /// Judges the points of the final model: `training` and `test` (counting for
 /// the verdict) and `validation` (the cross-validated predictions, judged for
 /// information only). Preconditions: options.validate() is empty.
-Assessment assess_calibration(const Dataset& data, const Calibration& cal, const AssessmentOptions& options);
+Assessment assess_calibration(const Dataset& data, const Calibration& cal,
+                              const AssessmentOptions& options);
 
 }  // namespace ridgecal

@@ -21,19 +21,20 @@
 namespace ridgecal {
 
 enum class DecisionRule { SimpleAcceptance, GuardedAcceptance };
-std::string to_string(DecisionRule r);  ///< `simple`, `guarded`
+std::string to_string(DecisionRule r);                         ///< `simple`, `guarded`
 DecisionRule decision_rule_from_string(const std::string& s);  ///< throws std::invalid_argument
 
 enum class Verdict { Pass, Fail };
-std::string to_string(Verdict v);                  ///< `PASS`, `FAIL`
-Verdict verdict_from_string(const std::string& s);  ///< `PASS`/`FAIL` (case-insensitive); throws std::invalid_argument
+std::string to_string(Verdict v);  ///< `PASS`, `FAIL`
+Verdict verdict_from_string(
+    const std::string& s);  ///< `PASS`/`FAIL` (case-insensitive); throws std::invalid_argument
 
 /// One error to judge.
 struct PointToJudge {
-  std::size_t line = 0;   ///< line in the data file
-  std::string set;        ///< e.g. `training`, `validation`, `test`, `as-found`
+  std::size_t line = 0;  ///< line in the data file
+  std::string set;       ///< e.g. `training`, `validation`, `test`, `as-found`
   double reference = 0.0;
-  double error = 0.0;     ///< calibrated value - reference
+  double error = 0.0;        ///< calibrated value - reference
   double uncertainty = 0.0;  ///< expanded uncertainty U at this point (used by the guarded rule)
 };
 
@@ -66,18 +67,22 @@ struct Decision {
   std::vector<PointJudgement> points;
 
   bool pass() const { return verdict == Verdict::Pass; }
-  /// A few lines for a terminal: verdict, rule, one line per set.
+  /// A few lines for a terminal: verdict, rule, one line per set, and the
+  /// first 10 points that do not conform.
   std::string brief() const;
+  /// brief() plus the statement and every point that does not conform.
+  std::string full() const;
 };
 
 /// Judges every point; sets appear in order of first appearance. A set named
 /// in `informative_sets` is judged and reported but does not count for the
 /// verdict. No points gives PASS with a statement saying nothing was judged.
 /// Precondition: tolerance.validate() is empty.
-Decision judge(const std::vector<PointToJudge>& points, const ToleranceSpec& tolerance, DecisionRule rule,
-               const std::vector<std::string>& informative_sets = {});
+Decision judge(const std::vector<PointToJudge>& points, const ToleranceSpec& tolerance,
+               DecisionRule rule, const std::vector<std::string>& informative_sets = {});
 
 nlohmann::json to_json(const Decision& d);
-Decision decision_from_json(const nlohmann::json& j, const std::string& file);  ///< throws InputError
+Decision decision_from_json(const nlohmann::json& j,
+                            const std::string& file);  ///< throws InputError
 
 }  // namespace ridgecal

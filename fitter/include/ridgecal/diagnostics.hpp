@@ -44,17 +44,22 @@ struct Warning {
   DiagnosticCode code = DiagnosticCode::Outlier;
   std::string message;             ///< one plain sentence (or two)
   std::vector<std::size_t> lines;  ///< data-file lines concerned, if any
-  double value = std::numeric_limits<double>::quiet_NaN();  ///< the figure that triggered it, if any
+  double value =
+      std::numeric_limits<double>::quiet_NaN();  ///< the figure that triggered it, if any
 };
 
 struct DiagnosticOptions {
   double test_validation_ratio = 2.0;  ///< warn when test RMSE > ratio * validation RMSE; > 1
-  double min_setpoints_per_coefficient = 3.0;  ///< warn below this many training setpoints per coefficient; >= 0
-  double coverage_end_fraction = 0.05;  ///< declared span ends must be reached within this fraction of the span; 0..0.5
-  double gap_factor = 2.5;  ///< warn when a gap between adjacent setpoints (training and test) exceeds this many mean spacings; > 1
+  double min_setpoints_per_coefficient =
+      3.0;  ///< warn below this many training setpoints per coefficient; >= 0
+  double coverage_end_fraction =
+      0.05;  ///< declared span ends must be reached within this fraction of the span; 0..0.5
+  double gap_factor = 2.5;     ///< warn when a gap between adjacent setpoints (training and test)
+                               ///< exceeds this many mean spacings; > 1
   double outlier_limit = 3.5;  ///< warn when |externally studentized residual| exceeds this; > 0
   double runs_z = 1.96;        ///< warn when the runs test z is below -runs_z (too few runs); > 0
-  std::size_t runs_min_setpoints = 10;  ///< run the runs test only with this many training setpoints; >= 4
+  std::size_t runs_min_setpoints =
+      10;                        ///< run the runs test only with this many training setpoints; >= 4
   double condition_limit = 1e6;  ///< warn when the design's condition number exceeds this; > 1
   /// Declared span of the instrument in reference units (NaN: not declared).
   double span_low = std::numeric_limits<double>::quiet_NaN();
@@ -69,13 +74,15 @@ struct DiagnosticOptions {
 /// on (rows match cal.points by index; its direction column drives the
 /// hysteresis check). `tolerance` may be null (hysteresis is then not
 /// judged: the criterion is "differ beyond tolerance").
-std::vector<Warning> diagnose_fit(const Dataset& data, const Calibration& cal, const UncertaintyBudget& uncertainty,
+std::vector<Warning> diagnose_fit(const Dataset& data, const Calibration& cal,
+                                  const UncertaintyBudget& uncertainty,
                                   const ToleranceSpec* tolerance, const DiagnosticOptions& options);
 
 // The individual checks (each returns the warnings it raises).
 std::vector<Warning> check_test_vs_validation(const Calibration& cal, const DiagnosticOptions& o);
 std::vector<Warning> check_grid_edges(const Calibration& cal);
-std::vector<Warning> check_setpoints_per_coefficient(const Calibration& cal, const DiagnosticOptions& o);
+std::vector<Warning> check_setpoints_per_coefficient(const Calibration& cal,
+                                                     const DiagnosticOptions& o);
 std::vector<Warning> check_coverage(const Calibration& cal, const DiagnosticOptions& o);
 std::vector<Warning> check_outliers(const Calibration& cal, const DiagnosticOptions& o);
 std::vector<Warning> check_residual_runs(const Calibration& cal, const DiagnosticOptions& o);
@@ -83,10 +90,13 @@ std::vector<Warning> check_monotonic(const PolyModel& model);
 /// Mean error of the up rows minus that of the down rows, per setpoint measured
 /// in both directions, against the tolerance at that setpoint (null: no check).
 std::vector<Warning> check_hysteresis(const Dataset& data, const Calibration& cal,
-                                      const UncertaintyBudget& uncertainty, const ToleranceSpec* tolerance);
+                                      const UncertaintyBudget& uncertainty,
+                                      const ToleranceSpec* tolerance);
 std::vector<Warning> check_condition(const Calibration& cal, const DiagnosticOptions& o);
-/// Readings outside the calibrated range [x_min, x_max]; `what` names them ("check points", "as-found readings").
-std::vector<Warning> check_extrapolation(const std::vector<double>& readings, const std::vector<std::size_t>& lines,
+/// Readings outside the calibrated range [x_min, x_max]; `what` names them ("check points",
+/// "as-found readings").
+std::vector<Warning> check_extrapolation(const std::vector<double>& readings,
+                                         const std::vector<std::size_t>& lines,
                                          const Scaling& range, const std::string& what);
 
 /// Wald-Wolfowitz runs test on the signs of a sequence (zeros skipped):
@@ -95,7 +105,8 @@ double runs_test_z(const std::vector<double>& values);
 
 nlohmann::json to_json(const Warning& w);
 nlohmann::json to_json(const std::vector<Warning>& ws);
-std::vector<Warning> warnings_from_json(const nlohmann::json& j, const std::string& file);  ///< throws InputError
+std::vector<Warning> warnings_from_json(const nlohmann::json& j,
+                                        const std::string& file);  ///< throws InputError
 /// "warning [code]: message" lines for stderr.
 std::string format_warnings(const std::vector<Warning>& ws);
 

@@ -18,13 +18,15 @@ namespace ridgecal {
 /// AA +-(0.1 + 0.0017|t|), A +-(0.15 + 0.002|t|), B +-(0.3 + 0.005|t|),
 /// C +-(0.6 + 0.01|t|). The classes' validity temperature ranges are not checked.
 enum class TolerancePreset { Iec60751AA, Iec60751A, Iec60751B, Iec60751C };
-std::string to_string(TolerancePreset p);  ///< `iec60751-AA`, `iec60751-A`, `iec60751-B`, `iec60751-C`
+std::string to_string(
+    TolerancePreset p);  ///< `iec60751-AA`, `iec60751-A`, `iec60751-B`, `iec60751-C`
 /// Accepts the names of to_string (case-insensitive). Throws std::invalid_argument otherwise.
 TolerancePreset tolerance_preset_from_string(const std::string& s);
 
 struct ToleranceSpec {
-  double offset = 0.0;           ///< a: reference units, >= 0 (default 0)
-  double proportional = 0.0;     ///< b: fraction of |reference|, >= 0 (0.002 = 0.2 % of reading; default 0)
+  double offset = 0.0;  ///< a: reference units, >= 0 (default 0)
+  double proportional =
+      0.0;  ///< b: fraction of |reference|, >= 0 (0.002 = 0.2 % of reading; default 0)
   double percent_of_span = 0.0;  ///< percent of (span_high - span_low), >= 0 (default 0)
   double span_low = 0.0;         ///< span in reference units; used only with percent_of_span
   double span_high = 0.0;        ///< (default 0..0: set it, e.g. from the calibrated range)

@@ -28,11 +28,14 @@
 namespace ridgecal {
 
 struct UncertaintyOptions {
-  double reference_uncertainty = 0.0;  ///< U_ref of the reference standard (reference units), >= 0; default 0
-  double reference_k = 1.0;    ///< coverage factor U_ref is stated with: 1 = a standard uncertainty (default), 2 = expanded k=2
-  double resolution = 0.0;     ///< reading resolution (one digit step, reading units), >= 0; default 0
-  double coverage_k = 2.0;     ///< coverage factor of the reported expanded uncertainty; default 2 (about 95 %)
-  int band_points = 21;        ///< points of the prediction band over the range, 2..1001; default 21
+  double reference_uncertainty =
+      0.0;                   ///< U_ref of the reference standard (reference units), >= 0; default 0
+  double reference_k = 1.0;  ///< coverage factor U_ref is stated with: 1 = a standard uncertainty
+                             ///< (default), 2 = expanded k=2
+  double resolution = 0.0;  ///< reading resolution (one digit step, reading units), >= 0; default 0
+  double coverage_k =
+      2.0;  ///< coverage factor of the reported expanded uncertainty; default 2 (about 95 %)
+  int band_points = 21;  ///< points of the prediction band over the range, 2..1001; default 21
 
   /// Empty when valid, else a message naming the field, the value and the rule.
   std::string validate() const;
@@ -40,15 +43,16 @@ struct UncertaintyOptions {
 
 /// Type of evaluation (GUM): A from the data, B from other information.
 enum class EvaluationType { A, B };
-std::string to_string(EvaluationType t);                       ///< `A`, `B`
+std::string to_string(EvaluationType t);                           ///< `A`, `B`
 EvaluationType evaluation_type_from_string(const std::string& s);  ///< throws std::invalid_argument
 
 enum class Distribution { Normal, Rectangular };
-std::string to_string(Distribution d);                       ///< `normal`, `rectangular`
+std::string to_string(Distribution d);                        ///< `normal`, `rectangular`
 Distribution distribution_from_string(const std::string& s);  ///< throws std::invalid_argument
 
 struct UncertaintyComponent {
-  std::string name;  ///< `fit-residual`, `fit-coefficients`, `reference-standard`, `reading-resolution`
+  std::string
+      name;  ///< `fit-residual`, `fit-coefficients`, `reference-standard`, `reading-resolution`
   EvaluationType type = EvaluationType::A;
   Distribution distribution = Distribution::Normal;
   double value = 0.0;        ///< as stated (U_ref, the digit step, s, ...)
@@ -81,6 +85,7 @@ struct UncertaintyBudget {
   /// to `expanded` when the band is empty.
   double expanded_at(double reading) const;
   std::string brief(const std::string& unit) const;  ///< a few lines for a terminal
+  std::string full(const std::string& unit) const;   ///< brief() plus the notes and the band
 };
 
 /// Leverages and curve variances of a fitted calibration, rebuilt from its
@@ -91,8 +96,10 @@ class FitCovariance {
   explicit FitCovariance(const Calibration& cal);
   bool ok() const { return ok_; }       ///< false without training points or for degree 0
   std::size_t n() const { return n_; }  ///< training points
-  double effective_parameters() const { return df_; }  ///< intercept + sum of s_j^2/(s_j^2 + n lambda)
-  double residual_sd() const { return sigma_; }        ///< sqrt(RSS / (n - df)); NaN when n <= df
+  double effective_parameters() const {
+    return df_;
+  }                                              ///< intercept + sum of s_j^2/(s_j^2 + n lambda)
+  double residual_sd() const { return sigma_; }  ///< sqrt(RSS / (n - df)); NaN when n <= df
   double dof() const { return static_cast<double>(n_) - df_; }
   /// Var(p(x)) / sigma^2.
   double variance_factor(double reading) const;
@@ -117,6 +124,7 @@ class FitCovariance {
 UncertaintyBudget evaluate_uncertainty(const Calibration& cal, const UncertaintyOptions& options);
 
 nlohmann::json to_json(const UncertaintyBudget& u);
-UncertaintyBudget uncertainty_from_json(const nlohmann::json& j, const std::string& file);  ///< throws InputError
+UncertaintyBudget uncertainty_from_json(const nlohmann::json& j,
+                                        const std::string& file);  ///< throws InputError
 
 }  // namespace ridgecal

@@ -1,0 +1,223 @@
+#include "batch_command.hpp"
+
+#include <unistd.h>
+
+#include <boost/program_options.hpp>
+#include <fmt/format.h>
+#include <iostream>
+#include <ostream>
+#include <sstream>
+
+#include "cli_common.hpp"
+#include "judgement_options.hpp"
+#include "ridgecal/errors.hpp"
+
+namespace po = boost::program_options;
+
+namespace ridgecal::cli {
+
+std::string to_string(ProgressMode m) {
+  switch (m) {
+    case ProgressMode::Bar: return "bar";
+    case ProgressMode::Lines: return "lines";
+    case ProgressMode::None: return "none";
+    default: return "auto";
+  }
+}
+ProgressMode progress_mode_from_string(const std::string& s) {
+  if (s == "auto") return ProgressMode::Auto;
+  if (s == "bar") return ProgressMode::Bar;
+  if (s == "lines") return ProgressMode::Lines;
+  if (s == "none") return ProgressMode::None;
+  throw std::invalid_argument("progress must be 'auto', 'bar', 'lines' or 'none', got '" + s + "'");
+}
+
+namespace {
+po::options_description batch_options() {
+  po::options_description d("ridgecal batch DATA.csv|DIR --unit COL --out-dir DIR [options]");
+  // clang-format off
+  d.add_options()
+    ("help,h", "show this help")
+    ("unit", po::value<std::string>(), "column naming the unit of each row (rows of a unit must be contiguous); without it, each CSV file of a directory is one unit")
+    ("out-dir,o", po::value<std::string>(), "output directory: records/UNIT.json, summary.csv, summary.json")
+    ("jobs,j", po::value<int>()->default_value(0), "worker threads (0 = all cores); results do not depend on it")
+    ("no-records", po::bool_switch(), "write the summaries only")
+    ("no-sync", po::bool_switch(), "do not fsync each record before renaming it (still atomic, not crash-durable)")
+    ("progress", po::value<std::string>()->default_value("auto"), "progress on stderr: auto (bar on a terminal, else lines), bar, lines, none")
+    ("progress-interval", po::value<double>()->default_value(0.0), "seconds between progress updates (0: 0.2 for the bar, 5 for lines)")
+    ("reading", po::value<std::string>()->default_value("reading"), "column holding the raw sensor reading")
+    ("reference", po::value<std::string>()->default_value("reference"), "column holding the reference value")
+    ("setpoint", po::value<std::string>(), "column naming the setpoint of repeated readings (default: equal reference values form a setpoint)")
+    ("role", po::value<std::string>(), "column with 'fit' or 'check' per row: the check setpoints become the test set")
+    ("delimiter", po::value<std::string>()->default_value(","), "field delimiter: ',', ';' or 'tab'")
+    ("degrees", po::value<std::string>()->default_value("1..7"), "candidate degrees, e.g. 1..7 or 1,2,3")
+    ("lambdas", po::value<std::string>()->default_value("default"), "candidate penalties: 'default' (0 and 30 values from 1e-12 to 10), or a list like 0,1e-9:1e-1:20")
+    ("rule", po::value<std::string>()->default_value(to_string(FitOptions{}.rule)), "selection rule: one-se (simplest model within one standard error of the lowest CV error) or min-cv (lowest CV error)")
+    ("folds", po::value<int>()->default_value(5), "K of grouped K-fold cross-validation")
+    ("loso-below", po::value<int>()->default_value(10), "leave-one-setpoint-out when fewer interior training setpoints than this (0: always K-fold when possible)")
+    ("test-fraction", po::value<double>()->default_value(0.2), "share of setpoints held out as the final test set (0 to 0.5)")
+    ("seed", po::value<std::uint64_t>()->default_value(1), "seed of the reproducible split (the same for every unit)")
+    ("degree", po::value<int>(), "fixed model: this degree (with --lambda), no selection")
+    ("lambda", po::value<double>(), "fixed model: this penalty")
+    ("through-origin", po::bool_switch(), "no intercept: force the curve through reading 0 -> reference 0")
+    ("sensor", po::value<std::string>()->default_value(""), "sensor name for the records (the unit label is appended)")
+    ("reading-unit", po::value<std::string>()->default_value(""), "unit of the reading, e.g. counts")
+    ("reference-unit", po::value<std::string>()->default_value(""), "unit of the reference, e.g. degC")
+    ("timestamp", po::value<std::string>()->default_value(""), "creation time for records and summary (ISO 8601), 'none' to omit; default: now or SOURCE_DATE_EPOCH");
+  // clang-format on
+  add_tolerance_options(d);
+  add_uncertainty_options(d);
+  return d;
+}
+}  // namespace
+
+std::string batch_usage() {
+  std::ostringstream s;
+  s << batch_options();
+  s << "\nOutputs are written atomically. Units that fail are listed in the summary with their error;\n"
+       "the others are unaffected.\n"
+       "Exit codes: 0 every unit fitted (and PASS, with a tolerance), 1 at least one unit failed or is\n"
+       "out of tolerance, 2 bad usage or unusable input (no summary written).\n";
+  return s.str();
+}
+
+BatchCommand parse_batch_command(const std::vector<std::string>& args) {
+  const po::options_description desc = batch_options();
+  po::options_description all;
+  all.add(desc).add_options()("data", po::value<std::vector<std::string>>(), "");
+  po::positional_options_description pos;
+  pos.add("data", -1);
+  po::variables_map vm;
+  try {
+    po::store(po::command_line_parser(args).options(all).positional(pos).run(), vm);
+    po::notify(vm);
+  } catch (const po::error& e) {
+    throw UsageError(e.what());
+  }
+  BatchCommand cmd;
+  if (vm.count("help")) {
+    cmd.help = true;
+    return cmd;
+  }
+  if (!vm.count("data")) throw UsageError("give the batch file or directory: ridgecal batch DATA.csv --unit COL --out-dir DIR");
+  const auto& data = vm["data"].as<std::vector<std::string>>();
+  if (data.size() != 1) throw UsageError(fmt::format("give exactly one batch file or directory, not {}", data.size()));
+  cmd.data_path = data[0];
+  if (!vm.count("out-dir")) throw UsageError("--out-dir is required: the directory for the records and the summary");
+  BatchOptions& b = cmd.batch;
+  b.out_dir = vm["out-dir"].as<std::string>();
+  if (vm.count("unit")) b.input.unit_column = vm["unit"].as<std::string>();
+  b.input.csv.reading_column = vm["reading"].as<std::string>();
+  b.input.csv.reference_column = vm["reference"].as<std::string>();
+  if (vm.count("setpoint")) b.input.csv.setpoint_column = vm["setpoint"].as<std::string>();
+  if (vm.count("role")) b.input.csv.role_column = vm["role"].as<std::string>();
+  b.input.csv.delimiter = parse_delimiter(vm["delimiter"].as<std::string>());
+  b.jobs = vm["jobs"].as<int>();
+  b.write_records = !vm["no-records"].as<bool>();
+  b.sync_records = !vm["no-sync"].as<bool>();
+  try {
+    cmd.progress = progress_mode_from_string(vm["progress"].as<std::string>());
+  } catch (const std::invalid_argument& e) {
+    throw UsageError(std::string("--progress: ") + e.what());
+  }
+  cmd.progress_interval_s = vm["progress-interval"].as<double>();
+  if (!(cmd.progress_interval_s >= 0.0 && cmd.progress_interval_s <= 3600.0))
+    throw UsageError("--progress-interval: give seconds between 0 and 3600");
+
+  FitOptions& f = b.fit;
+  f.degrees = parse_degree_list(vm["degrees"].as<std::string>());
+  f.lambdas = parse_lambda_list(vm["lambdas"].as<std::string>());
+  try {
+    f.rule = selection_rule_from_string(vm["rule"].as<std::string>());
+  } catch (const std::invalid_argument& e) {
+    throw UsageError(std::string("--rule: ") + e.what());
+  }
+  f.split.folds = vm["folds"].as<int>();
+  f.split.loso_below = vm["loso-below"].as<int>();
+  f.split.test_fraction = vm["test-fraction"].as<double>();
+  f.split.seed = vm["seed"].as<std::uint64_t>();
+  if (vm.count("degree") != vm.count("lambda"))
+    throw UsageError("--degree and --lambda go together: give both for a fixed model, or neither to select one");
+  if (vm.count("degree")) {
+    f.fixed_degree = vm["degree"].as<int>();
+    f.fixed_lambda = vm["lambda"].as<double>();
+  }
+  f.intercept = !vm["through-origin"].as<bool>();
+  b.sensor.name = vm["sensor"].as<std::string>();
+  b.sensor.reading_unit = vm["reading-unit"].as<std::string>();
+  b.sensor.reference_unit = vm["reference-unit"].as<std::string>();
+  cmd.timestamp = vm["timestamp"].as<std::string>();
+  const JudgementCli jc = parse_judgement_options(vm);
+  b.assess.tolerance = jc.tolerance;
+  b.assess.rule = jc.rule.value_or(DecisionRule::SimpleAcceptance);
+  b.assess.uncertainty = jc.uncertainty;
+  b.assess.diagnostics = jc.diagnostics;
+  if (jc.rule && !jc.tolerance)
+    throw UsageError("--decision needs a tolerance: give --tol-offset, --tol-proportional, --tol-percent-span or --tol-class");
+  if (const std::string e = b.validate(); !e.empty()) throw UsageError(e);
+  return cmd;
+}
+
+std::string progress_text(const BatchProgress& p) {
+  const double rate = p.seconds > 0 ? static_cast<double>(p.units_done) / p.seconds : 0.0;
+  std::string s = fmt::format("units {}", p.units_done);
+  if (p.units_failed) s += fmt::format(" ({} failed)", p.units_failed);
+  if (p.bytes_total > 0)
+    s += fmt::format(", {:.0f}% of input", 100.0 * static_cast<double>(p.bytes_read) / static_cast<double>(p.bytes_total));
+  s += fmt::format(", {:.0f} units/s, {:.1f} s", rate, p.seconds);
+  return s;
+}
+
+int run_batch_command(const BatchCommand& cmd, std::ostream& out, std::ostream& err, bool stderr_is_tty) {
+  if (cmd.help) {
+    out << batch_usage();
+    return kExitOk;
+  }
+  BatchOptions opt = cmd.batch;
+  opt.created_utc = creation_time(cmd.timestamp);
+  ProgressMode mode = cmd.progress;
+  if (mode == ProgressMode::Auto) mode = stderr_is_tty ? ProgressMode::Bar : ProgressMode::Lines;
+  const double interval = cmd.progress_interval_s > 0 ? cmd.progress_interval_s : (mode == ProgressMode::Bar ? 0.2 : 5.0);
+  ProgressCallback cb;
+  if (mode == ProgressMode::Bar) {
+    cb = [&err](const BatchProgress& p) {
+      const double frac = p.bytes_total ? static_cast<double>(p.bytes_read) / static_cast<double>(p.bytes_total) : 0.0;
+      const int width = 30;
+      const int filled = std::min(width, static_cast<int>(frac * width + 0.5));
+      err << "\r[" << std::string(static_cast<std::size_t>(filled), '#')
+          << std::string(static_cast<std::size_t>(width - filled), '.') << "] " << progress_text(p) << "\x1b[K";
+      if (p.finished) err << "\n";
+      err.flush();
+    };
+  } else if (mode == ProgressMode::Lines) {
+    cb = [&err](const BatchProgress& p) { err << "ridgecal batch: " << progress_text(p) << "\n" << std::flush; };
+  } else {
+    cb = [&err](const BatchProgress& p) {
+      if (p.finished) err << "ridgecal batch: " << progress_text(p) << "\n";
+    };
+  }
+  try {
+    const std::vector<std::string> inputs = batch_input_files(cmd.data_path);
+    const BatchResult r = run_batch(inputs, opt, cb, interval);
+    out << fmt::format("{} units: {} ok, {} failed", r.units, r.ok, r.failed);
+    if (opt.assess.tolerance) out << fmt::format(", {} out of tolerance", r.out_of_tolerance);
+    out << "\nsummary: " << opt.out_dir << "/summary.csv, " << opt.out_dir << "/summary.json\n";
+    return r.failed > 0 || r.out_of_tolerance > 0 ? kExitOutOfTolerance : kExitOk;
+  } catch (const InputError& e) {
+    err << "\nridgecal batch: " << format_input_error(e) << "\n";
+    return kExitBadInput;
+  }
+}
+
+int batch_main(const std::vector<std::string>& args, std::ostream& out, std::ostream& err) {
+  BatchCommand cmd;
+  try {
+    cmd = parse_batch_command(args);
+  } catch (const UsageError& e) {
+    err << "ridgecal batch: " << e.what() << "\nTry 'ridgecal batch --help'.\n";
+    return kExitBadInput;
+  }
+  return run_batch_command(cmd, out, err, &err == &std::cerr && ::isatty(STDERR_FILENO));
+}
+
+}  // namespace ridgecal::cli

@@ -1,0 +1,107 @@
+#include "merge_command.hpp"
+
+#include <boost/program_options.hpp>
+#include <filesystem>
+#include <fmt/format.h>
+#include <ostream>
+#include <sstream>
+
+#include "cli_common.hpp"
+#include "ridgecal/errors.hpp"
+
+namespace po = boost::program_options;
+
+namespace ridgecal::cli {
+
+namespace {
+po::options_description merge_options() {
+  po::options_description d("ridgecal merge-summaries SHARD... --out-dir DIR");
+  // clang-format off
+  d.add_options()
+    ("help,h", "show this help")
+    ("out-dir,o", po::value<std::string>(), "directory for the merged summary.json and summary.csv")
+    ("allow-mixed-settings", po::bool_switch(), "merge shards fitted with different settings (settings_sha256 becomes 'mixed')");
+  // clang-format on
+  return d;
+}
+}  // namespace
+
+std::string merge_usage() {
+  std::ostringstream s;
+  s << merge_options();
+  s << "\nEach SHARD is a summary.json written by 'ridgecal batch', or the batch output directory holding it.\n"
+       "Exit codes: 0 merged and every unit ok, 1 merged with failed or out-of-tolerance units, 2 bad usage or input\n"
+       "(nothing written).\n";
+  return s.str();
+}
+
+MergeCommand parse_merge_command(const std::vector<std::string>& args) {
+  po::options_description all;
+  all.add(merge_options()).add_options()("inputs", po::value<std::vector<std::string>>(), "");
+  po::positional_options_description pos;
+  pos.add("inputs", -1);
+  po::variables_map vm;
+  try {
+    po::store(po::command_line_parser(args).options(all).positional(pos).run(), vm);
+    po::notify(vm);
+  } catch (const po::error& e) {
+    throw UsageError(e.what());
+  }
+  MergeCommand cmd;
+  if (vm.count("help")) {
+    cmd.help = true;
+    return cmd;
+  }
+  if (!vm.count("inputs")) throw UsageError("give the shard summaries: ridgecal merge-summaries A/summary.json B/summary.json -o DIR");
+  if (!vm.count("out-dir")) throw UsageError("--out-dir is required");
+  cmd.inputs = vm["inputs"].as<std::vector<std::string>>();
+  cmd.out_dir = vm["out-dir"].as<std::string>();
+  cmd.merge.allow_mixed_settings = vm["allow-mixed-settings"].as<bool>();
+  return cmd;
+}
+
+int run_merge_command(const MergeCommand& cmd, std::ostream& out, std::ostream& err) {
+  if (cmd.help) {
+    out << merge_usage();
+    return kExitOk;
+  }
+  try {
+    std::vector<BatchSummary> shards;
+    std::vector<std::string> names;
+    for (const std::string& in : cmd.inputs) {
+      std::string path = in;
+      if (std::filesystem::is_directory(path)) path += "/summary.json";
+      shards.push_back(read_batch_summary(path));
+      names.push_back(path);
+    }
+    const BatchSummary merged = merge_batch_summaries(shards, names, cmd.merge);
+    std::error_code ec;
+    std::filesystem::create_directories(cmd.out_dir, ec);
+    if (ec) throw InputError(cmd.out_dir, 0, "cannot create the output directory: " + ec.message(), "check the path");
+    write_batch_summary(merged, cmd.out_dir);
+    std::size_t failed = 0, oot = 0;
+    for (const auto& u : merged.units) {
+      failed += u.status == UnitStatus::Failed;
+      oot += u.verdict == UnitVerdict::Fail;
+    }
+    out << fmt::format("{} shards, {} units: {} ok, {} failed, {} out of tolerance\n", shards.size(),
+                       merged.units.size(), merged.units.size() - failed, failed, oot);
+    return failed || oot ? kExitOutOfTolerance : kExitOk;
+  } catch (const InputError& e) {
+    err << "ridgecal merge-summaries: " << format_input_error(e) << "\n";
+    return kExitBadInput;
+  }
+}
+
+int merge_main(const std::vector<std::string>& args, std::ostream& out, std::ostream& err) {
+  MergeCommand cmd;
+  try {
+    cmd = parse_merge_command(args);
+  } catch (const UsageError& e) {
+    err << "ridgecal merge-summaries: " << e.what() << "\nTry 'ridgecal merge-summaries --help'.\n";
+    return kExitBadInput;
+  }
+  return run_merge_command(cmd, out, err);
+}
+
+}  // namespace ridgecal::cli

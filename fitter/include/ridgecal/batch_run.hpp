@@ -1,0 +1,93 @@
+// ridgecal: calibrating every unit of a production batch.
+//
+// Input: a batch CSV (or a directory of CSV files), streamed unit by unit
+// (batch_reader.hpp). Every unit is fitted with the same FitOptions, on
+// `jobs` worker threads. Output, in an output directory:
+//   records/<unit>.json  one calibration record per fitted unit (record.hpp);
+//                        <unit> is unit_file_stem(label);
+//   summary.csv, summary.json  one row per unit in input order (batch_summary.hpp).
+// Every file is written atomically (temporary file in the same directory,
+// then rename); the summaries are streamed into their temporary files and
+// renamed when the batch ends, so memory stays flat with the number of units.
+//
+// Determinism: a unit's result depends only on its rows and the options
+// (creation time is taken once per batch), and the summary follows input
+// order, so all outputs are byte-identical for any number of jobs.
+//
+// Failure of one unit (bad row, too few setpoints, a reappearing unit) is
+// recorded in its summary row and does not stop the others. With a tolerance
+// (assess.tolerance) every fitted unit is judged as `ridgecal fit` judges it
+// (assessment.hpp): verdict PASS or FAIL in the summary and the record. Units
+// are assessed when a tolerance is given or records are written (a record
+// carries the assessment, as `ridgecal fit` writes it); a summary-only run
+// without a tolerance skips the assessment, which costs about 15 times the
+// fit, and its summary has no diagnostic warnings.
+#pragma once
+
+#include <cstdint>
+#include <functional>
+#include <string>
+#include <vector>
+
+#include "ridgecal/assessment.hpp"
+#include "ridgecal/batch_reader.hpp"
+#include "ridgecal/batch_summary.hpp"
+#include "ridgecal/calibration.hpp"
+#include "ridgecal/record.hpp"
+
+namespace ridgecal {
+
+struct BatchOptions {
+  BatchInputOptions input;   ///< unit column and the other columns
+  FitOptions fit;            ///< the same fit settings for every unit
+  AssessmentOptions assess;  ///< tolerance, decision rule, uncertainty, diagnostics (as `fit`)
+  SensorInfo sensor;         ///< copied into every record (name may be empty)
+  std::string out_dir;       ///< created if missing; required
+  int jobs = 0;              ///< worker threads; 0 = all cores (std::thread::hardware_concurrency)
+  bool write_records = true; ///< false: summaries only
+  bool sync_records = true;  ///< fsync each record before the rename (durable; slower on real disks)
+  std::string created_utc;   ///< creation time written to every record and the summary ("" = omit)
+  int window_per_job = 16;   ///< units in flight per job (bounds memory), >= 1
+
+  /// Empty when valid, else a message naming the field, the value and the rule.
+  std::string validate() const;
+  /// The number of worker threads `jobs` stands for (>= 1).
+  int effective_jobs() const;
+};
+
+struct BatchProgress {
+  std::uint64_t units_done = 0;
+  std::uint64_t units_failed = 0;
+  std::uint64_t bytes_read = 0;
+  std::uint64_t bytes_total = 0;
+  double seconds = 0.0;
+  bool finished = false;
+};
+
+struct BatchResult {
+  std::uint64_t units = 0;
+  std::uint64_t ok = 0;              ///< fitted (whatever their verdict)
+  std::uint64_t failed = 0;          ///< not fitted
+  std::uint64_t out_of_tolerance = 0;  ///< fitted with verdict FAIL
+  double seconds = 0.0;
+};
+
+/// Called from the batch's main thread, about every `progress_interval_s`
+/// seconds and once at the end (finished = true).
+using ProgressCallback = std::function<void(const BatchProgress&)>;
+
+/// Runs the batch. Preconditions: options.validate() is empty.
+/// Throws InputError when the input as a whole is unusable (missing file or
+/// column, no header) or an output cannot be written; the summaries are then
+/// not written (records already written stay).
+BatchResult run_batch(const std::vector<std::string>& inputs, const BatchOptions& options,
+                      const ProgressCallback& progress = {}, double progress_interval_s = 0.5);
+
+/// The settings object stored in the summary (columns and fit options).
+nlohmann::json batch_settings_json(const BatchOptions& options);
+
+/// Fits one chunk and writes its record (if enabled): the summary row. Never
+/// throws for problems of the unit itself (they become the row's error).
+UnitSummary process_unit(const UnitChunk& chunk, const BatchOptions& options);
+
+}  // namespace ridgecal

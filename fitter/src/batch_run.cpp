@@ -1,0 +1,353 @@
+#include "ridgecal/batch_run.hpp"
+
+#include <fcntl.h>
+#include <sys/stat.h>
+#include <unistd.h>
+
+#include <algorithm>
+#include <cerrno>
+#include <chrono>
+#include <cmath>
+#include <condition_variable>
+#include <cstring>
+#include <deque>
+#include <exception>
+#include <filesystem>
+#include <fmt/format.h>
+#include <limits>
+#include <map>
+#include <mutex>
+#include <thread>
+
+#include "ridgecal/errors.hpp"
+#include "ridgecal/sha256.hpp"
+
+namespace ridgecal {
+
+namespace fs = std::filesystem;
+using nlohmann::json;
+
+std::string BatchOptions::validate() const {
+  if (const std::string e = input.validate(); !e.empty()) return e;
+  if (const std::string e = fit.validate(); !e.empty()) return e;
+  if (const std::string e = assess.validate(); !e.empty()) return e;
+  if (out_dir.empty()) return "out_dir is empty; give the output directory";
+  if (jobs < 0 || jobs > 1024) return fmt::format("jobs is {}; it must be between 0 (all cores) and 1024", jobs);
+  if (window_per_job < 1 || window_per_job > 4096)
+    return fmt::format("window_per_job is {}; it must be between 1 and 4096", window_per_job);
+  return {};
+}
+
+int BatchOptions::effective_jobs() const {
+  if (jobs > 0) return jobs;
+  const unsigned hc = std::thread::hardware_concurrency();
+  return hc > 0 ? static_cast<int>(hc) : 1;
+}
+
+json batch_settings_json(const BatchOptions& o) {
+  const FitOptions& f = o.fit;
+  json s;
+  s["columns"] = {{"unit", o.input.unit_column},
+                  {"reading", o.input.csv.reading_column},
+                  {"reference", o.input.csv.reference_column},
+                  {"setpoint", o.input.csv.setpoint_column},
+                  {"role", o.input.csv.role_column},
+                  {"delimiter", std::string(1, o.input.csv.delimiter)}};
+  s["fit"] = {{"degrees", f.degrees},
+              {"lambdas", f.lambdas},
+              {"rule", to_string(f.rule)},
+              {"intercept", f.intercept},
+              {"test_fraction", f.split.test_fraction},
+              {"seed", f.split.seed},
+              {"folds", f.split.folds},
+              {"loso_below", f.split.loso_below},
+              {"fixed_degree", f.fixed_degree ? json(*f.fixed_degree) : json(nullptr)},
+              {"fixed_lambda", f.fixed_lambda ? json(*f.fixed_lambda) : json(nullptr)}};
+  s["judgement"] = {{"tolerance", o.assess.tolerance ? json(o.assess.tolerance->describe()) : json(nullptr)},
+                    {"decision", to_string(o.assess.rule)},
+                    {"reference_uncertainty", o.assess.uncertainty.reference_uncertainty},
+                    {"reference_k", o.assess.uncertainty.reference_k},
+                    {"resolution", o.assess.uncertainty.resolution},
+                    {"coverage_k", o.assess.uncertainty.coverage_k}};
+  s["sensor"] = {{"name", o.sensor.name}, {"reading_unit", o.sensor.reading_unit},
+                 {"reference_unit", o.sensor.reference_unit}};
+  return s;
+}
+
+namespace {
+
+[[noreturn]] void write_failed(const std::string& path, const char* what, int err) {
+  throw InputError(path, 0, fmt::format("cannot write the output file ({}): {}", what, std::strerror(err)),
+                   "check free disk space and permissions");
+}
+
+// A file written in pieces to a temporary name beside `path`, renamed over it
+// by commit(); removed if never committed.
+class StreamingAtomicFile {
+ public:
+  explicit StreamingAtomicFile(std::string path) : path_(std::move(path)) {
+    std::string tmpl = path_ + ".tmp-XXXXXX";
+    std::vector<char> buf(tmpl.begin(), tmpl.end());
+    buf.push_back('\0');
+    fd_ = ::mkstemp(buf.data());
+    if (fd_ < 0) write_failed(path_, "temporary file", errno);
+    tmp_ = buf.data();
+  }
+  StreamingAtomicFile(const StreamingAtomicFile&) = delete;
+  StreamingAtomicFile& operator=(const StreamingAtomicFile&) = delete;
+  ~StreamingAtomicFile() {
+    if (fd_ >= 0) ::close(fd_);
+    if (!committed_) ::unlink(tmp_.c_str());
+  }
+  void append(const std::string& s) {
+    buf_ += s;
+    if (buf_.size() >= (1u << 16)) flush();
+  }
+  void commit(bool sync) {
+    flush();
+    if (::fchmod(fd_, 0644) != 0) write_failed(path_, "chmod", errno);
+    if (sync && ::fsync(fd_) != 0) write_failed(path_, "fsync", errno);
+    const int fd = fd_;
+    fd_ = -1;
+    if (::close(fd) != 0) write_failed(path_, "close", errno);
+    if (::rename(tmp_.c_str(), path_.c_str()) != 0) write_failed(path_, "rename", errno);
+    committed_ = true;
+  }
+
+ private:
+  void flush() {
+    const char* p = buf_.data();
+    std::size_t left = buf_.size();
+    while (left > 0) {
+      const ssize_t n = ::write(fd_, p, left);
+      if (n < 0) {
+        if (errno == EINTR) continue;
+        write_failed(path_, "write", errno);
+      }
+      p += n;
+      left -= static_cast<std::size_t>(n);
+    }
+    buf_.clear();
+  }
+  std::string path_, tmp_;
+  std::string buf_;
+  int fd_ = -1;
+  bool committed_ = false;
+};
+
+void write_whole_file_atomic(const std::string& path, const std::string& content, bool sync) {
+  StreamingAtomicFile f(path);
+  f.append(content);
+  f.commit(sync);
+}
+
+std::string records_dir(const BatchOptions& o) { return o.out_dir + "/records"; }
+
+}  // namespace
+
+UnitSummary process_unit(const UnitChunk& chunk, const BatchOptions& options) {
+  UnitSummary u;
+  u.unit = chunk.unit;
+  u.rows = chunk.rows;
+  u.lambda = u.validation_rmse = u.test_rmse = u.max_abs_error = std::numeric_limits<double>::quiet_NaN();
+  const std::string stem = unit_file_stem(chunk.unit);
+  const std::string rel = "records/" + stem + ".json";
+  auto fail = [&](std::string why) {
+    u.status = UnitStatus::Failed;
+    u.error = std::move(why);
+    // A record left by an earlier run must not pass for this run's result.
+    if (options.write_records && chunk.error.empty()) ::unlink((options.out_dir + "/" + rel).c_str());
+    return u;
+  };
+  if (!chunk.error.empty()) return fail(chunk.error);
+  Dataset data;
+  if (!parse_unit_chunk_fast(chunk, options.input.csv, data)) {
+    try {
+      data = parse_unit_chunk(chunk, options.input.csv);
+    } catch (const InputError& e) {
+      return fail(format_input_error(e));
+    }
+  }
+  FitOutcome fit;
+  try {
+    fit = fit_calibration(data, options.fit);  // throws InputError e.g. for a setpoint with mixed roles
+  } catch (const InputError& e) {
+    return fail(format_input_error(e));
+  }
+  if (!fit.status.ok) return fail(fit.status.message);
+  const Calibration& cal = fit.calibration;
+  u.status = UnitStatus::Ok;
+  u.degree = cal.model.degree();
+  u.lambda = cal.lambda;
+  u.validation_rmse = cal.validation.n ? cal.validation.rmse : std::numeric_limits<double>::quiet_NaN();
+  u.test_rmse = cal.test.n ? cal.test.rmse : std::numeric_limits<double>::quiet_NaN();
+  double maxe = 0.0;
+  for (const PointResult& p : cal.points) maxe = std::max(maxe, std::fabs(p.error));
+  u.max_abs_error = maxe;
+  u.warnings = cal.selection.notes;
+  const SelectionInfo& sel = cal.selection;
+  if (sel.mode == SelectionMode::CrossValidation && sel.chosen >= 0) {
+    if (sel.degrees.size() > 1 && u.degree == sel.degrees.back())
+      u.warnings.push_back(fmt::format("the chosen degree {} is the largest candidate", u.degree));
+    if (sel.lambdas.size() > 1 && cal.lambda == sel.lambdas.back())
+      u.warnings.push_back(fmt::format("the chosen lambda {} is the largest candidate", cal.lambda));
+  }
+  // Tolerance, decision, uncertainty and diagnostics, as `ridgecal fit` does,
+  // whenever there is a verdict to give or a record to write. (The assessment
+  // costs about 15 times the fit itself, so a summary-only run without a
+  // tolerance skips it; its summary then has no diagnostic warnings.)
+  Assessment assessment;
+  if (options.assess.tolerance || options.write_records) assessment = assess_calibration(data, cal, options.assess);
+  if (assessment.decision) u.verdict = assessment.decision->pass() ? UnitVerdict::Pass : UnitVerdict::Fail;
+  for (const Warning& w : assessment.warnings) u.warnings.push_back(to_string(w.code) + ": " + w.message);
+  if (options.write_records) {
+    CalibrationRecord rec;
+    rec.tool_version = tool_version();
+    rec.created_utc = options.created_utc;
+    rec.sensor = options.sensor;
+    rec.sensor.name = options.sensor.name.empty() ? chunk.unit : options.sensor.name + " / unit " + chunk.unit;
+    rec.input = InputInfo{chunk.file, data.sha256.empty() ? sha256_hex(chunk.text) : data.sha256, data.rows.size(),
+                          options.input.csv};
+    rec.calibration = cal;
+    rec.tolerance = std::move(assessment.tolerance);
+    rec.decision = std::move(assessment.decision);
+    rec.uncertainty = std::move(assessment.uncertainty);
+    rec.warnings = std::move(assessment.warnings);
+    write_whole_file_atomic(options.out_dir + "/" + rel, record_text(record_to_json(rec)), options.sync_records);
+    u.record = rel;
+    // Hook: the per-unit HTML report (issue 5) and firmware header (issue 3)
+    // are written here, beside the record, once those modules are on main.
+  }
+  return u;
+}
+
+BatchResult run_batch(const std::vector<std::string>& inputs, const BatchOptions& options,
+                      const ProgressCallback& progress, double progress_interval_s) {
+  using Clock = std::chrono::steady_clock;
+  const auto t0 = Clock::now();
+  std::error_code ec;
+  fs::create_directories(options.out_dir, ec);
+  if (ec) throw InputError(options.out_dir, 0, "cannot create the output directory: " + ec.message(), "check the path and permissions");
+  if (options.write_records) {
+    fs::create_directories(records_dir(options), ec);
+    if (ec) throw InputError(records_dir(options), 0, "cannot create the directory: " + ec.message(), "check permissions");
+  }
+
+  UnitReader reader(inputs, options.input);
+  StreamingAtomicFile csv(options.out_dir + "/summary.csv");
+  StreamingAtomicFile js(options.out_dir + "/summary.json");
+  csv.append(summary_csv_header());
+  js.append(summary_json_head(options.created_utc, batch_settings_json(options), inputs));
+
+  BatchResult res;
+  BatchProgress prog;
+  auto last_report = Clock::now();
+  auto seconds = [&] { return std::chrono::duration<double>(Clock::now() - t0).count(); };
+  auto emit = [&](const UnitSummary& u) {  // main thread only, in input order
+    csv.append(summary_csv_row(u));
+    js.append(summary_json_unit(u, res.units == 0));
+    ++res.units;
+    (u.status == UnitStatus::Ok ? res.ok : res.failed)++;
+    if (u.verdict == UnitVerdict::Fail) ++res.out_of_tolerance;
+    if (progress && std::chrono::duration<double>(Clock::now() - last_report).count() >= progress_interval_s) {
+      last_report = Clock::now();
+      prog = BatchProgress{res.units, res.failed, reader.bytes_read(), reader.bytes_total(), seconds(), false};
+      progress(prog);
+    }
+  };
+
+  const int jobs = options.effective_jobs();
+  UnitChunk chunk;
+  if (jobs == 1) {
+    while (reader.next(chunk)) emit(process_unit(chunk, options));
+  } else {
+    // Main thread: reads, and writes the summary rows in input order.
+    // Workers: fit and write records. At most `window` units are in flight.
+    const std::uint64_t window = static_cast<std::uint64_t>(jobs) * static_cast<std::uint64_t>(options.window_per_job);
+    std::mutex mu;
+    std::condition_variable work_cv, done_cv;
+    std::deque<UnitChunk> queue;
+    std::map<std::uint64_t, UnitSummary> done;
+    bool closed = false, abort = false;
+    std::exception_ptr error;
+    std::vector<std::thread> workers;
+    for (int w = 0; w < jobs; ++w)
+      workers.emplace_back([&] {
+        for (;;) {
+          UnitChunk c;
+          {
+            std::unique_lock<std::mutex> lk(mu);
+            work_cv.wait(lk, [&] { return !queue.empty() || closed || abort; });
+            if (abort || queue.empty()) return;
+            c = std::move(queue.front());
+            queue.pop_front();
+          }
+          try {
+            UnitSummary s = process_unit(c, options);
+            std::lock_guard<std::mutex> lk(mu);
+            done.emplace(c.index, std::move(s));
+          } catch (...) {
+            std::lock_guard<std::mutex> lk(mu);
+            if (!error) error = std::current_exception();
+            abort = true;
+            work_cv.notify_all();
+          }
+          done_cv.notify_one();
+        }
+      });
+    std::uint64_t read = 0;
+    // Emits finished units in order; waits while `pred` holds and nothing can be emitted.
+    auto drain = [&](std::unique_lock<std::mutex>& lk) {
+      for (auto it = done.find(res.units); it != done.end(); it = done.find(res.units)) {
+        UnitSummary s = std::move(it->second);
+        done.erase(it);
+        lk.unlock();
+        emit(s);
+        lk.lock();
+      }
+    };
+    try {
+      for (;;) {
+        const bool got = reader.next(chunk);
+        std::unique_lock<std::mutex> lk(mu);
+        for (;;) {
+          drain(lk);
+          if (abort || read - res.units < window) break;
+          done_cv.wait(lk, [&] { return abort || done.count(res.units) > 0; });
+        }
+        if (abort || !got) break;
+        queue.push_back(std::move(chunk));
+        ++read;
+        work_cv.notify_one();
+      }
+      std::unique_lock<std::mutex> lk(mu);
+      closed = true;
+      work_cv.notify_all();
+      while (!abort && res.units < read) {
+        drain(lk);
+        if (res.units < read) done_cv.wait(lk, [&] { return abort || done.count(res.units) > 0; });
+      }
+    } catch (...) {
+      std::lock_guard<std::mutex> lk(mu);
+      abort = true;
+      if (!error) error = std::current_exception();
+      work_cv.notify_all();
+    }
+    {
+      std::lock_guard<std::mutex> lk(mu);
+      closed = true;
+      work_cv.notify_all();
+    }
+    for (auto& t : workers) t.join();
+    if (error) std::rethrow_exception(error);
+  }
+
+  js.append(summary_json_tail(res.units, res.ok, res.failed, res.out_of_tolerance));
+  csv.commit(true);
+  js.commit(true);
+  res.seconds = seconds();
+  if (progress) progress(BatchProgress{res.units, res.failed, reader.bytes_read(), reader.bytes_total(), res.seconds, true});
+  return res;
+}
+
+}  // namespace ridgecal

@@ -1,0 +1,359 @@
+// ridgecal batch: partial failures, determinism across jobs, streaming of
+// many small units, reappearing units, and merging shard summaries.
+#define BOOST_TEST_MODULE batch
+#include <stdlib.h>
+
+#include <boost/test/unit_test.hpp>
+#include <filesystem>
+#include <fmt/format.h>
+#include <fstream>
+#include <string>
+
+#include "ridgecal/atomic_file.hpp"
+#include "ridgecal/batch_run.hpp"
+#include "ridgecal/batch_synthetic.hpp"
+#include "ridgecal/errors.hpp"
+
+using namespace ridgecal;
+namespace fs = std::filesystem;
+
+namespace {
+
+struct TempDir {
+  fs::path path;
+  TempDir() {
+    std::string t = (fs::temp_directory_path() / "ridgecal-batch-test-XXXXXX").string();
+    BOOST_REQUIRE(::mkdtemp(t.data()) != nullptr);
+    path = t;
+  }
+  ~TempDir() {
+    std::error_code ec;
+    fs::remove_all(path, ec);
+  }
+  std::string operator/(const std::string& name) const { return (path / name).string(); }
+};
+
+void write(const std::string& path, const std::string& text) { std::ofstream(path, std::ios::binary) << text; }
+
+std::string synthetic_file(std::uint64_t first, std::uint64_t count, const SyntheticUnitOptions& so = {}) {
+  std::string s = synthetic_csv_header();
+  for (std::uint64_t i = first; i < first + count; ++i) append_synthetic_unit_csv(s, i, so);
+  return s;
+}
+
+BatchOptions options_for(const std::string& out_dir, int jobs) {
+  BatchOptions o;
+  o.input.unit_column = "unit";
+  o.input.csv.setpoint_column = "setpoint";
+  o.fit.degrees = {1, 2, 3, 4, 5, 6, 7, 8};
+  o.fit.split.loso_below = 0;
+  o.out_dir = out_dir;
+  o.jobs = jobs;
+  o.sync_records = false;
+  o.created_utc = "2026-01-01T00:00:00Z";
+  o.window_per_job = 2;  // small window: exercises the in-order hand-over
+  return o;
+}
+
+// Every file under dir (relative name -> bytes).
+std::map<std::string, std::string> tree(const std::string& dir) {
+  std::map<std::string, std::string> m;
+  for (const auto& e : fs::recursive_directory_iterator(dir))
+    if (e.is_regular_file()) m[fs::relative(e.path(), dir).string()] = read_file_bytes(e.path().string());
+  return m;
+}
+
+SelectionRule o_rule_other(SelectionRule r) {
+  return r == SelectionRule::OneSe ? SelectionRule::MinCv : SelectionRule::OneSe;
+}
+
+long vm_hwm_kib() {
+  std::ifstream in("/proc/self/status");
+  std::string line;
+  while (std::getline(in, line))
+    if (line.rfind("VmHWM:", 0) == 0) return std::stol(line.substr(6));
+  return -1;
+}
+
+}  // namespace
+
+BOOST_AUTO_TEST_CASE(a_bad_unit_is_reported_and_the_others_complete) {
+  TempDir tmp;
+  std::string csv = synthetic_file(0, 2);
+  csv += "BAD,S01,12,1.0\nBAD,S02,oops,2.0\n";          // a non-numeric reading
+  csv += "FEW,S01,10,1.0\nFEW,S01,11,1.0\n";            // one setpoint only
+  csv += synthetic_file(2, 1).substr(std::string(synthetic_csv_header()).size());
+  csv += "U000000,S01,1,1\n";                          // U000000 again, after other units
+  write(tmp / "in.csv", csv);
+  const BatchOptions o = options_for(tmp / "out", 2);
+  const BatchResult r = run_batch({tmp / "in.csv"}, o);
+  BOOST_TEST(r.units == 6u);
+  BOOST_TEST(r.ok == 3u);
+  BOOST_TEST(r.failed == 3u);
+  const BatchSummary s = read_batch_summary(tmp / "out/summary.json");
+  BOOST_REQUIRE(s.units.size() == 6u);
+  BOOST_TEST(s.units[0].unit == "U000000");
+  BOOST_TEST((s.units[0].status == UnitStatus::Ok));
+  BOOST_TEST(s.units[2].unit == "BAD");
+  BOOST_TEST((s.units[2].status == UnitStatus::Failed));
+  BOOST_TEST(s.units[2].error.find("not a number") != std::string::npos, s.units[2].error);
+  // The line number refers to the batch file: header is line 1, BAD's second row is line 2 + 96 + 1.
+  BOOST_TEST(s.units[2].error.find(":99:") != std::string::npos, s.units[2].error);
+  BOOST_TEST(s.units[3].unit == "FEW");
+  BOOST_TEST((s.units[3].status == UnitStatus::Failed));
+  BOOST_TEST(s.units[4].unit == "U000002");
+  BOOST_TEST((s.units[4].status == UnitStatus::Ok));
+  BOOST_TEST(s.units[5].unit == "U000000");
+  BOOST_TEST(s.units[5].error.find("appears again") != std::string::npos, s.units[5].error);
+  BOOST_TEST(fs::exists(tmp / "out/records/U000002.json"));
+  BOOST_TEST(!fs::exists(tmp / "out/records/BAD.json"));
+  const std::string summary_csv = read_file_bytes(tmp / "out/summary.csv");
+  BOOST_TEST(summary_csv.find("\nBAD,failed,2,,,,,,n/a,,") != std::string::npos);
+}
+
+BOOST_AUTO_TEST_CASE(outputs_are_byte_identical_for_any_number_of_jobs) {
+  TempDir tmp;
+  std::string csv = synthetic_file(0, 60);
+  csv += "BAD,S01,1,1\n";
+  write(tmp / "in.csv", csv);
+  std::map<std::string, std::string> first;
+  for (int jobs : {1, 2, 3}) {
+    const std::string out = tmp / ("out" + std::to_string(jobs));
+    run_batch({tmp / "in.csv"}, options_for(out, jobs));
+    const auto t = tree(out);
+    BOOST_TEST(t.size() == 62u);  // 60 records + 2 summaries
+    if (jobs == 1) first = t;
+    else BOOST_TEST((t == first), "outputs with " << jobs << " jobs differ from 1 job");
+  }
+}
+
+BOOST_AUTO_TEST_CASE(memory_stays_flat_with_many_small_units) {
+  // 150,000 tiny units (two setpoints, fixed straight line): if the batch held
+  // its input, its results or its summaries in memory, the peak would grow by
+  // tens of MiB between the small and the large run.
+  TempDir tmp;
+  auto make = [&](const std::string& name, int units) {
+    std::ofstream f(tmp / name, std::ios::binary);
+    f << "unit,reading,reference\n";
+    for (int i = 0; i < units; ++i)
+      f << "unit-" << i << ",1," << (i % 7) << "\nunit-" << i << ",2," << (i % 5) + 10 << "\n";
+  };
+  make("small.csv", 2000);
+  make("large.csv", 150000);
+  BatchOptions o = options_for(tmp / "out", 2);
+  o.fit.fixed_degree = 1;
+  o.fit.fixed_lambda = 0.0;
+  o.fit.split.test_fraction = 0.0;
+  o.write_records = false;
+  o.window_per_job = 16;
+  o.input.csv.setpoint_column.clear();
+  BOOST_TEST(run_batch({tmp / "small.csv"}, o).ok == 2000u);
+  const long before = vm_hwm_kib();
+  const BatchResult r = run_batch({tmp / "large.csv"}, o);
+  const long after = vm_hwm_kib();
+  BOOST_TEST(r.units == 150000u);
+  BOOST_TEST(r.ok == 150000u);
+  BOOST_TEST_MESSAGE("peak RSS growth " << (after - before) << " KiB for " << fs::file_size(tmp / "large.csv") / 1024
+                                        << " KiB of input and " << fs::file_size(tmp / "out/summary.json") / 1024
+                                        << " KiB of summary JSON");
+  BOOST_TEST(after - before < 4096, "peak RSS grew by " << (after - before) << " KiB");
+}
+
+BOOST_AUTO_TEST_CASE(a_directory_without_unit_column_is_one_unit_per_file) {
+  TempDir tmp;
+  fs::create_directories(tmp / "in");
+  const SyntheticUnitOptions so;
+  for (int i = 0; i < 3; ++i) write(tmp / ("in/dev" + std::to_string(i) + ".csv"), synthetic_file(static_cast<std::uint64_t>(i), 1, so));
+  write(tmp / "in/notes.txt", "not a csv");
+  BatchOptions o = options_for(tmp / "out", 2);
+  o.input.unit_column.clear();
+  const BatchResult r = run_batch(batch_input_files(tmp / "in"), o);
+  BOOST_TEST(r.ok == 3u);
+  const BatchSummary s = read_batch_summary(tmp / "out/summary.json");
+  BOOST_TEST(s.units[0].unit == "dev0");
+  BOOST_TEST(s.units[2].unit == "dev2");
+}
+
+BOOST_AUTO_TEST_CASE(a_missing_unit_column_stops_the_batch_before_any_output) {
+  TempDir tmp;
+  write(tmp / "in.csv", "device,setpoint,reading,reference\nA,S1,1,1\n");
+  BOOST_CHECK_THROW(run_batch({tmp / "in.csv"}, options_for(tmp / "out", 2)), InputError);
+  BOOST_TEST(!fs::exists(tmp / "out/summary.json"));
+  BOOST_TEST(!fs::exists(tmp / "out/summary.csv"));
+}
+
+BOOST_AUTO_TEST_CASE(shard_summaries_merge_into_the_whole) {
+  TempDir tmp;
+  write(tmp / "a.csv", synthetic_file(0, 7));
+  write(tmp / "b.csv", synthetic_file(7, 5));
+  write(tmp / "all.csv", synthetic_file(0, 12));
+  run_batch({tmp / "a.csv"}, options_for(tmp / "A", 1));
+  run_batch({tmp / "b.csv"}, options_for(tmp / "B", 2));
+  run_batch({tmp / "all.csv"}, options_for(tmp / "ALL", 2));
+  const BatchSummary a = read_batch_summary(tmp / "A/summary.json");
+  const BatchSummary b = read_batch_summary(tmp / "B/summary.json");
+  const BatchSummary all = read_batch_summary(tmp / "ALL/summary.json");
+  // Shards given in any order give the same merge.
+  const BatchSummary m = merge_batch_summaries({b, a}, {"B", "A"}, MergeOptions{});
+  BOOST_REQUIRE(m.units.size() == 12u);
+  for (std::size_t i = 0; i < 12; ++i) {
+    BOOST_TEST(m.units[i].unit == all.units[i].unit);
+    BOOST_TEST(m.units[i].lambda == all.units[i].lambda);
+    BOOST_TEST(m.units[i].validation_rmse == all.units[i].validation_rmse);
+  }
+  fs::create_directories(tmp / "M");
+  write_batch_summary(m, tmp / "M");
+  const BatchSummary again = read_batch_summary(tmp / "M/summary.json");
+  BOOST_TEST(again.units.size() == 12u);
+  // The merged CSV equals the whole run's CSV in its first nine columns (same
+  // units, order, figures and verdicts; warnings and errors may cite lines of
+  // the shard files).
+  auto first_columns = [](const std::string& csv) {
+    std::string out;
+    std::size_t pos = 0;
+    while (pos < csv.size()) {
+      const std::size_t nl = csv.find('\n', pos);
+      std::string line = csv.substr(pos, nl - pos);
+      std::size_t cut = 0;
+      for (int i = 0; i < 9 && cut != std::string::npos; ++i) cut = line.find(',', cut + (i ? 1 : 0));
+      out += line.substr(0, cut) + "\n";
+      pos = nl == std::string::npos ? csv.size() : nl + 1;
+    }
+    return out;
+  };
+  BOOST_TEST(first_columns(read_file_bytes(tmp / "M/summary.csv")) ==
+             first_columns(read_file_bytes(tmp / "ALL/summary.csv")));
+
+  // A unit in two shards is refused.
+  BOOST_CHECK_THROW(merge_batch_summaries({a, all}, {"A", "ALL"}, MergeOptions{}), InputError);
+  // Different settings are refused unless allowed.
+  BatchOptions other = options_for(tmp / "C", 1);
+  other.fit.rule = o_rule_other(other.fit.rule);
+  write(tmp / "c.csv", synthetic_file(20, 2));
+  run_batch({tmp / "c.csv"}, other);
+  const BatchSummary c = read_batch_summary(tmp / "C/summary.json");
+  BOOST_CHECK_THROW(merge_batch_summaries({a, c}, {"A", "C"}, MergeOptions{}), InputError);
+  MergeOptions mixed;
+  mixed.allow_mixed_settings = true;
+  BOOST_TEST(merge_batch_summaries({a, c}, {"A", "C"}, mixed).settings_sha256 == "mixed");
+}
+
+BOOST_AUTO_TEST_CASE(hostile_unit_labels_get_safe_distinct_file_names) {
+  BOOST_TEST(unit_file_stem("U000001") == "U000001");
+  const std::string up = unit_file_stem("../../etc/passwd");
+  BOOST_TEST(up.find('/') == std::string::npos);
+  BOOST_TEST(up.substr(0, 1) != ".");
+  BOOST_TEST(unit_file_stem("a/b") != unit_file_stem("a_b"));
+  BOOST_TEST(unit_file_stem("a/b") != unit_file_stem("a:b"));
+  BOOST_TEST(unit_file_stem("..") != "..");
+  BOOST_TEST(unit_file_stem("").size() > 0u);
+}
+
+namespace {
+UnitChunk chunk_of(const std::string& header, const std::string& rows, std::size_t first_line = 5) {
+  UnitChunk c;
+  c.unit = "u";
+  c.file = "f.csv";
+  c.header_line = 2;
+  c.first_line = first_line;
+  c.text = header + "\n" + rows;
+  return c;
+}
+}  // namespace
+
+BOOST_AUTO_TEST_CASE(the_fast_chunk_parser_agrees_with_the_general_parser) {
+  CsvOptions with_sp;
+  with_sp.setpoint_column = "setpoint";
+  CsvOptions with_role = with_sp;
+  with_role.role_column = "role";
+  const CsvOptions plain;
+  struct Case {
+    CsvOptions opt;
+    std::string header, rows;
+  };
+  std::string synth = synthetic_file(3, 1);
+  synth = synth.substr(synth.find('\n') + 1);
+  const Case cases[] = {
+      {with_sp, "unit,setpoint,reading,reference", synth},
+      {with_sp, " unit , setpoint ,reading, reference ", "u, S1 , +12.5,1e-3\n# note\n\nu,S2,13,\t2.0e0\n"},
+      {plain, "unit,reading,reference", "u,1,0.1\nu,2,0.30000000000000004\nu,3,-0\n"},
+      {with_role, "unit,setpoint,reading,reference,role", "u,A,1,1,fit\nu,B,2,2,CHECK\nu,C,3,3,Fit\n"},
+  };
+  for (const Case& c : cases) {
+    const UnitChunk ch = chunk_of(c.header, c.rows);
+    Dataset fast;
+    BOOST_REQUIRE(parse_unit_chunk_fast(ch, c.opt, fast));
+    const Dataset slow = parse_unit_chunk(ch, c.opt);
+    BOOST_REQUIRE(fast.rows.size() == slow.rows.size());
+    for (std::size_t i = 0; i < slow.rows.size(); ++i) {
+      BOOST_TEST(fast.rows[i].reading == slow.rows[i].reading);
+      BOOST_TEST(fast.rows[i].reference == slow.rows[i].reference);
+      BOOST_TEST(fast.rows[i].setpoint == slow.rows[i].setpoint);
+      BOOST_TEST((fast.rows[i].role == slow.rows[i].role));
+      BOOST_TEST(fast.rows[i].line == slow.rows[i].line);
+    }
+  }
+  // Anything unusual goes to the general parser, which reports it (or, for
+  // quotes, handles it).
+  const Case unusual[] = {
+      {with_sp, "unit,setpoint,reading,reference", "u,\"S,1\",1,1\nu,S2,2,2\n"},
+      {with_sp, "unit,setpoint,reading,reference", "u,S1,1\n"},
+      {with_sp, "unit,setpoint,reading,reference", "u,S1,nan,1\n"},
+      {with_sp, "unit,setpoint,reading,reference", "u,S1,1,1,\n"},
+      {with_sp, "unit,setpoint,reading,reference", "u,,1,1\n"},
+      {with_sp, "unit,setpoint,reading,reading", "u,S1,1,1\n"},
+      {with_role, "unit,setpoint,reading,reference,role", "u,A,1,1,maybe\n"},
+      {with_sp, "unit,setpoint,reading,reference", "# only a comment\n"},
+  };
+  for (const Case& c : unusual) {
+    Dataset fast;
+    BOOST_TEST(!parse_unit_chunk_fast(chunk_of(c.header, c.rows), c.opt, fast), c.rows);
+  }
+  BOOST_CHECK_THROW(parse_unit_chunk(chunk_of(unusual[2].header, unusual[2].rows), with_sp), InputError);
+}
+
+BOOST_AUTO_TEST_CASE(a_unit_whose_data_the_fit_rejects_does_not_stop_the_batch) {
+  // Unit M has a setpoint with both roles: the fit's grouping rejects it.
+  TempDir tmp;
+  std::string csv = "unit,setpoint,reading,reference,role\n";
+  for (const char* u : {"A", "M", "B"})
+    for (int s = 0; s < 8; ++s)
+      for (int r = 0; r < 2; ++r)
+        csv += fmt::format("{},S{},{},{},{}\n", u, s, 100 * s + r, 2.0 * s + 0.01 * s * s,
+                           (std::string(u) == "M" && s == 3 && r == 1) ? "check" : (s == 4 ? "check" : "fit"));
+  write(tmp / "in.csv", csv);
+  BatchOptions o = options_for(tmp / "out", 2);
+  o.input.csv.role_column = "role";
+  o.fit.degrees = {1, 2};
+  const BatchResult r = run_batch({tmp / "in.csv"}, o);
+  BOOST_TEST(r.ok == 2u);
+  BOOST_TEST(r.failed == 1u);
+  const BatchSummary s = read_batch_summary(tmp / "out/summary.json");
+  BOOST_TEST(s.units[1].unit == "M");
+  BOOST_TEST(s.units[1].error.find("different roles") != std::string::npos, s.units[1].error);
+}
+
+BOOST_AUTO_TEST_CASE(with_a_tolerance_every_fitted_unit_gets_a_verdict) {
+  // The synthetic units have max errors of a few tenths of a degree: a
+  // tolerance of +-10 passes them all, +-0.01 fails them all.
+  TempDir tmp;
+  write(tmp / "in.csv", synthetic_file(0, 4) + "BAD,S01,1,1\n");
+  for (const double tol : {10.0, 0.01}) {
+    const std::string out = tmp / ("out" + std::to_string(tol));
+    BatchOptions o = options_for(out, 2);
+    ToleranceSpec t;
+    t.offset = tol;
+    o.assess.tolerance = t;
+    const BatchResult r = run_batch({tmp / "in.csv"}, o);
+    BOOST_TEST(r.ok == 4u);
+    BOOST_TEST(r.failed == 1u);
+    BOOST_TEST(r.out_of_tolerance == (tol > 1 ? 0u : 4u));
+    const BatchSummary s = read_batch_summary(out + "/summary.json");
+    for (std::size_t i = 0; i < 4; ++i)
+      BOOST_TEST((s.units[i].verdict == (tol > 1 ? UnitVerdict::Pass : UnitVerdict::Fail)));
+    BOOST_TEST((s.units[4].verdict == UnitVerdict::NotAssessed));
+    const auto rec = nlohmann::json::parse(read_file_bytes(out + "/records/U000001.json"));
+    BOOST_TEST(rec.contains("decision"));
+    BOOST_TEST(read_file_bytes(out + "/summary.csv").find(tol > 1 ? ",PASS," : ",FAIL,") != std::string::npos);
+  }
+}
