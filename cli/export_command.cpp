@@ -11,6 +11,7 @@
 #include "cli_common.hpp"
 #include "ridgecal/atomic_file.hpp"
 #include "ridgecal/errors.hpp"
+#include "ridgecal/record_guard.hpp"
 #include "ridgecal/record.hpp"
 
 namespace po = boost::program_options;
@@ -30,6 +31,7 @@ po::options_description export_options() {
     ("max-deviation-fraction", po::value<std::string>()->default_value("0.1"), "refuse when the header deviates from the model by more than this fraction of the tolerance")
     ("tolerance", po::value<std::string>(), "absolute tolerance in reference units for the refusal rule (default: the record's; without one, the validation RMSE)")
     ("tolerance-text", po::value<std::string>()->default_value(""), "tolerance description for the header's QA block")
+    ("allow-modified", po::bool_switch(), allow_modified_option_help())
     ("grid-points", po::value<int>()->default_value(2001), "points of the proof grid over the calibrated range")
     ("raw-min", po::value<std::int64_t>(), "fixed: smallest raw integer input (default: ceil(x_min * input-scale))")
     ("raw-max", po::value<std::int64_t>(), "fixed: largest raw integer input (default: floor(x_max * input-scale))")
@@ -122,6 +124,7 @@ ExportCommand parse_export_command(const std::vector<std::string>& args) {
       throw UsageError(fmt::format("--tolerance {}: must be > 0", *cmd.tolerance));
   }
   cmd.tolerance_text = vm["tolerance-text"].as<std::string>();
+  cmd.allow_modified = vm["allow-modified"].as<bool>();
   cmd.options.grid_points = vm["grid-points"].as<int>();
   if (vm.count("raw-min")) cmd.options.raw_min = vm["raw-min"].as<std::int64_t>();
   if (vm.count("raw-max")) cmd.options.raw_max = vm["raw-max"].as<std::int64_t>();
@@ -137,11 +140,10 @@ int run_export_command(const ExportCommand& cmd, std::ostream& out, std::ostream
     return kExitOk;
   }
   try {
-    const nlohmann::json j = read_record_json(cmd.record_path);
-    if (!record_integrity_ok(j))
-      throw InputError(cmd.record_path, 0, "the record's integrity digest does not match its content",
-                       "the record was edited; re-create it with 'ridgecal fit'");
-    const CalibrationRecord rec = record_from_json(j, cmd.record_path);
+    // Refuses a record edited by hand unless --allow-modified (record_guard.hpp).
+    const GuardedRecord guarded = load_record_checked(cmd.record_path, cmd.allow_modified);
+    const nlohmann::json& j = guarded.json;
+    const CalibrationRecord& rec = guarded.record;
     const Calibration& cal = rec.calibration;
 
     firmware::HeaderMeta meta;
@@ -175,6 +177,9 @@ int run_export_command(const ExportCommand& cmd, std::ostream& out, std::ostream
     } else {
       meta.pass_fail = "not assessed (no tolerance in the record)";
     }
+    if (guarded.modified)
+      meta.pass_fail = "RECORD MODIFIED after ridgecal wrote it (integrity SHA-256 does not match; exported with "
+                       "--allow-modified); " + meta.pass_fail;
     meta.record_sha256 = record_digest(j);
     meta.tool_version = std::string("ridgecal ") + tool_version();
     for (const auto& p : cal.points) meta.calibration_readings.push_back(p.reading);
@@ -188,6 +193,7 @@ int run_export_command(const ExportCommand& cmd, std::ostream& out, std::ostream
       return kExitOutOfTolerance;
     }
     write_file_atomic(cmd.output_path, r.header);
+    if (guarded.modified) out << modified_record_note(cmd.record_path) << "\n";
     out << "header: " << cmd.output_path << " (" << r.message << ")\n"
         << "formats: " << r.formats << "\n"
         << "table CRC-32: " << fmt::format("0x{:08X}", r.table_crc32) << ", "

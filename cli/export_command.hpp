@@ -18,6 +18,9 @@ struct ExportCommand {
   /// has none; overrides the record's when given.
   std::optional<double> tolerance;
   std::string tolerance_text;  ///< description for the header's QA block
+  /// Export a record whose integrity digest does not match (edited by hand);
+  /// the header's result line and the summary then say so.
+  bool allow_modified = false;
   bool help = false;
 };
 

@@ -7,8 +7,8 @@
 namespace ridgecal {
 
 namespace {
-CheckedRecord check(nlohmann::json j, const std::string& file, bool allow_modified) {
-  CheckedRecord out;
+GuardedRecord check(nlohmann::json j, const std::string& file, bool allow_modified) {
+  GuardedRecord out;
   out.modified = !record_integrity_ok(j);
   if (out.modified && !allow_modified) {
     const bool has_digest = j.is_object() && j.contains("integrity");
@@ -25,11 +25,11 @@ CheckedRecord check(nlohmann::json j, const std::string& file, bool allow_modifi
 }
 }  // namespace
 
-CheckedRecord load_record_checked(const std::string& path, bool allow_modified) {
+GuardedRecord load_record_checked(const std::string& path, bool allow_modified) {
   return check(read_record_json(path), path, allow_modified);
 }
 
-CheckedRecord check_record_text(const std::string& text, const std::string& file, bool allow_modified) {
+GuardedRecord check_record_text(const std::string& text, const std::string& file, bool allow_modified) {
   return check(parse_record_json(text, file), file, allow_modified);
 }
 

@@ -26,7 +26,7 @@ extern "C" int LLVMFuzzerTestOneInput(const std::uint8_t* data, std::size_t size
   }
   const bool intact = record_integrity_ok(j);
   try {
-    const CheckedRecord checked = check_record_text(text, "fuzz.json", /*allow_modified=*/false);
+    const GuardedRecord checked = check_record_text(text, "fuzz.json", /*allow_modified=*/false);
     RIDGECAL_FUZZ_CHECK(intact && !checked.modified);
   } catch (const InputError&) {
   }
@@ -40,7 +40,7 @@ extern "C" int LLVMFuzzerTestOneInput(const std::uint8_t* data, std::size_t size
   const nlohmann::json again = record_to_json(rec);
   RIDGECAL_FUZZ_CHECK(record_integrity_ok(again));
   const std::string text2 = record_text(again);
-  const CheckedRecord back = check_record_text(text2, "again.json", /*allow_modified=*/false);
+  const GuardedRecord back = check_record_text(text2, "again.json", /*allow_modified=*/false);
   RIDGECAL_FUZZ_CHECK(!back.modified);
   RIDGECAL_FUZZ_CHECK(back.record.calibration.model.cheb == rec.calibration.model.cheb);
   RIDGECAL_FUZZ_CHECK(back.record.sensor.name == rec.sensor.name);

@@ -60,7 +60,7 @@ BOOST_AUTO_TEST_CASE(json_round_trips_hostile_strings_exactly) {
     BOOST_TEST_CONTEXT("string: " << shown_text(s)) {
       const CalibrationRecord rec = record_with(s);
       const std::string text = record_text(record_to_json(rec));
-      const CheckedRecord back = check_record_text(text, "h.json", /*allow_modified=*/false);
+      const GuardedRecord back = check_record_text(text, "h.json", /*allow_modified=*/false);
       BOOST_TEST(!back.modified);
       const CalibrationRecord& r = back.record;
       BOOST_TEST(r.sensor.name == rec.sensor.name);
@@ -88,7 +88,7 @@ BOOST_AUTO_TEST_CASE(invalid_utf8_is_replaced_and_the_digest_stays_valid) {
   const CalibrationRecord rec = record_with(bad);
   const std::string text = record_text(record_to_json(rec));
   BOOST_TEST(is_valid_utf8(text));
-  const CheckedRecord back = check_record_text(text, "h.json", false);
+  const GuardedRecord back = check_record_text(text, "h.json", false);
   BOOST_TEST(!back.modified);
   BOOST_TEST(back.record.sensor.name == "Temp\xef\xbf\xbdrature \xef\xbf\xbd\xef\xbf\xbd end");
 }

@@ -43,7 +43,7 @@ bool has(const std::string& s, const std::string& n) { return s.find(n) != std::
 BOOST_AUTO_TEST_CASE(intact_record_loads_from_a_file) {
   const std::string path = "ridgecal_test_record_guard.json";
   write_file_atomic(path, good_text());
-  const CheckedRecord r = load_record_checked(path, false);
+  const GuardedRecord r = load_record_checked(path, false);
   BOOST_TEST(!r.modified);
   BOOST_TEST(r.record.sensor.name == "guard probe");
   BOOST_TEST(r.json["format"] == "ridgecal-record");
@@ -60,7 +60,7 @@ BOOST_AUTO_TEST_CASE(edited_record_is_refused_with_how_to_recreate_it) {
   BOOST_TEST(has(e, "rec.json: the record was modified after ridgecal wrote it"), e);
   BOOST_TEST(has(e, "ridgecal fit"), e);
   BOOST_TEST(has(e, "--allow-modified"), e);
-  const CheckedRecord r = check_record_text(text, "rec.json", true);
+  const GuardedRecord r = check_record_text(text, "rec.json", true);
   BOOST_TEST(r.modified);
   BOOST_TEST(r.record.sensor.name == "guard Probe");
   BOOST_TEST(has(modified_record_note("rec.json"), "rec.json was modified"));

@@ -7,7 +7,7 @@
 //
 // Wiring a subcommand (one call, one note):
 //
-//   const CheckedRecord r = load_record_checked(cmd.record_path, cmd.allow_modified);
+//   const GuardedRecord r = load_record_checked(cmd.record_path, cmd.allow_modified);
 //   ... use r.record (and r.json) ...
 //   if (r.modified) { print/embed modified_record_note(cmd.record_path); }
 //
@@ -22,7 +22,7 @@
 namespace ridgecal {
 
 /// What load_record_checked returns.
-struct CheckedRecord {
+struct GuardedRecord {
   CalibrationRecord record;  ///< parsed content
   nlohmann::json json;       ///< the document as read
   bool modified = false;     ///< true: the integrity digest did not match (only with allow_modified)
@@ -33,10 +33,10 @@ struct CheckedRecord {
 /// a valid record, or — unless `allow_modified` — when its integrity digest is
 /// missing or does not match its content. The message says how to re-create
 /// the record ('ridgecal fit' on the original data) and names --allow-modified.
-CheckedRecord load_record_checked(const std::string& path, bool allow_modified);
+GuardedRecord load_record_checked(const std::string& path, bool allow_modified);
 
 /// The same for record text already in memory (`file` for messages).
-CheckedRecord check_record_text(const std::string& text, const std::string& file, bool allow_modified);
+GuardedRecord check_record_text(const std::string& text, const std::string& file, bool allow_modified);
 
 /// One line for outputs made from a modified record, e.g.
 /// "NOTE: record.json was modified after ridgecal wrote it (its integrity
