@@ -364,10 +364,25 @@ CalibrationRecord record_from_json(const json& j, const std::string& file) {
     pr.cv_predicted = r.number(p, "cv_predicted", "points[]");
     cal.points.push_back(pr);
   }
-  if (j.contains("tolerance")) rec.tolerance = tolerance_from_json(j["tolerance"], file);
-  if (j.contains("decision")) rec.decision = decision_from_json(j["decision"], file);
-  if (j.contains("uncertainty")) rec.uncertainty = uncertainty_from_json(j["uncertainty"], file);
-  if (j.contains("warnings")) rec.warnings = warnings_from_json(j["warnings"], file);
+  // Assessment members: read when they follow our layout; a member in another
+  // layout (hand-made or older records) is left unset here. Callers that rely
+  // on them (verify) use read_assessment_strict().
+  try {
+    if (j.contains("tolerance")) rec.tolerance = tolerance_from_json(j["tolerance"], file);
+  } catch (const InputError&) {
+  }
+  try {
+    if (j.contains("decision")) rec.decision = decision_from_json(j["decision"], file);
+  } catch (const InputError&) {
+  }
+  try {
+    if (j.contains("uncertainty")) rec.uncertainty = uncertainty_from_json(j["uncertainty"], file);
+  } catch (const InputError&) {
+  }
+  try {
+    if (j.contains("warnings")) rec.warnings = warnings_from_json(j["warnings"], file);
+  } catch (const InputError&) {
+  }
   return rec;
 }
 

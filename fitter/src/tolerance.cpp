@@ -104,6 +104,7 @@ nlohmann::json to_json(const ToleranceSpec& t) {
       {"percent_of_span", t.percent_of_span},
       {"source", t.source},
       {"text", t.describe()}};
+  if (t.proportional == 0.0) j["limit"] = t.limit(0.0);  // constant over the range (for plots)
   if (t.percent_of_span > 0.0) {
     j["span_low"] = t.span_low;
     j["span_high"] = t.span_high;

@@ -262,6 +262,7 @@ nlohmann::json to_json(const UncertaintyBudget& u) {
   for (const BandPoint& p : u.band)
     band.push_back({{"reading", num(p.reading)},
                     {"predicted", num(p.predicted)},
+                    {"reference", num(p.predicted)},  // position on the reference axis (for plots)
                     {"u_fit", num(p.u_fit)},
                     {"combined", num(p.combined)},
                     {"expanded", num(p.expanded)}});

@@ -84,7 +84,9 @@ bool record_integrity_ok(const nlohmann::json& j);
 
 /// Parses a record. `file` is used in messages. Throws InputError on invalid
 /// JSON, a wrong format or version, or missing or mistyped members.
-/// Integrity is NOT checked here (see record_integrity_ok).
+/// Integrity is NOT checked here (see record_integrity_ok). The optional
+/// assessment members (tolerance, decision, uncertainty, warnings) are left
+/// unset when they do not follow our layout; as_found.hpp reads them strictly.
 CalibrationRecord record_from_json(const nlohmann::json& j, const std::string& file);
 
 /// Largest record file read_record_json accepts (a record of a million-row
