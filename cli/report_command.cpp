@@ -9,6 +9,7 @@
 #include "ridgecal/atomic_file.hpp"
 #include "ridgecal/errors.hpp"
 #include "ridgecal/record.hpp"
+#include "ridgecal/record_guard.hpp"
 #include "ridgecal/report/html_report.hpp"
 
 namespace po = boost::program_options;
@@ -22,7 +23,8 @@ po::options_description report_options() {
   d.add_options()
     ("help,h", "show this help")
     ("output,o", po::value<std::string>(), "write the HTML report to this file ('-' for standard output)")
-    ("date", po::value<std::string>(), "report date/time to print (any text, e.g. 2026-12-02T09:00Z); default: the record's creation time");
+    ("date", po::value<std::string>(), "report date/time to print (any text, e.g. 2026-12-02T09:00Z); default: the record's creation time")
+    ("allow-modified", po::bool_switch(), allow_modified_option_help());
   // clang-format on
   return d;
 }
@@ -62,6 +64,7 @@ ReportCommand parse_report_command(const std::vector<std::string>& args) {
   cmd.output_path = vm["output"].as<std::string>();
   if (cmd.output_path.empty()) throw UsageError("-o: the report file name is empty");
   if (vm.count("date")) cmd.date = vm["date"].as<std::string>();
+  cmd.allow_modified = vm["allow-modified"].as<bool>();
   return cmd;
 }
 
@@ -71,12 +74,13 @@ int run_report_command(const ReportCommand& cmd, std::ostream& out, std::ostream
     return kExitOk;
   }
   try {
-    const nlohmann::json j = read_record_json(cmd.record_path);
-    // Validates the layout (format, version, members): a bad record is bad input.
-    (void)record_from_json(j, cmd.record_path);
-    if (!record_integrity_ok(j))
-      err << "ridgecal report: warning: " << cmd.record_path
-          << ": the integrity digest does not match the record content (the report says so)\n";
+    // Validates the layout and the integrity digest: an edited record is refused
+    // unless --allow-modified, and then the report itself says so.
+    const GuardedRecord guarded = load_record_checked(cmd.record_path, cmd.allow_modified);
+    const nlohmann::json& j = guarded.json;
+    if (guarded.modified)
+      err << "ridgecal report: warning: " << modified_record_note(cmd.record_path)
+          << " (the integrity digest does not match the record content; the report says so)\n";
     report::ReportOptions opt;
     opt.date = cmd.date;
     const std::string html = report::render_html_report(j, opt);

@@ -156,13 +156,17 @@ double UncertaintyBudget::expanded_at(double reading) const {
   return lo.expanded + f * (hi.expanded - lo.expanded);
 }
 
+namespace {
+// Screen text never shows nan or inf: a figure that overflowed reads "n/a".
+std::string shown_3g(double v) { return std::isfinite(v) ? fmt::format("{:.3g}", v) : std::string("n/a"); }
+}  // namespace
+
 std::string UncertaintyBudget::brief(const std::string& unit) const {
   const std::string u = unit.empty() ? "" : " " + unit;
-  std::string s =
-      fmt::format("uncertainty: U = {:.3g}{} (k = {:g}), combined standard u = {:.3g}{}\n",
-                  expanded, u, k, combined, u);
+  std::string s = fmt::format("uncertainty: U = {}{} (k = {:g}), combined standard u = {}{}\n",
+                              shown_3g(expanded), u, k, shown_3g(combined), u);
   for (const UncertaintyComponent& c : components)
-    s += fmt::format("  {:<19} {:.3g}{} (type {}, {})\n", c.name, c.standard, u, to_string(c.type),
+    s += fmt::format("  {:<19} {}{} (type {}, {})\n", c.name, shown_3g(c.standard), u, to_string(c.type),
                      to_string(c.distribution));
   return s;
 }
@@ -198,7 +202,7 @@ UncertaintyBudget evaluate_uncertainty(const Calibration& cal, const Uncertainty
     bp.predicted = cal.model.eval(bp.reading);
     bp.u_fit = s_used * std::sqrt(cov.variance_factor(bp.reading));
     const double slope = std::fabs(cal.model.derivative(bp.reading));
-    const double u_res = slope * options.resolution / res_div;
+    const double u_res = options.resolution > 0.0 ? slope * options.resolution / res_div : 0.0;
     bp.combined = std::sqrt(s_used * s_used + bp.u_fit * bp.u_fit + u_ref * u_ref + u_res * u_res);
     bp.expanded = b.k * bp.combined;
     max_ufit = std::max(max_ufit, bp.u_fit);
@@ -230,7 +234,7 @@ UncertaintyBudget evaluate_uncertainty(const Calibration& cal, const Uncertainty
                          options.reference_k)});
   b.components.push_back({"reading-resolution", EvaluationType::B, Distribution::Rectangular,
                           options.resolution, res_div, max_slope,
-                          max_slope * options.resolution / res_div,
+                          options.resolution > 0.0 ? max_slope * options.resolution / res_div : 0.0,
                           "one digit step of the reading, rectangular, through the largest slope "
                           "dp/dx over the range"});
   double sum = 0;

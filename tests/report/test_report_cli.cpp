@@ -96,11 +96,15 @@ BOOST_AUTO_TEST_CASE(an_existing_report_survives_bad_input) {
   BOOST_TEST(slurp(out) == "old");
 }
 
-BOOST_AUTO_TEST_CASE(edited_record_is_reported_with_a_warning) {
+BOOST_AUTO_TEST_CASE(edited_record_is_refused_unless_allowed) {
   TempDir t;
   const fs::path out = t.path / "report.html";
+  std::ostringstream o0, e0;
+  BOOST_TEST(report_main({kDir + "/fixtures/record_hostile.json", "-o", out.string()}, o0, e0) == kExitBadInput);
+  BOOST_TEST(!fs::exists(out));
   std::ostringstream o, e;
-  BOOST_TEST(report_main({kDir + "/fixtures/record_hostile.json", "-o", out.string()}, o, e) == kExitOk);
+  BOOST_TEST(report_main({kDir + "/fixtures/record_hostile.json", "-o", out.string(), "--allow-modified"}, o, e) ==
+             kExitOk);
   BOOST_TEST(e.str().find("integrity digest does not match") != std::string::npos);
   BOOST_TEST(slurp(out).find("DOES NOT MATCH") != std::string::npos);
 }
