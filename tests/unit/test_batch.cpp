@@ -156,7 +156,13 @@ BOOST_AUTO_TEST_CASE(memory_stays_flat_with_many_small_units) {
   BOOST_TEST_MESSAGE("peak RSS growth " << (after - before) << " KiB for " << fs::file_size(tmp / "large.csv") / 1024
                                         << " KiB of input and " << fs::file_size(tmp / "out/summary.json") / 1024
                                         << " KiB of summary JSON");
+#if defined(__SANITIZE_ADDRESS__)
+  // AddressSanitizer keeps freed memory in quarantine, so RSS grows with the
+  // amount allocated, not with what is live: the bound holds for normal builds only.
+  BOOST_TEST_MESSAGE("AddressSanitizer build: the peak-RSS bound is not checked");
+#else
   BOOST_TEST(after - before < 4096, "peak RSS grew by " << (after - before) << " KiB");
+#endif
 }
 
 BOOST_AUTO_TEST_CASE(a_directory_without_unit_column_is_one_unit_per_file) {
