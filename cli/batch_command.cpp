@@ -10,6 +10,7 @@
 
 #include "cli_common.hpp"
 #include "judgement_options.hpp"
+#include "report_command.hpp"
 #include "ridgecal/errors.hpp"
 
 namespace po = boost::program_options;
@@ -33,6 +34,22 @@ ProgressMode progress_mode_from_string(const std::string& s) {
 }
 
 namespace {
+// A command's error output as one summary-friendly line: the command name
+// prefix dropped, lines joined with "; ".
+std::string one_line(const std::string& text) {
+  std::string s;
+  std::istringstream in(text);
+  for (std::string line; std::getline(in, line);) {
+    for (const char* p : {"ridgecal report: ", "ridgecal export: "})
+      if (line.rfind(p, 0) == 0) line.erase(0, std::char_traits<char>::length(p));
+    while (!line.empty() && (line.front() == ' ')) line.erase(0, 1);
+    if (line.empty()) continue;
+    if (!s.empty()) s += "; ";
+    s += line;
+  }
+  return s.empty() ? std::string("failed without a message") : s;
+}
+
 po::options_description batch_options() {
   po::options_description d("ridgecal batch DATA.csv|DIR --unit COL --out-dir DIR [options]");
   // clang-format off
@@ -43,6 +60,10 @@ po::options_description batch_options() {
     ("jobs,j", po::value<int>()->default_value(0), "worker threads (0 = all cores); results do not depend on it")
     ("no-records", po::bool_switch(), "write the summaries only")
     ("no-sync", po::bool_switch(), "do not fsync each record before renaming it (still atomic, not crash-durable)")
+    ("reports", po::bool_switch(), "also write reports/UNIT.html, the HTML report of each fitted unit (as 'ridgecal report')")
+    ("headers", po::value<std::string>(), "also write headers/UNIT.h, the C header of each fitted unit (as 'ridgecal export'), with this symbol prefix (the same for every unit, so firmware code does not depend on the unit)")
+    ("header-numeric", po::value<std::string>()->default_value("float"), "arithmetic of the headers: float, double or fixed")
+    ("header-output-scale", po::value<std::string>()->default_value("1000"), "fixed headers: output units per reference unit")
     ("progress", po::value<std::string>()->default_value("auto"), "progress on stderr: auto (bar on a terminal, else lines), bar, lines, none")
     ("progress-interval", po::value<double>()->default_value(0.0), "seconds between progress updates (0: 0.2 for the bar, 5 for lines)")
     ("reading", po::value<std::string>()->default_value("reading"), "column holding the raw sensor reading")
@@ -76,24 +97,16 @@ std::string batch_usage() {
   s << batch_options();
   s << "\nOutputs are written atomically. Units that fail are listed in the summary with their error;\n"
        "the others are unaffected.\n"
-       "Exit codes: 0 every unit fitted (and PASS, with a tolerance), 1 at least one unit failed or is\n"
-       "out of tolerance, 2 bad usage or unusable input (no summary written).\n";
+       "With --reports / --headers, a unit whose report or header cannot be made (e.g. a header the\n"
+       "export proof refuses) gets a warning in the summary, and no stale file of an earlier run is left.\n"
+       "Exit codes: 0 every unit fitted (and PASS, with a tolerance, and every report/header written),\n"
+       "1 at least one unit failed, is out of tolerance or lacks a requested report/header,\n"
+       "2 bad usage or unusable input (no summary written).\n";
   return s.str();
 }
 
 BatchCommand parse_batch_command(const std::vector<std::string>& args) {
-  const po::options_description desc = batch_options();
-  po::options_description all;
-  all.add(desc).add_options()("data", po::value<std::vector<std::string>>(), "");
-  po::positional_options_description pos;
-  pos.add("data", -1);
-  po::variables_map vm;
-  try {
-    po::store(po::command_line_parser(args).options(all).positional(pos).run(), vm);
-    po::notify(vm);
-  } catch (const po::error& e) {
-    throw UsageError(e.what());
-  }
+  const po::variables_map vm = parse_arguments(args, batch_options(), "data");
   BatchCommand cmd;
   if (vm.count("help")) {
     cmd.help = true;
@@ -115,6 +128,23 @@ BatchCommand parse_batch_command(const std::vector<std::string>& args) {
   b.jobs = vm["jobs"].as<int>();
   b.write_records = !vm["no-records"].as<bool>();
   b.sync_records = !vm["no-sync"].as<bool>();
+  cmd.reports = vm["reports"].as<bool>();
+  if (vm.count("headers")) {
+    ExportCommand h;
+    h.options.prefix = vm["headers"].as<std::string>();
+    const std::string mode = vm["header-numeric"].as<std::string>();
+    const auto m = firmware::numeric_mode_from_string(mode);
+    if (!m) throw UsageError(fmt::format("--header-numeric '{}': must be float, double or fixed", mode));
+    h.options.mode = *m;
+    h.options.output_scale =
+        parse_number_option("--header-output-scale", vm["header-output-scale"].as<std::string>());
+    if (const std::string e = h.options.validate(); !e.empty()) throw UsageError("--headers: " + e);
+    cmd.header = std::move(h);
+  } else if (!vm["header-numeric"].defaulted() || !vm["header-output-scale"].defaulted()) {
+    throw UsageError("--header-numeric and --header-output-scale go with --headers PREFIX");
+  }
+  if ((cmd.reports || cmd.header) && !b.write_records)
+    throw UsageError("--reports and --headers are made from the records: drop --no-records");
   try {
     cmd.progress = progress_mode_from_string(vm["progress"].as<std::string>());
   } catch (const std::invalid_argument& e) {
@@ -175,6 +205,27 @@ int run_batch_command(const BatchCommand& cmd, std::ostream& out, std::ostream& 
   }
   BatchOptions opt = cmd.batch;
   opt.created_utc = creation_time(cmd.timestamp);
+  // Per-unit report and header: the same code as `ridgecal report` and
+  // `ridgecal export`, run on the record just written (thread-safe: each call
+  // has its own streams and writes its own file atomically).
+  if (cmd.reports)
+    opt.unit_outputs.push_back({"report", "reports", ".html", [](const std::string& rec, const std::string& path) {
+                                  ReportCommand rc;
+                                  rc.record_path = rec;
+                                  rc.output_path = path;
+                                  std::ostringstream o, e;
+                                  return run_report_command(rc, o, e) == kExitOk ? std::string() : one_line(e.str());
+                                }});
+  if (cmd.header) {
+    const ExportCommand proto = *cmd.header;
+    opt.unit_outputs.push_back({"header", "headers", ".h", [proto](const std::string& rec, const std::string& path) {
+                                  ExportCommand ec = proto;
+                                  ec.record_path = rec;
+                                  ec.output_path = path;
+                                  std::ostringstream o, e;
+                                  return run_export_command(ec, o, e) == kExitOk ? std::string() : one_line(e.str());
+                                }});
+  }
   ProgressMode mode = cmd.progress;
   if (mode == ProgressMode::Auto) mode = stderr_is_tty ? ProgressMode::Bar : ProgressMode::Lines;
   const double interval = cmd.progress_interval_s > 0 ? cmd.progress_interval_s : (mode == ProgressMode::Bar ? 0.2 : 5.0);
@@ -201,8 +252,9 @@ int run_batch_command(const BatchCommand& cmd, std::ostream& out, std::ostream& 
     const BatchResult r = run_batch(inputs, opt, cb, interval);
     out << fmt::format("{} units: {} ok, {} failed", r.units, r.ok, r.failed);
     if (opt.assess.tolerance) out << fmt::format(", {} out of tolerance", r.out_of_tolerance);
+    if (!opt.unit_outputs.empty()) out << fmt::format(", {} with a report or header not written", r.outputs_failed);
     out << "\nsummary: " << opt.out_dir << "/summary.csv, " << opt.out_dir << "/summary.json\n";
-    return r.failed > 0 || r.out_of_tolerance > 0 ? kExitOutOfTolerance : kExitOk;
+    return r.failed > 0 || r.out_of_tolerance > 0 || r.outputs_failed > 0 ? kExitOutOfTolerance : kExitOk;
   } catch (const InputError& e) {
     err << "\nridgecal batch: " << format_input_error(e) << "\n";
     return kExitBadInput;
@@ -210,14 +262,9 @@ int run_batch_command(const BatchCommand& cmd, std::ostream& out, std::ostream& 
 }
 
 int batch_main(const std::vector<std::string>& args, std::ostream& out, std::ostream& err) {
-  BatchCommand cmd;
-  try {
-    cmd = parse_batch_command(args);
-  } catch (const UsageError& e) {
-    err << "ridgecal batch: " << e.what() << "\nTry 'ridgecal batch --help'.\n";
-    return kExitBadInput;
-  }
-  return run_batch_command(cmd, out, err, &err == &std::cerr && ::isatty(STDERR_FILENO));
+  return run_subcommand("batch", args, out, err, parse_batch_command, [&](const BatchCommand& cmd, std::ostream& o, std::ostream& e) {
+    return run_batch_command(cmd, o, e, &e == &std::cerr && ::isatty(STDERR_FILENO));
+  });
 }
 
 }  // namespace ridgecal::cli

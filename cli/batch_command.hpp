@@ -9,9 +9,11 @@
 #pragma once
 
 #include <iosfwd>
+#include <optional>
 #include <string>
 #include <vector>
 
+#include "export_command.hpp"
 #include "ridgecal/batch_run.hpp"
 
 namespace ridgecal::cli {
@@ -32,6 +34,10 @@ struct BatchCommand {
   std::string timestamp;          ///< injected creation time ("" = now, "none" = omit)
   ProgressMode progress = ProgressMode::Auto;
   double progress_interval_s = 0; ///< 0: 0.2 s for the bar, 5 s for lines
+  bool reports = false;           ///< --reports: reports/UNIT.html per fitted unit (as `ridgecal report`)
+  /// --headers PREFIX: headers/UNIT.h per fitted unit (as `ridgecal export`;
+  /// record_path and output_path are filled in per unit).
+  std::optional<ExportCommand> header;
   bool help = false;
 };
 

@@ -114,4 +114,22 @@ std::string creation_time(const std::string& injected) {
   return buf;
 }
 
+boost::program_options::variables_map parse_arguments(const std::vector<std::string>& args,
+                                                      const boost::program_options::options_description& options,
+                                                      const std::string& positional) {
+  namespace po = boost::program_options;
+  po::options_description all;
+  all.add(options).add_options()(positional.c_str(), po::value<std::vector<std::string>>(), "");
+  po::positional_options_description pos;
+  pos.add(positional.c_str(), -1);
+  po::variables_map vm;
+  try {
+    po::store(po::command_line_parser(args).options(all).positional(pos).run(), vm);
+    po::notify(vm);
+  } catch (const po::error& e) {
+    throw UsageError(e.what());
+  }
+  return vm;
+}
+
 }  // namespace ridgecal::cli

@@ -6,8 +6,10 @@
 //   2  bad input or usage (nothing is written)
 #pragma once
 
+#include <boost/program_options.hpp>
 #include <cstdint>
 #include <iosfwd>
+#include <ostream>
 #include <stdexcept>
 #include <string>
 #include <vector>
@@ -36,6 +38,29 @@ char parse_delimiter(const std::string& text);
 /// empty string), else SOURCE_DATE_EPOCH if set, else the current UTC time,
 /// as ISO 8601 "YYYY-MM-DDTHH:MM:SSZ".
 std::string creation_time(const std::string& injected);
+
+/// Parses a subcommand's arguments: `options`, plus every positional argument
+/// collected as a std::vector<std::string> under the name `positional`.
+/// Throws UsageError with program_options' message.
+boost::program_options::variables_map parse_arguments(const std::vector<std::string>& args,
+                                                      const boost::program_options::options_description& options,
+                                                      const std::string& positional);
+
+/// The entry point every subcommand shares: `parse(args)` (a UsageError
+/// becomes "ridgecal NAME: message" and "Try 'ridgecal NAME --help'." on err,
+/// exit 2), then `run(command, out, err)`.
+template <class Parse, class Run>
+int run_subcommand(const char* name, const std::vector<std::string>& args, std::ostream& out, std::ostream& err,
+                   Parse parse, Run run) {
+  decltype(parse(args)) cmd;
+  try {
+    cmd = parse(args);
+  } catch (const UsageError& e) {
+    err << "ridgecal " << name << ": " << e.what() << "\nTry 'ridgecal " << name << " --help'.\n";
+    return kExitBadInput;
+  }
+  return run(cmd, out, err);
+}
 
 /// Subcommand entry point: args exclude the program and subcommand names.
 using SubcommandMain = int (*)(const std::vector<std::string>& args, std::ostream& out, std::ostream& err);

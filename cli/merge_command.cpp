@@ -36,17 +36,7 @@ std::string merge_usage() {
 }
 
 MergeCommand parse_merge_command(const std::vector<std::string>& args) {
-  po::options_description all;
-  all.add(merge_options()).add_options()("inputs", po::value<std::vector<std::string>>(), "");
-  po::positional_options_description pos;
-  pos.add("inputs", -1);
-  po::variables_map vm;
-  try {
-    po::store(po::command_line_parser(args).options(all).positional(pos).run(), vm);
-    po::notify(vm);
-  } catch (const po::error& e) {
-    throw UsageError(e.what());
-  }
+  const po::variables_map vm = parse_arguments(args, merge_options(), "inputs");
   MergeCommand cmd;
   if (vm.count("help")) {
     cmd.help = true;
@@ -94,14 +84,7 @@ int run_merge_command(const MergeCommand& cmd, std::ostream& out, std::ostream& 
 }
 
 int merge_main(const std::vector<std::string>& args, std::ostream& out, std::ostream& err) {
-  MergeCommand cmd;
-  try {
-    cmd = parse_merge_command(args);
-  } catch (const UsageError& e) {
-    err << "ridgecal merge-summaries: " << e.what() << "\nTry 'ridgecal merge-summaries --help'.\n";
-    return kExitBadInput;
-  }
-  return run_merge_command(cmd, out, err);
+  return run_subcommand("merge-summaries", args, out, err, parse_merge_command, run_merge_command);
 }
 
 }  // namespace ridgecal::cli

@@ -40,17 +40,7 @@ std::string report_usage() {
 }
 
 ReportCommand parse_report_command(const std::vector<std::string>& args) {
-  po::options_description all;
-  all.add(report_options()).add_options()("record", po::value<std::vector<std::string>>(), "");
-  po::positional_options_description pos;
-  pos.add("record", -1);
-  po::variables_map vm;
-  try {
-    po::store(po::command_line_parser(args).options(all).positional(pos).run(), vm);
-    po::notify(vm);
-  } catch (const po::error& e) {
-    throw UsageError(e.what());
-  }
+  const po::variables_map vm = parse_arguments(args, report_options(), "record");
   ReportCommand cmd;
   if (vm.count("help")) {
     cmd.help = true;
@@ -101,14 +91,7 @@ int run_report_command(const ReportCommand& cmd, std::ostream& out, std::ostream
 }
 
 int report_main(const std::vector<std::string>& args, std::ostream& out, std::ostream& err) {
-  ReportCommand cmd;
-  try {
-    cmd = parse_report_command(args);
-  } catch (const UsageError& e) {
-    err << "ridgecal report: " << e.what() << "\nTry 'ridgecal report --help'.\n";
-    return kExitBadInput;
-  }
-  return run_report_command(cmd, out, err);
+  return run_subcommand("report", args, out, err, parse_report_command, run_report_command);
 }
 
 }  // namespace ridgecal::cli

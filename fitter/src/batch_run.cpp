@@ -33,6 +33,15 @@ std::string BatchOptions::validate() const {
   if (const std::string e = assess.validate(); !e.empty()) return e;
   if (out_dir.empty()) return "out_dir is empty; give the output directory";
   if (jobs < 0 || jobs > 1024) return fmt::format("jobs is {}; it must be between 0 (all cores) and 1024", jobs);
+  for (const UnitOutput& o : unit_outputs) {
+    if (!write_records)
+      return fmt::format("unit output '{}' needs records (write_records is false); records are its input", o.name);
+    if (o.directory.empty() || o.directory.find('/') != std::string::npos || o.directory == "." ||
+        o.directory == ".." || o.directory == "records")
+      return fmt::format("unit output '{}' has directory '{}'; it must be a plain directory name other than "
+                         "'records'", o.name, o.directory);
+    if (!o.write) return fmt::format("unit output '{}' has no writer", o.name);
+  }
   if (window_per_job < 1 || window_per_job > 4096)
     return fmt::format("window_per_job is {}; it must be between 1 and 4096", window_per_job);
   return {};
@@ -156,7 +165,11 @@ UnitSummary process_unit(const UnitChunk& chunk, const BatchOptions& options) {
     u.status = UnitStatus::Failed;
     u.error = std::move(why);
     // A record left by an earlier run must not pass for this run's result.
-    if (options.write_records && chunk.error.empty()) ::unlink((options.out_dir + "/" + rel).c_str());
+    if (options.write_records && chunk.error.empty()) {
+      ::unlink((options.out_dir + "/" + rel).c_str());
+      for (const UnitOutput& o : options.unit_outputs)
+        ::unlink((options.out_dir + "/" + o.directory + "/" + stem + o.extension).c_str());
+    }
     return u;
   };
   if (!chunk.error.empty()) return fail(chunk.error);
@@ -215,8 +228,20 @@ UnitSummary process_unit(const UnitChunk& chunk, const BatchOptions& options) {
     rec.warnings = std::move(assessment.warnings);
     write_whole_file_atomic(options.out_dir + "/" + rel, record_text(record_to_json(rec)), options.sync_records);
     u.record = rel;
-    // Hook: the per-unit HTML report (issue 5) and firmware header (issue 3)
-    // are written here, beside the record, once those modules are on main.
+    for (const UnitOutput& o : options.unit_outputs) {
+      const std::string path = options.out_dir + "/" + o.directory + "/" + stem + o.extension;
+      std::string why;
+      try {
+        why = o.write(options.out_dir + "/" + rel, path);
+      } catch (const std::exception& e) {
+        why = e.what();
+      }
+      if (!why.empty()) {
+        ::unlink(path.c_str());
+        u.warnings.push_back(o.name + " not written: " + why);
+        ++u.outputs_failed;
+      }
+    }
   }
   return u;
 }
@@ -231,6 +256,11 @@ BatchResult run_batch(const std::vector<std::string>& inputs, const BatchOptions
   if (options.write_records) {
     fs::create_directories(records_dir(options), ec);
     if (ec) throw InputError(records_dir(options), 0, "cannot create the directory: " + ec.message(), "check permissions");
+  }
+  for (const UnitOutput& o : options.unit_outputs) {
+    const std::string dir = options.out_dir + "/" + o.directory;
+    fs::create_directories(dir, ec);
+    if (ec) throw InputError(dir, 0, "cannot create the directory: " + ec.message(), "check permissions");
   }
 
   UnitReader reader(inputs, options.input);
@@ -249,6 +279,7 @@ BatchResult run_batch(const std::vector<std::string>& inputs, const BatchOptions
     ++res.units;
     (u.status == UnitStatus::Ok ? res.ok : res.failed)++;
     if (u.verdict == UnitVerdict::Fail) ++res.out_of_tolerance;
+    if (u.outputs_failed > 0) ++res.outputs_failed;
     if (progress && std::chrono::duration<double>(Clock::now() - last_report).count() >= progress_interval_s) {
       last_report = Clock::now();
       prog = BatchProgress{res.units, res.failed, reader.bytes_read(), reader.bytes_total(), seconds(), false};

@@ -63,4 +63,37 @@ sort_body() { tail -n +2 "$1" | cut -d, -f1-9 | LC_ALL=C sort; }
 [ $rc -eq 2 ] || fail "duplicate shard gave $rc"
 grep -q "also in" "$TMP/err" || fail "duplicate message: $(cat "$TMP/err")"
 [ ! -e "$TMP/dup/summary.json" ] || fail "merge wrote output after an error"
+# Per-unit reports and headers (--reports, --headers): the same files as
+# `ridgecal report` / `ridgecal export` make from the unit's record.
+"$RIDGECAL" batch "$TMP/batch.csv" --unit unit --setpoint setpoint -o "$TMP/rh" -j 2 --timestamp none \
+  --progress none --reports --headers coldstore --header-numeric float >"$TMP/out.txt" 2>"$TMP/err"; rc=$?
+[ $rc -eq 1 ] || fail "reports/headers run gave $rc (BAD unit fails)"
+grep -q "4 units: 3 ok, 1 failed, 0 with a report or header not written" "$TMP/out.txt" || fail "stdout: $(cat "$TMP/out.txt")"
+for u in N1 N2 N3; do
+  grep -q '<html' "$TMP/rh/reports/$u.html" || fail "no report for $u"
+  grep -q 'coldstore_eval' "$TMP/rh/headers/$u.h" || fail "no header for $u"
+  "$RIDGECAL" report "$TMP/rh/records/$u.json" -o "$TMP/one.html" >/dev/null || fail "report $u"
+  cmp -s "$TMP/one.html" "$TMP/rh/reports/$u.html" || fail "batch report of $u differs from 'ridgecal report'"
+  "$RIDGECAL" export "$TMP/rh/records/$u.json" --prefix coldstore --numeric float -o "$TMP/one.h" >/dev/null || fail "export $u"
+  cmp -s "$TMP/one.h" "$TMP/rh/headers/$u.h" || fail "batch header of $u differs from 'ridgecal export'"
+done
+[ ! -e "$TMP/rh/reports/BAD.html" ] && [ ! -e "$TMP/rh/headers/BAD.h" ] || fail "outputs for the failed unit"
+# A header the export proof refuses (fixed point rounded to whole degrees,
+# against a 0.05 degC tolerance): a warning in the summary, exit 1, and the
+# header of the earlier run is removed rather than left to pass for this one.
+grep -v '^BAD,' "$TMP/batch.csv" > "$TMP/good.csv"
+"$RIDGECAL" batch "$TMP/good.csv" --unit unit --setpoint setpoint -o "$TMP/rh" --timestamp none --progress none \
+  --headers coldstore --header-numeric fixed --header-output-scale 1 --tol-offset 0.05 >"$TMP/out.txt" 2>"$TMP/err"; rc=$?
+[ $rc -eq 1 ] || fail "refused headers gave exit $rc"
+grep -q "3 with a report or header not written" "$TMP/out.txt" || fail "stdout: $(cat "$TMP/out.txt")"
+[ ! -e "$TMP/rh/headers/N1.h" ] || fail "a stale header was left beside a refused export"
+grep -q '^N1,ok,.*header not written: ' "$TMP/rh/summary.csv" || fail "no warning in the summary: $(cat "$TMP/rh/summary.csv")"
+# Usage: reports need records; header options need --headers; a bad prefix is refused.
+"$RIDGECAL" batch "$TMP/good.csv" --unit unit -o "$TMP/u1" --no-records --reports 2>"$TMP/err"; rc=$?
+[ $rc -eq 2 ] && grep -q "drop --no-records" "$TMP/err" || fail "--reports with --no-records gave $rc: $(cat "$TMP/err")"
+"$RIDGECAL" batch "$TMP/good.csv" --unit unit -o "$TMP/u1" --header-numeric double 2>/dev/null; rc=$?
+[ $rc -eq 2 ] || fail "--header-numeric without --headers gave $rc"
+"$RIDGECAL" batch "$TMP/good.csv" --unit unit -o "$TMP/u1" --headers 'int' 2>/dev/null; rc=$?
+[ $rc -eq 2 ] || fail "C keyword as --headers prefix gave $rc"
+[ ! -e "$TMP/u1" ] || fail "output written after a usage error"
 echo "ok"

@@ -5,7 +5,10 @@
 // `jobs` worker threads. Output, in an output directory:
 //   records/<unit>.json  one calibration record per fitted unit (record.hpp);
 //                        <unit> is unit_file_stem(label);
-//   summary.csv, summary.json  one row per unit in input order (batch_summary.hpp).
+//   summary.csv, summary.json  one row per unit in input order (batch_summary.hpp);
+//   <directory>/<unit><extension>  optional extra outputs per fitted unit
+//                        (BatchOptions::unit_outputs; `ridgecal batch` uses
+//                        them for reports/<unit>.html and headers/<unit>.h).
 // Every file is written atomically (temporary file in the same directory,
 // then rename); the summaries are streamed into their temporary files and
 // renamed when the batch ends, so memory stays flat with the number of units.
@@ -37,6 +40,22 @@
 
 namespace ridgecal {
 
+/// An extra output written for every fitted unit, beside its record, by a
+/// writer from another library (the HTML report, the firmware header).
+/// `write(record_path, output_path)` is called on worker threads,
+/// concurrently for different units, after the unit's record is written: it
+/// must be thread-safe and must write `output_path` atomically. It returns ""
+/// on success, else why the output was not written; the unit then gets the
+/// warning "<name> not written: <why>" and counts in BatchResult::outputs_failed,
+/// and a file of that name left by an earlier run is removed, so that it
+/// cannot pass for this run's. The same removal happens for a unit that fails.
+struct UnitOutput {
+  std::string name;       ///< e.g. "report"; used in warnings
+  std::string directory;  ///< relative to out_dir, e.g. "reports"; a plain name
+  std::string extension;  ///< e.g. ".html"
+  std::function<std::string(const std::string& record_path, const std::string& output_path)> write;
+};
+
 struct BatchOptions {
   BatchInputOptions input;   ///< unit column and the other columns
   FitOptions fit;            ///< the same fit settings for every unit
@@ -48,6 +67,7 @@ struct BatchOptions {
   bool sync_records = true;  ///< fsync each record before the rename (durable; slower on real disks)
   std::string created_utc;   ///< creation time written to every record and the summary ("" = omit)
   int window_per_job = 16;   ///< units in flight per job (bounds memory), >= 1
+  std::vector<UnitOutput> unit_outputs;  ///< extra per-unit outputs; need write_records
 
   /// Empty when valid, else a message naming the field, the value and the rule.
   std::string validate() const;
@@ -69,6 +89,7 @@ struct BatchResult {
   std::uint64_t ok = 0;              ///< fitted (whatever their verdict)
   std::uint64_t failed = 0;          ///< not fitted
   std::uint64_t out_of_tolerance = 0;  ///< fitted with verdict FAIL
+  std::uint64_t outputs_failed = 0;    ///< fitted units with an extra output not written
   double seconds = 0.0;
 };
 

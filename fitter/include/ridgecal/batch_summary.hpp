@@ -48,6 +48,7 @@ struct UnitSummary {
   std::vector<std::string> warnings;
   std::string error;   ///< why the unit failed
   std::string record;  ///< record file, relative to the output directory ("" if none)
+  int outputs_failed = 0;  ///< extra per-unit outputs not written (batch_run.hpp); not in the summary files
 };
 
 /// Header line of the summary CSV.
