@@ -21,7 +21,7 @@ base_pkgs=(g++ cmake ninja-build pkg-config libeigen3-dev libboost-dev libboost-
            libboost-test-dev nlohmann-json3-dev libfmt-dev libssl-dev)
 # Extra packages for the test suite (the firmware target and browser tests
 # install their own toolchains through the scripts listed in test_installers).
-test_pkgs=(python3 clang-14 libclang-rt-14-dev)  # clang + libFuzzer runtime for tests/fuzz
+test_pkgs=(python3 clang-14 libclang-rt-14-dev libgsl-dev)  # clang + libFuzzer runtime for tests/fuzz; GSL for the Longley cross-check
 test_installers=()
 for f in tests/*/install-*.sh; do [[ -e $f ]] && test_installers+=("$f"); done
 

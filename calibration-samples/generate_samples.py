@@ -55,6 +55,48 @@ def loadcell_hopper(path):
     open(path, "w").write("\n".join(lines) + "\n")
 
 
+# Pressure transmitter with temperature drift (invented): shared by the
+# generator and, as constants, by tests/unit/test_compensation.cpp.
+PT_OFFSET0, PT_OFFSET_TC, PT_OFFSET_TC2 = 6000.0, 4.0, 0.02  # counts, counts/degC, counts/degC^2
+PT_GAIN0, PT_GAIN_TC = 3200.0, -0.0015  # counts/bar at 25 degC, relative change per degC
+PT_BOW = 3.0  # counts/bar^2, bridge nonlinearity
+
+
+def pressure_counts(p_bar, t_c):
+    dt = t_c - 25.0
+    offset = PT_OFFSET0 + PT_OFFSET_TC * dt + PT_OFFSET_TC2 * dt * dt
+    gain = PT_GAIN0 * (1.0 + PT_GAIN_TC * dt)
+    return offset + gain * p_bar - PT_BOW * p_bar * p_bar
+
+
+def pressure_tempco(path):
+    # A hydraulic test rig's 0..16 bar pressure transmitter: a piezoresistive
+    # bridge read by a 16-bit ADC, with an on-chip temperature sensor. Its
+    # zero and span drift with temperature. Calibrated in a climatic chamber
+    # at six temperatures from -20 to +80 degC, at each one nine pressures
+    # from 0 to 16 bar set by a pressure controller with a reference gauge,
+    # three readings per point.
+    rng = random.Random(7070)
+    lines = [
+        "# ridgecal demo data (invented scenario): test-rig pressure transmitter PT-7 with temperature drift",
+        "# reading: 16-bit ADC counts of the bridge; temperature: the transmitter's own sensor, degC;",
+        "# reference: reference gauge, bar; chamber: climatic chamber setpoint",
+        "setpoint,chamber,temperature,reading,reference",
+    ]
+    for chamber in (-20, 0, 20, 40, 60, 80):
+        soak = chamber + rng.gauss(0.0, 0.3)  # the sensor settles near the chamber setpoint
+        for p_set in range(0, 17, 2):
+            for _ in range(3):
+                t_true = soak + rng.gauss(0.0, 0.02)
+                p_true = p_set + rng.gauss(0.0, 0.002)  # controller settling
+                counts = pressure_counts(p_true, t_true) + rng.gauss(0.0, 2.0)
+                t_meas = t_true + rng.gauss(0.0, 0.05)  # on-chip sensor noise
+                ref = p_true + rng.gauss(0.0, 0.0005)  # reference gauge noise
+                lines.append(f"P{p_set:02d},C{chamber:+d},{t_meas:.2f},{counts:.1f},{ref:.4f}")
+    open(path, "w").write("\n".join(lines) + "\n")
+
+
 if __name__ == "__main__":
     ntc_coldstore("ntc-coldstore/ntc-coldstore.csv")
     loadcell_hopper("loadcell-hopper/loadcell-hopper.csv")
+    pressure_tempco("pressure-tempco/pressure-tempco.csv")

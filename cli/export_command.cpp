@@ -145,6 +145,11 @@ int run_export_command(const ExportCommand& cmd, std::ostream& out, std::ostream
     const nlohmann::json& j = guarded.json;
     const CalibrationRecord& rec = guarded.record;
     const Calibration& cal = rec.calibration;
+    if (cal.surface)
+      throw InputError(cmd.record_path, 0,
+                       "the record holds an extended model (second input, transforms or restricted powers), which "
+                       "the header generator does not export yet",
+                       "see docs/compensation-and-transforms.md for how to evaluate it from the record");
 
     firmware::HeaderMeta meta;
     meta.sensor_name = rec.sensor.name;

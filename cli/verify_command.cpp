@@ -104,6 +104,7 @@ int run_verify_command(const VerifyCommand& cmd, std::ostream& out, std::ostream
     csv.reference_column = cmd.reference_column.value_or(rec.record.input.columns.reference_column);
     csv.setpoint_column = cmd.setpoint_column.value_or(rec.record.input.columns.setpoint_column);
     csv.delimiter = cmd.delimiter.value_or(rec.record.input.columns.delimiter);
+    csv.aux_column = rec.record.input.columns.aux_column;  // extended records with a second input
     if (const std::string e = csv.validate(); !e.empty())
       throw InputError("", 0, "invalid column options: " + e, "see 'ridgecal verify --help'");
     const Dataset data = read_calibration_csv(cmd.data_path, csv);

@@ -8,6 +8,7 @@
 #include <memory>
 #include <stdexcept>
 
+#include "ridgecal/multi_input_fit.hpp"
 #include "ridgecal/ridge_grid.hpp"
 #include "ridgecal/ridge_path.hpp"
 
@@ -474,12 +475,15 @@ FitOutcome fit_calibration(const Dataset& data, const FitOptions& options) {
 
 std::string Calibration::brief() const {
   std::string s;
+  if (surface) s += surface_brief(*this);
+  else {
   if (selection.mode == SelectionMode::Fixed)
     s += fmt::format("model: degree {}, lambda {:g} (fixed by the user)\n", model.degree(), lambda);
   else
     s += fmt::format("model: degree {}, lambda {:g} (chosen by {} grouped CV over {} folds, rule {})\n", model.degree(),
                      lambda, to_string(selection.scheme), selection.n_folds, to_string(selection.rule));
   s += fmt::format("range: reading {:g} .. {:g}\n", model.scaling.x_min, model.scaling.x_max);
+  }
   std::size_t ntr = 0, nte = 0;
   for (const auto& sp : setpoints) (sp.role == SetRole::Train ? ntr : nte)++;
   s += fmt::format("setpoints: {} training, {} test{}\n", ntr, nte, user_named_test ? " (named by the role column)" : "");
@@ -495,10 +499,13 @@ std::string Calibration::full() const {
   const auto g = [](double v, const char* spec) {
     return std::isfinite(v) ? fmt::format(fmt::runtime(spec), v) : std::string("n/a");
   };
+  if (surface) s += surface_full(*this);
+  else {
   s += "chebyshev coefficients (scaled reading t):";
   for (double c : model.cheb) s += " " + g(c, "{:.17g}");
   s += "\npower coefficients (raw reading x):";
   for (double c : model.power_in_x()) s += " " + g(c, "{:.17g}");
+  }
   s += "\ncondition number: " + g(condition_number, "{:.3g}") + "\n";
   for (const auto& note : selection.notes) s += "note: " + note + "\n";
   return s;

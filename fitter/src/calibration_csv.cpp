@@ -29,6 +29,10 @@ std::string CsvOptions::validate() const {
                        reading_column);
   if (delimiter != ',' && delimiter != ';' && delimiter != '\t')
     return fmt::format("delimiter is '{}'; it must be ',', ';' or a tab", shown_text(std::string(1, delimiter)));
+  if (!aux_column.empty() && (aux_column == reading_column || aux_column == reference_column))
+    return fmt::format("aux_column is '{}'; it must differ from the reading and reference columns", shown_text(aux_column));
+  if (!aux_setpoint_column.empty() && aux_column.empty())
+    return "aux_setpoint_column is set without aux_column; name the aux column too";
   if (!direction_column.empty() &&
       (direction_column == reading_column || direction_column == reference_column))
     return fmt::format("direction_column is '{}'; it must differ from the reading and reference columns",
@@ -206,7 +210,7 @@ Dataset parse_calibration_csv(const std::string& text, const std::string& file,
 
   std::vector<std::string> header;
   std::size_t header_line = 0;
-  int reading_idx = -1, reference_idx = -1, setpoint_idx = -1, role_idx = -1;
+  int reading_idx = -1, reference_idx = -1, setpoint_idx = -1, role_idx = -1, aux_idx = -1, aux_sp_idx = -1;
   int direction_idx = -1;
   std::size_t lineno = 0;
   while (!rest.empty()) {
@@ -249,6 +253,8 @@ Dataset parse_calibration_csv(const std::string& text, const std::string& file,
       reference_idx = find(options.reference_column, "reference");
       if (!options.setpoint_column.empty()) setpoint_idx = find(options.setpoint_column, "setpoint");
       if (!options.role_column.empty()) role_idx = find(options.role_column, "role");
+      if (!options.aux_column.empty()) aux_idx = find(options.aux_column, "aux");
+      if (!options.aux_setpoint_column.empty()) aux_sp_idx = find(options.aux_setpoint_column, "aux setpoint");
       if (!options.direction_column.empty()) direction_idx = find(options.direction_column, "direction");
       continue;
     }
@@ -280,6 +286,15 @@ Dataset parse_calibration_csv(const std::string& text, const std::string& file,
                          "save the file as UTF-8 and keep labels to printable text");
     } else {
       ob.setpoint = fmt::format("{}", ob.reference);  // shortest round-trip text
+    }
+    if (aux_idx >= 0)
+      ob.aux = parse_number(fields[static_cast<std::size_t>(aux_idx)], options.aux_column, options.decimal_comma, file, lineno);
+    if (aux_sp_idx >= 0) {
+      ob.aux_setpoint = fields[static_cast<std::size_t>(aux_sp_idx)];
+      if (ob.aux_setpoint.empty())
+        throw InputError(file, lineno,
+                         fmt::format("the aux setpoint column '{}' is empty", shown(options.aux_setpoint_column)),
+                         "every row needs an aux setpoint label");
     }
     if (role_idx >= 0) {
       const std::string& cell = fields[static_cast<std::size_t>(role_idx)];

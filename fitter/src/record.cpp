@@ -8,6 +8,7 @@
 #include "ridgecal/atomic_file.hpp"
 #include "ridgecal/errors.hpp"
 #include "ridgecal/sha256.hpp"
+#include "ridgecal/surface_record.hpp"
 
 namespace ridgecal {
 
@@ -233,6 +234,7 @@ json record_to_json(const CalibrationRecord& rec) {
                    {"fold", p.fold},
                    {"cv_predicted", num(p.cv_predicted)}});
   j["points"] = pts;
+  add_surface_members(j, rec);
   if (!rec.input.columns.direction_column.empty())
     j["input"]["columns"]["direction"] = rec.input.columns.direction_column;
   if (rec.tolerance) j["tolerance"] = to_json(*rec.tolerance);
@@ -288,6 +290,8 @@ CalibrationRecord record_from_json(const json& j, const std::string& file) {
 
   Calibration& cal = rec.calibration;
   const json& m = r.member(j, "model", "record");
+  if (is_surface_record(j)) read_surface_members(j, rec, file);
+  else {
   cal.lambda = r.finite(m, "lambda", "model");
   cal.intercept = r.boolean(m, "intercept", "model");
   cal.condition_number = r.number(m, "condition_number", "model");
@@ -304,6 +308,7 @@ CalibrationRecord record_from_json(const json& j, const std::string& file) {
   }
   if (r.integer(m, "degree", "model") != cal.model.degree())
     r.fail("model.degree", "does not match the number of coefficients");
+  }
 
   const json& sel = r.member(j, "selection", "record");
   cal.selection.mode = r.enum_value(sel, "mode", "selection", selection_mode_from_string);
@@ -364,6 +369,7 @@ CalibrationRecord record_from_json(const json& j, const std::string& file) {
     pr.cv_predicted = r.number(p, "cv_predicted", "points[]");
     cal.points.push_back(pr);
   }
+  if (cal.surface) read_surface_extras(j, cal);
   // Assessment members: read when they follow our layout; a member in another
   // layout (hand-made or older records) is left unset here. Callers that rely
   // on them (verify) use read_assessment_strict().

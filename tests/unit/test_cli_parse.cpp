@@ -76,3 +76,31 @@ BOOST_AUTO_TEST_CASE(injected_time) {
   BOOST_TEST(creation_time("2026-01-01T00:00:00Z") == "2026-01-01T00:00:00Z");
   BOOST_TEST(creation_time("").size() == 20u);
 }
+
+BOOST_AUTO_TEST_CASE(compensation_options) {
+  const FitCommand plain = parse_fit_command({"run.csv"});
+  BOOST_TEST(!plain.comp.active());
+  const FitCommand c = parse_fit_command({"run.csv", "--aux", "temp", "--aux-setpoint", "chamber", "--aux-degree",
+                                          "0..2", "--reading-transform", "ln", "--reference-transform",
+                                          "reciprocal-kelvin", "--divider-resistor", "10000", "--divider-full-scale",
+                                          "4095", "--divider-position", "sensor-high"});
+  BOOST_TEST(c.comp.active());
+  BOOST_TEST(c.comp.aux);
+  BOOST_TEST(c.csv.aux_column == "temp");
+  BOOST_TEST(c.csv.aux_setpoint_column == "chamber");
+  BOOST_TEST(c.comp.aux_degrees == std::vector<int>({0, 1, 2}));
+  BOOST_TEST((c.comp.transforms.reading == ReadingTransform::Ln));
+  BOOST_TEST((c.comp.transforms.reference == ReferenceTransform::ReciprocalKelvin));
+  BOOST_TEST(c.comp.transforms.divider.enabled);
+  BOOST_TEST((c.comp.transforms.divider.position == DividerPosition::SensorHigh));
+  BOOST_TEST(c.comp.transforms.divider.full_scale == 4095.0);
+  const FitCommand p = parse_fit_command({"run.csv", "--powers", "0,1,3", "--degree", "3", "--lambda", "0"});
+  BOOST_TEST(p.comp.powers == std::vector<int>({0, 1, 3}));
+  BOOST_CHECK_THROW(parse_fit_command({"run.csv", "--powers", "0,1,3", "--degree", "2", "--lambda", "0"}), UsageError);
+  BOOST_CHECK_THROW(parse_fit_command({"run.csv", "--powers", "x"}), UsageError);
+  BOOST_CHECK_THROW(parse_fit_command({"run.csv", "--aux-degree", "1"}), UsageError);
+  BOOST_CHECK_THROW(parse_fit_command({"run.csv", "--divider-position", "sensor-high"}), UsageError);
+  BOOST_CHECK_THROW(parse_fit_command({"run.csv", "--reference-transform", "kelvin"}), UsageError);
+  BOOST_CHECK_THROW(parse_fit_command({"run.csv", "--aux", "reading"}), UsageError);
+  BOOST_CHECK_THROW(parse_fit_command({"run.csv", "--aux", "t", "--through-origin"}), UsageError);
+}

@@ -1,6 +1,7 @@
 // CSV reader: accepted variants and every rejected input, with file:line messages.
 #define BOOST_TEST_MODULE csv_reader
 #include <boost/test/unit_test.hpp>
+#include <cmath>
 #include <string>
 
 #include "ridgecal/calibration_csv.hpp"
@@ -115,4 +116,25 @@ BOOST_AUTO_TEST_CASE(role_spellings) {
   BOOST_TEST((user_role_from_string("fit") == UserRole::Fit));
   BOOST_TEST((user_role_from_string(to_string(UserRole::Check)) == UserRole::Check));
   BOOST_CHECK_THROW(user_role_from_string("test"), std::invalid_argument);
+}
+
+BOOST_AUTO_TEST_CASE(aux_and_aux_setpoint_columns) {
+  CsvOptions opt;
+  opt.aux_column = "temp";
+  opt.aux_setpoint_column = "chamber";
+  const Dataset d = parse("reading,reference,temp,chamber\n1,10,20.5,C20\n2,20,-4.25,C-5\n", opt);
+  BOOST_REQUIRE_EQUAL(d.rows.size(), 2u);
+  BOOST_TEST(d.rows[1].aux == -4.25);
+  BOOST_TEST(d.rows[1].aux_setpoint == "C-5");
+  // Without an aux column the aux value is NaN.
+  BOOST_TEST(std::isnan(parse("reading,reference\n1,10\n").rows[0].aux));
+  expect_error("reading,reference,temp,chamber\n1,10,warm,C20\n", 2, "column 'temp' holds 'warm'", opt);
+  expect_error("reading,reference,temp,chamber\n1,10,20,\n", 2, "the aux setpoint column 'chamber' is empty", opt);
+  expect_error("reading,reference,chamber\n1,10,C20\n", 1, "no aux column 'temp'", opt);
+  CsvOptions same;
+  same.aux_column = "reading";
+  BOOST_TEST(same.validate().find("aux_column") != std::string::npos);
+  CsvOptions orphan;
+  orphan.aux_setpoint_column = "chamber";
+  BOOST_TEST(orphan.validate().find("aux_setpoint_column") != std::string::npos);
 }

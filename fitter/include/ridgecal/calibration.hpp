@@ -10,6 +10,7 @@
 // setpoints are used for nothing but the final test metrics.
 #pragma once
 
+#include <limits>
 #include <optional>
 #include <string>
 #include <vector>
@@ -19,6 +20,7 @@
 #include "ridgecal/grouped_split.hpp"
 #include "ridgecal/metrics.hpp"
 #include "ridgecal/poly_model.hpp"
+#include "ridgecal/surface_model.hpp"
 
 namespace ridgecal {
 
@@ -63,6 +65,8 @@ struct GridCell {
   double cv_rmse = 0.0;     ///< mean over folds of the fold RMSE (NaN if not scored)
   double cv_se = 0.0;       ///< standard error of that mean: sd(fold RMSE) / sqrt(K)
   double train_rmse = 0.0;  ///< RMSE of the same cell fitted on all training points
+  int aux_degree = -1;      ///< extended fits with an aux input: its degree limit; -1 otherwise
+  int terms = 0;            ///< extended fits: number of model terms; 0 otherwise
 };
 
 struct SelectionInfo {
@@ -75,6 +79,8 @@ struct SelectionInfo {
   std::vector<GridCell> grid;    ///< degree-major, lambda ascending
   int chosen = -1;               ///< index into grid, -1 in fixed mode without CV
   std::vector<std::string> notes;  ///< e.g. degrees dropped for lack of setpoints
+  std::vector<int> aux_degrees;    ///< extended fits: the aux degree limits scored (empty: total degree)
+  std::vector<int> powers;         ///< extended fits: the allowed reading powers (empty: all up to the degree)
 };
 
 struct SetpointResult {
@@ -84,6 +90,7 @@ struct SetpointResult {
   std::size_t count = 0;
   SetRole role = SetRole::Train;
   int fold = -1;  ///< -1: test, or an end setpoint never validated
+  double mean_aux = std::numeric_limits<double>::quiet_NaN();  ///< fits with an aux input only
 };
 
 struct PointResult {
@@ -96,6 +103,7 @@ struct PointResult {
   SetRole role = SetRole::Train;
   int fold = -1;
   double cv_predicted = 0.0;  ///< held-out prediction for validated points, else NaN
+  double aux = std::numeric_limits<double>::quiet_NaN();  ///< fits with an aux input only
 };
 
 struct Calibration {
@@ -109,6 +117,11 @@ struct Calibration {
   std::vector<SetpointResult> setpoints;  ///< in order of increasing reading
   Metrics training, validation, test;
   std::vector<PointResult> points;  ///< in file order
+  /// Extended fits (transforms, an aux input, restricted powers; see
+  /// multi_input_fit.hpp): the model. `model` is then unused (empty).
+  std::optional<SurfaceModel> surface;
+  /// Extended fits with an aux input grouped by rounded value: the rounding step (0 otherwise).
+  double aux_step = 0.0;
 
   std::string brief() const;  ///< a few lines for a terminal
   std::string full() const;   ///< everything, for logs

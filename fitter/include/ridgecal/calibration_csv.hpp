@@ -10,6 +10,7 @@
 #pragma once
 
 #include <cstddef>
+#include <limits>
 #include <string>
 #include <vector>
 
@@ -46,6 +47,8 @@ struct CsvOptions {
   std::string role_column;      ///< empty: no user-named check points; values `fit` / `check`
   std::string direction_column;  ///< empty: no sweep direction; values `up` / `down` (hysteresis check)
   char delimiter = ',';         ///< one of ',' ';' '\t'
+  std::string aux_column;           ///< empty: no second input; else its column (e.g. sensor temperature)
+  std::string aux_setpoint_column;  ///< empty: aux groups by rounded value (see multi_input_fit.hpp)
   /// Numbers use ',' as the decimal point ("12,5"); requires delimiter ';' or
   /// tab, and then a '.' in a number is rejected (no thousands separators).
   bool decimal_comma = false;
@@ -73,6 +76,8 @@ struct Observation {
   std::string setpoint;    ///< group key: the setpoint cell, or the reference value as text
   UserRole role = UserRole::Unspecified;
   std::size_t line = 0;  ///< 1-based physical line in the file
+  double aux = std::numeric_limits<double>::quiet_NaN();  ///< second input, NaN without an aux column
+  std::string aux_setpoint;  ///< aux setpoint label, empty without an aux setpoint column
   SweepDirection direction = SweepDirection::Unspecified;  ///< from the direction column, if any
 };
 

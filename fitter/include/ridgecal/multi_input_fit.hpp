@@ -1,0 +1,85 @@
+// ridgecal: extended fits. Linearising transforms, a second input (aux) and
+// restricted powers, chosen and fitted like the 1-D curve (calibration.hpp),
+// plus the n-input degree-1 design.
+//
+// Model: see surface_model.hpp. Terms (i = degree in the reading, j in aux):
+//   no aux:                 i <= d                      (d from FitOptions::degrees)
+//   aux, total degree:      i + j <= d                  (aux_degrees empty)
+//   aux, separate limits:   i <= d, j <= a              (a from aux_degrees)
+//   restricted powers:      i in powers, j <= a         (power basis; d = max power)
+// Penalty: (1/n) sum (v - q)^2 + lambda * sum of the squared coefficients of
+// every term but (0,0), in the basis of the scaled variables (tensor Chebyshev,
+// or plain powers with --powers). The (0,0) term is not penalised (centring, as
+// in ridge_path.hpp); without a power 0 there is no intercept and nothing is
+// centred. Selection scores (cross-validation RMSE) and all metrics are in the
+// reference units, after the inverse reference transform.
+//
+// Groups (never split): rows sharing a setpoint label (or reference value) and,
+// with aux, an aux level: the aux setpoint label (CsvOptions::aux_setpoint_column)
+// or else the aux value rounded to the nearest multiple of aux_step.
+//
+// Boundary rule (the 1-D end rule in two inputs): these groups always stay in
+// training and are never validated nor tested:
+//   * without aux: the groups with the smallest and largest mean reading;
+//   * with aux: every group of the lowest and of the highest aux level (by the
+//     level's mean aux value), and in every aux level the groups with the
+//     smallest and the largest mean reading of that level.
+// On a rectangular setpoint x aux-level grid these are the cells on its edge,
+// so the training data span the calibrated (reading, aux) range.
+#pragma once
+
+#include <Eigen/Dense>
+#include <string>
+#include <vector>
+
+#include "ridgecal/calibration.hpp"
+#include "ridgecal/surface_model.hpp"
+#include "ridgecal/transforms.hpp"
+
+namespace ridgecal {
+
+struct CompensationOptions {
+  Transforms transforms;
+  bool aux = false;              ///< the rows carry an aux value (Observation::aux)
+  std::vector<int> aux_degrees;  ///< candidate aux degree limits (separate limits); empty: total degree
+  std::vector<int> powers;       ///< allowed reading powers (power basis); empty: Chebyshev, all powers
+  double aux_step = 1.0;         ///< aux grouping step without an aux setpoint column, > 0
+
+  /// True when any extension is in use (otherwise fit_calibration applies).
+  bool active() const { return aux || !aux_degrees.empty() || !powers.empty() || !transforms.identity(); }
+  /// Empty when valid together with `fit`, else a message naming the field, the value and the rule.
+  std::string validate(const FitOptions& fit) const;
+};
+
+/// Splits, selects and fits an extended model. Preconditions: fit.validate()
+/// and comp.validate(fit) are empty. Throws InputError (with the line) when a
+/// reading or reference is outside the transforms' domain or an aux value is
+/// missing; otherwise fails (status) like fit_calibration.
+FitOutcome fit_compensated(const Dataset& data, const FitOptions& fit, const CompensationOptions& comp);
+
+/// Lines describing an extended model for Calibration::brief()/full().
+std::string surface_brief(const Calibration& cal);
+std::string surface_full(const Calibration& cal);
+
+/// The n-input degree-1 design: y = b0 + sum_j b_j x_j, solved on scaled
+/// columns t_j = (x_j - center_j) / half_width_j (each input's range mapped on
+/// [-1, 1], i.e. the T_1 Chebyshev column of each input) through the centred
+/// thin SVD of ridge_path.hpp, with one step of iterative refinement in long
+/// double when lambda = 0. Coefficients in the raw inputs are derived in long double.
+struct LinearInputsFit {
+  Status status;                       ///< failure: an input is constant, or the design is rank deficient
+  std::vector<AxisScaling> scalings;   ///< one per input column
+  Eigen::VectorXd scaled_coefficients; ///< b on the scaled columns
+  double scaled_intercept = 0.0;
+  std::vector<long double> slopes;     ///< raw: y = intercept + sum slopes[j] x_j
+  long double intercept = 0.0L;
+  double condition_number = 0.0;       ///< of the centred scaled design
+  double residual_sd = 0.0;            ///< sqrt(RSS / (n - p - 1))
+  double r2 = 0.0;
+
+  double predict(const Eigen::Ref<const Eigen::RowVectorXd>& x) const;  ///< in the raw inputs
+};
+/// Preconditions: X.rows() == y.size() > X.cols() >= 1, all finite, lambda >= 0.
+LinearInputsFit fit_linear_inputs(const Eigen::MatrixXd& X, const Eigen::VectorXd& y, double lambda = 0.0);
+
+}  // namespace ridgecal
