@@ -46,18 +46,7 @@ std::string verify_usage() {
 }
 
 VerifyCommand parse_verify_command(const std::vector<std::string>& args) {
-  const po::options_description desc = verify_options();
-  po::options_description all;
-  all.add(desc).add_options()("files", po::value<std::vector<std::string>>(), "");
-  po::positional_options_description pos;
-  pos.add("files", -1);
-  po::variables_map vm;
-  try {
-    po::store(po::command_line_parser(args).options(all).positional(pos).run(), vm);
-    po::notify(vm);
-  } catch (const po::error& e) {
-    throw UsageError(e.what());
-  }
+  const po::variables_map vm = parse_arguments(args, verify_options(), "files");
   VerifyCommand cmd;
   if (vm.count("help")) {
     cmd.help = true;
@@ -128,14 +117,7 @@ int run_verify_command(const VerifyCommand& cmd, std::ostream& out, std::ostream
 }
 
 int verify_main(const std::vector<std::string>& args, std::ostream& out, std::ostream& err) {
-  VerifyCommand cmd;
-  try {
-    cmd = parse_verify_command(args);
-  } catch (const UsageError& e) {
-    err << "ridgecal verify: " << e.what() << "\nTry 'ridgecal verify --help'.\n";
-    return kExitBadInput;
-  }
-  return run_verify_command(cmd, out, err);
+  return run_subcommand("verify", args, out, err, parse_verify_command, run_verify_command);
 }
 
 }  // namespace ridgecal::cli

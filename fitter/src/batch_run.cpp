@@ -20,6 +20,7 @@
 #include <thread>
 
 #include "ridgecal/errors.hpp"
+#include "ridgecal/surface_assessment.hpp"
 #include "ridgecal/sha256.hpp"
 
 namespace ridgecal {
@@ -30,6 +31,11 @@ using nlohmann::json;
 std::string BatchOptions::validate() const {
   if (const std::string e = input.validate(); !e.empty()) return e;
   if (const std::string e = fit.validate(); !e.empty()) return e;
+  if (const std::string e = comp.validate(fit); !e.empty()) return e;
+  if (comp.aux != !input.csv.aux_column.empty())
+    return "comp.aux and input.csv.aux_column disagree; set both (a second input) or neither";
+  if (comp.active())
+    if (const std::string e = surface_assessment_unsupported(assess); !e.empty()) return e;
   if (const std::string e = assess.validate(); !e.empty()) return e;
   if (out_dir.empty()) return "out_dir is empty; give the output directory";
   if (jobs < 0 || jobs > 1024) return fmt::format("jobs is {}; it must be between 0 (all cores) and 1024", jobs);
@@ -80,6 +86,15 @@ json batch_settings_json(const BatchOptions& o) {
                     {"coverage_k", o.assess.uncertainty.coverage_k}};
   s["sensor"] = {{"name", o.sensor.name}, {"reading_unit", o.sensor.reading_unit},
                  {"reference_unit", o.sensor.reference_unit}};
+  if (o.comp.active()) {  // only then: the settings (and their digest) of plain batches are unchanged
+    const CompensationOptions& c = o.comp;
+    s["compensation"] = {{"aux_column", o.input.csv.aux_column},
+                         {"aux_setpoint_column", o.input.csv.aux_setpoint_column},
+                         {"aux_step", c.aux_step},
+                         {"aux_degrees", c.aux_degrees},
+                         {"powers", c.powers},
+                         {"transforms", c.transforms.describe()}};
+  }
   return s;
 }
 
@@ -174,7 +189,7 @@ UnitSummary process_unit(const UnitChunk& chunk, const BatchOptions& options) {
   };
   if (!chunk.error.empty()) return fail(chunk.error);
   Dataset data;
-  if (!parse_unit_chunk_fast(chunk, options.input.csv, data)) {
+  if (options.comp.aux || !parse_unit_chunk_fast(chunk, options.input.csv, data)) {
     try {
       data = parse_unit_chunk(chunk, options.input.csv);
     } catch (const InputError& e) {
@@ -183,14 +198,15 @@ UnitSummary process_unit(const UnitChunk& chunk, const BatchOptions& options) {
   }
   FitOutcome fit;
   try {
-    fit = fit_calibration(data, options.fit);  // throws InputError e.g. for a setpoint with mixed roles
+    // throws InputError e.g. for a setpoint with mixed roles, a reading outside a transform's domain
+    fit = options.comp.active() ? fit_compensated(data, options.fit, options.comp) : fit_calibration(data, options.fit);
   } catch (const InputError& e) {
     return fail(format_input_error(e));
   }
   if (!fit.status.ok) return fail(fit.status.message);
   const Calibration& cal = fit.calibration;
   u.status = UnitStatus::Ok;
-  u.degree = cal.model.degree();
+  u.degree = cal.surface ? cal.surface->total_degree() : cal.model.degree();
   u.lambda = cal.lambda;
   u.validation_rmse = cal.validation.n ? cal.validation.rmse : std::numeric_limits<double>::quiet_NaN();
   u.test_rmse = cal.test.n ? cal.test.rmse : std::numeric_limits<double>::quiet_NaN();
@@ -210,7 +226,8 @@ UnitSummary process_unit(const UnitChunk& chunk, const BatchOptions& options) {
   // costs about 15 times the fit itself, so a summary-only run without a
   // tolerance skips it; its summary then has no diagnostic warnings.)
   Assessment assessment;
-  if (options.assess.tolerance || options.write_records) assessment = assess_calibration(data, cal, options.assess);
+  if (options.assess.tolerance || options.write_records)
+    assessment = cal.surface ? assess_surface_calibration(cal, options.assess) : assess_calibration(data, cal, options.assess);
   if (assessment.decision) u.verdict = assessment.decision->pass() ? UnitVerdict::Pass : UnitVerdict::Fail;
   for (const Warning& w : assessment.warnings) u.warnings.push_back(to_string(w.code) + ": " + w.message);
   if (options.write_records) {
@@ -224,7 +241,7 @@ UnitSummary process_unit(const UnitChunk& chunk, const BatchOptions& options) {
     rec.calibration = cal;
     rec.tolerance = std::move(assessment.tolerance);
     rec.decision = std::move(assessment.decision);
-    rec.uncertainty = std::move(assessment.uncertainty);
+    if (!cal.surface) rec.uncertainty = std::move(assessment.uncertainty);
     rec.warnings = std::move(assessment.warnings);
     write_whole_file_atomic(options.out_dir + "/" + rel, record_text(record_to_json(rec)), options.sync_records);
     u.record = rel;

@@ -88,5 +88,26 @@ else bad "export of a surface record: exit/stderr $(cat "$work/stderr")"; fi
 if [[ $? -eq 0 && -s "$work/pt.html" ]] && grep -q "<svg" "$work/pt.html"; then ok
 else bad "report of a surface fit: $(cat "$work/stderr")"; fi
 
+# Batch with a second input: the pressure demo as two units of one batch file.
+# Each unit's model must be the one `ridgecal fit` chooses on the same rows.
+{
+  grep -v '^#' "$pt" | head -n 1 | sed 's/^/unit,/'
+  for u in PT-7A PT-7B; do grep -v '^#' "$pt" | tail -n +2 | sed "s/^/$u,/"; done
+} >"$work/pt-batch.csv"
+"$bin" batch "$work/pt-batch.csv" --unit unit --setpoint setpoint --aux temperature --aux-setpoint chamber \
+  --aux-degree 0..3 -o "$work/ptb" --timestamp none --progress none -j 2 >"$work/stdout" 2>&1
+rc=$?
+coef() { /usr/bin/python3 -c 'import json,sys; r=json.load(open(sys.argv[1])); print(json.dumps(r["compensation"]["monomial_coefficients"]), r["model"]["lambda"])' "$1"; }
+if [[ $rc -eq 0 ]] && grep -q "2 units: 2 ok, 0 failed" "$work/stdout" &&
+   [[ "$(coef "$work/ptb/records/PT-7A.json")" == "$(coef "$work/pt.json")" ]] &&
+   [[ "$(coef "$work/ptb/records/PT-7B.json")" == "$(coef "$work/pt.json")" ]] &&
+   grep -q '"compensation"' "$work/ptb/summary.json"; then ok
+else bad "batch with --aux: rc=$rc $(cat "$work/stdout") $(coef "$work/ptb/records/PT-7A.json" 2>&1 | head -c 300)"; fi
+# A batch whose aux column is missing: exit 2, no summary.
+"$bin" batch "$work/pt-batch.csv" --unit unit --setpoint setpoint --aux nosuch -o "$work/ptc" --progress none >/dev/null 2>"$work/stderr"
+rc=$?
+if [[ $rc -eq 1 || $rc -eq 2 ]] && ! grep -q ',ok,' "$work/ptc/summary.csv" 2>/dev/null; then ok
+else bad "batch with a missing aux column gave $rc: $(cat "$work/stderr")"; fi
+
 echo "cli_compensation: $passes passed, $fails failed"
 [[ $fails -eq 0 ]]
