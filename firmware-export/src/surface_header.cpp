@@ -411,14 +411,12 @@ void emit_floating_body(std::ostringstream& o, const Names& n, const SurfaceFloa
     << n.P << "_INLINE " << type << " " << n.p << "_eval(" << args << ")\n{\n"
     << "#if !defined(__GNUC__) || defined(__clang__)\n#pragma STDC FP_CONTRACT OFF\n#endif\n";
   const bool need_u = K > 0;
-  if (need_u) {
-    o << "    " << type << " u, t;\n";
-  } else {
-    o << "    (void)x;\n";
-  }
+  // declarations first (C89), then the (void) casts of unused inputs
+  if (need_u) o << "    " << type << " u, t;\n";
   if (p.has_aux && L > 0) o << "    " << type << " s;\n";
-  if (p.has_aux && L == 0) o << "    (void)aux;\n";
   o << "    " << type << " w, v;\n";
+  if (!need_u) o << "    (void)x;\n";
+  if (p.has_aux && L == 0) o << "    (void)aux;\n";
   if (need_u) {
     if (p.divider) {
       if (p.sensor_low)

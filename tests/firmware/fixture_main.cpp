@@ -257,8 +257,11 @@ bool write_surface_fixture(const fs::path& dir, const fwtest::SurfaceFixture& f)
     L.add("I mode=" + mode + " n=" + std::to_string(xs.size()) + " k=" + std::to_string(cx.size()));
     L.add("C " + hex8(r.common.table_crc32) + " 0");
     const auto ab = [&](float a) { return has_aux ? hex8(fbits(a)) + " " : std::string(); };
+    std::ofstream model_txt(dir / "model.txt");  // the double model at each V input (documentation)
+    model_txt.precision(17);
     for (std::size_t i = 0; i < xs.size(); ++i) {
       const auto [x, a] = xs[i];
+      model_txt << "V " << i << " " << f.model.eval(static_cast<double>(x), static_cast<double>(a)) << "\n";
       in.push_back(fbits(x));
       ain.push_back(fbits(a));
       const std::string y = is_float ? hex8(fbits(eval_surface(*r.float_program, x, a)))
@@ -295,8 +298,11 @@ bool write_surface_fixture(const fs::path& dir, const fwtest::SurfaceFixture& f)
     L.add("I mode=" + mode + " n=" + std::to_string(xs.size()) + " k=" + std::to_string(cx.size()));
     L.add("C " + hex8(r.common.table_crc32) + " 0");
     const auto ab = [&](std::int32_t a) { return has_aux ? hex8(static_cast<std::uint32_t>(a)) + " " : std::string(); };
+    std::ofstream model_txt(dir / "model.txt");  // round(model * output_scale) reference (documentation)
+    model_txt.precision(17);
     for (std::size_t i = 0; i < xs.size(); ++i) {
       const auto [x, a] = xs[i];
+      model_txt << "V " << i << " " << f.model.eval(x / p.t.scale, a / p.s.scale) * p.output_scale << "\n";
       in.push_back(static_cast<std::uint32_t>(x));
       ain.push_back(static_cast<std::uint32_t>(a));
       L.add("V " + std::to_string(i) + " " + hex8(static_cast<std::uint32_t>(x)) + " " + ab(a) +
