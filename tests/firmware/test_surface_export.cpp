@@ -281,3 +281,20 @@ BOOST_AUTO_TEST_CASE(reading_range_through_the_transforms) {
   const double x = 0.5 * (lo2 + hi2);
   BOOST_TEST(std::fabs(eval_surface(*r.double_program, x, 0.0) - high.eval(x)) < 1e-9);
 }
+
+BOOST_AUTO_TEST_CASE(aux_only_surface_declares_before_statements) {
+  // Reading degree 0 (the surface depends on aux only): the reading is unused,
+  // and the C89 body must still declare everything before the first statement.
+  auto f = fixture("ptc2d_float");
+  f.model.terms = {Term{0, 0}, Term{0, 1}};
+  f.model.coefficients = {2.0, 0.5};
+  for (NumericMode mode : {NumericMode::Float, NumericMode::Fixed}) {
+    f.options.mode = mode;
+    const SurfaceExportResult r = generate_surface_header(f.model, f.meta, f.options);
+    BOOST_TEST_REQUIRE(r.ok(), r.common.message);
+    const std::string& h = r.common.header;
+    const std::string decl = mode == NumericMode::Float ? "    float w, v;\n    (void)x;\n" : "    int64_t w, acc;\n    (void)raw;\n";
+    BOOST_TEST(has(h, decl), h);
+    BOOST_TEST(r.common.max_deviation <= (mode == NumericMode::Float ? 1e-6 : 0.5e-4 + 1e-12));
+  }
+}
