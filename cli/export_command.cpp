@@ -206,7 +206,8 @@ int run_export_command(const ExportCommand& cmd, std::ostream& out, std::ostream
       meta.calibration_readings.push_back(p.reading);
       meta.calibration_aux.push_back(p.aux);
     }
-    meta.aux_unit = rec.input.columns.aux_column.empty() ? std::string() : "column " + rec.input.columns.aux_column;
+    // The record names the aux column, not its unit.
+    meta.aux_unit = rec.input.columns.aux_column.empty() ? std::string() : rec.input.columns.aux_column + " units";
 
     // Extended records (aux input, transforms, restricted powers) go through the
     // surface generator (surface_export.hpp); 1-D records are unchanged.

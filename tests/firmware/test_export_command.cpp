@@ -225,7 +225,7 @@ BOOST_AUTO_TEST_CASE(pressure_tempco_record_exports_in_every_mode) {
     const std::string text = slurp(h);
     BOOST_TEST(text.find("#define PT7_HAS_AUX 1") != std::string::npos);
     BOOST_TEST(text.find("test rig PT-7") != std::string::npos);
-    BOOST_TEST(text.find("aux unit:            column temperature") != std::string::npos);
+    BOOST_TEST(text.find("aux unit:            temperature units") != std::string::npos);
     BOOST_TEST(text.find("#include <math.h>") == std::string::npos);
     if (std::string(mode) == "fixed")
       BOOST_TEST(text.find("pt7_eval_fixed(int32_t raw, int32_t raw_aux)") != std::string::npos);
