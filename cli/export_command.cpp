@@ -11,6 +11,7 @@
 #include "cli_common.hpp"
 #include "ridgecal/atomic_file.hpp"
 #include "ridgecal/errors.hpp"
+#include "ridgecal/firmware/surface_export.hpp"
 #include "ridgecal/record_guard.hpp"
 #include "ridgecal/record.hpp"
 
@@ -36,7 +37,10 @@ po::options_description export_options() {
     ("raw-min", po::value<std::int64_t>(), "fixed: smallest raw integer input (default: ceil(x_min * input-scale))")
     ("raw-max", po::value<std::int64_t>(), "fixed: largest raw integer input (default: floor(x_max * input-scale))")
     ("input-scale", po::value<std::string>()->default_value("1"), "fixed: raw counts per reading unit (reading = raw / input-scale)")
-    ("output-scale", po::value<std::string>()->default_value("1000"), "fixed: output units per reference unit (1000: milli-units)");
+    ("output-scale", po::value<std::string>()->default_value("1000"), "fixed: output units per reference unit (1000: milli-units)")
+    ("aux-scale", po::value<std::string>()->default_value("1"), "fixed, extended records with an aux input: raw aux counts per aux unit (aux = raw_aux / aux-scale)")
+    ("aux-raw-min", po::value<std::int64_t>(), "fixed, aux input: smallest raw aux integer (default: ceil(aux_min * aux-scale))")
+    ("aux-raw-max", po::value<std::int64_t>(), "fixed, aux input: largest raw aux integer (default: floor(aux_max * aux-scale))");
   // clang-format on
   return d;
 }
@@ -57,9 +61,23 @@ RecordAssessment record_assessment(const CalibrationRecord& rec) {
   if (rec.tolerance) {
     double strictest = std::numeric_limits<double>::infinity();
     constexpr int kGrid = 2001;
-    for (int i = 0; i < kGrid; ++i) {
-      const double x = model.scaling.x_min + (model.scaling.x_max - model.scaling.x_min) * i / (kGrid - 1);
-      strictest = std::min(strictest, rec.tolerance->limit(model.eval(x)));
+    if (const auto& sm = rec.calibration.surface) {
+      // Extended model: over the calibrated region of both inputs.
+      const auto [lo, hi] = firmware::surface_reading_range(*sm);
+      const int na = sm->has_aux ? 41 : 1;
+      for (int j = 0; j < na; ++j) {
+        const double a = sm->has_aux ? sm->aux.min + (sm->aux.max - sm->aux.min) * j / (na - 1) : 0.0;
+        for (int i = 0; i < 401; ++i) {
+          const double x = lo + (hi - lo) * i / 400;
+          const double y = sm->eval(x, a);
+          if (std::isfinite(y)) strictest = std::min(strictest, rec.tolerance->limit(y));
+        }
+      }
+    } else {
+      for (int i = 0; i < kGrid; ++i) {
+        const double x = model.scaling.x_min + (model.scaling.x_max - model.scaling.x_min) * i / (kGrid - 1);
+        strictest = std::min(strictest, rec.tolerance->limit(model.eval(x)));
+      }
     }
     if (std::isfinite(strictest) && strictest > 0) a.tolerance_abs = strictest;
     a.tolerance_text = fmt::format("{} ({}); strictest over the range {:.6g}", rec.tolerance->describe(),
@@ -130,6 +148,9 @@ ExportCommand parse_export_command(const std::vector<std::string>& args) {
   if (vm.count("raw-max")) cmd.options.raw_max = vm["raw-max"].as<std::int64_t>();
   cmd.options.input_scale = parse_number_option("--input-scale", vm["input-scale"].as<std::string>());
   cmd.options.output_scale = parse_number_option("--output-scale", vm["output-scale"].as<std::string>());
+  cmd.options.aux_input_scale = parse_number_option("--aux-scale", vm["aux-scale"].as<std::string>());
+  if (vm.count("aux-raw-min")) cmd.options.aux_raw_min = vm["aux-raw-min"].as<std::int64_t>();
+  if (vm.count("aux-raw-max")) cmd.options.aux_raw_max = vm["aux-raw-max"].as<std::int64_t>();
   if (const std::string e = cmd.options.validate(); !e.empty()) throw UsageError(e);
   return cmd;
 }
@@ -145,17 +166,11 @@ int run_export_command(const ExportCommand& cmd, std::ostream& out, std::ostream
     const nlohmann::json& j = guarded.json;
     const CalibrationRecord& rec = guarded.record;
     const Calibration& cal = rec.calibration;
-    if (cal.surface)
-      throw InputError(cmd.record_path, 0,
-                       "the record holds an extended model (second input, transforms or restricted powers), which "
-                       "the header generator does not export yet",
-                       "see docs/compensation-and-transforms.md for how to evaluate it from the record");
-
     firmware::HeaderMeta meta;
     meta.sensor_name = rec.sensor.name;
     meta.reading_unit = rec.sensor.reading_unit;
     meta.reference_unit = rec.sensor.reference_unit;
-    meta.degree = cal.model.degree();
+    meta.degree = cal.surface ? cal.surface->total_degree() : cal.model.degree();
     meta.lambda = cal.lambda;
     meta.validation_rmse = cal.validation.empty() ? firmware::HeaderMeta::kUnset : cal.validation.rmse;
     meta.validation_max_abs_error =
@@ -187,9 +202,19 @@ int run_export_command(const ExportCommand& cmd, std::ostream& out, std::ostream
                        "--allow-modified); " + meta.pass_fail;
     meta.record_sha256 = record_digest(j);
     meta.tool_version = std::string("ridgecal ") + tool_version();
-    for (const auto& p : cal.points) meta.calibration_readings.push_back(p.reading);
+    for (const auto& p : cal.points) {
+      meta.calibration_readings.push_back(p.reading);
+      meta.calibration_aux.push_back(p.aux);
+    }
+    // The record names the aux column, not its unit.
+    meta.aux_unit = rec.input.columns.aux_column.empty() ? std::string() : rec.input.columns.aux_column + " units";
 
-    const firmware::ExportResult r = firmware::generate_c_header(cal.model, meta, cmd.options);
+    // Extended records (aux input, transforms, restricted powers) go through the
+    // surface generator (surface_export.hpp); 1-D records are unchanged.
+    std::optional<firmware::SurfaceExportResult> surface;
+    if (cal.surface) surface = firmware::generate_surface_header(*cal.surface, meta, cmd.options);
+    const firmware::ExportResult r =
+        surface ? surface->common : firmware::generate_c_header(cal.model, meta, cmd.options);
     if (r.status == firmware::ExportStatus::InvalidInput)
       throw InputError(cmd.record_path, 0, r.message, "see 'ridgecal export --help'");
     if (r.status == firmware::ExportStatus::Refused) {

@@ -9,6 +9,7 @@
 #     [NUMERIC float|double|fixed]          # default float
 #     [MAX_DEVIATION_FRACTION <f>] [TOLERANCE <abs>]
 #     [RAW_MIN <n>] [RAW_MAX <n>] [INPUT_SCALE <s>] [OUTPUT_SCALE <s>]   # fixed mode
+#     [AUX_SCALE <s>] [AUX_RAW_MIN <n>] [AUX_RAW_MAX <n>]    # fixed mode, records with an aux input
 #     [NO_FP_CONTRACT_FLAG])    # do not add -ffp-contract=off to TARGET
 #
 # The header is rebuilt whenever the record (or the ridgecal executable)
@@ -28,7 +29,7 @@ set(RIDGECAL_EXECUTABLE "" CACHE FILEPATH "ridgecal executable used by ridgecal_
 function(ridgecal_generate_header)
   set(options NO_FP_CONTRACT_FLAG)
   set(one TARGET RECORD PREFIX OUTPUT NUMERIC MAX_DEVIATION_FRACTION TOLERANCE RAW_MIN RAW_MAX
-          INPUT_SCALE OUTPUT_SCALE)
+          INPUT_SCALE OUTPUT_SCALE AUX_SCALE AUX_RAW_MIN AUX_RAW_MAX)
   cmake_parse_arguments(PARSE_ARGV 0 RG "${options}" "${one}" "")
   foreach(req TARGET RECORD PREFIX OUTPUT)
     if(NOT RG_${req})
@@ -68,7 +69,8 @@ function(ridgecal_generate_header)
 
   set(args export "${record}" --prefix "${RG_PREFIX}" --numeric "${RG_NUMERIC}" -o "${output}")
   foreach(pair MAX_DEVIATION_FRACTION:--max-deviation-fraction TOLERANCE:--tolerance RAW_MIN:--raw-min
-               RAW_MAX:--raw-max INPUT_SCALE:--input-scale OUTPUT_SCALE:--output-scale)
+               RAW_MAX:--raw-max INPUT_SCALE:--input-scale OUTPUT_SCALE:--output-scale
+               AUX_SCALE:--aux-scale AUX_RAW_MIN:--aux-raw-min AUX_RAW_MAX:--aux-raw-max)
     string(REPLACE ":" ";" kv "${pair}")
     list(GET kv 0 key)
     list(GET kv 1 flag)

@@ -4,6 +4,7 @@
 #include <sstream>
 
 #include "export_proof.hpp"
+#include "header_common.hpp"
 #include "ridgecal/firmware/c_literals.hpp"
 #include "ridgecal/firmware/c_text.hpp"
 #include "ridgecal/firmware/crc_table.hpp"
@@ -11,9 +12,9 @@
 
 namespace ridgecal::firmware {
 
-namespace {
+namespace detail {
 
-std::string g(double v, int digits = 6) {
+std::string g(double v, int digits) {
   if (std::isnan(v)) return "n/a";
   char buf[64];
   std::snprintf(buf, sizeof buf, "%.*g", digits, v);
@@ -26,14 +27,65 @@ std::string hex32(std::uint32_t v) {
   return buf;
 }
 
-std::string esc(const std::string& s, std::size_t max_chars = 200) {
+std::string esc(const std::string& s, std::size_t max_chars) {
   return s.empty() ? std::string("(not given)") : escape_c_comment(s, max_chars);
 }
 
-struct Names {
-  std::string p;  // function prefix, e.g. "calib"
-  std::string P;  // macro prefix, e.g. "CALIB"
-};
+void emit_crc(std::ostringstream& o, const Names& n, const char* elem_type, int bytes,
+              const std::string& count_expr) {
+  const bool is_double = std::string(elem_type) == "double";
+  const bool is_float = std::string(elem_type) == "float";
+  o << "/* CRC-32 of the coefficient table as stored in this program's memory.\n"
+    << "   Byte order: each entry's " << bytes * 8 << "-bit pattern ("
+    << (is_float || is_double ? "IEEE 754" : "two's complement")
+    << "), least significant\n   byte first, entries in index order -- the same on "
+       "little- and big-endian\n   targets. Bitwise (no table). Call it at start-up via "
+    << n.p << "_check_table(). */\n"
+    << n.P << "_INLINE uint32_t " << n.p << "_table_crc32(void)\n{\n"
+    << "    uint32_t crc = 0xFFFFFFFFUL;\n    unsigned k, b, i;\n"
+    << "    for (k = 0U; k < (unsigned)(" << count_expr << "); ++k) {\n";
+  if (is_float)
+    o << "        union { float f; uint32_t u; } pun;\n        uint32_t bits;\n"
+      << "        pun.f = " << n.P << "_COEF[k];\n        bits = pun.u;\n";
+  else if (is_double)
+    o << "        union { double d; uint64_t u; } pun;\n        uint64_t bits;\n"
+      << "        pun.u = 0U;\n        pun.d = " << n.P << "_COEF[k];\n        bits = pun.u;\n";
+  else
+    o << "        uint32_t bits = (uint32_t)" << n.P << "_COEF[k];\n";
+  o << "        for (b = 0U; b < " << bytes << "U; ++b) {\n"
+    << "            crc ^= (uint32_t)((bits >> (8U * b)) & 0xFFU);\n"
+    << "            for (i = 0U; i < 8U; ++i) {\n"
+    << "                if ((crc & 1U) != 0U)\n"
+    << "                    crc = (crc >> 1) ^ (uint32_t)0xEDB88320UL;\n"
+    << "                else\n"
+    << "                    crc >>= 1;\n"
+    << "            }\n        }\n    }\n"
+    << "    return crc ^ (uint32_t)0xFFFFFFFFUL;\n}\n\n"
+    << "/* Start-up self-check: " << n.P << "_TABLE_OK when the coefficient table is intact,\n"
+    << "   " << n.P << "_TABLE_CORRUPT otherwise";
+  if (is_double)
+    o << ", " << n.P << "_TABLE_UNCHECKABLE where double is not\n   IEEE binary64 "
+      << "(e.g. avr-gcc, whose double is 32 bits)";
+  o << ". */\n" << n.P << "_INLINE int " << n.p << "_check_table(void)\n{\n";
+  if (is_double)
+    o << "    if (sizeof(double) != 8U)\n        return " << n.P << "_TABLE_UNCHECKABLE;\n";
+  o << "    return " << n.p << "_table_crc32() == " << n.P << "_TABLE_CRC32 ? " << n.P
+    << "_TABLE_OK : " << n.P << "_TABLE_CORRUPT;\n}\n\n";
+}
+
+void emit_epilogue(std::ostringstream& o, const Names& n) {
+  o << "#ifdef __cplusplus\n} /* extern \"C\" */\n#endif\n\n#endif /* " << n.P
+    << "_RIDGECAL_CALIBRATION_H */\n";
+}
+
+}  // namespace detail
+
+namespace {
+
+using detail::esc;
+using detail::g;
+using detail::hex32;
+using detail::Names;
 
 struct Proof {
   detail::Deviation dev;
@@ -130,52 +182,6 @@ void emit_prologue(std::ostringstream& o, const Names& n, const PolyModel& model
     << "#define " << n.P << "_INLINE static\n"
     << "#endif\n\n"
     << "#ifdef __cplusplus\nextern \"C\" {\n#endif\n\n";
-}
-
-void emit_crc(std::ostringstream& o, const Names& n, const char* elem_type, int bytes) {
-  const bool is_double = std::string(elem_type) == "double";
-  const bool is_float = std::string(elem_type) == "float";
-  o << "/* CRC-32 of the coefficient table as stored in this program's memory.\n"
-    << "   Byte order: each entry's " << bytes * 8 << "-bit pattern ("
-    << (is_float || is_double ? "IEEE 754" : "two's complement")
-    << "), least significant\n   byte first, entries in index order -- the same on "
-       "little- and big-endian\n   targets. Bitwise (no table). Call it at start-up via "
-    << n.p << "_check_table(). */\n"
-    << n.P << "_INLINE uint32_t " << n.p << "_table_crc32(void)\n{\n"
-    << "    uint32_t crc = 0xFFFFFFFFUL;\n    unsigned k, b, i;\n"
-    << "    for (k = 0U; k < (unsigned)(" << n.P << "_DEGREE + 1); ++k) {\n";
-  if (is_float)
-    o << "        union { float f; uint32_t u; } pun;\n        uint32_t bits;\n"
-      << "        pun.f = " << n.P << "_COEF[k];\n        bits = pun.u;\n";
-  else if (is_double)
-    o << "        union { double d; uint64_t u; } pun;\n        uint64_t bits;\n"
-      << "        pun.u = 0U;\n        pun.d = " << n.P << "_COEF[k];\n        bits = pun.u;\n";
-  else
-    o << "        uint32_t bits = (uint32_t)" << n.P << "_COEF[k];\n";
-  o << "        for (b = 0U; b < " << bytes << "U; ++b) {\n"
-    << "            crc ^= (uint32_t)((bits >> (8U * b)) & 0xFFU);\n"
-    << "            for (i = 0U; i < 8U; ++i) {\n"
-    << "                if ((crc & 1U) != 0U)\n"
-    << "                    crc = (crc >> 1) ^ (uint32_t)0xEDB88320UL;\n"
-    << "                else\n"
-    << "                    crc >>= 1;\n"
-    << "            }\n        }\n    }\n"
-    << "    return crc ^ (uint32_t)0xFFFFFFFFUL;\n}\n\n"
-    << "/* Start-up self-check: " << n.P << "_TABLE_OK when the coefficient table is intact,\n"
-    << "   " << n.P << "_TABLE_CORRUPT otherwise";
-  if (is_double)
-    o << ", " << n.P << "_TABLE_UNCHECKABLE where double is not\n   IEEE binary64 "
-      << "(e.g. avr-gcc, whose double is 32 bits)";
-  o << ". */\n" << n.P << "_INLINE int " << n.p << "_check_table(void)\n{\n";
-  if (is_double)
-    o << "    if (sizeof(double) != 8U)\n        return " << n.P << "_TABLE_UNCHECKABLE;\n";
-  o << "    return " << n.p << "_table_crc32() == " << n.P << "_TABLE_CRC32 ? " << n.P
-    << "_TABLE_OK : " << n.P << "_TABLE_CORRUPT;\n}\n\n";
-}
-
-void emit_epilogue(std::ostringstream& o, const Names& n) {
-  o << "#ifdef __cplusplus\n} /* extern \"C\" */\n#endif\n\n#endif /* " << n.P
-    << "_RIDGECAL_CALIBRATION_H */\n";
 }
 
 // ---- float / double ----------------------------------------------------------------
@@ -456,12 +462,12 @@ ExportResult generate_c_header(const PolyModel& model, const HeaderMeta& meta,
       r.float_program = detail::make_float_program(model, best_basis);
       crc = crc32_bytes(table_bytes(r.float_program->coef));
       emit_floating_body(body, n, *r.float_program, meta, proof);
-      emit_crc(body, n, "float", 4);
+      detail::emit_crc(body, n, "float", 4, n.P + "_DEGREE + 1");
     } else {
       r.double_program = detail::make_double_program(model, best_basis);
       crc = crc32_bytes(table_bytes(r.double_program->coef));
       emit_floating_body(body, n, *r.double_program, meta, proof);
-      emit_crc(body, n, "double", 8);
+      detail::emit_crc(body, n, "double", 8, n.P + "_DEGREE + 1");
     }
     const int t_ops = best_basis == Basis::ScaledT ? 1 : 0;
     r.stats = stats_for("", deg + 1, is_float ? 4 : 8, deg + t_ops, deg + t_ops);
@@ -482,7 +488,7 @@ ExportResult generate_c_header(const PolyModel& model, const HeaderMeta& meta,
               ") int32";
     crc = crc32_bytes(table_bytes(plan.coef));
     emit_fixed_body(body, n, plan, meta, proof);
-    emit_crc(body, n, "int32_t", 4);
+    detail::emit_crc(body, n, "int32_t", 4, n.P + "_DEGREE + 1");
     r.stats = stats_for("", deg + 1, 4, deg + 1, 2 * deg + 2);
     at_units = " " + esc(meta.reading_unit, 40) + " (raw " + g(proof.dev.at * plan.settings.input_scale, 10) + ")";
   }
@@ -491,7 +497,7 @@ ExportResult generate_c_header(const PolyModel& model, const HeaderMeta& meta,
   emit_banner(o, n, model, meta, opt, proof, formats, at_units);
   emit_prologue(o, n, model, opt, crc);
   o << body.str();
-  emit_epilogue(o, n);
+  detail::emit_epilogue(o, n);
 
   r.header = o.str();
   r.table_crc32 = crc;

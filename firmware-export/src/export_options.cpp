@@ -46,6 +46,15 @@ std::string ExportOptions::validate() const {
   if (raw_min && raw_max && *raw_min > *raw_max)
     return "option raw_min = " + std::to_string(*raw_min) + ": must be <= raw_max (" +
            std::to_string(*raw_max) + ")";
+  if (!(std::isfinite(aux_input_scale) && aux_input_scale > 0.0))
+    return "option aux_input_scale = " + num(aux_input_scale) + ": must be finite and > 0";
+  if (aux_raw_min && (*aux_raw_min < -lim || *aux_raw_min > lim))
+    return "option aux_raw_min = " + std::to_string(*aux_raw_min) + ": must be in [-2147483647, 2147483647]";
+  if (aux_raw_max && (*aux_raw_max < -lim || *aux_raw_max > lim))
+    return "option aux_raw_max = " + std::to_string(*aux_raw_max) + ": must be in [-2147483647, 2147483647]";
+  if (aux_raw_min && aux_raw_max && *aux_raw_min > *aux_raw_max)
+    return "option aux_raw_min = " + std::to_string(*aux_raw_min) + ": must be <= aux_raw_max (" +
+           std::to_string(*aux_raw_max) + ")";
   if (exhaustive_limit < 0 || exhaustive_limit > 100000000)
     return "option exhaustive_limit = " + std::to_string(exhaustive_limit) +
            ": must be between 0 and 100000000";

@@ -2,12 +2,13 @@
 # Installs the Debian 12 packages the firmware target tests need:
 #   cross compilers + emulators for Cortex-M (qemu-system-arm, semihosting)
 #   and ATmega328P (simavr), plus clang for the host compile matrix.
-# libnewlib-arm-none-eabi is NOT needed: the Cortex-M test links with
+# libnewlib-arm-none-eabi provides <math.h> and libm for the headers of
+# extended models with ln (log/logf); everything else on Cortex-M links with
 # -nostdlib -lgcc (libgcc ships with gcc-arm-none-eabi).
 # Idempotent; needs root (or sudo). Called by the project's setup script.
 set -euo pipefail
 
-PKGS=(gcc clang gcc-arm-none-eabi qemu-system-arm gcc-avr avr-libc simavr libboost-dev)
+PKGS=(gcc clang gcc-arm-none-eabi libnewlib-arm-none-eabi qemu-system-arm gcc-avr avr-libc simavr libboost-dev)
 
 SUDO=""
 if [ "$(id -u)" -ne 0 ]; then SUDO="sudo"; fi

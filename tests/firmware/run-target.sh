@@ -8,6 +8,9 @@
 #   host-fma       gcc and clang -march=haswell -ffp-contract=off (FMA available)
 #   m0 m3 m4f m7   arm-none-eabi-gcc + qemu-system-arm (semihosting)
 #   avr            avr-gcc (ATmega328P) + simavr
+# A header that includes <math.h> (extended models with ln) is linked with the
+# C library's libm: -lm on the host and AVR (avr-libc), newlib's libm.a (plus
+# libc.a for errno) on Cortex-M.
 set -u
 target=$1; fixtures=$2; compare=$3; work=$4
 here=$(cd "$(dirname "$0")" && pwd)
@@ -24,10 +27,23 @@ need() {
   done
 }
 
+# Cortex-M: a header with <math.h> needs newlib (libnewlib-arm-none-eabi).
+need_newlib() {
+  if grep -lq '^#include <math.h>' $(sed "s|^|$fixtures/|; s|\$|/fwt_calib.h|" "$fixtures/fixtures.txt") 2>/dev/null &&
+     [ "$(arm-none-eabi-gcc -print-file-name=libm.a 2>/dev/null)" = "libm.a" ]; then
+    echo "SKIP: newlib (libm for log/logf) not found (run tests/firmware/install-target-tools.sh)"
+    exit 77
+  fi
+}
+
 rm -rf "$work"; mkdir -p "$work"
 fail=0
 
 # run_one NAME FIXTURE -- builds with $build_cmd, runs with $run_cmd
+libm_for() {  # libm_for FIXTURE LIBS: prints LIBS when the header needs log()
+  if grep -q '^#include <math.h>' "$fixtures/$1/fwt_calib.h"; then echo "$2"; fi
+}
+
 check() {  # check LABEL FIXTURE OUTPUT
   if "$compare" "$fixtures/$2/expected.txt" "$3" > "$3.cmp" 2>&1; then
     echo "PASS $1 $2: $(head -1 "$3.cmp")"
@@ -40,7 +56,7 @@ host_run() {  # host_run LABEL COMPILER FLAGS...
   local label=$1 cc=$2; shift 2
   for f in $(cat "$fixtures/fixtures.txt"); do
     local exe=$work/$label-$f
-    if ! $cc "$@" -I"$fixtures/$f" -I"$drv" "$drv/driver.c" "$drv/plat_host.c" -o "$exe" 2> "$exe.log"; then
+    if ! $cc "$@" -I"$fixtures/$f" -I"$drv" "$drv/driver.c" "$drv/plat_host.c" -o "$exe" $(libm_for "$f" -lm) 2> "$exe.log"; then
       echo "FAIL $label $f: compile"; sed 's/^/    /' "$exe.log" | head -30; fail=1; continue
     fi
     "$exe" > "$exe.out" 2>&1
@@ -57,7 +73,7 @@ cm_run() {  # cm_run LABEL BOARD CPUFLAGS...
            arm-none-eabi-gcc "$@" -O2 -std=gnu99 -Wall -Wextra -Werror -fno-tree-loop-distribute-patterns \
              -ffunction-sections -I"$drv" -c "$drv/plat_cortexm.c" -o "$o-plat.o" &&
            arm-none-eabi-gcc "$@" -nostdlib -T "$drv/cortexm.ld" -Wl,--gc-sections \
-             -o "$o.elf" "$o-drv.o" "$o-plat.o" -lgcc; } 2> "$o.log"; then
+             -o "$o.elf" "$o-drv.o" "$o-plat.o" $(libm_for "$f" "-lm -lc") -lgcc; } 2> "$o.log"; then
       echo "FAIL $label $f: build"; sed 's/^/    /' "$o.log" | head -30; fail=1; continue
     fi
     timeout 60 qemu-system-arm -M "$board" -display none -monitor none -serial none \
@@ -93,6 +109,7 @@ case $target in
         echo "OK control $f: with -ffp-contract=fast the bits differ, as expected: $(tail -1 "$exe.cmp")"
       fi
     done ;;
+  m0|m3|m4f|m7) need_newlib ;;&
   m0)  need arm-none-eabi-gcc qemu-system-arm; cm_run m0 microbit -mcpu=cortex-m0 -mthumb ;;
   m3)  need arm-none-eabi-gcc qemu-system-arm; cm_run m3 mps2-an385 -mcpu=cortex-m3 -mthumb ;;
   m4f) need arm-none-eabi-gcc qemu-system-arm
@@ -106,7 +123,7 @@ case $target in
       o=$work/avr-$f
       if ! { avr-gcc $AVR -O2 -std=c99 $WARN $FP -I"$fixtures/$f" -I"$drv" -c "$drv/driver.c" -o "$o-drv.o" &&
              avr-gcc $AVR -O2 -std=gnu99 -Wall -Wextra -Werror -I"$drv" -c "$drv/plat_avr.c" -o "$o-plat.o" &&
-             avr-gcc $AVR -o "$o.elf" "$o-drv.o" "$o-plat.o"; } 2> "$o.log"; then
+             avr-gcc $AVR -o "$o.elf" "$o-drv.o" "$o-plat.o" $(libm_for "$f" -lm); } 2> "$o.log"; then
         echo "FAIL avr $f: build"; sed 's/^/    /' "$o.log" | head -30; fail=1; continue
       fi
       timeout 60 simavr -m atmega328p -f 16000000 "$o.elf" 2> "$o.sim" > /dev/null

@@ -178,3 +178,101 @@ BOOST_AUTO_TEST_CASE(record_tolerance_and_decision_are_used) {
   BOOST_TEST(run({rec.string(), "--prefix", "ntc", "--numeric", "fixed", "--tolerance", "0.001", "-o",
                   h.string()}) == kExitOutOfTolerance);
 }
+
+// ---- extended (surface) records -------------------------------------------------
+
+namespace {
+
+// Fits a demo with the extended options (docs/compensation-and-transforms.md).
+fs::path fit_extended(const std::string& name, std::vector<std::string> args) {
+  const fs::path rec = temp().dir / (name + ".json");
+  args.insert(args.end(), {"-o", rec.string(), "--timestamp", "none"});
+  std::ostringstream out, err;
+  const int rc = fit_main(args, out, err);
+  BOOST_REQUIRE_MESSAGE(rc == 0, err.str());
+  return rec;
+}
+
+fs::path pressure_record() {
+  static const fs::path rec = fit_extended(
+      "pt7", {std::string(RIDGECAL_SAMPLES_DIR) + "/pressure-tempco/pressure-tempco.csv", "--setpoint", "setpoint",
+              "--aux", "temperature", "--aux-setpoint", "chamber", "--aux-degree", "0..3", "--sensor",
+              "test rig PT-7", "--reading-unit", "counts", "--reference-unit", "bar"});
+  return rec;
+}
+
+fs::path thermistor_record() {
+  static const fs::path rec = fit_extended(
+      "ntc-sh", {std::string(RIDGECAL_SAMPLES_DIR) + "/ntc-coldstore/ntc-coldstore.csv", "--setpoint", "setpoint",
+                 "--divider-resistor", "47000", "--divider-full-scale", "4095", "--divider-position", "sensor-low",
+                 "--reading-transform", "ln", "--reference-transform", "reciprocal-kelvin", "--powers", "0,1,3",
+                 "--degree", "3", "--lambda", "0", "--reading-unit", "counts", "--reference-unit", "degC"});
+  return rec;
+}
+
+}  // namespace
+
+BOOST_AUTO_TEST_CASE(pressure_tempco_record_exports_in_every_mode) {
+  const fs::path rec = pressure_record();
+  for (const char* mode : {"float", "double", "fixed"}) {
+    const fs::path h = temp().dir / (std::string("pt7_") + mode + ".h");
+    std::ostringstream out, err;
+    std::vector<std::string> args = {rec.string(), "--prefix", "pt7", "--numeric", mode, "-o", h.string()};
+    if (std::string(mode) == "fixed")
+      args.insert(args.end(), {"--aux-scale", "100", "--output-scale", "100000"});
+    BOOST_TEST(export_main(args, out, err) == kExitOk, mode << ": " << err.str());
+    BOOST_TEST(out.str().find("extended model") != std::string::npos, out.str());
+    const std::string text = slurp(h);
+    BOOST_TEST(text.find("#define PT7_HAS_AUX 1") != std::string::npos);
+    BOOST_TEST(text.find("test rig PT-7") != std::string::npos);
+    BOOST_TEST(text.find("aux unit:            temperature units") != std::string::npos);
+    BOOST_TEST(text.find("#include <math.h>") == std::string::npos);
+    if (std::string(mode) == "fixed")
+      BOOST_TEST(text.find("pt7_eval_fixed(int32_t raw, int32_t raw_aux)") != std::string::npos);
+    else
+      BOOST_TEST(text.find(std::string("pt7_eval(") + mode + " x, " + mode + " aux)") != std::string::npos);
+    const std::string digest = record_digest(read_record_json(rec.string()));
+    BOOST_TEST(text.find(digest) != std::string::npos);
+  }
+  // the refusal rule applies as in 1-D: float rounding cannot meet 0.1 x 1e-7
+  const fs::path h = temp().dir / "pt7_refused.h";
+  std::ostringstream out, err;
+  BOOST_TEST(export_main({rec.string(), "--prefix", "pt7", "--tolerance", "1e-7", "-o", h.string()}, out, err) ==
+             kExitOutOfTolerance);
+  BOOST_TEST(!fs::exists(h));
+}
+
+BOOST_AUTO_TEST_CASE(thermistor_record_exports_float_and_double_refuses_fixed) {
+  const fs::path rec = thermistor_record();
+  for (const char* mode : {"float", "double"}) {
+    const fs::path h = temp().dir / (std::string("sh_") + mode + ".h");
+    std::ostringstream out, err;
+    BOOST_TEST(export_main({rec.string(), "--prefix", "ntc", "--numeric", mode, "-o", h.string()}, out, err) ==
+                   kExitOk,
+               err.str());
+    const std::string text = slurp(h);
+    BOOST_TEST(text.find("#include <math.h>") != std::string::npos);
+    BOOST_TEST(text.find("needs log()/logf() from the C library (libm;") != std::string::npos);
+    BOOST_TEST(text.find("NTC_DIVIDER_R 47000") != std::string::npos);
+  }
+  const fs::path h = temp().dir / "sh_fixed.h";
+  std::ostringstream out, err;
+  BOOST_TEST(export_main({rec.string(), "--prefix", "ntc", "--numeric", "fixed", "-o", h.string()}, out, err) ==
+             kExitBadInput);
+  BOOST_TEST(err.str().find("use --numeric float or --numeric double") != std::string::npos, err.str());
+  BOOST_TEST(!fs::exists(h));
+}
+
+BOOST_AUTO_TEST_CASE(parse_aux_options) {
+  const ExportCommand c = parse_export_command({"rec.json", "--prefix", "p", "--numeric", "fixed", "-o", "p.h",
+                                                "--aux-scale", "100", "--aux-raw-min", "-2000", "--aux-raw-max",
+                                                "8000"});
+  BOOST_TEST(c.options.aux_input_scale == 100.0);
+  BOOST_TEST(*c.options.aux_raw_min == -2000);
+  BOOST_TEST(*c.options.aux_raw_max == 8000);
+  BOOST_CHECK_THROW(parse_export_command({"rec.json", "--prefix", "p", "-o", "p.h", "--aux-scale", "0"}),
+                    UsageError);
+  BOOST_CHECK_THROW(parse_export_command({"rec.json", "--prefix", "p", "-o", "p.h", "--aux-raw-min", "5",
+                                          "--aux-raw-max", "4"}),
+                    UsageError);
+}

@@ -4,8 +4,10 @@
  *   P dbl=<sizeof(double)>                     (platform line, not compared)
  *   I mode=<float|double|fixed> n=<inputs> k=<checked inputs>
  *   C <fwt_table_crc32() hex> <fwt_check_table()>
- *   V <i> <input bits hex> <output bits hex>
- *   K <i> <input bits hex> <status> <output bits hex>   (range-checked variant)
+ *   V <i> <input bits hex> [<aux bits hex>] <output bits hex>
+ *   K <i> <input bits hex> [<aux bits hex>] <status> <output bits hex>   (range-checked variant)
+ * The aux field is present for extended models with a second input
+ * (FWT_HAS_AUX; the functions then take (reading, aux)).
  *   END <number of lines, this one included, P excluded>
  * C89, no C library: numbers are formatted with integer code only, so the
  * text is identical on every target whenever the bits are.
@@ -63,8 +65,13 @@ static void put_result(int32_t y)
 {
     put_hex((uint32_t)y, 8U);
 }
-#define EVAL(bits) fwt_eval_fixed(to_int32(bits))
-#define EVAL_CHECKED(bits, st) fwt_eval_fixed_checked(to_int32(bits), (st))
+#if defined(FWT_HAS_AUX)
+#define EVAL(i) fwt_eval_fixed(to_int32(fwt_inputs[i]), to_int32(fwt_aux[i]))
+#define EVAL_CHECKED(i, st) fwt_eval_fixed_checked(to_int32(fwt_checked[i]), to_int32(fwt_checked_aux[i]), (st))
+#else
+#define EVAL(i) fwt_eval_fixed(to_int32(fwt_inputs[i]))
+#define EVAL_CHECKED(i, st) fwt_eval_fixed_checked(to_int32(fwt_checked[i]), (st))
+#endif
 #else
 typedef union {
     float f;
@@ -84,8 +91,13 @@ static void put_result(float y)
     p.f = y;
     put_hex(p.u, 8U);
 }
-#define EVAL(bits) fwt_eval(to_float(bits))
-#define EVAL_CHECKED(bits, st) fwt_eval_checked(to_float(bits), (st))
+#if defined(FWT_HAS_AUX)
+#define EVAL(i) fwt_eval(to_float(fwt_inputs[i]), to_float(fwt_aux[i]))
+#define EVAL_CHECKED(i, st) fwt_eval_checked(to_float(fwt_checked[i]), to_float(fwt_checked_aux[i]), (st))
+#else
+#define EVAL(i) fwt_eval(to_float(fwt_inputs[i]))
+#define EVAL_CHECKED(i, st) fwt_eval_checked(to_float(fwt_checked[i]), (st))
+#endif
 #else
 #define MODE_NAME "double"
 static void put_result(double y)
@@ -109,8 +121,14 @@ static void put_result(double y)
         put_hex(p.u, 8U);
     }
 }
-#define EVAL(bits) fwt_eval((double)to_float(bits))
-#define EVAL_CHECKED(bits, st) fwt_eval_checked((double)to_float(bits), (st))
+#if defined(FWT_HAS_AUX)
+#define EVAL(i) fwt_eval((double)to_float(fwt_inputs[i]), (double)to_float(fwt_aux[i]))
+#define EVAL_CHECKED(i, st) \
+    fwt_eval_checked((double)to_float(fwt_checked[i]), (double)to_float(fwt_checked_aux[i]), (st))
+#else
+#define EVAL(i) fwt_eval((double)to_float(fwt_inputs[i]))
+#define EVAL_CHECKED(i, st) fwt_eval_checked((double)to_float(fwt_checked[i]), (st))
+#endif
 #endif
 #endif
 
@@ -137,7 +155,11 @@ int main(void)
         put_str(" ");
         put_hex(fwt_inputs[i], 8U);
         put_str(" ");
-        put_result(EVAL(fwt_inputs[i]));
+#if defined(FWT_HAS_AUX)
+        put_hex(fwt_aux[i], 8U);
+        put_str(" ");
+#endif
+        put_result(EVAL(i));
         end_line();
     }
     for (i = 0U; i < (unsigned)FWT_N_CHECKED; ++i) {
@@ -147,14 +169,18 @@ int main(void)
         put_str(" ");
         put_hex(fwt_checked[i], 8U);
         put_str(" ");
+#if defined(FWT_HAS_AUX)
+        put_hex(fwt_checked_aux[i], 8U);
+        put_str(" ");
+#endif
         {
             /* evaluate first: status is written by the call */
 #if defined(FWT_NUMERIC_FIXED)
-            int32_t y = EVAL_CHECKED(fwt_checked[i], &status);
+            int32_t y = EVAL_CHECKED(i, &status);
 #elif defined(FWT_NUMERIC_FLOAT)
-            float y = EVAL_CHECKED(fwt_checked[i], &status);
+            float y = EVAL_CHECKED(i, &status);
 #else
-            double y = EVAL_CHECKED(fwt_checked[i], &status);
+            double y = EVAL_CHECKED(i, &status);
 #endif
             put_udec((uint32_t)status);
             put_str(" ");

@@ -4,7 +4,34 @@
  * calls from the header (the header's functions are static inline). */
 #include "fwt_calib.h"
 
+#if defined(FWT_HAS_AUX)
 #if defined(FWT_NUMERIC_FIXED)
+#define PT int32_t
+#define PE(a, b) fwt_eval_fixed(a, b)
+#define PC(a, b, st) fwt_eval_fixed_checked(a, b, st)
+#elif defined(FWT_NUMERIC_FLOAT)
+#define PT float
+#define PE(a, b) fwt_eval(a, b)
+#define PC(a, b, st) fwt_eval_checked(a, b, st)
+#else
+#define PT double
+#define PE(a, b) fwt_eval(a, b)
+#define PC(a, b, st) fwt_eval_checked(a, b, st)
+#endif
+#if PROBE == 1
+PT probe_eval(PT x, PT aux);
+PT probe_eval(PT x, PT aux)
+{
+    return PE(x, aux);
+}
+#elif PROBE == 2
+PT probe_eval_checked(PT x, PT aux, int *status);
+PT probe_eval_checked(PT x, PT aux, int *status)
+{
+    return PC(x, aux, status);
+}
+#endif
+#elif defined(FWT_NUMERIC_FIXED)
 #if PROBE == 1
 int32_t probe_eval(int32_t raw);
 int32_t probe_eval(int32_t raw)

@@ -45,6 +45,12 @@ struct ExportOptions {
   /// Fixed mode: check every integer input when the raw range has at most
   /// this many values (default 10^6), else the grid.
   std::int64_t exhaustive_limit = 1000000;
+  /// Extended (surface) models with an aux input, fixed mode: raw aux counts
+  /// per aux unit (aux = raw_aux / aux_input_scale) and the raw aux range
+  /// (default: the integers inside the calibrated aux range).
+  double aux_input_scale = 1.0;
+  std::optional<std::int64_t> aux_raw_min;
+  std::optional<std::int64_t> aux_raw_max;
 
   /// "" when valid, else a message naming the field, the value and the rule.
   std::string validate() const;
@@ -72,6 +78,10 @@ struct HeaderMeta {
   std::string record_sha256;  ///< SHA-256 of the calibration record
   std::string tool_version;   ///< e.g. "ridgecal 0.1.0"
   std::vector<double> calibration_readings;  ///< checked in the proof too
+  /// Extended models with an aux input: the aux unit and the aux value of each
+  /// calibration reading (same order as calibration_readings).
+  std::string aux_unit;
+  std::vector<double> calibration_aux;
 };
 
 enum class ExportStatus {

@@ -1,0 +1,29 @@
+// Internal: text helpers shared by the 1-D (c_header.cpp) and the extended-model
+// (surface_header.cpp) header emitters.
+#pragma once
+
+#include <cstddef>
+#include <cstdint>
+#include <sstream>
+#include <string>
+
+namespace ridgecal::firmware::detail {
+
+struct Names {
+  std::string p;  // function prefix, e.g. "calib"
+  std::string P;  // macro prefix, e.g. "CALIB"
+};
+
+/// %.*g, "n/a" for NaN.
+std::string g(double v, int digits = 6);
+/// "0x%08lXUL"
+std::string hex32(std::uint32_t v);
+/// escape_c_comment, "(not given)" for an empty string.
+std::string esc(const std::string& s, std::size_t max_chars = 200);
+/// PREFIX_table_crc32() and PREFIX_check_table() over PREFIX_COEF[0 .. count_expr - 1].
+void emit_crc(std::ostringstream& o, const Names& n, const char* elem_type, int bytes,
+              const std::string& count_expr);
+/// extern "C" close and the include guard's #endif.
+void emit_epilogue(std::ostringstream& o, const Names& n);
+
+}  // namespace ridgecal::firmware::detail
