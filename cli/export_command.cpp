@@ -104,18 +104,7 @@ std::string export_usage() {
 }
 
 ExportCommand parse_export_command(const std::vector<std::string>& args) {
-  const po::options_description desc = export_options();
-  po::options_description all;
-  all.add(desc).add_options()("record", po::value<std::vector<std::string>>(), "");
-  po::positional_options_description pos;
-  pos.add("record", -1);
-  po::variables_map vm;
-  try {
-    po::store(po::command_line_parser(args).options(all).positional(pos).run(), vm);
-    po::notify(vm);
-  } catch (const po::error& e) {
-    throw UsageError(e.what());
-  }
+  const po::variables_map vm = parse_arguments(args, export_options(), "record");
   ExportCommand cmd;
   if (vm.count("help")) {
     cmd.help = true;
@@ -236,14 +225,7 @@ int run_export_command(const ExportCommand& cmd, std::ostream& out, std::ostream
 }
 
 int export_main(const std::vector<std::string>& args, std::ostream& out, std::ostream& err) {
-  ExportCommand cmd;
-  try {
-    cmd = parse_export_command(args);
-  } catch (const UsageError& e) {
-    err << "ridgecal export: " << e.what() << "\nTry 'ridgecal export --help'.\n";
-    return kExitBadInput;
-  }
-  return run_export_command(cmd, out, err);
+  return run_subcommand("export", args, out, err, parse_export_command, run_export_command);
 }
 
 }  // namespace ridgecal::cli

@@ -69,18 +69,7 @@ std::string fit_usage() {
 
 
 FitCommand parse_fit_command(const std::vector<std::string>& args) {
-  const po::options_description desc = fit_options();
-  po::options_description all;
-  all.add(desc).add_options()("data", po::value<std::vector<std::string>>(), "");
-  po::positional_options_description pos;
-  pos.add("data", -1);
-  po::variables_map vm;
-  try {
-    po::store(po::command_line_parser(args).options(all).positional(pos).run(), vm);
-    po::notify(vm);
-  } catch (const po::error& e) {
-    throw UsageError(e.what());
-  }
+  const po::variables_map vm = parse_arguments(args, fit_options(), "data");
   FitCommand cmd;
   if (vm.count("help")) {
     cmd.data_path = "--help";
@@ -209,14 +198,7 @@ int run_fit_command(const FitCommand& cmd, std::ostream& out, std::ostream& err)
 }
 
 int fit_main(const std::vector<std::string>& args, std::ostream& out, std::ostream& err) {
-  FitCommand cmd;
-  try {
-    cmd = parse_fit_command(args);
-  } catch (const UsageError& e) {
-    err << "ridgecal fit: " << e.what() << "\nTry 'ridgecal fit --help'.\n";
-    return kExitBadInput;
-  }
-  return run_fit_command(cmd, out, err);
+  return run_subcommand("fit", args, out, err, parse_fit_command, run_fit_command);
 }
 
 }  // namespace ridgecal::cli
