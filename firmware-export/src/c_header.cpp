@@ -73,6 +73,24 @@ void emit_crc(std::ostringstream& o, const Names& n, const char* elem_type, int 
     << "_TABLE_OK : " << n.P << "_TABLE_CORRUPT;\n}\n\n";
 }
 
+bool choose_proof_tolerance(const HeaderMeta& meta, const ExportOptions& opt, ProofTolerance& out,
+                            std::string& message) {
+  if (meta.tolerance_abs && std::isfinite(*meta.tolerance_abs) && *meta.tolerance_abs > 0) {
+    out.tolerance = *meta.tolerance_abs;
+    out.source = "record tolerance";
+  } else if (std::isfinite(meta.validation_rmse) && meta.validation_rmse > 0) {
+    out.tolerance = meta.validation_rmse;
+    out.source = "validation RMSE, fallback: no absolute tolerance given";
+  } else {
+    message =
+        "meta: neither an absolute tolerance nor a positive validation RMSE is given; the "
+        "refusal rule needs one of them";
+    return false;
+  }
+  out.limit = opt.max_deviation_fraction * out.tolerance;
+  return true;
+}
+
 void emit_epilogue(std::ostringstream& o, const Names& n) {
   o << "#ifdef __cplusplus\n} /* extern \"C\" */\n#endif\n\n#endif /* " << n.P
     << "_RIDGECAL_CALIBRATION_H */\n";
@@ -402,19 +420,11 @@ ExportResult generate_c_header(const PolyModel& model, const HeaderMeta& meta,
     return r;
   }
   Proof proof;
-  if (meta.tolerance_abs && std::isfinite(*meta.tolerance_abs) && *meta.tolerance_abs > 0) {
-    proof.tolerance = *meta.tolerance_abs;
-    proof.tolerance_source = "record tolerance";
-  } else if (std::isfinite(meta.validation_rmse) && meta.validation_rmse > 0) {
-    proof.tolerance = meta.validation_rmse;
-    proof.tolerance_source = "validation RMSE, fallback: no absolute tolerance given";
-  } else {
-    r.message =
-        "meta: neither an absolute tolerance nor a positive validation RMSE is given; the "
-        "refusal rule needs one of them";
-    return r;
-  }
-  proof.limit = opt.max_deviation_fraction * proof.tolerance;
+  detail::ProofTolerance pt;
+  if (!detail::choose_proof_tolerance(meta, opt, pt, r.message)) return r;
+  proof.tolerance = pt.tolerance;
+  proof.tolerance_source = pt.source;
+  proof.limit = pt.limit;
   r.tolerance_used = proof.tolerance;
   r.tolerance_source = proof.tolerance_source;
   r.deviation_limit = proof.limit;

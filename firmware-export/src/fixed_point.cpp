@@ -4,35 +4,21 @@
 #include <cmath>
 #include <limits>
 
+#include "exact_int.hpp"
 #include "ridgecal/firmware/float_emulation.hpp"
 
 namespace ridgecal::firmware {
 
 namespace {
 
-using i128 = __int128;
-
-constexpr i128 kTwo62 = static_cast<i128>(1) << 62;
-constexpr std::int64_t kInt32Max = 2147483647LL;
-constexpr int kMaxShift = 61;
-// Headroom target for every accumulator and coefficient: |value| <= 2^30, one
-// bit below int32 so that rounding can never tip a proved bound over.
-constexpr int kAccBits = 30;
-
-i128 floor_div_pow2(i128 v, int s) {
-  const i128 d = static_cast<i128>(1) << s;
-  i128 q = v / d;
-  if ((v % d) != 0 && v < 0) --q;
-  return q;
-}
-
-// Mathematical value of rshift_round, for the interval proof.
-i128 rshift_round_exact(i128 v, int s) { return floor_div_pow2(v + (static_cast<i128>(1) << (s - 1)), s); }
-
-bool rshift_precondition(i128 lo, i128 hi, int s) {
-  const i128 half = static_cast<i128>(1) << (s - 1);
-  return s >= 1 && s <= kMaxShift && lo + half >= -kTwo62 && hi + half < kTwo62;
-}
+using detail::floor_div_pow2;
+using detail::i128;
+using detail::kAccBits;
+using detail::kInt32Max;
+using detail::kMaxShift;
+using detail::kTwo62;
+using detail::rshift_precondition;
+using detail::rshift_round_exact;
 
 IntRange to_range(i128 lo, i128 hi) {
   return IntRange{static_cast<long double>(lo), static_cast<long double>(hi)};

@@ -7,6 +7,8 @@
 #include <sstream>
 #include <string>
 
+#include "ridgecal/firmware/export.hpp"
+
 namespace ridgecal::firmware::detail {
 
 struct Names {
@@ -23,6 +25,18 @@ std::string esc(const std::string& s, std::size_t max_chars = 200);
 /// PREFIX_table_crc32() and PREFIX_check_table() over PREFIX_COEF[0 .. count_expr - 1].
 void emit_crc(std::ostringstream& o, const Names& n, const char* elem_type, int bytes,
               const std::string& count_expr);
+/// The tolerance the export proof judges against: the absolute tolerance of
+/// `meta` when given, else its validation RMSE; `limit` is
+/// opt.max_deviation_fraction times it. Returns false, with `message` set,
+/// when neither is usable.
+struct ProofTolerance {
+  double tolerance = 0;
+  double limit = 0;
+  std::string source;
+};
+bool choose_proof_tolerance(const HeaderMeta& meta, const ExportOptions& opt, ProofTolerance& out,
+                            std::string& message);
+
 /// extern "C" close and the include guard's #endif.
 void emit_epilogue(std::ostringstream& o, const Names& n);
 

@@ -4,6 +4,7 @@
 #include <algorithm>
 #include <cmath>
 
+#include "exact_int.hpp"
 #include "ridgecal/firmware/fixed_point.hpp"
 #include "ridgecal/firmware/float_emulation.hpp"
 #include "ridgecal/firmware/surface_export.hpp"
@@ -12,24 +13,14 @@ namespace ridgecal::firmware {
 
 namespace {
 
-using i128 = __int128;
-constexpr i128 kTwo62 = static_cast<i128>(1) << 62;
-constexpr std::int64_t kInt32Max = 2147483647LL;
-constexpr int kMaxShift = 61;
-constexpr int kAccBits = 30;
-
-i128 floor_div_pow2(i128 v, int s) {
-  const i128 d = static_cast<i128>(1) << s;
-  i128 q = v / d;
-  if ((v % d) != 0 && v < 0) --q;
-  return q;
-}
-i128 rsr(i128 v, int s) { return floor_div_pow2(v + (static_cast<i128>(1) << (s - 1)), s); }
-bool shift_ok(i128 lo, i128 hi, int s) {
-  if (s < 1 || s > kMaxShift) return false;
-  const i128 half = static_cast<i128>(1) << (s - 1);
-  return lo + half >= -kTwo62 && hi + half < kTwo62;
-}
+using detail::floor_div_pow2;
+using detail::i128;
+using detail::kAccBits;
+using detail::kInt32Max;
+using detail::kMaxShift;
+using detail::kTwo62;
+using detail::rshift_precondition;
+using detail::rshift_round_exact;
 struct IR {
   i128 lo, hi;
 };
@@ -89,8 +80,8 @@ std::string verify_axis(FixedAxis* a, IR* q) {
   const i128 d_lo = static_cast<i128>(a->raw_min) - a->r0, d_hi = static_cast<i128>(a->raw_max) - a->r0;
   const IR pre{d_lo * a->mul + a->add, d_hi * a->mul + a->add};
   a->pre = to_range(pre);
-  if (!shift_ok(pre.lo, pre.hi, a->shift)) return "input map leaves the shift's range";
-  *q = IR{rsr(pre.lo, a->shift), rsr(pre.hi, a->shift)};
+  if (!rshift_precondition(pre.lo, pre.hi, a->shift)) return "input map leaves the shift's range";
+  *q = IR{rshift_round_exact(pre.lo, a->shift), rshift_round_exact(pre.hi, a->shift)};
   a->q = to_range(*q);
   if (!fits32(*q)) return "scaled input does not fit in int32";
   return {};
@@ -129,10 +120,10 @@ bool verify_surface_fixed_bounds(SurfaceFixedPlan* plan, std::string* why) {
       const IR prod = imul(a, sq);
       p.max_abs_product = std::max(p.max_abs_product, mag(prod));
       const int sh = p.sh_in[static_cast<std::size_t>(k * L + l)];
-      if (!shift_ok(prod.lo, prod.hi, sh))
+      if (!rshift_precondition(prod.lo, prod.hi, sh))
         return fail("row " + std::to_string(k) + " step " + std::to_string(l) + ": product leaves the shift's range");
       const std::int32_t c = p.coef[idx(k, l, L)];
-      a = IR{rsr(prod.lo, sh) + c, rsr(prod.hi, sh) + c};
+      a = IR{rshift_round_exact(prod.lo, sh) + c, rshift_round_exact(prod.hi, sh) + c};
       p.max_abs_acc = std::max(p.max_abs_acc, mag(a));
       if (!fits32(a)) return fail("row " + std::to_string(k) + " step " + std::to_string(l) + ": exceeds int32");
     }
@@ -143,9 +134,9 @@ bool verify_surface_fixed_bounds(SurfaceFixedPlan* plan, std::string* why) {
     const IR prod = imul(acc, tq);
     p.max_abs_product = std::max(p.max_abs_product, mag(prod));
     const int sh = p.sh_out[static_cast<std::size_t>(k)];
-    if (!shift_ok(prod.lo, prod.hi, sh)) return fail("outer step " + std::to_string(k) + ": product leaves the shift's range");
+    if (!rshift_precondition(prod.lo, prod.hi, sh)) return fail("outer step " + std::to_string(k) + ": product leaves the shift's range");
     const IR wk = w[static_cast<std::size_t>(k)];
-    acc = IR{rsr(prod.lo, sh) + wk.lo, rsr(prod.hi, sh) + wk.hi};
+    acc = IR{rshift_round_exact(prod.lo, sh) + wk.lo, rshift_round_exact(prod.hi, sh) + wk.hi};
     p.max_abs_acc = std::max(p.max_abs_acc, mag(acc));
     if (!fits32(acc)) return fail("outer step " + std::to_string(k) + ": exceeds int32");
   }
@@ -153,8 +144,8 @@ bool verify_surface_fixed_bounds(SurfaceFixedPlan* plan, std::string* why) {
   if (q0 < 0) return fail("output needs more than 31 bits at this output_scale");
   IR out = acc;
   if (q0 > 0) {
-    if (!shift_ok(acc.lo, acc.hi, q0)) return fail("final shift out of range");
-    out = IR{rsr(acc.lo, q0), rsr(acc.hi, q0)};
+    if (!rshift_precondition(acc.lo, acc.hi, q0)) return fail("final shift out of range");
+    out = IR{rshift_round_exact(acc.lo, q0), rshift_round_exact(acc.hi, q0)};
   }
   p.out = to_range(out);
   if (!fits32(out)) return fail("output exceeds int32");

@@ -635,19 +635,11 @@ SurfaceExportResult generate_surface_header(const SurfaceModel& model, const Hea
     return sr;
   }
   Proof proof;
-  if (meta.tolerance_abs && std::isfinite(*meta.tolerance_abs) && *meta.tolerance_abs > 0) {
-    proof.tolerance = *meta.tolerance_abs;
-    proof.tolerance_source = "record tolerance";
-  } else if (std::isfinite(meta.validation_rmse) && meta.validation_rmse > 0) {
-    proof.tolerance = meta.validation_rmse;
-    proof.tolerance_source = "validation RMSE, fallback: no absolute tolerance given";
-  } else {
-    r.message =
-        "meta: neither an absolute tolerance nor a positive validation RMSE is given; the refusal rule needs one "
-        "of them";
-    return sr;
-  }
-  proof.limit = opt.max_deviation_fraction * proof.tolerance;
+  detail::ProofTolerance pt;
+  if (!detail::choose_proof_tolerance(meta, opt, pt, r.message)) return sr;
+  proof.tolerance = pt.tolerance;
+  proof.tolerance_source = pt.source;
+  proof.limit = pt.limit;
   r.tolerance_used = proof.tolerance;
   r.tolerance_source = proof.tolerance_source;
   r.deviation_limit = proof.limit;
