@@ -371,3 +371,57 @@ BOOST_AUTO_TEST_CASE(surface_record_round_trips_the_uncertainty) {
   BOOST_TEST(back.uncertainty->expanded == a.uncertainty.expanded);
   BOOST_TEST(back.uncertainty->band.size() == a.uncertainty.band.size());
 }
+
+// Coverage of U(x, a) on fresh data (the 1-D check of test_thermometry, in two
+// inputs): a smooth surface, reference noise 0.01 (standard), the default
+// selection (total degree 1..3, lambda grid, one-SE rule). Fresh points at
+// random (x, a) inside the calibrated region, each with its own noise; the
+// fraction of |predicted - fresh reference| <= U(x, a) over all seeds must be
+// at least 90 % (k = 2 aims at about 95 %; the shrinkage bias is not in U).
+BOOST_AUTO_TEST_CASE(band_covers_fresh_errors) {
+  constexpr double kNoise = 0.01;
+  constexpr int kSeeds = 12, kFresh = 100;
+  constexpr double kRequiredCoverage = 0.90;
+  auto truth = [](double x, double a) { return 3.0 + 0.02 * x - 1e-5 * x * x + 0.3 * a - 0.002 * a * a + 4e-4 * x * a; };
+  std::size_t inside = 0, total = 0;
+  double worst_seed = 1.0;
+  for (int seed = 0; seed < kSeeds; ++seed) {
+    test::Gauss g(900 + static_cast<std::uint64_t>(seed));
+    Dataset ds;
+    ds.file = "bowl.csv";
+    std::size_t line = 2;
+    for (int j = 0; j < 5; ++j)
+      for (int i = 0; i < 7; ++i)
+        for (int r = 0; r < 3; ++r) {
+          Observation ob;
+          ob.reading = 100.0 + 800.0 * i / 6.0;
+          ob.aux = -10.0 + 70.0 * j / 4.0 + 0.05 * g.next();
+          ob.reference = truth(ob.reading, ob.aux) + kNoise * g.next();
+          ob.setpoint = fmt::format("P{}", i);
+          ob.line = line++;
+          ds.rows.push_back(ob);
+        }
+    FitOptions fit;
+    fit.degrees = {1, 2, 3};
+    CompensationOptions comp;
+    comp.aux = true;
+    comp.aux_step = 5.0;
+    const FitOutcome out = fit_compensated(ds, fit, comp);
+    BOOST_REQUIRE_MESSAGE(out.status.ok, out.status.message);
+    const SurfaceUncertainty su(out.calibration, UncertaintyOptions{});
+    const SurfaceModel& m = *out.calibration.surface;
+    std::size_t in_seed = 0;
+    for (int k = 0; k < kFresh; ++k) {
+      const double x = 100.0 + 800.0 * (0.5 + 0.5 * std::tanh(g.next()));
+      const double a = m.aux.min + (m.aux.max - m.aux.min) * (0.5 + 0.5 * std::tanh(g.next()));
+      const double fresh = truth(x, a) + kNoise * g.next();
+      in_seed += std::fabs(m.eval(x, a) - fresh) <= su.expanded_at(x, a);
+    }
+    inside += in_seed;
+    total += kFresh;
+    worst_seed = std::min(worst_seed, static_cast<double>(in_seed) / kFresh);
+  }
+  const double coverage = static_cast<double>(inside) / static_cast<double>(total);
+  BOOST_TEST_MESSAGE(fmt::format("surface band coverage of fresh errors: {:.3f} (worst seed {:.2f})", coverage, worst_seed));
+  BOOST_TEST(coverage >= kRequiredCoverage);
+}
