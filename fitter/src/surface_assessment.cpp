@@ -12,7 +12,8 @@ namespace ridgecal {
 namespace {
 constexpr double kNaN = std::numeric_limits<double>::quiet_NaN();
 
-Warning make(DiagnosticCode c, std::string msg, std::vector<std::size_t> lines = {}, double value = kNaN) {
+Warning make(DiagnosticCode c, std::string msg, std::vector<std::size_t> lines = {},
+             double value = kNaN) {
   Warning w;
   w.code = c;
   w.message = std::move(msg);
@@ -27,26 +28,34 @@ void append(std::vector<Warning>& to, std::vector<Warning> from) {
 
 std::string line_list(const std::vector<std::size_t>& lines, std::size_t max_shown = 8) {
   std::string s;
-  for (std::size_t i = 0; i < lines.size() && i < max_shown; ++i) s += (i ? ", " : "") + std::to_string(lines[i]);
+  for (std::size_t i = 0; i < lines.size() && i < max_shown; ++i)
+    s += (i ? ", " : "") + std::to_string(lines[i]);
   if (lines.size() > max_shown) s += fmt::format(" and {} more", lines.size() - max_shown);
   return s;
 }
 }  // namespace
 
-std::string surface_assessment_unsupported(const AssessmentOptions&) { return {}; }
+std::string surface_assessment_unsupported(const AssessmentOptions&) {
+  return {};
+}
 
 std::vector<Warning> check_cv_vs_training(const Calibration& cal, const DiagnosticOptions& o) {
   const Metrics& v = cal.validation;
   const Metrics& t = cal.training;
-  if (v.empty() || t.empty() || !(std::isfinite(v.rmse) && std::isfinite(t.rmse)) || !(t.rmse > 0.0)) return {};
+  if (v.empty() || t.empty() || !(std::isfinite(v.rmse) && std::isfinite(t.rmse)) ||
+      !(t.rmse > 0.0))
+    return {};
   const double ratio = v.rmse / t.rmse;
   if (!(ratio > o.cv_training_ratio)) return {};
-  return {make(DiagnosticCode::ValidationMuchWorseThanTraining,
-               fmt::format("The validation (cross-validated) RMSE ({:.3g}) is {:.1f} times the training RMSE ({:.3g}): "
-                           "the model follows the training points more closely than it predicts points it has not "
-                           "seen (overfit); use fewer terms, a larger lambda or more setpoints.",
-                           v.rmse, ratio, t.rmse),
-               {}, ratio)};
+  return {make(
+      DiagnosticCode::ValidationMuchWorseThanTraining,
+      fmt::format(
+          "The validation (cross-validated) RMSE ({:.3g}) is {:.1f} times the training RMSE "
+          "({:.3g}): "
+          "the model follows the training points more closely than it predicts points it has not "
+          "seen (overfit); use fewer terms, a larger lambda or more setpoints.",
+          v.rmse, ratio, t.rmse),
+      {}, ratio)};
 }
 
 std::vector<Warning> check_surface_grid_edges(const Calibration& cal) {
@@ -59,11 +68,13 @@ std::vector<Warning> check_surface_grid_edges(const Calibration& cal) {
   if (s.aux_degrees.size() > 1 && c.aux_degree >= 0) {
     const int hi = *std::max_element(s.aux_degrees.begin(), s.aux_degrees.end());
     if (c.aux_degree == hi)
-      out.push_back(make(DiagnosticCode::DegreeAtGridEdge,
-                         fmt::format("The chosen aux degree {} is the highest candidate: a higher degree in the second "
-                                     "input might fit better; widen --aux-degree and refit.",
-                                     c.aux_degree),
-                         {}, c.aux_degree));
+      out.push_back(make(
+          DiagnosticCode::DegreeAtGridEdge,
+          fmt::format(
+              "The chosen aux degree {} is the highest candidate: a higher degree in the second "
+              "input might fit better; widen --aux-degree and refit.",
+              c.aux_degree),
+          {}, c.aux_degree));
   }
   return out;
 }
@@ -77,8 +88,10 @@ std::vector<Warning> check_groups_per_term(const Calibration& cal, const Diagnos
   const double per = static_cast<double>(ntr) / static_cast<double>(terms);
   if (!(per < o.min_setpoints_per_coefficient)) return {};
   return {make(DiagnosticCode::FewSetpointsPerCoefficient,
-               fmt::format("Only {} training setpoint groups for {} terms ({:.1f} per term, fewer than {:g}): the model "
-                           "between the groups is poorly constrained; add setpoints or levels of the second input, or "
+               fmt::format("Only {} training setpoint groups for {} terms ({:.1f} per term, fewer "
+                           "than {:g}): the model "
+                           "between the groups is poorly constrained; add setpoints or levels of "
+                           "the second input, or "
                            "use fewer terms.",
                            ntr, terms, per, o.min_setpoints_per_coefficient),
                {}, per)};
@@ -94,7 +107,8 @@ std::vector<Warning> check_surface_outliers(const Calibration& cal, const Diagno
   const SurfaceModel& m = *cal.surface;
   for (const PointResult& p : cal.points) {
     if (p.role != SetRole::Train) continue;
-    const double e = m.eval_fitted(m.transforms.input(p.reading), p.aux) - m.transforms.output(p.reference);
+    const double e =
+        m.eval_fitted(m.transforms.input(p.reading), p.aux) - m.transforms.output(p.reference);
     const double h = std::min(cov.leverage(p.reading, p.aux), 1.0 - 1e-12);
     if (!(std::isfinite(e) && std::isfinite(h))) continue;
     const double r = e / (s * std::sqrt(1.0 - h));  // internally studentized
@@ -102,18 +116,22 @@ std::vector<Warning> check_surface_outliers(const Calibration& cal, const Diagno
     if (!(denom > 1e-12)) continue;
     const double t = r * std::sqrt((dof - 1.0) / denom);  // externally studentized
     if (std::fabs(t) > o.outlier_limit)
-      out.push_back(make(DiagnosticCode::Outlier,
-                         fmt::format("Line {} (setpoint '{}', reading {:g}{}) is an outlier: studentized residual {:.1f} "
-                                     "(limit {:g}); check the reading and the reference there.",
-                                     p.line, p.setpoint, p.reading,
-                                     m.has_aux ? fmt::format(", aux {:g}", p.aux) : std::string(), t, o.outlier_limit),
-                         {p.line}, t));
+      out.push_back(make(
+          DiagnosticCode::Outlier,
+          fmt::format(
+              "Line {} (setpoint '{}', reading {:g}{}) is an outlier: studentized residual {:.1f} "
+              "(limit {:g}); check the reading and the reference there.",
+              p.line, p.setpoint, p.reading,
+              m.has_aux ? fmt::format(", aux {:g}", p.aux) : std::string(), t, o.outlier_limit),
+          {p.line}, t));
   }
   return out;
 }
 
-std::vector<Warning> check_surface_extrapolation(const SurfaceModel& m, const std::vector<double>& readings,
-                                                 const std::vector<double>& aux, const std::vector<std::size_t>& lines,
+std::vector<Warning> check_surface_extrapolation(const SurfaceModel& m,
+                                                 const std::vector<double>& readings,
+                                                 const std::vector<double>& aux,
+                                                 const std::vector<std::size_t>& lines,
                                                  const std::string& what) {
   std::vector<std::size_t> out_reading, out_aux;
   double worst = 0.0;  // in half-widths of the scaled input beyond [-1, 1]
@@ -136,20 +154,23 @@ std::vector<Warning> check_surface_extrapolation(const SurfaceModel& m, const st
   all.erase(std::unique(all.begin(), all.end()), all.end());
   std::string parts;
   if (!out_reading.empty())
-    parts += fmt::format("{} outside the calibrated reading range {:g}..{:g}{} (lines {})", out_reading.size(),
-                         m.input.min, m.input.max, m.transforms.identity() ? "" : " (transformed)",
-                         line_list(out_reading));
+    parts += fmt::format("{} outside the calibrated reading range {:g}..{:g}{} (lines {})",
+                         out_reading.size(), m.input.min, m.input.max,
+                         m.transforms.identity() ? "" : " (transformed)", line_list(out_reading));
   if (!out_aux.empty())
-    parts += fmt::format("{}{} outside the calibrated aux range {:g}..{:g} (lines {})", parts.empty() ? "" : "; ",
-                         out_aux.size(), m.aux.min, m.aux.max, line_list(out_aux));
+    parts += fmt::format("{}{} outside the calibrated aux range {:g}..{:g} (lines {})",
+                         parts.empty() ? "" : "; ", out_aux.size(), m.aux.min, m.aux.max,
+                         line_list(out_aux));
   return {make(DiagnosticCode::Extrapolation,
-               fmt::format("{} {} lie outside the calibrated region: {}; up to {:.3g} half-widths beyond it. There the "
+               fmt::format("{} {} lie outside the calibrated region: {}; up to {:.3g} half-widths "
+                           "beyond it. There the "
                            "model is an extrapolation and the uncertainty is not valid.",
                            all.size(), what, parts, worst),
                all, worst)};
 }
 
-std::vector<Warning> diagnose_surface_fit(const Calibration& cal, const DiagnosticOptions& options) {
+std::vector<Warning> diagnose_surface_fit(const Calibration& cal,
+                                          const DiagnosticOptions& options) {
   assert(cal.surface);
   std::vector<Warning> out;
   append(out, check_test_vs_validation(cal, options));
@@ -185,8 +206,8 @@ Assessment assess_surface_calibration(const Calibration& cal, const AssessmentOp
                      unc.expanded_at(p.reading, p.aux)});
     for (const PointResult& p : cal.points)
       if (p.role == SetRole::Train && std::isfinite(p.cv_predicted))
-        pts.push_back(
-            {p.line, "validation", p.reference, p.cv_predicted - p.reference, unc.expanded_at(p.reading, p.aux)});
+        pts.push_back({p.line, "validation", p.reference, p.cv_predicted - p.reference,
+                       unc.expanded_at(p.reading, p.aux)});
     if (tol.validate().empty()) a.decision = judge(pts, tol, options.rule, {"validation"});
   }
   a.warnings = diagnose_surface_fit(cal, options.diagnostics);

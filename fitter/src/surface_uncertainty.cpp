@@ -43,7 +43,8 @@ SurfaceCovariance::SurfaceCovariance(const Calibration& cal)
       const double t = model_.input.to_scaled(model_.transforms.input(tr[i]->reading));
       const double s = model_.has_aux ? model_.aux.to_scaled(tr[i]->aux) : 0.0;
       probe.basis_row(t, s, row.data());
-      for (std::size_t q = 0; q < p; ++q) X(static_cast<Eigen::Index>(i), static_cast<Eigen::Index>(q)) = row[q];
+      for (std::size_t q = 0; q < p; ++q)
+        X(static_cast<Eigen::Index>(i), static_cast<Eigen::Index>(q)) = row[q];
     }
     mean_ = intercept_ ? Eigen::RowVectorXd(X.colwise().mean())
                        : Eigen::RowVectorXd::Zero(static_cast<Eigen::Index>(p));
@@ -52,7 +53,8 @@ SurfaceCovariance::SurfaceCovariance(const Calibration& cal)
     V_ = svd.matrixV();
     s_ = svd.singularValues();
     const double smax = s_.size() ? s_(0) : 0.0;
-    const double tol = smax * std::numeric_limits<double>::epsilon() * static_cast<double>(std::max(n_, p));
+    const double tol =
+        smax * std::numeric_limits<double>::epsilon() * static_cast<double>(std::max(n_, p));
     const double nl = static_cast<double>(n_) * lambda_;
     for (Eigen::Index j = 0; j < s_.size(); ++j) {
       if (s_(j) > tol) ++rank_;
@@ -71,7 +73,8 @@ bool SurfaceCovariance::projected(double reading, double aux, Eigen::VectorXd& w
   SurfaceModel probe = model_;
   probe.terms = cols_;
   std::vector<double> row(cols_.size());
-  probe.basis_row(model_.input.to_scaled(u), model_.has_aux ? model_.aux.to_scaled(aux) : 0.0, row.data());
+  probe.basis_row(model_.input.to_scaled(u), model_.has_aux ? model_.aux.to_scaled(aux) : 0.0,
+                  row.data());
   const Eigen::Map<const Eigen::RowVectorXd> r(row.data(), static_cast<Eigen::Index>(row.size()));
   w = ((r - mean_) * V_).transpose();
   return true;
@@ -137,8 +140,9 @@ double SurfaceUncertainty::reading_sensitivity(double reading, double aux) const
 
 double SurfaceUncertainty::combined_at(double reading, double aux) const {
   const double uf = cov_.u_fit(reading, aux);
-  const double ures =
-      options_.resolution > 0.0 ? reading_sensitivity(reading, aux) * options_.resolution / (2.0 * std::sqrt(3.0)) : 0.0;
+  const double ures = options_.resolution > 0.0 ? reading_sensitivity(reading, aux) *
+                                                      options_.resolution / (2.0 * std::sqrt(3.0))
+                                                : 0.0;
   return std::sqrt(s_ * s_ + uf * uf + u_ref_ * u_ref_ + ures * ures);
 }
 
@@ -146,7 +150,8 @@ double SurfaceUncertainty::expanded_at(double reading, double aux) const {
   return options_.coverage_k * combined_at(reading, aux);
 }
 
-SurfaceUncertainty::SurfaceUncertainty(const Calibration& cal, const UncertaintyOptions& options, int aux_points)
+SurfaceUncertainty::SurfaceUncertainty(const Calibration& cal, const UncertaintyOptions& options,
+                                       int aux_points)
     : options_(options), cov_(cal) {
   assert(cal.surface && options.validate().empty() && aux_points >= 2);
   const SurfaceModel& m = cov_.model();
@@ -203,15 +208,17 @@ SurfaceUncertainty::SurfaceUncertainty(const Calibration& cal, const Uncertainty
         if (std::isfinite(slope)) max_slope = std::max(max_slope, slope);
       }
   }
-  const std::string where = m.has_aux ? "over the calibrated (reading, aux) region" : "over the calibrated range";
-  b.components.push_back(
-      {"fit-residual", EvaluationType::A, Distribution::Normal, s_, 1.0, 1.0, s_,
-       fmt::format("residual standard deviation of the {} training points, {:.3g} degrees of freedom (n minus "
-                   "effective parameters)",
-                   cov_.n(), cov_.dof())});
+  const std::string where =
+      m.has_aux ? "over the calibrated (reading, aux) region" : "over the calibrated range";
+  b.components.push_back({"fit-residual", EvaluationType::A, Distribution::Normal, s_, 1.0, 1.0, s_,
+                          fmt::format("residual standard deviation of the {} training points, "
+                                      "{:.3g} degrees of freedom (n minus "
+                                      "effective parameters)",
+                                      cov_.n(), cov_.dof())});
   b.components.push_back(
       {"fit-coefficients", EvaluationType::A, Distribution::Normal, max_ufit, 1.0, 1.0, max_ufit,
-       fmt::format("largest standard deviation of the fitted model {}, from the {} covariance of the design rows "
+       fmt::format("largest standard deviation of the fitted model {}, from the {} covariance of "
+                   "the design rows "
                    "of its {} terms{}",
                    where, cal.lambda > 0.0 ? "ridge sandwich" : "least-squares", m.terms.size(),
                    cal.lambda > 0.0 ? " (shrinkage bias not included)" : "")});
@@ -220,25 +227,33 @@ SurfaceUncertainty::SurfaceUncertainty(const Calibration& cal, const Uncertainty
        options.reference_k, 1.0, u_ref_,
        options.reference_k == 1.0
            ? "standard uncertainty of the reference as stated by the user"
-           : fmt::format("expanded uncertainty of the reference as stated by the user, k = {:g}", options.reference_k)});
-  b.components.push_back({"reading-resolution", EvaluationType::B, Distribution::Rectangular, options.resolution,
-                          res_div, max_slope, options.resolution > 0.0 ? max_slope * options.resolution / res_div : 0.0,
-                          "one digit step of the reading, rectangular, through the largest slope d reference / d "
-                          "reading (whole transform chain) " +
-                              where});
+           : fmt::format("expanded uncertainty of the reference as stated by the user, k = {:g}",
+                         options.reference_k)});
+  b.components.push_back(
+      {"reading-resolution", EvaluationType::B, Distribution::Rectangular, options.resolution,
+       res_div, max_slope,
+       options.resolution > 0.0 ? max_slope * options.resolution / res_div : 0.0,
+       "one digit step of the reading, rectangular, through the largest slope d reference / d "
+       "reading (whole transform chain) " +
+           where});
   double sum = 0.0;
   for (const UncertaintyComponent& c : b.components) sum += c.standard * c.standard;
   b.combined = std::sqrt(sum);
   b.expanded = b.k * b.combined;
   b.band_method = fmt::format(
-      "U(x, a) = k*sqrt(s^2 + u_fit(x, a)^2 + u_ref^2 + u_res(x, a)^2); u_fit from the {} covariance of the centred "
-      "design rows (SurfaceModel::basis_row of the terms other than (0,0)) in the fitted output, times |d reference / "
+      "U(x, a) = k*sqrt(s^2 + u_fit(x, a)^2 + u_ref^2 + u_res(x, a)^2); u_fit from the {} "
+      "covariance of the centred "
+      "design rows (SurfaceModel::basis_row of the terms other than (0,0)) in the fitted output, "
+      "times |d reference / "
       "d v|{}. {}",
-      cal.lambda > 0.0 ? "ridge sandwich s_v^2 V diag(s_j^2/(s_j^2+n*lambda)^2) V'" : "least-squares s_v^2 (Xc'Xc)^-1",
+      cal.lambda > 0.0 ? "ridge sandwich s_v^2 V diag(s_j^2/(s_j^2+n*lambda)^2) V'"
+                       : "least-squares s_v^2 (Xc'Xc)^-1",
       cal.lambda > 0.0 ? " (approximation: ignores the shrinkage bias)" : "",
-      m.has_aux ? fmt::format("Band: at each reading the largest U over {} aux values from {:g} to {:g}; predicted "
-                              "at aux {:g}. Guarded acceptance uses U at each point's own (reading, aux).",
-                              na, m.aux.min, m.aux.max, aux_mid)
+      m.has_aux ? fmt::format(
+                      "Band: at each reading the largest U over {} aux values from {:g} to {:g}; "
+                      "predicted "
+                      "at aux {:g}. Guarded acceptance uses U at each point's own (reading, aux).",
+                      na, m.aux.min, m.aux.max, aux_mid)
                 : std::string("Band over the calibrated readings."));
 }
 

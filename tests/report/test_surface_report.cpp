@@ -3,7 +3,6 @@
 //   record_surface_aux.json  pressure transmitter, reading x temperature, 9 terms, guarded decision
 //   record_surface_ntc.json  thermistor through a divider, ln and 1/T, powers {0,1,3}
 #include <boost/test/unit_test.hpp>
-
 #include <cmath>
 #include <fstream>
 #include <sstream>
@@ -13,8 +12,8 @@
 #include "ridgecal/report/number_format.hpp"
 
 using namespace ridgecal::report;
-using ridgecal::report::test::check_markup;
 using nlohmann::json;
+using ridgecal::report::test::check_markup;
 
 namespace {
 const std::string kDir = RIDGECAL_REPORT_TEST_DIR;
@@ -62,9 +61,10 @@ BOOST_AUTO_TEST_SUITE(surface_report)
 BOOST_AUTO_TEST_CASE(two_input_record_shows_every_view_in_order) {
   const std::string html = render_html_report(fixture("surface_aux"), fixed_options());
   BOOST_TEST(check_markup(html) == "");
-  const std::vector<std::string> order = {"id=\"fig-fit\"",        "id=\"fig-errors\"",    "id=\"fig-resid-reading\"",
-                                          "id=\"fig-resid-aux\"", "id=\"fig-resid-map\"", "id=\"fig-validation-cv\"",
-                                          "id=\"metrics\"",       "id=\"model\"",         "id=\"split\""};
+  const std::vector<std::string> order = {
+      "id=\"fig-fit\"",       "id=\"fig-errors\"",    "id=\"fig-resid-reading\"",
+      "id=\"fig-resid-aux\"", "id=\"fig-resid-map\"", "id=\"fig-validation-cv\"",
+      "id=\"metrics\"",       "id=\"model\"",         "id=\"split\""};
   long last = -1;
   for (const auto& m : order) {
     const auto p = html.find(m);
@@ -75,8 +75,9 @@ BOOST_AUTO_TEST_CASE(two_input_record_shows_every_view_in_order) {
     last = static_cast<long>(p);
   }
   // Figures are numbered in order: the validation curve comes after the three residual views.
-  BOOST_TEST(html.find("<b>Figure 3.</b> Error (predicted \u2212 reference) against the reading (left)") !=
-             std::string::npos);
+  BOOST_TEST(
+      html.find("<b>Figure 3.</b> Error (predicted \u2212 reference) against the reading (left)") !=
+      std::string::npos);
   BOOST_TEST(html.find("<b>Figure 4.</b> Residual map") != std::string::npos);
   BOOST_TEST(html.find("<b>Figure 5.</b> Validation curve") != std::string::npos);
   // Roles as in the 1-D report: training, validation (held-out fold) and test series.
@@ -86,7 +87,8 @@ BOOST_AUTO_TEST_CASE(two_input_record_shows_every_view_in_order) {
     BOOST_TEST(svg.find(">validation (held-out fold)<") != std::string::npos);
     BOOST_TEST(svg.find(">test<") != std::string::npos);
   }
-  BOOST_TEST(svg_by_id(html, "fig-resid-aux").find(">temperature (second input)<") != std::string::npos);
+  BOOST_TEST(svg_by_id(html, "fig-resid-aux").find(">temperature (second input)<") !=
+             std::string::npos);
   // The fit figure draws the surface at three temperatures.
   const std::string fit = svg_by_id(html, "fig-fit");
   BOOST_TEST(fit.find(">temperature = -20.53<") != std::string::npos);
@@ -101,7 +103,8 @@ BOOST_AUTO_TEST_CASE(model_section_states_terms_transforms_and_both_ranges) {
   BOOST_TEST(model.find("<dt>Transforms</dt><dd>none") != std::string::npos);
   for (int k = 0; k < 2; ++k) {
     const json& sc = rec["compensation"]["inputs"][k]["scaling"];
-    const std::string range = format_sig(sc["min"].get<double>(), 8) + " \u2026 " + format_sig(sc["max"].get<double>(), 8);
+    const std::string range = format_sig(sc["min"].get<double>(), 8) + " \u2026 " +
+                              format_sig(sc["max"].get<double>(), 8);
     BOOST_TEST(model.find(range) != std::string::npos, "input " << k << " range " << range);
     BOOST_TEST(model.find(format_sig(sc["half_width"].get<double>(), 8)) != std::string::npos);
   }
@@ -112,14 +115,16 @@ BOOST_AUTO_TEST_CASE(model_section_states_terms_transforms_and_both_ranges) {
   BOOST_TEST(model.find("The record holds no coefficients") == std::string::npos);
   // The split lists the temperature of each group; the cautions name both inputs.
   const std::string html = render_html_report(rec, fixed_options());
-  BOOST_TEST(section(html, "split").find("<th class=\"num\">temperature</th>") != std::string::npos);
+  BOOST_TEST(section(html, "split").find("<th class=\"num\">temperature</th>") !=
+             std::string::npos);
   BOOST_TEST(section(html, "cautions").find("<b>both</b> inputs") != std::string::npos);
   // The budget and the guarded rule of the record are shown.
   const std::string metrics = section(html, "metrics");
   for (const json& c : rec["uncertainty"]["components"])
-    BOOST_TEST(metrics.find(">" + format_sig(c["standard"].get<double>(), 3) + "<") != std::string::npos);
-  BOOST_TEST(metrics.find("<b>" + format_sig(rec["uncertainty"]["expanded"].get<double>(), 3) + "</b>") !=
-             std::string::npos);
+    BOOST_TEST(metrics.find(">" + format_sig(c["standard"].get<double>(), 3) + "<") !=
+               std::string::npos);
+  BOOST_TEST(metrics.find("<b>" + format_sig(rec["uncertainty"]["expanded"].get<double>(), 3) +
+                          "</b>") != std::string::npos);
 }
 
 BOOST_AUTO_TEST_CASE(residual_map_bins_every_point_by_its_error) {
@@ -128,7 +133,8 @@ BOOST_AUTO_TEST_CASE(residual_map_bins_every_point_by_its_error) {
   BOOST_REQUIRE(!map.empty());
   // Largest |error| of this record is 0.00369 bar: bins of 0.002 bar, edges -0.006 ... 0.006.
   double worst = 0;
-  for (const json& p : rec["points"]) worst = std::max(worst, std::fabs(p["predicted"].get<double>() - p["reference"].get<double>()));
+  for (const json& p : rec["points"])
+    worst = std::max(worst, std::fabs(p["predicted"].get<double>() - p["reference"].get<double>()));
   BOOST_REQUIRE(worst > 0.003 && worst < 0.006);
   const double edges[] = {-0.006, -0.004, -0.002, 0.0, 0.002, 0.004, 0.006};
   const char* colors[] = {"#2166ac", "#4393c3", "#92c5de", "#f4a582", "#d6604d", "#b2182b"};
@@ -145,7 +151,8 @@ BOOST_AUTO_TEST_CASE(residual_map_bins_every_point_by_its_error) {
     BOOST_TEST_CONTEXT("bin " << k) {
       // One marker per point, plus the bin's legend entry.
       BOOST_TEST(count(map, std::string("fill=\"") + colors[k] + "\"") == expected[k] + 1);
-      const std::string label = ">" + format_sig(edges[k], 3) + " \u2026 " + format_sig(edges[k + 1], 3) + " bar<";
+      const std::string label =
+          ">" + format_sig(edges[k], 3) + " \u2026 " + format_sig(edges[k + 1], 3) + " bar<";
       BOOST_TEST(map.find(label) != std::string::npos, label);
     }
   }
@@ -167,8 +174,10 @@ BOOST_AUTO_TEST_CASE(transformed_one_input_record_draws_the_curve_in_reference_u
   BOOST_TEST(check_markup(html) == "");
   const std::string fit = svg_by_id(html, "fig-fit");
   BOOST_TEST(fit.find(">fitted curve (through the transforms)<") != std::string::npos);
-  BOOST_TEST(html.find("in reference units (transforms applied: reading -&gt; divider(sensor-low, 47000 ohm") !=
-             std::string::npos);
+  BOOST_TEST(
+      html.find(
+          "in reference units (transforms applied: reading -&gt; divider(sensor-low, 47000 ohm") !=
+      std::string::npos);
   BOOST_TEST(html.find("id=\"fig-resid-reading\"") != std::string::npos);
   BOOST_TEST(html.find("id=\"fig-resid-aux\"") == std::string::npos);  // no second input
   BOOST_TEST(html.find("id=\"fig-resid-map\"") == std::string::npos);
@@ -190,7 +199,8 @@ BOOST_AUTO_TEST_CASE(hostile_aux_name_is_shown_literally) {
   const std::string html = render_html_report(rec, fixed_options());
   BOOST_TEST(check_markup(html) == "");
   BOOST_TEST(html.find("<script") == std::string::npos);
-  BOOST_TEST(html.find("&lt;script&gt;alert(1)&lt;/script&gt;&amp;&quot;&#39;") != std::string::npos);
+  BOOST_TEST(html.find("&lt;script&gt;alert(1)&lt;/script&gt;&amp;&quot;&#39;") !=
+             std::string::npos);
   BOOST_TEST(html.find("DOES NOT MATCH") != std::string::npos);  // edited after sealing
 }
 

@@ -5,9 +5,10 @@
 // error does not depend on how the inputs are scaled), and the ridge sandwich
 // form from explicit 2x2 matrices of the scaled columns.
 #define BOOST_TEST_MODULE surface_uncertainty
+#include <fmt/format.h>
+
 #include <boost/test/unit_test.hpp>
 #include <cmath>
-#include <fmt/format.h>
 #include <functional>
 
 #include "ridgecal/multi_input_fit.hpp"
@@ -108,7 +109,8 @@ Normal3 normal_equations(const Calibration& cal) {
 }
 
 bool close(long double a, long double b, double rel) {
-  return std::fabs(static_cast<double>(a - b)) <= rel * std::max(std::fabs(static_cast<double>(b)), 1e-300);
+  return std::fabs(static_cast<double>(a - b)) <=
+         rel * std::max(std::fabs(static_cast<double>(b)), 1e-300);
 }
 
 }  // namespace
@@ -129,7 +131,8 @@ BOOST_AUTO_TEST_CASE(degree_one_standard_error_matches_the_normal_equations) {
     for (double a : {-10.0, 7.5, 60.0, 80.0}) {
       BOOST_TEST_CONTEXT("x " << x << " a " << a) {
         BOOST_TEST(close(cov.variance_factor(x, a), ne.var_factor(x, a), kAgree));
-        BOOST_TEST(close(cov.leverage(x, a), ne.var_factor(x, a), kAgree));  // least squares: h = var factor
+        BOOST_TEST(close(cov.leverage(x, a), ne.var_factor(x, a),
+                         kAgree));  // least squares: h = var factor
         BOOST_TEST(close(cov.u_fit(x, a), ne.sigma * std::sqrt(ne.var_factor(x, a)), kAgree));
       }
     }
@@ -156,7 +159,8 @@ BOOST_AUTO_TEST_CASE(degree_one_budget_has_the_known_components) {
   }
   long double max_ufit = 0;
   for (double x : {x_min, x_max})
-    for (double a : {a_min, a_max}) max_ufit = std::max(max_ufit, ne.sigma * std::sqrt(ne.var_factor(x, a)));
+    for (double a : {a_min, a_max})
+      max_ufit = std::max(max_ufit, ne.sigma * std::sqrt(ne.var_factor(x, a)));
   const long double u_ref = 0.005L;
   const long double u_res = std::fabs(ne.beta[1]) * 0.5L / (2.0L * std::sqrt(3.0L));
   BOOST_TEST(b.components[0].name == "fit-residual");
@@ -168,25 +172,30 @@ BOOST_AUTO_TEST_CASE(degree_one_budget_has_the_known_components) {
   BOOST_TEST(b.components[3].name == "reading-resolution");
   // Central difference of a plane: exact up to the round-off of the step (1e-6 relative of ~1000).
   BOOST_TEST(close(b.components[3].standard, u_res, 1e-6));
-  const long double combined = std::sqrt(ne.sigma * ne.sigma + max_ufit * max_ufit + u_ref * u_ref + u_res * u_res);
+  const long double combined =
+      std::sqrt(ne.sigma * ne.sigma + max_ufit * max_ufit + u_ref * u_ref + u_res * u_res);
   BOOST_TEST(close(b.combined, combined, 1e-7));
   BOOST_TEST(close(b.expanded, 2.0L * combined, 1e-7));
   BOOST_TEST(b.k == 2.0);
   // At one point: U(x, a) = 2 sqrt(s^2 + u_fit(x, a)^2 + u_ref^2 + u_res^2).
   const double x0 = 420.0, a0 = 33.0;
   const long double uf0 = ne.sigma * std::sqrt(ne.var_factor(x0, a0));
-  BOOST_TEST(close(su.expanded_at(x0, a0),
-                   2.0L * std::sqrt(ne.sigma * ne.sigma + uf0 * uf0 + u_ref * u_ref + u_res * u_res), 1e-7));
-  // The band is the envelope over the aux range, in increasing reading, and bounded by the headline.
+  BOOST_TEST(close(
+      su.expanded_at(x0, a0),
+      2.0L * std::sqrt(ne.sigma * ne.sigma + uf0 * uf0 + u_ref * u_ref + u_res * u_res), 1e-7));
+  // The band is the envelope over the aux range, in increasing reading, and bounded by the
+  // headline.
   BOOST_REQUIRE(!b.band.empty());
-  for (std::size_t i = 1; i < b.band.size(); ++i) BOOST_TEST(b.band[i].reading > b.band[i - 1].reading);
+  for (std::size_t i = 1; i < b.band.size(); ++i)
+    BOOST_TEST(b.band[i].reading > b.band[i - 1].reading);
   for (const BandPoint& p : b.band) BOOST_TEST(p.expanded <= b.expanded * (1 + 1e-12));
-  BOOST_TEST(close(b.band.front().expanded,
-                   2.0L * std::sqrt(ne.sigma * ne.sigma +
-                                    std::max(ne.var_factor(x_min, a_min), ne.var_factor(x_min, a_max)) * ne.sigma *
-                                        ne.sigma +
-                                    u_ref * u_ref + u_res * u_res),
-                   1e-7));
+  BOOST_TEST(
+      close(b.band.front().expanded,
+            2.0L * std::sqrt(ne.sigma * ne.sigma +
+                             std::max(ne.var_factor(x_min, a_min), ne.var_factor(x_min, a_max)) *
+                                 ne.sigma * ne.sigma +
+                             u_ref * u_ref + u_res * u_res),
+            1e-7));
 }
 
 BOOST_AUTO_TEST_CASE(ridge_variance_is_the_sandwich_form) {
@@ -199,7 +208,8 @@ BOOST_AUTO_TEST_CASE(ridge_variance_is_the_sandwich_form) {
   // Scaled, centred columns t and s (T_1 = identity); A = Xc'Xc + n lambda I.
   std::vector<double> ts, ss;
   for (const PointResult& p : cal.points)
-    if (p.role == SetRole::Train) ts.push_back(m.input.to_scaled(p.reading)), ss.push_back(m.aux.to_scaled(p.aux));
+    if (p.role == SetRole::Train)
+      ts.push_back(m.input.to_scaled(p.reading)), ss.push_back(m.aux.to_scaled(p.aux));
   const double n = static_cast<double>(ts.size());
   double mt = 0, ms = 0;
   for (std::size_t i = 0; i < ts.size(); ++i) mt += ts[i] / n, ms += ss[i] / n;
@@ -217,7 +227,8 @@ BOOST_AUTO_TEST_CASE(ridge_variance_is_the_sandwich_form) {
   for (double x : {100.0, 500.0, 900.0})
     for (double a : {-10.0, 25.0, 60.0}) {
       const Eigen::Vector2d r(m.input.to_scaled(x) - mt, m.aux.to_scaled(a) - ms);
-      BOOST_TEST(cov.variance_factor(x, a) == 1.0 / n + r.dot(C * r), boost::test_tools::tolerance(1e-10));
+      BOOST_TEST(cov.variance_factor(x, a) == 1.0 / n + r.dot(C * r),
+                 boost::test_tools::tolerance(1e-10));
       BOOST_TEST(cov.leverage(x, a) == 1.0 / n + r.dot(H * r), boost::test_tools::tolerance(1e-10));
     }
 }
@@ -250,7 +261,8 @@ BOOST_AUTO_TEST_CASE(guarded_acceptance_uses_u_at_each_point) {
       if (q.line == pj.line) p = &q;
     BOOST_REQUIRE(p);
     BOOST_TEST(pj.guard == su.expanded_at(p->reading, p->aux), boost::test_tools::tolerance(1e-12));
-    BOOST_TEST(pj.acceptance_limit == std::max(pj.limit - pj.guard, 0.0), boost::test_tools::tolerance(1e-12));
+    BOOST_TEST(pj.acceptance_limit == std::max(pj.limit - pj.guard, 0.0),
+               boost::test_tools::tolerance(1e-12));
     ++judged;
   }
   BOOST_TEST(judged > cal.points.size());  // training, test and the validation set
@@ -286,13 +298,16 @@ BOOST_AUTO_TEST_CASE(reciprocal_kelvin_budget_goes_through_the_inverse_transform
   // Independent simple regression of v on ln R (long double).
   long double sx = 0, sy = 0, sxx = 0, sxy = 0, n = 0;
   for (const PointResult& p : cal.points) {
-    const long double x = std::log(static_cast<long double>(p.reading)), y = 1.0L / (p.reference + kKelvinOffset);
+    const long double x = std::log(static_cast<long double>(p.reading)),
+                      y = 1.0L / (p.reference + kKelvinOffset);
     sx += x, sy += y, sxx += x * x, sxy += x * y, n += 1;
   }
-  const long double sxxc = sxx - sx * sx / n, b1 = (sxy - sx * sy / n) / sxxc, b0 = (sy - b1 * sx) / n;
+  const long double sxxc = sxx - sx * sx / n, b1 = (sxy - sx * sy / n) / sxxc,
+                    b0 = (sy - b1 * sx) / n;
   long double rss = 0;
   for (const PointResult& p : cal.points) {
-    const long double e = b0 + b1 * std::log(static_cast<long double>(p.reading)) - 1.0L / (p.reference + kKelvinOffset);
+    const long double e = b0 + b1 * std::log(static_cast<long double>(p.reading)) -
+                          1.0L / (p.reference + kKelvinOffset);
     rss += e * e;
   }
   const long double sv = std::sqrt(rss / (n - 2));
@@ -311,7 +326,8 @@ BOOST_AUTO_TEST_CASE(diagnostics_flag_extrapolation_overfit_and_grid_edges) {
   BOOST_REQUIRE_MESSAGE(out.status.ok, out.status.message);
   const SurfaceModel& m = *out.calibration.surface;
   // Outside in the reading only, in aux only, and inside.
-  const auto w = check_surface_extrapolation(m, {1200.0, 500.0, 500.0}, {20.0, 90.0, 20.0}, {7, 8, 9}, "check points");
+  const auto w = check_surface_extrapolation(m, {1200.0, 500.0, 500.0}, {20.0, 90.0, 20.0},
+                                             {7, 8, 9}, "check points");
   BOOST_REQUIRE_EQUAL(w.size(), 1u);
   BOOST_TEST((w[0].code == DiagnosticCode::Extrapolation));
   BOOST_TEST((w[0].lines == std::vector<std::size_t>{7, 8}));
@@ -338,11 +354,13 @@ BOOST_AUTO_TEST_CASE(diagnostics_flag_extrapolation_overfit_and_grid_edges) {
   comp.aux_degrees = {0, 1};
   const FitOutcome sel = fit_compensated(plane_run(6, 5, 2, 0.002, 17), fit, comp);
   BOOST_REQUIRE_MESSAGE(sel.status.ok, sel.status.message);
-  const GridCell& chosen = sel.calibration.selection.grid[static_cast<std::size_t>(sel.calibration.selection.chosen)];
+  const GridCell& chosen =
+      sel.calibration.selection.grid[static_cast<std::size_t>(sel.calibration.selection.chosen)];
   BOOST_TEST(chosen.aux_degree == 1);  // the plane needs its aux term
   bool flagged = false;
   for (const Warning& x : check_surface_grid_edges(sel.calibration))
-    flagged = flagged || (x.code == DiagnosticCode::DegreeAtGridEdge && x.message.find("aux degree") != std::string::npos);
+    flagged = flagged || (x.code == DiagnosticCode::DegreeAtGridEdge &&
+                          x.message.find("aux degree") != std::string::npos);
   BOOST_TEST(flagged);
 }
 
@@ -382,7 +400,9 @@ BOOST_AUTO_TEST_CASE(band_covers_fresh_errors) {
   constexpr double kNoise = 0.01;
   constexpr int kSeeds = 12, kFresh = 100;
   constexpr double kRequiredCoverage = 0.90;
-  auto truth = [](double x, double a) { return 3.0 + 0.02 * x - 1e-5 * x * x + 0.3 * a - 0.002 * a * a + 4e-4 * x * a; };
+  auto truth = [](double x, double a) {
+    return 3.0 + 0.02 * x - 1e-5 * x * x + 0.3 * a - 0.002 * a * a + 4e-4 * x * a;
+  };
   std::size_t inside = 0, total = 0;
   double worst_seed = 1.0;
   for (int seed = 0; seed < kSeeds; ++seed) {
@@ -422,6 +442,7 @@ BOOST_AUTO_TEST_CASE(band_covers_fresh_errors) {
     worst_seed = std::min(worst_seed, static_cast<double>(in_seed) / kFresh);
   }
   const double coverage = static_cast<double>(inside) / static_cast<double>(total);
-  BOOST_TEST_MESSAGE(fmt::format("surface band coverage of fresh errors: {:.3f} (worst seed {:.2f})", coverage, worst_seed));
+  BOOST_TEST_MESSAGE(fmt::format(
+      "surface band coverage of fresh errors: {:.3f} (worst seed {:.2f})", coverage, worst_seed));
   BOOST_TEST(coverage >= kRequiredCoverage);
 }

@@ -40,13 +40,17 @@ std::vector<Warning> check_cv_vs_training(const Calibration& cal, const Diagnost
 /// Degree, aux degree or lambda chosen at the edge of its candidate grid.
 std::vector<Warning> check_surface_grid_edges(const Calibration& cal);
 /// Fewer than options.min_setpoints_per_coefficient training groups per term.
-std::vector<Warning> check_groups_per_term(const Calibration& cal, const DiagnosticOptions& options);
+std::vector<Warning> check_groups_per_term(const Calibration& cal,
+                                           const DiagnosticOptions& options);
 /// Externally studentized residuals (in the fitted output v, surface leverage).
-std::vector<Warning> check_surface_outliers(const Calibration& cal, const DiagnosticOptions& options);
+std::vector<Warning> check_surface_outliers(const Calibration& cal,
+                                            const DiagnosticOptions& options);
 /// Points whose (transformed) reading or aux value lies outside the calibrated
 /// region; `which` selects the points (e.g. only the test points).
-std::vector<Warning> check_surface_extrapolation(const SurfaceModel& model, const std::vector<double>& readings,
-                                                 const std::vector<double>& aux, const std::vector<std::size_t>& lines,
+std::vector<Warning> check_surface_extrapolation(const SurfaceModel& model,
+                                                 const std::vector<double>& readings,
+                                                 const std::vector<double>& aux,
+                                                 const std::vector<std::size_t>& lines,
                                                  const std::string& what);
 
 }  // namespace ridgecal

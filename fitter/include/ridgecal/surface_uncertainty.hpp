@@ -39,12 +39,16 @@ class SurfaceCovariance {
  public:
   /// Precondition: cal.surface is set.
   explicit SurfaceCovariance(const Calibration& cal);
-  bool ok() const { return ok_; }       ///< false without training points or without terms beyond (0,0)
+  bool ok() const { return ok_; }  ///< false without training points or without terms beyond (0,0)
   std::size_t n() const { return n_; }  ///< training points
-  double effective_parameters() const { return df_; }  ///< intercept + sum of s_j^2/(s_j^2 + n lambda)
+  double effective_parameters() const {
+    return df_;
+  }  ///< intercept + sum of s_j^2/(s_j^2 + n lambda)
   double dof() const { return static_cast<double>(n_) - df_; }
-  double residual_sd() const { return sigma_ref_; }     ///< reference units; NaN when n <= df
-  double residual_sd_fitted() const { return sigma_v_; }  ///< in the fitted output v; NaN when n <= df
+  double residual_sd() const { return sigma_ref_; }  ///< reference units; NaN when n <= df
+  double residual_sd_fitted() const {
+    return sigma_v_;
+  }  ///< in the fitted output v; NaN when n <= df
   /// Var(v(x, a)) / sigma_v^2 (NaN outside the transforms' domain).
   double variance_factor(double reading, double aux) const;
   /// Leverage of a training point at (reading, aux): the hat-matrix diagonal.
@@ -73,7 +77,8 @@ class SurfaceCovariance {
 class SurfaceUncertainty {
  public:
   /// Preconditions: cal.surface is set; options.validate() is empty.
-  SurfaceUncertainty(const Calibration& cal, const UncertaintyOptions& options, int aux_points = 11);
+  SurfaceUncertainty(const Calibration& cal, const UncertaintyOptions& options,
+                     int aux_points = 11);
   const SurfaceCovariance& covariance() const { return cov_; }
   /// |d reference / d reading| through the transform chain (central difference).
   double reading_sensitivity(double reading, double aux) const;
