@@ -229,7 +229,7 @@ int run_fit_command(const FitCommand& cmd, std::ostream& out, std::ostream& err)
     rec.input = InputInfo{cmd.data_path, data.sha256, data.rows.size(), cmd.csv};
     rec.calibration = fit.calibration;
     const bool surface = rec.calibration.surface.has_value();
-    const Assessment assessment = surface ? assess_surface_calibration(rec.calibration, cmd.assess)
+    const Assessment assessment = surface ? assess_surface_calibration(data, rec.calibration, cmd.assess)
                                           : assess_calibration(data, rec.calibration, cmd.assess);
     rec.tolerance = assessment.tolerance;
     rec.decision = assessment.decision;

@@ -215,3 +215,31 @@ Assessment assess_surface_calibration(const Calibration& cal, const AssessmentOp
 }
 
 }  // namespace ridgecal
+
+namespace ridgecal {
+
+std::vector<Warning> check_surface_hysteresis(const Dataset& data, const Calibration& cal,
+                                              const ToleranceSpec* tolerance) {
+  if (!tolerance || !cal.surface || data.rows.size() != cal.points.size()) return {};
+  Calibration keyed = cal;
+  if (cal.surface->has_aux)
+    for (std::size_t i = 0; i < data.rows.size(); ++i) {
+      const Observation& ob = data.rows[i];
+      const double step = cal.aux_step > 0.0 ? cal.aux_step : 1.0;
+      const std::string level = !ob.aux_setpoint.empty()
+                                    ? ob.aux_setpoint
+                                    : fmt::format("{:g}", std::round(ob.aux / step) * step + 0.0);
+      keyed.points[i].setpoint += " @ aux " + level;
+    }
+  return check_hysteresis(data, keyed, UncertaintyBudget{}, tolerance);
+}
+
+Assessment assess_surface_calibration(const Dataset& data, const Calibration& cal,
+                                      const AssessmentOptions& options) {
+  Assessment a = assess_surface_calibration(cal, options);
+  for (Warning& w : check_surface_hysteresis(data, cal, a.tolerance ? &*a.tolerance : nullptr))
+    a.warnings.push_back(std::move(w));
+  return a;
+}
+
+}  // namespace ridgecal

@@ -446,3 +446,38 @@ BOOST_AUTO_TEST_CASE(band_covers_fresh_errors) {
       "surface band coverage of fresh errors: {:.3f} (worst seed {:.2f})", coverage, worst_seed));
   BOOST_TEST(coverage >= kRequiredCoverage);
 }
+
+BOOST_AUTO_TEST_CASE(hysteresis_is_judged_per_setpoint_and_aux_level) {
+  // Each (setpoint, aux level) measured up and down; the down sweep's reference
+  // is offset by `gap`, so up minus down errors differ by about gap.
+  auto run = [](double gap) {
+    Dataset ds = plane_run(6, 5, 2, 0.002, 19);
+    for (std::size_t i = 0; i < ds.rows.size(); ++i) {
+      ds.rows[i].aux_setpoint = fmt::format("L{}", i / 12);  // 6 setpoints x 2 rows per level
+      ds.rows[i].direction = i % 2 == 0 ? SweepDirection::Up : SweepDirection::Down;
+      if (i % 2 == 1) ds.rows[i].reference += gap;
+    }
+    const FitOutcome out = fit_plane(ds, 0.0, 0.0);
+    BOOST_REQUIRE_MESSAGE(out.status.ok, out.status.message);
+    AssessmentOptions ao;
+    ToleranceSpec tol;
+    tol.offset = 0.02;
+    ao.tolerance = tol;
+    std::vector<Warning> hyst;
+    for (const Warning& w : assess_surface_calibration(ds, out.calibration, ao).warnings)
+      if (w.code == DiagnosticCode::Hysteresis) hyst.push_back(w);
+    return hyst;
+  };
+  const auto with_gap = run(0.05);
+  BOOST_REQUIRE_EQUAL(with_gap.size(), 1u);
+  BOOST_TEST(with_gap[0].message.find("at 30 of 30 setpoints") != std::string::npos,
+             with_gap[0].message);
+  BOOST_TEST(with_gap[0].message.find(" @ aux L") != std::string::npos);
+  // Worst of 30 groups: the gap plus up to 4 SD of the up-down difference. Per
+  // row the error scatters by the reference noise 0.002, the reading jitter
+  // 0.3 x slope 0.013 and the aux jitter 0.05 x slope 0.07 (plane_run).
+  const double row_sd = std::sqrt(0.002 * 0.002 + 0.0039 * 0.0039 + 0.0035 * 0.0035);
+  BOOST_TEST(with_gap[0].value >= 0.05 / 0.02);
+  BOOST_TEST(with_gap[0].value <= (0.05 + 4 * std::sqrt(2.0) * row_sd) / 0.02);
+  BOOST_TEST(run(0.0).empty());
+}
