@@ -138,8 +138,6 @@ FitCommand parse_fit_command(const std::vector<std::string>& args) {
   if (jc.rule && !jc.tolerance)
     throw UsageError("--decision needs a tolerance: give --tol-offset, --tol-proportional, --tol-percent-span or --tol-class");
   if (const std::string e = cmd.assess.validate(); !e.empty()) throw UsageError(e);
-  if (cmd.comp.active())
-    if (const std::string e = surface_assessment_unsupported(cmd.assess); !e.empty()) throw UsageError(e);
   return cmd;
 }
 
@@ -160,11 +158,11 @@ int run_fit_command(const FitCommand& cmd, std::ostream& out, std::ostream& err)
     rec.input = InputInfo{cmd.data_path, data.sha256, data.rows.size(), cmd.csv};
     rec.calibration = fit.calibration;
     const bool surface = rec.calibration.surface.has_value();
-    const Assessment assessment = surface ? assess_surface_calibration(rec.calibration, cmd.assess)
+    const Assessment assessment = surface ? assess_surface_calibration(data, rec.calibration, cmd.assess)
                                           : assess_calibration(data, rec.calibration, cmd.assess);
     rec.tolerance = assessment.tolerance;
     rec.decision = assessment.decision;
-    if (!surface) rec.uncertainty = assessment.uncertainty;
+    rec.uncertainty = assessment.uncertainty;
     rec.warnings = assessment.warnings;
     const nlohmann::json j = record_to_json(rec);
     const std::string report_html = cmd.report_path.empty() ? std::string() : report::render_html_report(j);
@@ -176,8 +174,7 @@ int run_fit_command(const FitCommand& cmd, std::ostream& out, std::ostream& err)
                          cmd.sensor.reading_unit.empty() ? "unstated units" : cmd.sensor.reading_unit,
                          cmd.sensor.reference_unit.empty() ? "unstated units" : cmd.sensor.reference_unit);
     out << (cmd.full ? rec.calibration.full() : rec.calibration.brief());
-    if (surface) out << "uncertainty: not evaluated for extended models (docs/compensation-and-transforms.md)\n";
-    else out << (cmd.full ? assessment.uncertainty.full(cmd.sensor.reference_unit)
+    out << (cmd.full ? assessment.uncertainty.full(cmd.sensor.reference_unit)
                           : assessment.uncertainty.brief(cmd.sensor.reference_unit));
     if (assessment.tolerance) out << "tolerance: " << assessment.tolerance->describe() << "\n";
     if (assessment.decision) out << (cmd.full ? assessment.decision->full() : assessment.decision->brief());

@@ -34,8 +34,6 @@ std::string BatchOptions::validate() const {
   if (const std::string e = comp.validate(fit); !e.empty()) return e;
   if (comp.aux != !input.csv.aux_column.empty())
     return "comp.aux and input.csv.aux_column disagree; set both (a second input) or neither";
-  if (comp.active())
-    if (const std::string e = surface_assessment_unsupported(assess); !e.empty()) return e;
   if (const std::string e = assess.validate(); !e.empty()) return e;
   if (out_dir.empty()) return "out_dir is empty; give the output directory";
   if (jobs < 0 || jobs > 1024) return fmt::format("jobs is {}; it must be between 0 (all cores) and 1024", jobs);
@@ -241,7 +239,7 @@ UnitSummary process_unit(const UnitChunk& chunk, const BatchOptions& options) {
     rec.calibration = cal;
     rec.tolerance = std::move(assessment.tolerance);
     rec.decision = std::move(assessment.decision);
-    if (!cal.surface) rec.uncertainty = std::move(assessment.uncertainty);
+    rec.uncertainty = std::move(assessment.uncertainty);
     rec.warnings = std::move(assessment.warnings);
     write_whole_file_atomic(options.out_dir + "/" + rel, record_text(record_to_json(rec)), options.sync_records);
     u.record = rel;

@@ -32,6 +32,7 @@ constexpr CodeName kCodes[] = {
     {DiagnosticCode::HighConditionNumber, "high-condition-number"},
     {DiagnosticCode::Extrapolation, "extrapolation"},
     {DiagnosticCode::RecordModified, "record-modified"},
+    {DiagnosticCode::ValidationMuchWorseThanTraining, "validation-much-worse-than-training"},
 };
 
 std::string line_list(const std::vector<std::size_t>& lines, std::size_t max_shown = 8) {
@@ -79,6 +80,8 @@ std::string DiagnosticOptions::validate() const {
   if (!(std::isfinite(test_validation_ratio) && test_validation_ratio > 1.0))
     return fmt::format("test_validation_ratio is {}; it must be a finite number > 1",
                        test_validation_ratio);
+  if (!(std::isfinite(cv_training_ratio) && cv_training_ratio > 1.0))
+    return fmt::format("cv_training_ratio is {}; it must be a finite number > 1", cv_training_ratio);
   if (!(std::isfinite(min_setpoints_per_coefficient) && min_setpoints_per_coefficient >= 0.0))
     return fmt::format("min_setpoints_per_coefficient is {}; it must be a finite number >= 0",
                        min_setpoints_per_coefficient);

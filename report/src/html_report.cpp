@@ -12,6 +12,8 @@
 #include "record_view.hpp"
 #include "ridgecal/poly_model.hpp"
 #include "ridgecal/record.hpp"
+#include "ridgecal/surface_model.hpp"
+#include "ridgecal/surface_record.hpp"
 #include "ridgecal/report/html_escape.hpp"
 #include "ridgecal/report/number_format.hpp"
 #include "ridgecal/report/svg_plot.hpp"
@@ -67,6 +69,7 @@ struct Units {
 
 struct Point {
   double reading = kNaN, reference = kNaN, predicted = kNaN, cv_predicted = kNaN;
+  double aux = kNaN;  // second input of an extended fit
   std::string role;  // "train", "test", other
 };
 
@@ -89,6 +92,7 @@ std::vector<Point> read_points(const Json& rec) {
     q.cv_predicted = num(find_any(p, {"cv_predicted", "validation_predicted", "heldout_predicted"}))
                          .value_or(kNaN);
     q.role = normalise_role(str_or(p, {"role"}, "train"));
+    q.aux = num(p, {"aux"}).value_or(kNaN);
     pts.push_back(q);
   }
   return pts;
@@ -105,6 +109,42 @@ std::optional<PolyModel> read_model(const Json& rec) {
   m.scaling = Scaling{*x_min, *x_max};
   m.cheb = cheb;
   return m;
+}
+
+/// An extended ("surface") record: a second input and/or linearising transforms.
+struct SurfaceView {
+  bool present = false;   // model.kind == "surface"
+  bool has_aux = false;   // the record names a second input (compensation.inputs[1])
+  std::optional<SurfaceModel> model;  // when the record's members are complete and valid
+  std::string aux_name;   // column of the second input, as recorded
+  std::string chain;      // compensation.transforms.description
+  bool identity = true;   // no transform: the fitted output is the reference itself
+};
+
+SurfaceView read_surface(const Json& rec) {
+  SurfaceView v;
+  v.present = str_or(rec, {"model", "kind"}, "") == "surface";
+  if (!v.present) return v;
+  v.has_aux = arr(rec, {"compensation", "inputs"}).size() >= 2;
+  v.aux_name = str_or(rec, {"input", "columns", "aux"}, "");
+  if (v.aux_name.empty()) v.aux_name = "aux";
+  v.chain = str_or(rec, {"compensation", "transforms", "description"}, "");
+  v.identity = str_or(rec, {"compensation", "transforms", "reading"}, "none") == "none" &&
+               str_or(rec, {"compensation", "transforms", "reference"}, "none") == "none" &&
+               !find(rec, {"compensation", "transforms", "divider"});
+  // The fitter's own reader validates every member; the report only needs the
+  // model, so a record it cannot read still renders, without the curve.
+  if (find(rec, {"input", "columns"}) && find(rec, {"input", "columns"})->is_object() && find(rec, {"selection"}) &&
+      find(rec, {"selection"})->is_object()) {
+    try {
+      CalibrationRecord r;
+      read_surface_members(rec, r, "record");
+      if (r.calibration.surface) v.model = *r.calibration.surface;
+    } catch (const std::exception&) {
+      v.model.reset();
+    }
+  }
+  return v;
 }
 
 struct Tolerance {
@@ -259,6 +299,7 @@ Uncertainty read_uncertainty(const Json& rec, const Units& u) {
 
 struct GridCell {
   int degree = 0;
+  int aux_degree = -1;  // extended fits with separate limits; -1: none
   double lambda = kNaN, cv_rmse = kNaN, cv_se = kNaN, train_rmse = kNaN;
 };
 
@@ -273,6 +314,7 @@ std::vector<GridCell> read_grid(const Json& rec) {
     cell.cv_rmse = num(c, {"cv_rmse"}).value_or(kNaN);
     cell.cv_se = num(c, {"cv_se"}).value_or(kNaN);
     cell.train_rmse = num(c, {"train_rmse"}).value_or(kNaN);
+    if (auto a = num(c, {"aux_degree"})) cell.aux_degree = static_cast<int>(std::lround(*a));
     g.push_back(cell);
   }
   return g;
@@ -443,7 +485,14 @@ void header_section(Builder& b, const Json& rec, const Units& u, const ReportOpt
   row("Record SHA-256", integrity, true);
   row("Columns", "reading = " + or_missing(str(rec, {"input", "columns", "reading"}), "?") +
                      "; reference = " + or_missing(str(rec, {"input", "columns", "reference"}), "?") +
-                     "; setpoint = " + or_missing(str(rec, {"input", "columns", "setpoint"}), "none"), true);
+                     "; setpoint = " + or_missing(str(rec, {"input", "columns", "setpoint"}), "none") +
+                     (find(rec, {"input", "columns", "aux"})
+                          ? "; second input (aux) = " + or_missing(str(rec, {"input", "columns", "aux"}), "?") +
+                                (find(rec, {"input", "columns", "aux_setpoint"})
+                                     ? "; aux setpoint = " + or_missing(str(rec, {"input", "columns", "aux_setpoint"}), "?")
+                                     : std::string())
+                          : std::string()),
+      true);
   b.o += "</dl>\n</header>\n";
   (void)u;
 }
@@ -503,7 +552,8 @@ void verdict_section(Builder& b, const Json& rec, const Units& u, const std::vec
   b.o += "</section>\n";
 }
 
-void fit_figure(Builder& b, const std::vector<Point>& pts, const std::optional<PolyModel>& model, const Units& u) {
+void fit_figure(Builder& b, const std::vector<Point>& pts, const std::optional<PolyModel>& model,
+                const SurfaceView& sv, const Units& u) {
   SvgPlot p("fig-fit", 680, 225);
   p.description = "Calibration data and fitted curve";
   p.x_axis.label = "reading" + (u.reading.empty() ? "" : " [" + u.reading + "]");
@@ -514,6 +564,7 @@ void fit_figure(Builder& b, const std::vector<Point>& pts, const std::optional<P
       lo = std::isfinite(lo) ? std::min(lo, q.reading) : q.reading;
       hi = std::isfinite(hi) ? std::max(hi, q.reading) : q.reading;
     }
+  std::string curve_text;
   if (model) {
     lo = std::isfinite(lo) ? std::min(lo, model->scaling.x_min) : model->scaling.x_min;
     hi = std::isfinite(hi) ? std::max(hi, model->scaling.x_max) : model->scaling.x_max;
@@ -527,6 +578,37 @@ void fit_figure(Builder& b, const std::vector<Point>& pts, const std::optional<P
       curve.y.push_back(model->eval(x));
     }
     p.series.push_back(curve);
+  } else if (sv.model && std::isfinite(lo) && hi > lo) {
+    // The extended model in reference units, through the whole transform chain,
+    // over the readings of the record (the transforms' domain holds there).
+    const SurfaceModel& m = *sv.model;
+    std::vector<std::pair<double, std::string>> levels;
+    if (!m.has_aux) {
+      levels.push_back({0.0, sv.identity ? "fitted curve" : "fitted curve (through the transforms)"});
+      curve_text = sv.identity ? " with the fitted calibration curve"
+                               : " with the fitted calibration curve in reference units (transforms applied: " +
+                                     esc(sv.chain) + ")";
+    } else {
+      for (double a : {m.aux.min, 0.5 * (m.aux.min + m.aux.max), m.aux.max})
+        levels.push_back({a, sv.aux_name + " = " + format_sig(a, 4)});
+      curve_text = " with the fitted surface at the lowest, middle and highest calibrated " + esc(sv.aux_name) +
+                   " (curves; the points lie at their own " + esc(sv.aux_name) + ")";
+    }
+    const int n = 160;
+    for (std::size_t k = 0; k < levels.size(); ++k) {
+      Series curve;
+      curve.name = levels[k].second;
+      curve.style = SeriesStyle{levels.size() == 1 ? "#222222" : kDegreeColors[(k + 2) % 8], 1.6,
+                                kDegreeDashes[k % 8], Marker::none, true, 0};
+      for (int i = 0; i <= n; ++i) {
+        const double x = lo + (hi - lo) * i / n;
+        const double y = m.eval(x, levels[k].first);
+        if (!std::isfinite(y)) continue;
+        curve.x.push_back(x);
+        curve.y.push_back(y);
+      }
+      p.series.push_back(curve);
+    }
   }
   Series train, test;
   train.name = "training points";
@@ -542,8 +624,14 @@ void fit_figure(Builder& b, const std::vector<Point>& pts, const std::optional<P
   }
   p.series.push_back(train);
   if (!test.x.empty()) p.series.push_back(test);
-  b.o += "<figure id=\"fig-fit-figure\">\n" + p.render() + "\n<figcaption><b>Figure 1.</b> Reference against reading with the fitted calibration polynomial";
-  if (!model) b.o += " <span class=\"missing\">(no usable model in the record: curve not drawn)</span>";
+  if (sv.present) {
+    b.o += "<figure id=\"fig-fit-figure\">\n" + p.render() + "\n<figcaption><b>Figure 1.</b> Reference against reading";
+    if (sv.model) b.o += curve_text;
+    else b.o += " <span class=\"missing\">(the record's extended model could not be read: curve not drawn)</span>";
+  } else {
+    b.o += "<figure id=\"fig-fit-figure\">\n" + p.render() + "\n<figcaption><b>Figure 1.</b> Reference against reading with the fitted calibration polynomial";
+    if (!model) b.o += " <span class=\"missing\">(no usable model in the record: curve not drawn)</span>";
+  }
   b.o += ". Filled circles: training points; filled triangles: test points, never used in the fit.</figcaption>\n</figure>\n";
 }
 
@@ -669,7 +757,188 @@ void error_figure(Builder& b, const std::vector<Point>& pts, const Units& u, con
   b.o += "</figcaption>\n</figure>\n";
 }
 
-void validation_figure(Builder& b, const Json& rec, const Units& u) {
+// ---------------------------------------------------------------- extended records
+
+/// Residuals (predicted - reference) against one input, by role: training
+/// (final fit), validation (held-out fold prediction), test.
+SvgPlot residual_plot(const std::string& id, const std::vector<Point>& pts, bool against_aux, const std::string& x_label,
+                      const Units& u, const Tolerance& tol, double width = 680) {
+  SvgPlot p(id, width, 235);
+  p.description = against_aux ? "Residuals against the second input" : "Residuals against the reading";
+  p.x_axis.label = x_label;
+  p.y_axis.label = "error: predicted \u2212 reference" + (u.reference.empty() ? "" : " [" + u.reference + "]");
+  p.y_axis.include_zero = true;
+  Series train, val, test;
+  train.name = "training (in-fit)";
+  val.name = "validation (held-out fold)";
+  test.name = "test";
+  train.style = kTrainStyle;
+  val.style = kValidationStyle;
+  test.style = kTestStyle;
+  train.draw_line = val.draw_line = test.draw_line = false;
+  double lo = kNaN, hi = kNaN;
+  for (const Point& q : pts) {
+    const double x = against_aux ? q.aux : q.reading;
+    if (!std::isfinite(x)) continue;
+    lo = std::isfinite(lo) ? std::min(lo, x) : x;
+    hi = std::isfinite(hi) ? std::max(hi, x) : x;
+    Series& s = q.role == "test" ? test : train;
+    s.x.push_back(x);
+    s.y.push_back(q.predicted - q.reference);
+    if (q.role != "test" && std::isfinite(q.cv_predicted)) {
+      val.x.push_back(x);
+      val.y.push_back(q.cv_predicted - q.reference);
+    }
+  }
+  if (tol.readable && tol.constant() && std::isfinite(lo) && hi > lo) {
+    // A constant tolerance does not depend on the reference: draw it against any input.
+    Band t;
+    t.name = "tolerance \u00B1" + format_sig(tol.limit(0.0), 3) + u.reference_sfx();
+    const double pad = 0.02 * (hi - lo);
+    t.x = {lo - pad, hi + pad};
+    t.lo = {-tol.limit(0.0), -tol.limit(0.0)};
+    t.hi = {tol.limit(0.0), tol.limit(0.0)};
+    t.fill = "#e4e4e4";
+    t.edge_color = "#555555";
+    t.edge_dash = "6 3";
+    p.bands.push_back(t);
+  }
+  p.hlines.push_back(HLine{0.0, "#333333", 1.0, ""});
+  p.series.push_back(train);
+  if (!val.x.empty()) p.series.push_back(val);
+  if (!test.x.empty()) p.series.push_back(test);
+  return p;
+}
+
+std::vector<double> residual_scale_edges(double max_abs) {
+  // Symmetric bins around 0 with a 1-2-5 step: |r| in [0, s), [s, 2s), [2s, 3s]
+  // on each side, 3s >= max_abs.
+  if (!(std::isfinite(max_abs) && max_abs > 0.0)) max_abs = 1.0;
+  const double raw = max_abs / 3.0;
+  const double e = std::pow(10.0, std::floor(std::log10(raw)));
+  double step = 10.0 * e;
+  for (double m : {1.0, 2.0, 2.5, 5.0, 10.0})
+    if (m * e >= raw * (1.0 - 1e-12)) {
+      step = m * e;
+      break;
+    }
+  return {-3 * step, -2 * step, -step, 0.0, step, 2 * step, 3 * step};
+}
+
+/// Colours of the six residual bins, negative (blue) to positive (red); the
+/// marker size grows with |residual| so a grey print keeps the order.
+const char* const kResidualColors[] = {"#2166ac", "#4393c3", "#92c5de", "#f4a582", "#d6604d", "#b2182b"};
+const double kResidualSizes[] = {11.5, 8.5, 6.0, 6.0, 8.5, 11.5};
+
+/// The residual map: training and test points in the (reading, aux) plane,
+/// each coloured and sized by its residual (final model) in six bins.
+SvgPlot residual_map(const std::vector<Point>& pts, const std::string& x_label, const std::string& y_label,
+                     const Units& u, double* scale_step) {
+  SvgPlot p("fig-resid-map", 680, 330);
+  p.description = "Residual map over the two inputs";
+  p.x_axis.label = x_label;
+  p.y_axis.label = y_label;
+  p.legend_columns = 3;  // rows: negative bins, positive bins, shapes
+  double max_abs = 0.0;
+  for (const Point& q : pts) {
+    const double e = q.predicted - q.reference;
+    if (std::isfinite(e) && std::isfinite(q.reading) && std::isfinite(q.aux)) max_abs = std::max(max_abs, std::fabs(e));
+  }
+  const std::vector<double> edges = residual_scale_edges(max_abs);
+  *scale_step = edges[4];
+  Series bins[6], test_bins[6];
+  for (int k = 0; k < 6; ++k) {
+    bins[k].draw_line = test_bins[k].draw_line = false;
+    bins[k].style = SeriesStyle{kResidualColors[k], 0, "", Marker::circle, true, kResidualSizes[k]};
+    test_bins[k].style = SeriesStyle{kResidualColors[k], 0, "", Marker::triangle, true, kResidualSizes[k] + 1.5};
+    const std::string a = format_sig(edges[static_cast<std::size_t>(k)], 3);
+    const std::string c = format_sig(edges[static_cast<std::size_t>(k) + 1], 3);
+    bins[k].name = a + " \u2026 " + c + u.reference_sfx();
+  }
+  for (const Point& q : pts) {
+    const double e = q.predicted - q.reference;
+    if (!(std::isfinite(e) && std::isfinite(q.reading) && std::isfinite(q.aux))) continue;
+    int k = 0;
+    while (k < 5 && e >= edges[static_cast<std::size_t>(k) + 1]) ++k;
+    // Exactly 0 belongs to the first positive bin; negative values below edges[3].
+    Series& s = q.role == "test" ? test_bins[k] : bins[k];
+    s.x.push_back(q.reading);
+    s.y.push_back(q.aux);
+  }
+  // Every bin gets a legend entry, so the colour scale is complete even where
+  // a bin holds no point (an empty series draws nothing but its legend entry).
+  for (auto& s : bins) p.series.push_back(s);
+  for (auto& s : test_bins) p.series.push_back(s);
+  Series shape;
+  shape.name = "triangle: test point";
+  shape.draw_line = false;
+  shape.style = SeriesStyle{"#444444", 0, "", Marker::triangle, false, 9.0};
+  p.series.push_back(shape);
+  Series circ = shape;
+  circ.name = "circle: training point";
+  circ.style.marker = Marker::circle;
+  p.series.push_back(circ);
+  return p;
+}
+
+int surface_figures(Builder& b, const std::vector<Point>& pts, const SurfaceView& sv, const Units& u,
+                    const Tolerance& tol, int fig) {
+  if (!sv.present) return fig;
+  const std::string reading_label = "reading" + (u.reading.empty() ? "" : " [" + u.reading + "]");
+  const std::string aux_label = sv.aux_name + " (second input)";
+  const std::string roles =
+      " Filled circles: training points (final fit); open squares: the same points predicted by the model fitted "
+      "without their cross-validation fold; triangles: test points.";
+  const std::string tol_note = tol.readable && tol.constant() ? " Grey band with dashed edges: tolerance." : "";
+  if (!sv.has_aux) {
+    b.o += "<figure id=\"fig-resid-reading-figure\">\n" +
+           residual_plot("fig-resid-reading", pts, false, reading_label, u, tol).render() +
+           fmt::format("\n<figcaption><b>Figure {}.</b> Error (predicted \u2212 reference) against the reading.", fig++) +
+           roles + tol_note + "</figcaption>\n</figure>\n";
+    return fig;
+  }
+  bool any_aux = false;
+  for (const Point& q : pts) any_aux = any_aux || std::isfinite(q.aux);
+  if (!any_aux) {
+    b.o += "<figure id=\"fig-resid-reading-figure\">\n" +
+           residual_plot("fig-resid-reading", pts, false, reading_label, u, tol).render() +
+           fmt::format("\n<figcaption><b>Figure {}.</b> Error (predicted \u2212 reference) against the reading.", fig++) +
+           roles + tol_note + "</figcaption>\n</figure>\n";
+    b.o += "<p class=\"missing\">The record's points carry no value of the second input: the residuals against it "
+           "and the residual map cannot be drawn.</p>\n";
+    return fig;
+  }
+  // Against each input, side by side with one shared legend (as the validation curve).
+  SvgPlot by_reading = residual_plot("fig-resid-reading", pts, false, reading_label, u, tol, 340);
+  SvgPlot by_aux = residual_plot("fig-resid-aux", pts, true, aux_label, u, tol, 340);
+  by_reading.show_legend = by_aux.show_legend = false;
+  b.o += "<figure id=\"fig-resid-inputs-figure\">\n" + by_reading.render_legend(680) + "\n<div class=\"panels\">\n" +
+         by_reading.render() + "\n" + by_aux.render() + "\n</div>\n" +
+         fmt::format("<figcaption><b>Figure {}.</b> Error (predicted \u2212 reference) against the reading (left) and "
+                     "against the second input, ",
+                     fig++) +
+         esc(sv.aux_name) + " (right)." + roles + tol_note + "</figcaption>\n</figure>\n";
+  double step = 0.0;
+  const SvgPlot map = residual_map(pts, reading_label, aux_label, u, &step);
+  std::string range;
+  if (sv.model)
+    range = " The calibrated region is reading " + esc(format_sig(sv.model->input.min, 6)) + " \u2026 " +
+            esc(format_sig(sv.model->input.max, 6)) + (sv.identity ? "" : " (transformed)") + ", " + esc(sv.aux_name) +
+            " " + esc(format_sig(sv.model->aux.min, 6)) + " \u2026 " + esc(format_sig(sv.model->aux.max, 6)) + ".";
+  b.o += "<figure id=\"fig-resid-map-figure\">\n" + map.render() +
+         fmt::format("\n<figcaption><b>Figure {}.</b> Residual map: every training point (circle) and test point "
+                     "(triangle) at its reading and ",
+                     fig++) +
+         esc(sv.aux_name) +
+         ", coloured by its error under the final model: blue below zero, red above, in bins of " +
+         esc(format_sig(step, 3) + u.reference_sfx()) +
+         "; larger markers for larger |error|. A systematic pattern (one colour in a corner or along an edge) shows "
+         "what the model misses." +
+         range + "</figcaption>\n</figure>\n";
+  return fig;
+}
+
+void validation_figure(Builder& b, const Json& rec, const Units& u, int fig = 3) {
   const std::vector<GridCell> grid = read_grid(rec);
   const std::string mode = str_or(rec, {"selection", "mode"}, "");
   b.o += "<figure id=\"fig-validation-figure\">\n";
@@ -677,18 +946,22 @@ void validation_figure(Builder& b, const Json& rec, const Units& u) {
     b.o += "<p class=\"missing\">No cross-validation grid in the record";
     if (!mode.empty()) b.o += " (selection mode: " + esc(mode) + ")";
     b.o += ": the validation curve cannot be drawn.</p>\n";
-    b.o += "<figcaption><b>Figure 3.</b> Validation curve: not available.</figcaption>\n</figure>\n";
+    b.o += fmt::format("<figcaption><b>Figure {}.</b> Validation curve: not available.</figcaption>\n</figure>\n", fig);
     return;
   }
   std::optional<double> chosen_deg = num(rec, {"selection", "chosen", "degree"});
   if (!chosen_deg) chosen_deg = num(rec, {"model", "degree"});
   std::optional<double> chosen_lam = num(rec, {"selection", "chosen", "lambda"});
   if (!chosen_lam) chosen_lam = num(rec, {"model", "lambda"});
+  const int chosen_aux =
+      static_cast<int>(std::lround(num(rec, {"selection", "chosen", "aux_degree"}).value_or(-1.0)));
 
-  std::map<int, std::vector<GridCell>> by_degree;
+  // One curve per candidate term set: the degree, and for extended fits with
+  // separate limits the aux degree too.
+  std::map<std::pair<int, int>, std::vector<GridCell>> by_degree;
   double ymin = kNaN, ymax = kNaN;
   for (const GridCell& c : grid) {
-    by_degree[c.degree].push_back(c);
+    by_degree[{c.degree, c.aux_degree}].push_back(c);
     for (double v : {c.cv_rmse, c.train_rmse, c.cv_rmse - c.cv_se, c.cv_rmse + c.cv_se})
       if (std::isfinite(v) && v > 0) {
         ymin = std::isfinite(ymin) ? std::min(ymin, v) : v;
@@ -714,10 +987,10 @@ void validation_figure(Builder& b, const Json& rec, const Units& u) {
   cv.y_axis.label = "CV RMSE" + (u.reference.empty() ? "" : " [" + u.reference + "]");
   tr.y_axis.label = "training RMSE" + (u.reference.empty() ? "" : " [" + u.reference + "]");
   std::size_t k = 0;
-  for (auto& [deg, cells] : by_degree) {
+  for (auto& [key, cells] : by_degree) {
     std::sort(cells.begin(), cells.end(), [](const GridCell& a, const GridCell& c) { return a.lambda < c.lambda; });
     Series s;
-    s.name = fmt::format("degree {}", deg);
+    s.name = key.second >= 0 ? fmt::format("degree {}, aux {}", key.first, key.second) : fmt::format("degree {}", key.first);
     const bool dense = cells.size() > 12;  // many lambdas: smaller markers, thinner lines
     s.style = SeriesStyle{kDegreeColors[k % 8], dense ? 1.2 : 1.6, kDegreeDashes[k % 8], kDegreeMarkers[k % 8],
                           k % 2 == 0, dense ? 4.5 : 7.0};
@@ -736,9 +1009,11 @@ void validation_figure(Builder& b, const Json& rec, const Units& u) {
   std::string chosen_text = "not identified";
   if (chosen_deg && chosen_lam) {
     for (const GridCell& c : grid) {
-      if (c.degree == static_cast<int>(std::lround(*chosen_deg)) && same_lambda(c.lambda, *chosen_lam)) {
+      if (c.degree == static_cast<int>(std::lround(*chosen_deg)) && same_lambda(c.lambda, *chosen_lam) &&
+          c.aux_degree == chosen_aux) {
+        const std::string aux_text = c.aux_degree >= 0 ? fmt::format(", aux degree {}", c.aux_degree) : "";
         Series ring;
-        ring.name = fmt::format("chosen: degree {}, \u03BB = {}", c.degree, format_lambda(c.lambda));
+        ring.name = fmt::format("chosen: degree {}{}, \u03BB = {}", c.degree, aux_text, format_lambda(c.lambda));
         ring.draw_line = false;
         ring.style = SeriesStyle{"#000000", 1.0, "", Marker::circle, false, 19.0};
         ring.x = {c.lambda};
@@ -747,15 +1022,15 @@ void validation_figure(Builder& b, const Json& rec, const Units& u) {
         cv.series.push_back(ring);
         ring.y = {c.train_rmse};
         tr.series.push_back(ring);
-        chosen_text = fmt::format("degree {}, \u03BB = {} (CV RMSE {} \u00B1 {}, training RMSE {}{})", c.degree,
-                                  format_lambda(c.lambda), format_sig(c.cv_rmse, 3), format_sig(c.cv_se, 2),
+        chosen_text = fmt::format("degree {}{}, \u03BB = {} (CV RMSE {} \u00B1 {}, training RMSE {}{})", c.degree,
+                                  aux_text, format_lambda(c.lambda), format_sig(c.cv_rmse, 3), format_sig(c.cv_se, 2),
                                   format_sig(c.train_rmse, 3), u.reference_sfx());
         break;
       }
     }
   }
   b.o += cv.render_legend(680) + "\n<div class=\"panels\">\n" + cv.render() + "\n" + tr.render() + "\n</div>\n";
-  b.o += "<figcaption><b>Figure 3.</b> Validation curve. Left: cross-validated RMSE (bars: \u00B1 one standard error "
+  b.o += fmt::format("<figcaption><b>Figure {}.</b> Validation curve. Left", fig) + ": cross-validated RMSE (bars: \u00B1 one standard error "
          "over folds); right: training RMSE of the same candidates, on the same scale. "
          "\u03BB = 0 (no penalty) is drawn at the separate \u201C0\u201D position left of the break. Chosen: " +
          esc(chosen_text) + ".</figcaption>\n</figure>\n";
@@ -856,7 +1131,11 @@ void as_found_section(Builder& b, const Json& rec) {
   b.close_section();
 }
 
-void model_section(Builder& b, const Json& rec, const Units& u, const std::optional<PolyModel>& model) {
+void surface_model_rows(Builder& b, const Json& rec, const Units& u, const SurfaceView& sv);
+void surface_coefficients(Builder& b, const Json& rec, const SurfaceView& sv);
+
+void model_section(Builder& b, const Json& rec, const Units& u, const std::optional<PolyModel>& model,
+                   const SurfaceView& sv) {
   b.open_section("model", "Model, selection and coefficients");
   const std::string mode = str_or(rec, {"selection", "mode"}, "");
   std::string sel;
@@ -890,8 +1169,10 @@ void model_section(Builder& b, const Json& rec, const Units& u, const std::optio
   }
   const auto lam = num(rec, {"model", "lambda"});
   b.o += "<dl class=\"meta\">\n";
-  b.o += "<dt>Polynomial</dt><dd>degree " + esc(str_or(rec, {"model", "degree"}, kNotAvailable)) +
-         ", ridge penalty \u03BB = " + esc(lam ? format_lambda(*lam) : std::string(kNotAvailable)) + "</dd>\n";
+  if (sv.present) surface_model_rows(b, rec, u, sv);
+  else
+    b.o += "<dt>Polynomial</dt><dd>degree " + esc(str_or(rec, {"model", "degree"}, kNotAvailable)) +
+           ", ridge penalty \u03BB = " + esc(lam ? format_lambda(*lam) : std::string(kNotAvailable)) + "</dd>\n";
   b.o += "<dt>Selection</dt><dd>" + sel + "</dd>\n";
   std::string notes;
   for (const Json& n : arr(rec, {"selection", "notes"})) notes += "<div>" + json_scalar_html(n) + "</div>";
@@ -900,7 +1181,8 @@ void model_section(Builder& b, const Json& rec, const Units& u, const std::optio
     b.o += "<dt>Intercept</dt><dd>none: the curve is forced through reading 0 \u2192 reference 0</dd>\n";
   if (const Json* cn = find(rec, {"model", "condition_number"}))
     b.o += "<dt>Condition number</dt><dd>" + esc(format_sig(num(cn), 3)) +
-           " (of the scaled Chebyshev design matrix)</dd>\n";
+           (sv.present ? " (of the centred design matrix of the scaled basis)" : " (of the scaled Chebyshev design matrix)") +
+           "</dd>\n";
   if (model) {
     b.o += "<dt>Scaled variable</dt><dd>t = (x \u2212 " + esc(format_sig(model->scaling.center(), 8)) + ") / " +
            esc(format_sig(model->scaling.half_width(), 8)) + ", x = reading" + esc(u.reading_sfx()) +
@@ -908,6 +1190,11 @@ void model_section(Builder& b, const Json& rec, const Units& u, const std::optio
            esc(format_sig(model->scaling.x_max, 8)) + esc(u.reading_sfx()) + "</dd>\n";
   }
   b.o += "</dl>\n";
+  if (sv.present) {
+    surface_coefficients(b, rec, sv);
+    b.close_section();
+    return;
+  }
   const auto cheb = detail::num_array(arr(rec, {"model", "chebyshev_coefficients"}));
   const auto power = detail::num_array(arr(rec, {"model", "power_coefficients"}));
   const std::size_t n = std::max(cheb.size(), power.size());
@@ -928,6 +1215,80 @@ void model_section(Builder& b, const Json& rec, const Units& u, const std::optio
   b.close_section();
 }
 
+void surface_model_rows(Builder& b, const Json& rec, const Units& u, const SurfaceView& sv) {
+  const auto lam = num(rec, {"model", "lambda"});
+  const std::size_t nterms = arr(rec, {"compensation", "terms"}).size();
+  const std::string basis = str_or(rec, {"model", "basis"}, "");
+  std::string shape = "reading degree " + esc(str_or(rec, {"model", "reading_degree"}, kNotAvailable));
+  if (sv.has_aux)
+    shape += ", " + esc(sv.aux_name) + " degree " + esc(str_or(rec, {"model", "aux_degree"}, kNotAvailable)) +
+             ", total degree " + esc(str_or(rec, {"model", "degree"}, kNotAvailable));
+  b.o += "<dt>Model</dt><dd>extended calibration model" +
+         std::string(sv.has_aux ? " in two inputs (reading and " + esc(sv.aux_name) + ")" : " in the reading") +
+         ": " + shape + fmt::format(", {} terms", nterms) + ", ridge penalty \u03BB = " +
+         esc(lam ? format_lambda(*lam) : std::string(kNotAvailable)) + "</dd>\n";
+  std::string basis_text = basis == "power" ? "plain powers t<sup>i</sup>" : "Chebyshev T<sub>i</sub>(t)";
+  if (sv.has_aux)
+    basis_text = basis == "power" ? "plain powers t<sup>i</sup>\u00B7s<sup>j</sup>"
+                                  : "tensor Chebyshev T<sub>i</sub>(t)\u00B7T<sub>j</sub>(s)";
+  if (basis != "power" && basis != "chebyshev") basis_text = basis.empty() ? "not recorded" : esc(basis);
+  b.o += "<dt>Basis</dt><dd>" + basis_text + " of the scaled input" + (sv.has_aux ? "s" : "") + "; terms " +
+         esc(str_or(rec, {"compensation", "term_rule"}, "not recorded")) + "</dd>\n";
+  if (sv.identity)
+    b.o += "<dt>Transforms</dt><dd>none: the polynomial gives the reference directly from the reading</dd>\n";
+  else
+    b.o += "<dt>Transforms</dt><dd>" +
+           (sv.chain.empty() ? std::string("<span class=\"missing\">not recorded</span>") : esc(sv.chain)) +
+           " (the polynomial maps the transformed reading u to the transformed reference v; the reported value is "
+           "the inverse reference transform of v)</dd>\n";
+  const Json& inputs = arr(rec, {"compensation", "inputs"});
+  for (std::size_t k = 0; k < inputs.size() && k < 2; ++k) {
+    const Json& in = inputs[k];
+    const bool reading = k == 0;
+    const std::string var = reading ? "t" : "s";
+    const std::string what = reading ? (sv.identity ? "u = reading" : "u = transformed reading") : "a = " + sv.aux_name;
+    const std::string unit = reading ? (sv.identity ? u.reading_sfx() : std::string()) : std::string();
+    b.o += "<dt>" + std::string(reading ? "Input 1 (reading)" : "Input 2 (" + esc(sv.aux_name) + ")") + "</dt><dd>column " +
+           esc(str_or(in, {"column"}, "?")) + "; calibrated range " +
+           esc(format_sig(num(in, {"scaling", "min"}), 8)) + " \u2026 " + esc(format_sig(num(in, {"scaling", "max"}), 8)) +
+           esc(unit) + (reading && !sv.identity ? " (after the transforms)" : "") + "; " + var + " = (" +
+           esc(what.substr(0, 1)) + " \u2212 " + esc(format_sig(num(in, {"scaling", "center"}), 8)) + ") / " +
+           esc(format_sig(num(in, {"scaling", "half_width"}), 8)) + ", " + esc(what) + "</dd>\n";
+  }
+  if (sv.has_aux) {
+    b.o += "<dt>" + esc(sv.aux_name) + " levels</dt><dd>" +
+           esc(str_or(rec, {"compensation", "aux_grouping"}, "not recorded")) + "</dd>\n";
+  }
+  b.o += "<dt>Boundary rule</dt><dd>" + esc(str_or(rec, {"compensation", "boundary_rule"}, "not recorded")) + "</dd>\n";
+}
+
+void surface_coefficients(Builder& b, const Json& rec, const SurfaceView& sv) {
+  const Json& terms = arr(rec, {"compensation", "terms"});
+  if (terms.empty()) {
+    b.o += "<p class=\"missing\">The record holds no terms.</p>\n";
+    return;
+  }
+  const bool power = str_or(rec, {"model", "basis"}, "") == "power";
+  const std::string bi = power ? "t<sup>i</sup>" : "T<sub>i</sub>(t)";
+  const std::string bj = power ? "s<sup>j</sup>" : "T<sub>j</sub>(s)";
+  b.o += "<table class=\"coefficients\"><tr><th class=\"num\">i (reading)</th>";
+  if (sv.has_aux) b.o += "<th class=\"num\">j (" + esc(sv.aux_name) + ")</th>";
+  b.o += "<th class=\"num\">coefficient c<sub>m</sub> of " + bi + (sv.has_aux ? "\u00B7" + bj : std::string()) +
+         "</th></tr>\n";
+  for (const Json& t : terms) {
+    b.o += "<tr><td class=\"num\">" + esc(str_or(t, {"i"}, "?")) + "</td>";
+    if (sv.has_aux) b.o += "<td class=\"num\">" + esc(str_or(t, {"j"}, "?")) + "</td>";
+    b.o += "<td class=\"num mono\">" + esc(format_exact(num(t, {"coefficient"}))) + "</td></tr>\n";
+  }
+  b.o += "</table>\n<p class=\"note\">v = \u03A3<sub>m</sub> c<sub>m</sub> " + bi +
+         (sv.has_aux ? "\u00B7" + bj : std::string()) +
+         (sv.identity ? ", in reference units." : ", in the transformed output; the reference is the inverse reference "
+                                                  "transform of v.") +
+         " The terms are the form that was fitted; the record also holds the same polynomial in powers of the scaled "
+         "inputs (<span class=\"mono\">compensation.monomial_coefficients</span>, for a nested Horner scheme) and "
+         "of the unscaled inputs (documentation only).</p>\n";
+}
+
 /// Fold number, or a dash for none (test setpoints carry -1 or null).
 std::string fold_text(const Json& s) {
   const auto f = num(s, {"fold"});
@@ -935,7 +1296,7 @@ std::string fold_text(const Json& s) {
   return str_or(s, {"fold"}, "\u2014");
 }
 
-void split_section(Builder& b, const Json& rec, const Units& u) {
+void split_section(Builder& b, const Json& rec, const Units& u, const SurfaceView& sv) {
   b.open_section("split", "Split of setpoints");
   b.o += "<p>Seed " + esc(str_or(rec, {"split", "seed"}, kNotAvailable)) + ", test fraction " +
          esc(format_sig(num(rec, {"split", "test_fraction"}), 3)) +
@@ -952,13 +1313,16 @@ void split_section(Builder& b, const Json& rec, const Units& u) {
   for (std::size_t start = 0; start < sp.size(); start += per_table) {
     b.o += "<table class=\"setpoints\"><tr><th>setpoint</th><th class=\"num\">reference" +
            (u.reference.empty() ? "" : "<br/>[" + esc(u.reference) + "]") + "</th><th class=\"num\">reading" +
-           (u.reading.empty() ? "" : "<br/>[" + esc(u.reading) + "]") + "</th><th>role</th><th class=\"num\">fold</th></tr>\n";
+           (u.reading.empty() ? "" : "<br/>[" + esc(u.reading) + "]") + "</th>" +
+           (sv.has_aux ? "<th class=\"num\">" + esc(sv.aux_name) + "</th>" : std::string()) +
+           "<th>role</th><th class=\"num\">fold</th></tr>\n";
     for (std::size_t i = start; i < std::min(sp.size(), start + per_table); ++i) {
       const Json& s = sp[i];
       const std::string role = str_or(s, {"role"}, "");
       b.o += "<tr><td>" + esc(str_or(s, {"id"}, "")) + "</td><td class=\"num\">" +
              esc(format_sig(num(s, {"reference"}), 6)) + "</td><td class=\"num\">" +
-             esc(format_sig(num(s, {"reading"}), 6)) + "</td><td>" +
+             esc(format_sig(num(s, {"reading"}), 6)) + "</td>" +
+             (sv.has_aux ? "<td class=\"num\">" + esc(format_sig(num(s, {"aux"}), 6)) + "</td>" : std::string()) + "<td>" +
              (normalise_role(role) == "test" ? "<b>" + esc(role) + "</b>" : esc(role)) + "</td><td class=\"num\">" +
              esc(fold_text(s)) + "</td></tr>\n";
     }
@@ -969,7 +1333,7 @@ void split_section(Builder& b, const Json& rec, const Units& u) {
   b.close_section();
 }
 
-void cautions_section(Builder& b, const Json& rec) {
+void cautions_section(Builder& b, const Json& rec, const SurfaceView& sv) {
   b.open_section("cautions", "Cautions");
   b.o += "<ul class=\"cautions\">\n";
   // The record's own cautions first; the report's standard ones only where the
@@ -985,7 +1349,11 @@ void cautions_section(Builder& b, const Json& rec) {
   if (all_lower.find("accredited") == std::string::npos)
     b.o += "<li>This report documents a software fit for quality review. It does not replace a calibration "
            "certificate from an accredited laboratory.</li>\n";
-  if (all_lower.find("extrapolat") == std::string::npos)
+  if (sv.has_aux)
+    b.o += "<li>The compensated model is valid only inside the calibrated region of <b>both</b> inputs (the ranges "
+           "in the model section); outside it, in the reading or in " + esc(sv.aux_name) +
+           ", the values are extrapolated.</li>\n";
+  else if (all_lower.find("extrapolat") == std::string::npos)
     b.o += "<li>The polynomial is valid only inside the calibrated range of readings; outside it the values are "
            "extrapolated.</li>\n";
   b.o += "</ul>\n";
@@ -1012,6 +1380,7 @@ std::string render_html_report(const nlohmann::json& rec, const ReportOptions& o
   u.reference = str_or(rec, {"sensor", "reference_unit"}, "");
   const std::vector<Point> pts = read_points(rec);
   const std::optional<PolyModel> model = read_model(rec);
+  const SurfaceView sv = read_surface(rec);
   const Tolerance tol = read_tolerance(rec, u);
   const Decision dec = read_decision(rec);
   const Uncertainty unc = read_uncertainty(rec, u);
@@ -1024,16 +1393,17 @@ std::string render_html_report(const nlohmann::json& rec, const ReportOptions& o
   header_section(b, rec, u, opt);
   verdict_section(b, rec, u, pts, tol, dec, unc);
   b.o += "<section id=\"plots\">\n<h2>Plots</h2>\n";
-  fit_figure(b, pts, model, u);
+  fit_figure(b, pts, model, sv, u);
   error_figure(b, pts, u, tol, unc, dec);
-  validation_figure(b, rec, u);
+  const int next_fig = surface_figures(b, pts, sv, u, tol, 3);
+  validation_figure(b, rec, u, next_fig);
   b.o += "</section>\n";
   metrics_section(b, rec, u);
   warnings_section(b, rec);
   as_found_section(b, rec);
-  model_section(b, rec, u, model);
-  split_section(b, rec, u);
-  cautions_section(b, rec);
+  model_section(b, rec, u, model, sv);
+  split_section(b, rec, u, sv);
+  cautions_section(b, rec, sv);
   signoff_section(b);
   const std::string gen = opt.generator_version.empty() ? RIDGECAL_VERSION_STRING : opt.generator_version;
   b.o += "<footer>Report generated by ridgecal " + esc(gen) + " from a calibration record (format " +

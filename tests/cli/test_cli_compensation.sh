@@ -55,7 +55,7 @@ printf 'reading,reference\n100,20\n200,-300\n300,40\n' >"$work/cold.csv"
 expect_bad "cold.csv:3: the reference -300 is outside the domain of the reference transform" "$work/cold.csv" \
   --reference-transform reciprocal-kelvin
 
-# A tolerance is judged on the extended model (simple acceptance); guarded needs the band (not yet).
+# A tolerance is judged on the extended model (simple acceptance by default).
 "$bin" fit "$pt" --setpoint setpoint --aux temperature --aux-setpoint chamber --aux-degree 0..3 --tol-offset 0.01 \
   -o "$work/pt-tol.json" --timestamp none >"$work/stdout" 2>"$work/stderr"
 if [[ $? -eq 0 ]] && grep -q "^PASS" "$work/stdout" && grep -q '"decision"' "$work/pt-tol.json"; then ok
@@ -63,7 +63,26 @@ else bad "pressure demo with a tolerance: $(cat "$work/stdout" "$work/stderr")";
 "$bin" fit "$pt" --setpoint setpoint --aux temperature --aux-setpoint chamber --tol-offset 0.0005 \
   -o "$work/pt-fail.json" --timestamp none >"$work/stdout" 2>"$work/stderr"
 if [[ $? -eq 1 ]] && grep -q "^FAIL" "$work/stdout"; then ok; else bad "tight tolerance did not fail: $(cat "$work/stdout")"; fi
-expect_bad "needs the uncertainty band" "$pt" --aux temperature --tol-offset 0.01 --decision guarded
+# Guarded acceptance with the uncertainty budget of the surface: the record carries
+# the budget (4 components, U = 2 u_c) and each judged point's guard is U there (> 0).
+"$bin" fit "$pt" --setpoint setpoint --aux temperature --aux-setpoint chamber --aux-degree 0..3 --tol-offset 0.01 \
+  --decision guarded --ref-uncertainty 0.001 --ref-k 2 --resolution 1 -o "$work/pt-guard.json" --timestamp none \
+  >"$work/stdout" 2>"$work/stderr"
+if [[ $? -eq 0 ]] && grep -q "^PASS" "$work/stdout" && grep -q "^uncertainty: U = " "$work/stdout" &&
+   python3 - "$work/pt-guard.json" <<'PY'
+import json, math, sys
+j = json.load(open(sys.argv[1]))
+u = j["uncertainty"]
+names = [c["name"] for c in u["components"]]
+assert names == ["fit-residual", "fit-coefficients", "reference-standard", "reading-resolution"], names
+uc = math.sqrt(sum(c["standard"] ** 2 for c in u["components"]))
+assert abs(u["combined"] - uc) <= 1e-12 * uc and abs(u["expanded"] - 2 * uc) <= 1e-12 * uc
+assert abs(u["components"][2]["standard"] - 0.0005) < 1e-15
+assert j["decision"]["rule"] == "guarded"
+guards = [p["guard"] for p in j["decision"]["points"]]
+assert all(0 < g <= u["expanded"] * (1 + 1e-12) for g in guards), (min(guards), max(guards))
+PY
+then ok; else bad "pressure demo, guarded: $(cat "$work/stdout" "$work/stderr")"; fi
 
 # verify: the record's aux column is read from the new data and the surface is applied.
 "$bin" verify "$work/pt-tol.json" "$pt" -o "$work/asfound.json" --timestamp none >"$work/stdout" 2>"$work/stderr"

@@ -28,6 +28,22 @@ grep -q 'guarded acceptance' "$out/ntc.fit.html" || bad "fit report: decision ru
 grep -q '>acceptance limit (tolerance' "$out/ntc.fit.html" || bad "fit report: acceptance limits not drawn"
 grep -q '<dd>2026-12-02T09:00:00Z</dd>' "$out/ntc.fit.html" || bad "fit report: record date not shown"
 
+# An extended record: the pressure demo (second input), with the uncertainty
+# budget and guarded acceptance; the report shows the residual views.
+pt=$samples/pressure-tempco/pressure-tempco.csv
+"$bin" fit "$pt" --setpoint setpoint --aux temperature --aux-setpoint chamber --aux-degree 0..3 \
+  --sensor "PT-7 <rig>" --reading-unit counts --reference-unit bar --tol-offset 0.01 --decision guarded \
+  --ref-uncertainty 0.0005 --timestamp 2026-12-02T09:00:00Z -o "$out/pt.record.json" --report "$out/pt.fit.html" \
+  >"$out/pt.stdout" 2>&1 || bad "pressure fit --report exit $?: $(cat "$out/pt.stdout")"
+python3 "$here/check_report.py" "$out/pt.fit.html" || bad "pt.fit.html failed the structural check"
+for id in fig-fit fig-resid-reading fig-resid-aux fig-resid-map fig-validation-cv; do
+  grep -q "id=\"$id\"" "$out/pt.fit.html" || bad "pressure report: no $id"
+done
+grep -q 'PT-7 &lt;rig&gt;' "$out/pt.fit.html" || bad "pressure report: sensor name not shown escaped"
+grep -q 'guarded acceptance' "$out/pt.fit.html" || bad "pressure report: decision rule not shown"
+grep -q '<th>uncertainty component</th>' "$out/pt.fit.html" || bad "pressure report: no uncertainty budget"
+grep -q '<b>both</b> inputs' "$out/pt.fit.html" || bad "pressure report: no caution about both inputs"
+
 # Bad input: exit 2, nothing written, an existing report untouched.
 echo old >"$out/keep.html"
 for args in "$out/missing.json -o $out/keep.html" "$sample -o $out/keep.html" "$out/ntc.record.json" \

@@ -79,7 +79,7 @@ BOOST_AUTO_TEST_CASE(sections_come_in_reading_order) {
 }
 
 BOOST_AUTO_TEST_CASE(markup_is_well_formed_and_self_contained) {
-  for (const char* name : {"basic", "full", "hostile"}) {
+  for (const char* name : {"basic", "full", "hostile", "surface_aux", "surface_ntc"}) {
     BOOST_TEST_CONTEXT(name) {
       const std::string html = render_html_report(fixture(name), fixed_options());
       BOOST_TEST(html.rfind("<!DOCTYPE html>", 0) == 0u);

@@ -34,6 +34,7 @@ enum class DiagnosticCode {
   HighConditionNumber,          ///< `high-condition-number`
   Extrapolation,                ///< `extrapolation`
   RecordModified,               ///< `record-modified` (verify --allow-modified)
+  ValidationMuchWorseThanTraining,  ///< `validation-much-worse-than-training` (extended fits)
 };
 std::string to_string(DiagnosticCode c);
 DiagnosticCode diagnostic_code_from_string(const std::string& s);  ///< throws std::invalid_argument
@@ -50,6 +51,8 @@ struct Warning {
 
 struct DiagnosticOptions {
   double test_validation_ratio = 2.0;  ///< warn when test RMSE > ratio * validation RMSE; > 1
+  /// Extended fits: warn when validation (CV) RMSE > ratio * training RMSE (overfit); > 1.
+  double cv_training_ratio = 2.0;
   double min_setpoints_per_coefficient =
       3.0;  ///< warn below this many training setpoints per coefficient; >= 0
   double coverage_end_fraction =
