@@ -86,13 +86,11 @@ std::vector<SetpointGroup> group_by_setpoint(const Dataset& ds) {
   return groups;
 }
 
-namespace {
-// Picks `count` of the candidate positions, one from each of `count` equal
-// strata of the sorted candidates, so the picks spread over the range.
 std::vector<std::size_t> stratified_pick(const std::vector<std::size_t>& candidates, std::size_t count,
                                          SplitRng& rng) {
   std::vector<std::size_t> out;
   const std::size_t n = candidates.size();
+  assert(count <= n);
   for (std::size_t s = 0; s < count; ++s) {
     const std::size_t lo = s * n / count, hi = (s + 1) * n / count;
     assert(hi > lo);
@@ -100,7 +98,26 @@ std::vector<std::size_t> stratified_pick(const std::vector<std::size_t>& candida
   }
   return out;
 }
-}  // namespace
+
+void assign_folds(const std::vector<std::size_t>& candidates, const SplitOptions& options, SplitRng& rng,
+                  Split& sp) {
+  if (static_cast<int>(candidates.size()) < options.loso_below ||
+      static_cast<int>(candidates.size()) <= options.folds) {
+    sp.scheme = FoldScheme::LeaveOneSetpointOut;
+    sp.n_folds = static_cast<int>(candidates.size());
+    for (std::size_t i = 0; i < candidates.size(); ++i) sp.fold[candidates[i]] = static_cast<int>(i);
+    return;
+  }
+  sp.scheme = FoldScheme::KFold;
+  sp.n_folds = options.folds;
+  const std::size_t K = static_cast<std::size_t>(options.folds);
+  for (std::size_t start = 0; start < candidates.size(); start += K) {
+    std::vector<int> labels(K);
+    for (std::size_t k = 0; k < K; ++k) labels[k] = static_cast<int>(k);
+    for (std::size_t k = K; k > 1; --k) std::swap(labels[k - 1], labels[rng.below(k)]);
+    for (std::size_t k = 0; k < K && start + k < candidates.size(); ++k) sp.fold[candidates[start + k]] = labels[k];
+  }
+}
 
 Split make_split(const std::vector<SetpointGroup>& groups, const SplitOptions& options,
                  std::size_t min_train_groups) {
@@ -132,26 +149,8 @@ Split make_split(const std::vector<SetpointGroup>& groups, const SplitOptions& o
   for (std::size_t g = 0; g < n; ++g)
     if (sp.role[g] == SetRole::Train) train.push_back(g);
   if (train.size() < 3) return sp;  // no interior training setpoints: no CV possible
-  std::vector<std::size_t> interior(train.begin() + 1, train.end() - 1);
-  if (static_cast<int>(interior.size()) < options.loso_below ||
-      static_cast<int>(interior.size()) <= options.folds) {
-    sp.scheme = FoldScheme::LeaveOneSetpointOut;
-    sp.n_folds = static_cast<int>(interior.size());
-    for (std::size_t i = 0; i < interior.size(); ++i) sp.fold[interior[i]] = static_cast<int>(i);
-    return sp;
-  }
-  sp.scheme = FoldScheme::KFold;
-  sp.n_folds = options.folds;
-  // Consecutive blocks of K interior setpoints; inside each block a random
-  // permutation of the fold labels, so every fold spans the whole range.
-  const std::size_t K = static_cast<std::size_t>(options.folds);
-  for (std::size_t start = 0; start < interior.size(); start += K) {
-    std::vector<int> labels(K);
-    for (std::size_t k = 0; k < K; ++k) labels[k] = static_cast<int>(k);
-    for (std::size_t k = K; k > 1; --k) std::swap(labels[k - 1], labels[rng.below(k)]);
-    for (std::size_t k = 0; k < K && start + k < interior.size(); ++k)
-      sp.fold[interior[start + k]] = labels[k];
-  }
+  const std::vector<std::size_t> interior(train.begin() + 1, train.end() - 1);
+  assign_folds(interior, options, rng, sp);
   return sp;
 }
 

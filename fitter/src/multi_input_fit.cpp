@@ -138,17 +138,6 @@ std::vector<Group> make_groups(const Dataset& ds, const CompensationOptions& com
   return groups;
 }
 
-std::vector<std::size_t> stratified_pick(const std::vector<std::size_t>& candidates, std::size_t count,
-                                         SplitRng& rng) {
-  std::vector<std::size_t> out;
-  const std::size_t n = candidates.size();
-  for (std::size_t s = 0; s < count; ++s) {
-    const std::size_t lo = s * n / count, hi = (s + 1) * n / count;
-    out.push_back(candidates[lo + rng.below(hi - lo)]);
-  }
-  return out;
-}
-
 // The 1-D split of grouped_split.cpp, with "interior" meaning "not on the boundary".
 Split make_boundary_split(const std::vector<Group>& groups, const SplitOptions& options, std::size_t min_train) {
   const std::size_t n = groups.size();
@@ -175,21 +164,7 @@ Split make_boundary_split(const std::vector<Group>& groups, const SplitOptions& 
   for (std::size_t g : interior)
     if (sp.role[g] == SetRole::Train) cand.push_back(g);
   if (cand.empty()) return sp;
-  if (static_cast<int>(cand.size()) < options.loso_below || static_cast<int>(cand.size()) <= options.folds) {
-    sp.scheme = FoldScheme::LeaveOneSetpointOut;
-    sp.n_folds = static_cast<int>(cand.size());
-    for (std::size_t i = 0; i < cand.size(); ++i) sp.fold[cand[i]] = static_cast<int>(i);
-    return sp;
-  }
-  sp.scheme = FoldScheme::KFold;
-  sp.n_folds = options.folds;
-  const std::size_t K = static_cast<std::size_t>(options.folds);
-  for (std::size_t start = 0; start < cand.size(); start += K) {
-    std::vector<int> labels(K);
-    for (std::size_t k = 0; k < K; ++k) labels[k] = static_cast<int>(k);
-    for (std::size_t k = K; k > 1; --k) std::swap(labels[k - 1], labels[rng.below(k)]);
-    for (std::size_t k = 0; k < K && start + k < cand.size(); ++k) sp.fold[cand[start + k]] = labels[k];
-  }
+  assign_folds(cand, options, rng, sp);
   return sp;
 }
 

@@ -77,4 +77,19 @@ class SplitRng {
   std::uint64_t state_;
 };
 
+/// Picks `count` of the candidate positions, one from each of `count` equal
+/// strata of the (ordered) candidates, so the picks spread over the range.
+/// Precondition: count <= candidates.size().
+std::vector<std::size_t> stratified_pick(const std::vector<std::size_t>& candidates, std::size_t count,
+                                         SplitRng& rng);
+
+/// Fills sp.scheme, sp.n_folds and sp.fold[g] for the groups that may
+/// validate (`candidates`, ordered along the range): leave-one-out when there
+/// are fewer than options.loso_below of them or no more than options.folds;
+/// else K-fold, a random permutation of the K labels in each consecutive
+/// block of K candidates, so every fold spans the whole range. The one fold
+/// rule of make_split and of the extended fits (multi_input_fit.hpp).
+void assign_folds(const std::vector<std::size_t>& candidates, const SplitOptions& options, SplitRng& rng,
+                  Split& sp);
+
 }  // namespace ridgecal
