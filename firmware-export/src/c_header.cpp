@@ -91,6 +91,22 @@ bool choose_proof_tolerance(const HeaderMeta& meta, const ExportOptions& opt, Pr
   return true;
 }
 
+void emit_table_codes_and_linkage(std::ostringstream& o, const Names& n) {
+  o << "/* Results of " << n.p << "_check_table() */\n"
+    << "#define " << n.P << "_TABLE_OK 0\n"
+    << "#define " << n.P << "_TABLE_CORRUPT 1\n"
+    << "#define " << n.P << "_TABLE_UNCHECKABLE 2 /* double mode where double is not 64-bit */\n\n"
+    << "/* C99/C++: static inline. GNU C89: static __inline__. Other C89: static. */\n"
+    << "#if defined(__cplusplus) || (defined(__STDC_VERSION__) && __STDC_VERSION__ >= 199901L)\n"
+    << "#define " << n.P << "_INLINE static inline\n"
+    << "#elif defined(__GNUC__)\n"
+    << "#define " << n.P << "_INLINE static __inline__\n"
+    << "#else\n"
+    << "#define " << n.P << "_INLINE static\n"
+    << "#endif\n\n"
+    << "#ifdef __cplusplus\nextern \"C\" {\n#endif\n\n";
+}
+
 void emit_epilogue(std::ostringstream& o, const Names& n) {
   o << "#ifdef __cplusplus\n} /* extern \"C\" */\n#endif\n\n#endif /* " << n.P
     << "_RIDGECAL_CALIBRATION_H */\n";
@@ -186,20 +202,8 @@ void emit_prologue(std::ostringstream& o, const Names& n, const PolyModel& model
     << "#define " << n.P << "_IN_RANGE 0     /* input inside the valid range */\n"
     << "#define " << n.P << "_BELOW_RANGE 1  /* input below: result at the lower limit */\n"
     << "#define " << n.P << "_ABOVE_RANGE 2  /* input above: result at the upper limit */\n"
-    << "#define " << n.P << "_NOT_A_NUMBER 3 /* NaN input: result at the lower limit */\n"
-    << "/* Results of " << n.p << "_check_table() */\n"
-    << "#define " << n.P << "_TABLE_OK 0\n"
-    << "#define " << n.P << "_TABLE_CORRUPT 1\n"
-    << "#define " << n.P << "_TABLE_UNCHECKABLE 2 /* double mode where double is not 64-bit */\n\n"
-    << "/* C99/C++: static inline. GNU C89: static __inline__. Other C89: static. */\n"
-    << "#if defined(__cplusplus) || (defined(__STDC_VERSION__) && __STDC_VERSION__ >= 199901L)\n"
-    << "#define " << n.P << "_INLINE static inline\n"
-    << "#elif defined(__GNUC__)\n"
-    << "#define " << n.P << "_INLINE static __inline__\n"
-    << "#else\n"
-    << "#define " << n.P << "_INLINE static\n"
-    << "#endif\n\n"
-    << "#ifdef __cplusplus\nextern \"C\" {\n#endif\n\n";
+    << "#define " << n.P << "_NOT_A_NUMBER 3 /* NaN input: result at the lower limit */\n";
+  detail::emit_table_codes_and_linkage(o, n);
 }
 
 // ---- float / double ----------------------------------------------------------------

@@ -37,6 +37,10 @@ struct ProofTolerance {
 bool choose_proof_tolerance(const HeaderMeta& meta, const ExportOptions& opt, ProofTolerance& out,
                             std::string& message);
 
+/// The PREFIX_TABLE_* result codes of PREFIX_check_table(), the PREFIX_INLINE
+/// macro (C99/C++, GNU C89, other C89) and the opening of extern "C".
+void emit_table_codes_and_linkage(std::ostringstream& o, const Names& n);
+
 /// extern "C" close and the include guard's #endif.
 void emit_epilogue(std::ostringstream& o, const Names& n);
 

@@ -320,19 +320,7 @@ void emit_prologue(std::ostringstream& o, const Names& n, const SurfaceModel& mo
       << "#define " << n.P << "_AUX_ABOVE_RANGE 8  /* aux above: evaluated at its upper limit */\n"
       << "#define " << n.P << "_AUX_NOT_A_NUMBER 12 /* NaN aux: evaluated at its lower limit */\n"
       << "/* e.g. status & 3 is the reading's code, status & 12 the aux input's. */\n";
-  o << "/* Results of " << n.p << "_check_table() */\n"
-    << "#define " << n.P << "_TABLE_OK 0\n"
-    << "#define " << n.P << "_TABLE_CORRUPT 1\n"
-    << "#define " << n.P << "_TABLE_UNCHECKABLE 2 /* double mode where double is not 64-bit */\n\n"
-    << "/* C99/C++: static inline. GNU C89: static __inline__. Other C89: static. */\n"
-    << "#if defined(__cplusplus) || (defined(__STDC_VERSION__) && __STDC_VERSION__ >= 199901L)\n"
-    << "#define " << n.P << "_INLINE static inline\n"
-    << "#elif defined(__GNUC__)\n"
-    << "#define " << n.P << "_INLINE static __inline__\n"
-    << "#else\n"
-    << "#define " << n.P << "_INLINE static\n"
-    << "#endif\n\n"
-    << "#ifdef __cplusplus\nextern \"C\" {\n#endif\n\n";
+  detail::emit_table_codes_and_linkage(o, n);
 }
 
 // ---- float / double ------------------------------------------------------------------
