@@ -107,6 +107,17 @@ void emit_table_codes_and_linkage(std::ostringstream& o, const Names& n) {
     << "#ifdef __cplusplus\nextern \"C\" {\n#endif\n\n";
 }
 
+CodeStats stats_for(const std::string& text, int entries, int entry_bytes, int mul, int add) {
+  CodeStats st;
+  st.header_bytes = text.size();
+  for (char c : text) st.header_lines += c == '\n';
+  st.table_entries = entries;
+  st.table_bytes = entries * entry_bytes;
+  st.multiplies_per_eval = mul;
+  st.additions_per_eval = add;
+  return st;
+}
+
 void emit_epilogue(std::ostringstream& o, const Names& n) {
   o << "#ifdef __cplusplus\n} /* extern \"C\" */\n#endif\n\n#endif /* " << n.P
     << "_RIDGECAL_CALIBRATION_H */\n";
@@ -120,6 +131,7 @@ using detail::esc;
 using detail::g;
 using detail::hex32;
 using detail::Names;
+using detail::stats_for;
 
 struct Proof {
   detail::Deviation dev;
@@ -382,17 +394,6 @@ void emit_fixed_body(std::ostringstream& o, const Names& n, const FixedPlan& p,
     << "_ABOVE_RANGE;\n        raw = " << n.P << "_RAW_MAX;\n    }\n"
     << "    if (status != 0)\n        *status = s;\n"
     << "    return " << n.p << "_eval_fixed(raw);\n}\n\n";
-}
-
-CodeStats stats_for(const std::string& text, int entries, int entry_bytes, int mul, int add) {
-  CodeStats st;
-  st.header_bytes = text.size();
-  for (char c : text) st.header_lines += c == '\n';
-  st.table_entries = entries;
-  st.table_bytes = entries * entry_bytes;
-  st.multiplies_per_eval = mul;
-  st.additions_per_eval = add;
-  return st;
 }
 
 }  // namespace

@@ -41,6 +41,10 @@ bool choose_proof_tolerance(const HeaderMeta& meta, const ExportOptions& opt, Pr
 /// macro (C99/C++, GNU C89, other C89) and the opening of extern "C".
 void emit_table_codes_and_linkage(std::ostringstream& o, const Names& n);
 
+/// Size figures of a generated header: its bytes and lines, the table size,
+/// and the operations per evaluation.
+CodeStats stats_for(const std::string& text, int entries, int entry_bytes, int mul, int add);
+
 /// extern "C" close and the include guard's #endif.
 void emit_epilogue(std::ostringstream& o, const Names& n);
 

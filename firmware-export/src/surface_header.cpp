@@ -20,6 +20,7 @@ using detail::esc;
 using detail::g;
 using detail::hex32;
 using detail::Names;
+using detail::stats_for;
 
 std::pair<double, double> surface_reading_range(const SurfaceModel& m) {
   const auto back = [&](double u) {
@@ -566,17 +567,6 @@ void emit_fixed_body(std::ostringstream& o, const Names& n, const SurfaceFixedPl
       << "_AUX_ABOVE_RANGE;\n        raw_aux = " << P << "_AUX_RAW_MAX;\n    }\n";
   o << "    if (status != 0)\n        *status = st;\n"
     << "    return " << n.p << "_eval_fixed(raw" << (p.has_aux ? ", raw_aux" : "") << ");\n}\n\n";
-}
-
-CodeStats stats_for(const std::string& text, int entries, int entry_bytes, int mul, int add) {
-  CodeStats st;
-  st.header_bytes = text.size();
-  for (char c : text) st.header_lines += c == '\n';
-  st.table_entries = entries;
-  st.table_bytes = entries * entry_bytes;
-  st.multiplies_per_eval = mul;
-  st.additions_per_eval = add;
-  return st;
 }
 
 }  // namespace
