@@ -309,6 +309,10 @@ bool plain_number(std::string_view cell, double& v) {
 }  // namespace
 
 bool parse_unit_chunk_fast(const UnitChunk& chunk, const CsvOptions& options, Dataset& out) {
+  // Columns and number formats only the general parser reads.
+  if (!options.aux_column.empty() || !options.aux_setpoint_column.empty() || !options.direction_column.empty() ||
+      options.decimal_comma)
+    return false;
   const std::string_view text(chunk.text);
   if (text.find('"') != std::string_view::npos || text.find('\0') != std::string_view::npos) return false;
   out.file = chunk.file;

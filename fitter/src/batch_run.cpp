@@ -174,6 +174,7 @@ UnitSummary process_unit(const UnitChunk& chunk, const BatchOptions& options) {
   u.lambda = u.validation_rmse = u.test_rmse = u.max_abs_error = std::numeric_limits<double>::quiet_NaN();
   const std::string stem = unit_file_stem(chunk.unit);
   const std::string rel = "records/" + stem + ".json";
+  auto output_path = [&](const UnitOutput& o) { return options.out_dir + "/" + o.directory + "/" + stem + o.extension; };
   auto fail = [&](std::string why) {
     u.status = UnitStatus::Failed;
     u.error = std::move(why);
@@ -181,13 +182,13 @@ UnitSummary process_unit(const UnitChunk& chunk, const BatchOptions& options) {
     if (options.write_records && chunk.error.empty()) {
       ::unlink((options.out_dir + "/" + rel).c_str());
       for (const UnitOutput& o : options.unit_outputs)
-        ::unlink((options.out_dir + "/" + o.directory + "/" + stem + o.extension).c_str());
+        ::unlink(output_path(o).c_str());
     }
     return u;
   };
   if (!chunk.error.empty()) return fail(chunk.error);
   Dataset data;
-  if (options.comp.aux || !parse_unit_chunk_fast(chunk, options.input.csv, data)) {
+  if (!parse_unit_chunk_fast(chunk, options.input.csv, data)) {
     try {
       data = parse_unit_chunk(chunk, options.input.csv);
     } catch (const InputError& e) {
@@ -244,7 +245,7 @@ UnitSummary process_unit(const UnitChunk& chunk, const BatchOptions& options) {
     write_whole_file_atomic(options.out_dir + "/" + rel, record_text(record_to_json(rec)), options.sync_records);
     u.record = rel;
     for (const UnitOutput& o : options.unit_outputs) {
-      const std::string path = options.out_dir + "/" + o.directory + "/" + stem + o.extension;
+      const std::string path = output_path(o);
       std::string why;
       try {
         why = o.write(options.out_dir + "/" + rel, path);

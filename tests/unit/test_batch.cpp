@@ -316,6 +316,17 @@ BOOST_AUTO_TEST_CASE(the_fast_chunk_parser_agrees_with_the_general_parser) {
     BOOST_TEST(!parse_unit_chunk_fast(chunk_of(c.header, c.rows), c.opt, fast), c.rows);
   }
   BOOST_CHECK_THROW(parse_unit_chunk(chunk_of(unusual[2].header, unusual[2].rows), with_sp), InputError);
+  // Options only the general parser reads: the fast path declines, and the
+  // general parser fills the aux values (which the fast path would drop).
+  CsvOptions with_aux = with_sp;
+  with_aux.aux_column = "temp";
+  const UnitChunk aux_chunk = chunk_of("unit,setpoint,reading,reference,temp", "u,S1,1,1,20.5\nu,S2,2,2,21.5\n");
+  Dataset fast;
+  BOOST_TEST(!parse_unit_chunk_fast(aux_chunk, with_aux, fast));
+  BOOST_TEST(parse_unit_chunk(aux_chunk, with_aux).rows.at(1).aux == 21.5);
+  CsvOptions with_direction = with_sp;
+  with_direction.direction_column = "dir";
+  BOOST_TEST(!parse_unit_chunk_fast(chunk_of("unit,setpoint,reading,reference,dir", "u,S1,1,1,up\n"), with_direction, fast));
 }
 
 BOOST_AUTO_TEST_CASE(a_unit_whose_data_the_fit_rejects_does_not_stop_the_batch) {
