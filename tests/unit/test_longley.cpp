@@ -19,16 +19,27 @@ using namespace ridgecal;
 
 namespace {
 
-// Issue 7's acceptance criterion: LRE >= 9 on every certified coefficient.
-constexpr double kRequiredLre = 9.0;
+// Required accuracy: the LRE measured on this machine (x86-64, gcc 12;
+// printed by this test with --log_level=message) minus a stated margin of
+// 1.5 digits (a 30-fold larger error), never below issue 7's criterion 9.
+// Measured: min coefficient LRE 13.3, residual SD 15.0, R^2 15.0 (the cap).
+constexpr double kLreMargin = 1.5;
+constexpr double kRequiredLreFloor = 9.0;
+constexpr double kMeasuredCoefLre = 13.3;
+constexpr double kMeasuredSdLre = 15.0;
+constexpr double kMeasuredR2Lre = 15.0;
+constexpr double kRequiredCoefLre = kMeasuredCoefLre - kLreMargin;  // 11.8
+constexpr double kRequiredSdLre = kMeasuredSdLre - kLreMargin;      // 13.5
+constexpr double kRequiredR2Lre = kMeasuredR2Lre - kLreMargin;      // 13.5
+static_assert(kRequiredCoefLre >= kRequiredLreFloor && kRequiredSdLre >= kRequiredLreFloor, "floor");
 constexpr double kCertifiedDigits = 15.0;
 // GSL is a second opinion, not the reference: its answer must agree with the
-// certified values to at least this LRE (GSL's SVD with column balancing
-// reaches about 8 to 10 digits on Longley), and our predictions must agree
-// with GSL's to this relative level (predictions are well conditioned even
-// where the coefficients are not).
-constexpr double kGslMinLre = 7.0;
-constexpr double kPredictionAgreement = 1e-9;
+// certified values to at least this LRE (measured: 11.6 with GSL 2.7's SVD
+// with column balancing; margin 1.5 digits), and our predictions must agree
+// with GSL's to this relative level (measured: 4.1e-14; margin about 25x;
+// predictions are well conditioned even where the coefficients are not).
+constexpr double kGslMinLre = 11.6 - kLreMargin;
+constexpr double kPredictionAgreement = 1e-12;
 
 double lre(double est, double cert) {
   if (est == cert) return kCertifiedDigits;
@@ -105,15 +116,15 @@ BOOST_AUTO_TEST_CASE(longley_certified_coefficients) {
     const double l = lre(est, p["estimate"].get<double>());
     BOOST_TEST_MESSAGE(fmt::format("Longley {}: estimate {:.15e} certified {} LRE {:.1f}", p["name"].get<std::string>(),
                                    est, p["estimate_text"].get<std::string>(), l));
-    BOOST_TEST(l >= kRequiredLre, "coefficient " << p["name"].get<std::string>() << " LRE " << l);
+    BOOST_TEST(l >= kRequiredCoefLre, "coefficient " << p["name"].get<std::string>() << " LRE " << l);
     min_lre = std::min(min_lre, l);
   }
   const double sd_lre = lre(f.residual_sd, L.cert["residual_std_dev"].get<double>());
   const double r2_lre = lre(f.r2, L.cert["r_squared"].get<double>());
   BOOST_TEST_MESSAGE(fmt::format("Longley: min coefficient LRE {:.1f}, residual SD LRE {:.1f}, R2 LRE {:.1f}", min_lre,
                                  sd_lre, r2_lre));
-  BOOST_TEST(sd_lre >= kRequiredLre);
-  BOOST_TEST(r2_lre >= kRequiredLre);
+  BOOST_TEST(sd_lre >= kRequiredSdLre);
+  BOOST_TEST(r2_lre >= kRequiredR2Lre);
 }
 
 BOOST_AUTO_TEST_CASE(longley_agrees_with_gsl) {

@@ -17,11 +17,28 @@ using namespace ridgecal;
 
 namespace {
 
-// Required accuracy, from the acceptance criteria: LRE >= 9 on every
-// certified value for the lower/average difficulty sets, >= 7 on Filip's
-// coefficients (higher difficulty, degree 10).
-constexpr double kRequiredLre = 9.0;
-constexpr double kRequiredLreFilip = 7.0;
+// Required accuracy: the LRE measured on this machine (x86-64, gcc 12,
+// RelWithDebInfo; printed by this test with --log_level=message) minus a
+// stated margin. The margin, 1.5 digits (a 30-fold larger error), absorbs
+// changes of solver, compiler or evaluation order; losing more than that is
+// a regression to look at. LRE is capped at the 15 certified digits.
+// The floor kRequiredLreFloor (9, 7 for Filip's coefficients) was the
+// original acceptance criterion and is kept as a lower limit of the limits.
+constexpr double kLreMargin = 1.5;
+constexpr double kRequiredLreFloor = 9.0;
+constexpr double kRequiredLreFloorFilip = 7.0;
+
+struct MeasuredLre {
+  double coef, sd, r2;  // min coefficient LRE, residual SD LRE, R^2 LRE
+};
+// Measured (see above). R^2 reaches the cap on every set.
+constexpr MeasuredLre kNorris{13.4, 14.9, 15.0};
+constexpr MeasuredLre kPontius{13.4, 13.5, 15.0};
+constexpr MeasuredLre kNoInt1{14.8, 14.9, 15.0};
+constexpr MeasuredLre kNoInt2{15.0, 15.0, 15.0};
+constexpr MeasuredLre kFilip{14.0, 14.8, 15.0};
+
+double required(double measured, double floor) { return std::max(floor, measured - kLreMargin); }
 constexpr double kCertifiedDigits = 15.0;
 
 double lre(double est, double cert) {
@@ -70,37 +87,24 @@ NistResult check(const std::string& name) {
   return res;
 }
 
+void require_close_to_measured(const NistResult& r, const MeasuredLre& m, double coef_floor) {
+  BOOST_TEST(r.min_coef_lre >= required(m.coef, coef_floor), "min coefficient LRE " << r.min_coef_lre
+                                                                 << ", measured " << m.coef << " - margin");
+  BOOST_TEST(r.sd_lre >= required(m.sd, kRequiredLreFloor), "residual SD LRE " << r.sd_lre << ", measured " << m.sd
+                                                                               << " - margin");
+  BOOST_TEST(r.r2_lre >= required(m.r2, kRequiredLreFloor), "R^2 LRE " << r.r2_lre << ", measured " << m.r2
+                                                                       << " - margin");
+}
+
 }  // namespace
 
-BOOST_AUTO_TEST_CASE(norris) {
-  const auto r = check("norris");
-  BOOST_TEST(r.min_coef_lre >= kRequiredLre);
-  BOOST_TEST(r.sd_lre >= kRequiredLre);
-  BOOST_TEST(r.r2_lre >= kRequiredLre);
-}
+BOOST_AUTO_TEST_CASE(norris) { require_close_to_measured(check("norris"), kNorris, kRequiredLreFloor); }
 
-BOOST_AUTO_TEST_CASE(pontius) {
-  const auto r = check("pontius");
-  BOOST_TEST(r.min_coef_lre >= kRequiredLre);
-  BOOST_TEST(r.sd_lre >= kRequiredLre);
-  BOOST_TEST(r.r2_lre >= kRequiredLre);
-}
+BOOST_AUTO_TEST_CASE(pontius) { require_close_to_measured(check("pontius"), kPontius, kRequiredLreFloor); }
 
-BOOST_AUTO_TEST_CASE(noint1) {
-  const auto r = check("noint1");
-  BOOST_TEST(r.min_coef_lre >= kRequiredLre);
-  BOOST_TEST(r.sd_lre >= kRequiredLre);
-  BOOST_TEST(r.r2_lre >= kRequiredLre);
-}
+BOOST_AUTO_TEST_CASE(noint1) { require_close_to_measured(check("noint1"), kNoInt1, kRequiredLreFloor); }
 
-BOOST_AUTO_TEST_CASE(noint2) {
-  const auto r = check("noint2");
-  BOOST_TEST(r.min_coef_lre >= kRequiredLre);
-  BOOST_TEST(r.sd_lre >= kRequiredLre);
-  BOOST_TEST(r.r2_lre >= kRequiredLre);
-}
+BOOST_AUTO_TEST_CASE(noint2) { require_close_to_measured(check("noint2"), kNoInt2, kRequiredLreFloor); }
 
-BOOST_AUTO_TEST_CASE(filip) {
-  const auto r = check("filip");
-  BOOST_TEST(r.min_coef_lre >= kRequiredLreFilip);
-}
+// Filip (degree 10, higher difficulty): coefficients, residual SD and R^2.
+BOOST_AUTO_TEST_CASE(filip) { require_close_to_measured(check("filip"), kFilip, kRequiredLreFloorFilip); }
