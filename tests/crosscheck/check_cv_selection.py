@@ -18,10 +18,18 @@ grid cell as docs/fitting.md defines it:
   one-SE rule: among cells with cv_rmse <= min cv_rmse + cv_se(min), the lowest
   degree, then the largest lambda.
 
+The fold assignment itself is checked against its documented structure (the
+random permutations cannot be recomputed): test setpoints and the two end
+setpoints have no fold; leave-one-setpoint-out gives each interior training
+setpoint its own fold; K-fold labels the interior training setpoints, sorted
+by reading, in consecutive blocks of K that each hold every label once (the
+last block: distinct labels).
+
 Mutations (self-test: the check must fail with the named message):
   fold-swap     two setpoints exchange their fold labels in the record
   cv-scale      one grid cell's recorded cv_rmse is scaled by 1 + 1e-6
   chosen-min    the record's chosen cell is replaced by the min-cv cell
+  fold-block    two setpoints of different blocks exchange their fold labels
 """
 import csv
 import json
@@ -45,6 +53,7 @@ MUTATIONS = {
     "fold-swap": "cv_rmse of degree",
     "cv-scale": "cv_rmse of degree",
     "chosen-min": "chosen cell",
+    "fold-block": "fold structure",
 }
 
 SAMPLES = [
@@ -76,6 +85,33 @@ def ridge_predict(xtr, ytr, xte, degree, lam, center, half):
     return my + (Xte - mx) @ b
 
 
+def check_fold_structure(name, split, sel, fails):
+    sps = sorted(split["setpoints"], key=lambda s: s["reading"])
+    train = [s for s in sps if s["role"] == "train"]
+    K, scheme = sel["folds"], sel["fold_scheme"]
+    bad = []
+    for s in sps:
+        if s["role"] == "test" and s["fold"] != -1:
+            bad.append(f"test setpoint {s['id']} has fold {s['fold']}")
+    for s in (train[0], train[-1]):
+        if s["fold"] != -1:
+            bad.append(f"end setpoint {s['id']} has fold {s['fold']}")
+    inner = [s["fold"] for s in train[1:-1]]
+    if scheme == "leave-one-setpoint-out":
+        if sorted(inner) != list(range(len(inner))) or K != len(inner):
+            bad.append(f"leave-one-setpoint-out folds {inner} are not one per interior setpoint (K = {K})")
+    elif scheme == "k-fold":
+        for start in range(0, len(inner), K):
+            block = inner[start:start + K]
+            want = list(range(K)) if len(block) == K else None
+            if (want and sorted(block) != want) or len(set(block)) != len(block) or min(block) < 0 or max(block) >= K:
+                bad.append(f"block {start // K} of K = {K} consecutive setpoints has the folds {block}")
+    else:
+        bad.append(f"unknown fold scheme {scheme!r}")
+    for b in bad:
+        fails.add(f"{name}: fold structure: {b}")
+
+
 def check_sample(ridgecal, samples, name, extra, mutation, fails, work):
     csv_path = f"{samples}/{name}/{name}.csv"
     rec_path = f"{work}/{name}.json"
@@ -86,6 +122,12 @@ def check_sample(ridgecal, samples, name, extra, mutation, fails, work):
         sps = [s for s in split["setpoints"] if s["fold"] >= 0]
         a = sps[1]
         b = next(s for s in sps[2:] if s["fold"] != a["fold"])
+        a["fold"], b["fold"] = b["fold"], a["fold"]
+    if mutation == "fold-block" and sel["fold_scheme"] == "k-fold":
+        sps = sorted((s for s in split["setpoints"] if s["fold"] >= 0), key=lambda s: s["reading"])
+        K = sel["folds"]
+        a = sps[0]
+        b = next(s for s in sps[K:] if s["fold"] != a["fold"])
         a["fold"], b["fold"] = b["fold"], a["fold"]
     if mutation == "cv-scale":
         sel["grid"][len(sel["grid"]) // 2]["cv_rmse"] *= 1 + 1e-6
@@ -101,6 +143,7 @@ def check_sample(ridgecal, samples, name, extra, mutation, fails, work):
     if sorted(set(f[f >= 0])) != list(range(K)):
         fails.add(f"{name}: the record's folds {sorted(set(f[f >= 0]))} are not 0..{K - 1}")
         return None
+    check_fold_structure(name, split, sel, fails)
     center, half = (x.min() + x.max()) / 2, (x.max() - x.min()) / 2
     sc = rec["model"]["scaling"]
     fails.close(f"{name}: scaling center", sc["center"], center, 1e-15, key="scaling")
