@@ -72,6 +72,7 @@ po::options_description batch_options() {
     ("setpoint", po::value<std::string>(), "column naming the setpoint of repeated readings (default: equal reference values form a setpoint)")
     ("role", po::value<std::string>(), "column with 'fit' or 'check' per row: the check setpoints become the test set")
     ("delimiter", po::value<std::string>()->default_value(","), "field delimiter: ',', ';' or 'tab'")
+    ("direction", po::value<std::string>(), "column with 'up' or 'down' per row: the sweep direction (hysteresis check, as in 'ridgecal fit')")
     ("degrees", po::value<std::string>()->default_value("1..7"), "candidate degrees, e.g. 1..7 or 1,2,3")
     ("lambdas", po::value<std::string>()->default_value("default"), "candidate penalties: 'default' (0 and 30 values from 1e-12 to 10), or a list like 0,1e-9:1e-1:20")
     ("rule", po::value<std::string>()->default_value(to_string(FitOptions{}.rule)), "selection rule: one-se (simplest model within one standard error of the lowest CV error) or min-cv (lowest CV error)")
@@ -126,6 +127,7 @@ BatchCommand parse_batch_command(const std::vector<std::string>& args) {
   b.input.csv.reference_column = vm["reference"].as<std::string>();
   if (vm.count("setpoint")) b.input.csv.setpoint_column = vm["setpoint"].as<std::string>();
   if (vm.count("role")) b.input.csv.role_column = vm["role"].as<std::string>();
+  if (vm.count("direction")) b.input.csv.direction_column = vm["direction"].as<std::string>();
   b.input.csv.delimiter = parse_delimiter(vm["delimiter"].as<std::string>());
   b.jobs = vm["jobs"].as<int>();
   b.write_records = !vm["no-records"].as<bool>();

@@ -30,7 +30,7 @@ po::options_description export_options() {
     ("prefix", po::value<std::string>(), "prefix of the generated C symbols: [A-Za-z][A-Za-z0-9_]*, at most 40 characters, no '__', no trailing '_'")
     ("numeric", po::value<std::string>()->default_value("float"), "arithmetic of the header: float, double or fixed (integer only)")
     ("max-deviation-fraction", po::value<std::string>()->default_value("0.1"), "refuse when the header deviates from the model by more than this fraction of the tolerance")
-    ("tolerance", po::value<std::string>(), "absolute tolerance in reference units for the refusal rule (default: the record's; without one, the validation RMSE)")
+    ("tolerance", po::value<std::string>(), "absolute tolerance in reference units for the refusal rule only (default: the record's; without one, the validation RMSE); the header's result is always the record's verdict")
     ("tolerance-text", po::value<std::string>()->default_value(""), "tolerance description for the header's QA block")
     ("allow-modified", po::bool_switch(), allow_modified_option_help())
     ("grid-points", po::value<int>()->default_value(2001), "points of the proof grid over the calibrated range")
@@ -167,25 +167,16 @@ int run_export_command(const ExportCommand& cmd, std::ostream& out, std::ostream
     meta.test_rmse = cal.test.empty() ? firmware::HeaderMeta::kUnset : cal.test.rmse;
     meta.test_max_abs_error = cal.test.empty() ? firmware::HeaderMeta::kUnset : cal.test.max_abs_error;
     const RecordAssessment assessed = record_assessment(rec);
+    // The verdict is the record's, computed once by the assessment when the
+    // record was made: the header states it verbatim and never judges again.
+    // --tolerance only feeds the refusal rule (header arithmetic vs model).
     meta.tolerance_abs = cmd.tolerance ? cmd.tolerance : assessed.tolerance_abs;
-    meta.tolerance_description =
-        !cmd.tolerance_text.empty() ? cmd.tolerance_text
-        : cmd.tolerance             ? fmt::format("+/- {} {} (--tolerance)", *cmd.tolerance, rec.sensor.reference_unit)
-        : !assessed.tolerance_text.empty() ? assessed.tolerance_text
-                                           : std::string("none in the record");
-    if (!assessed.verdict.empty() && !cmd.tolerance) {
-      meta.pass_fail = assessed.verdict;
-    } else if (meta.tolerance_abs) {
-      const double worst = cal.test.empty() ? cal.validation.max_abs_error : cal.test.max_abs_error;
-      const char* set = cal.test.empty() ? "validation" : "test";
-      meta.pass_fail = std::isfinite(worst)
-                           ? fmt::format("{}: {} max |error| {:.4g} {} tolerance {:.4g}",
-                                         worst <= *meta.tolerance_abs ? "PASS" : "FAIL", set, worst,
-                                         worst <= *meta.tolerance_abs ? "<=" : ">", *meta.tolerance_abs)
-                           : std::string("not assessed (no held-out errors)");
-    } else {
-      meta.pass_fail = "not assessed (no tolerance in the record)";
-    }
+    if (cmd.tolerance) meta.tolerance_abs_source = "--tolerance, for the refusal rule only";
+    meta.tolerance_description = !cmd.tolerance_text.empty()       ? cmd.tolerance_text
+                                 : !assessed.tolerance_text.empty() ? assessed.tolerance_text
+                                                                    : std::string("none in the record");
+    meta.pass_fail = !assessed.verdict.empty() ? assessed.verdict
+                                               : std::string("not assessed (no tolerance in the record)");
     if (guarded.modified)
       meta.pass_fail = "RECORD MODIFIED after ridgecal wrote it (integrity SHA-256 does not match; exported with "
                        "--allow-modified); " + meta.pass_fail;

@@ -10,7 +10,7 @@
 #include "judgement_options.hpp"
 #include "ridgecal/atomic_file.hpp"
 #include "ridgecal/errors.hpp"
-#include "ridgecal/surface_assessment.hpp"
+#include "ridgecal/calibrate.hpp"
 #include "ridgecal/report/html_report.hpp"
 #include "ridgecal/text_check.hpp"
 
@@ -148,22 +148,16 @@ int run_fit_command(const FitCommand& cmd, std::ostream& out, std::ostream& err)
   }
   try {
     const Dataset data = read_calibration_csv(cmd.data_path, cmd.csv);
-    const FitOutcome fit = cmd.comp.active() ? fit_compensated(data, cmd.fit, cmd.comp) : fit_calibration(data, cmd.fit);
-    if (!fit.status.ok)
-      throw InputError(cmd.data_path, 0, fit.status.message, "see 'ridgecal fit --help'");
-    CalibrationRecord rec;
-    rec.tool_version = tool_version();
-    rec.created_utc = creation_time(cmd.timestamp);
-    rec.sensor = cmd.sensor;
-    rec.input = InputInfo{cmd.data_path, data.sha256, data.rows.size(), cmd.csv};
-    rec.calibration = fit.calibration;
-    const bool surface = rec.calibration.surface.has_value();
-    const Assessment assessment = surface ? assess_surface_calibration(data, rec.calibration, cmd.assess)
-                                          : assess_calibration(data, rec.calibration, cmd.assess);
-    rec.tolerance = assessment.tolerance;
-    rec.decision = assessment.decision;
-    rec.uncertainty = assessment.uncertainty;
-    rec.warnings = assessment.warnings;
+    CalibrateOptions options;
+    options.fit = cmd.fit;
+    options.comp = cmd.comp;
+    options.assess = cmd.assess;
+    options.sensor = cmd.sensor;
+    options.created_utc = creation_time(cmd.timestamp);
+    const CalibrateResult result = calibrate(data, options);
+    if (!result.status.ok)
+      throw InputError(cmd.data_path, 0, result.status.message, "see 'ridgecal fit --help'");
+    const CalibrationRecord& rec = result.record;
     const nlohmann::json j = record_to_json(rec);
     const std::string report_html = cmd.report_path.empty() ? std::string() : report::render_html_report(j);
     if (!cmd.output_path.empty()) write_file_atomic(cmd.output_path, record_text(j));
@@ -174,19 +168,20 @@ int run_fit_command(const FitCommand& cmd, std::ostream& out, std::ostream& err)
                          cmd.sensor.reading_unit.empty() ? "unstated units" : cmd.sensor.reading_unit,
                          cmd.sensor.reference_unit.empty() ? "unstated units" : cmd.sensor.reference_unit);
     out << (cmd.full ? rec.calibration.full() : rec.calibration.brief());
-    out << (cmd.full ? assessment.uncertainty.full(cmd.sensor.reference_unit)
-                          : assessment.uncertainty.brief(cmd.sensor.reference_unit));
-    if (assessment.tolerance) out << "tolerance: " << assessment.tolerance->describe() << "\n";
-    if (assessment.decision) out << (cmd.full ? assessment.decision->full() : assessment.decision->brief());
+    out << (cmd.full ? rec.uncertainty->full(cmd.sensor.reference_unit)
+                     : rec.uncertainty->brief(cmd.sensor.reference_unit));
+    if (rec.tolerance) out << "tolerance: " << rec.tolerance->describe() << "\n";
+    if (rec.decision) out << (cmd.full ? rec.decision->full() : rec.decision->brief());
     else out << "decision: none (no tolerance given)\n";
-    err << format_warnings(assessment.warnings);
+    err << format_warnings(rec.warnings);
     if (!cmd.output_path.empty()) out << "record: " << cmd.output_path << "\n";
     if (!cmd.report_path.empty()) out << "report: " << cmd.report_path << "\n";
-    if (assessment.decision && !assessment.decision->pass()) {
+    // The verdict is the record's (computed once, in the assessment).
+    if (result.out_of_tolerance()) {
       out << "FAIL: out of tolerance; the record is written and marked FAIL\n";
       return kExitOutOfTolerance;
     }
-    if (assessment.decision) out << "PASS\n";
+    if (rec.decision) out << "PASS\n";
     return kExitOk;
   } catch (const InputError& e) {
     err << "ridgecal fit: " << format_input_error(e) << "\n";

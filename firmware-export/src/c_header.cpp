@@ -77,7 +77,7 @@ bool choose_proof_tolerance(const HeaderMeta& meta, const ExportOptions& opt, Pr
                             std::string& message) {
   if (meta.tolerance_abs && std::isfinite(*meta.tolerance_abs) && *meta.tolerance_abs > 0) {
     out.tolerance = *meta.tolerance_abs;
-    out.source = "record tolerance";
+    out.source = meta.tolerance_abs_source;
   } else if (std::isfinite(meta.validation_rmse) && meta.validation_rmse > 0) {
     out.tolerance = meta.validation_rmse;
     out.source = "validation RMSE, fallback: no absolute tolerance given";

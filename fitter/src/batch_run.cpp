@@ -19,8 +19,8 @@
 #include <mutex>
 #include <thread>
 
+#include "ridgecal/calibrate.hpp"
 #include "ridgecal/errors.hpp"
-#include "ridgecal/surface_assessment.hpp"
 #include "ridgecal/sha256.hpp"
 
 namespace ridgecal {
@@ -66,6 +66,8 @@ json batch_settings_json(const BatchOptions& o) {
                   {"setpoint", o.input.csv.setpoint_column},
                   {"role", o.input.csv.role_column},
                   {"delimiter", std::string(1, o.input.csv.delimiter)}};
+  // only when given: the settings (and their digest) of batches without it are unchanged
+  if (!o.input.csv.direction_column.empty()) s["columns"]["direction"] = o.input.csv.direction_column;
   s["fit"] = {{"degrees", f.degrees},
               {"lambdas", f.lambdas},
               {"rule", to_string(f.rule)},
@@ -195,15 +197,30 @@ UnitSummary process_unit(const UnitChunk& chunk, const BatchOptions& options) {
       return fail(format_input_error(e));
     }
   }
-  FitOutcome fit;
+  // The record's input digest: the fast parser leaves it empty (it is needed
+  // only when the record is written).
+  if (options.write_records && data.sha256.empty()) data.sha256 = sha256_hex(chunk.text);
+  // Fit, assessment and record as `ridgecal fit` makes them (calibrate.hpp).
+  // The assessment costs about 15 times the fit, so a summary-only run
+  // without a tolerance skips it; its summary then has no diagnostic warnings.
+  CalibrateOptions copt;
+  copt.fit = options.fit;
+  copt.comp = options.comp;
+  copt.assess = options.assess;
+  copt.sensor = options.sensor;
+  copt.sensor.name = options.sensor.name.empty() ? chunk.unit : options.sensor.name + " / unit " + chunk.unit;
+  copt.created_utc = options.created_utc;
+  copt.skip_unjudged_assessment = !options.write_records;
+  CalibrateResult result;
   try {
     // throws InputError e.g. for a setpoint with mixed roles, a reading outside a transform's domain
-    fit = options.comp.active() ? fit_compensated(data, options.fit, options.comp) : fit_calibration(data, options.fit);
+    result = calibrate(data, copt);
   } catch (const InputError& e) {
     return fail(format_input_error(e));
   }
-  if (!fit.status.ok) return fail(fit.status.message);
-  const Calibration& cal = fit.calibration;
+  if (!result.status.ok) return fail(result.status.message);
+  const CalibrationRecord& rec = result.record;
+  const Calibration& cal = rec.calibration;
   u.status = UnitStatus::Ok;
   u.degree = cal.surface ? cal.surface->total_degree() : cal.model.degree();
   u.lambda = cal.lambda;
@@ -220,28 +237,10 @@ UnitSummary process_unit(const UnitChunk& chunk, const BatchOptions& options) {
     if (sel.lambdas.size() > 1 && cal.lambda == sel.lambdas.back())
       u.warnings.push_back(fmt::format("the chosen lambda {} is the largest candidate", cal.lambda));
   }
-  // Tolerance, decision, uncertainty and diagnostics, as `ridgecal fit` does,
-  // whenever there is a verdict to give or a record to write. (The assessment
-  // costs about 15 times the fit itself, so a summary-only run without a
-  // tolerance skips it; its summary then has no diagnostic warnings.)
-  Assessment assessment;
-  if (options.assess.tolerance || options.write_records)
-    assessment = cal.surface ? assess_surface_calibration(cal, options.assess) : assess_calibration(data, cal, options.assess);
-  if (assessment.decision) u.verdict = assessment.decision->pass() ? UnitVerdict::Pass : UnitVerdict::Fail;
-  for (const Warning& w : assessment.warnings) u.warnings.push_back(to_string(w.code) + ": " + w.message);
+  // The verdict is the record's, computed once by the assessment.
+  if (const auto v = result.verdict()) u.verdict = *v == Verdict::Pass ? UnitVerdict::Pass : UnitVerdict::Fail;
+  for (const Warning& w : rec.warnings) u.warnings.push_back(to_string(w.code) + ": " + w.message);
   if (options.write_records) {
-    CalibrationRecord rec;
-    rec.tool_version = tool_version();
-    rec.created_utc = options.created_utc;
-    rec.sensor = options.sensor;
-    rec.sensor.name = options.sensor.name.empty() ? chunk.unit : options.sensor.name + " / unit " + chunk.unit;
-    rec.input = InputInfo{chunk.file, data.sha256.empty() ? sha256_hex(chunk.text) : data.sha256, data.rows.size(),
-                          options.input.csv};
-    rec.calibration = cal;
-    rec.tolerance = std::move(assessment.tolerance);
-    rec.decision = std::move(assessment.decision);
-    rec.uncertainty = std::move(assessment.uncertainty);
-    rec.warnings = std::move(assessment.warnings);
     write_whole_file_atomic(options.out_dir + "/" + rel, record_text(record_to_json(rec)), options.sync_records);
     u.record = rel;
     for (const UnitOutput& o : options.unit_outputs) {

@@ -14,9 +14,9 @@
  *   degree, lambda:      2, 1.88739e-06
  *   validation:          RMSE 0.00115559, max |error| 0.00323276 kg
  *   test:                RMSE 0.000923969, max |error| 0.0015737 kg
- *   tolerance:           +/- 0.002 kg (--tolerance)
- *   tolerance used:      0.002 kg (record tolerance)
- *   result:              PASS: test max |error| 0.001574 <= tolerance 0.002
+ *   tolerance:           +-(0.002) (user); strictest over the range 0.002
+ *   tolerance used:      0.002 kg (--tolerance, for the refusal rule only)
+ *   result:              FAIL: Simple acceptance: a point conforms when |error| <= tolerance +-(0.002); the measurement uncertainty is reported but not subtracted. FAIL: 42 of 44 judged points conform.
  *   record SHA-256:      e61bf69cbf3ed5e98078666f9c6331509f48a040100b94340eb4cf14038d3cbc
  *   tool version:        ridgecal 0.1.0
  *

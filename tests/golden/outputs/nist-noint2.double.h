@@ -14,9 +14,9 @@
  *   degree, lambda:      1, 0
  *   validation:          RMSE n/a, max |error| n/a (not given)
  *   test:                RMSE n/a, max |error| n/a (not given)
- *   tolerance:           +/- 0.5  (--tolerance)
- *   tolerance used:      0.5 (not given) (record tolerance)
- *   result:              not assessed (no held-out errors)
+ *   tolerance:           none in the record
+ *   tolerance used:      0.5 (not given) (--tolerance, for the refusal rule only)
+ *   result:              not assessed (no tolerance in the record)
  *   record SHA-256:      4640c2f188aa5fe087bb178289e8f0106378e593322b020bf81543adae7582b2
  *   tool version:        ridgecal 0.1.0
  *

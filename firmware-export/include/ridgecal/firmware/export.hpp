@@ -74,7 +74,11 @@ struct HeaderMeta {
   /// unset (or not > 0), the validation RMSE is used instead; when that is
   /// missing too, the export is refused as bad input.
   std::optional<double> tolerance_abs;
-  std::string pass_fail;      ///< e.g. "PASS (validation max error within tolerance)"
+  /// Where tolerance_abs comes from, shown in the QA block ("tolerance used").
+  std::string tolerance_abs_source = "record tolerance";
+  /// The record's verdict, verbatim (the generator never judges), or a text
+  /// saying that the record has none.
+  std::string pass_fail;
   std::string record_sha256;  ///< SHA-256 of the calibration record
   std::string tool_version;   ///< e.g. "ridgecal 0.1.0"
   std::vector<double> calibration_readings;  ///< checked in the proof too
