@@ -148,6 +148,7 @@ int run_fit_command(const FitCommand& cmd, std::ostream& out, std::ostream& err)
   }
   try {
     const Dataset data = read_calibration_csv(cmd.data_path, cmd.csv);
+    require_variation(data, variation_floors(cmd.assess.uncertainty), false);
     const FitOutcome fit = cmd.comp.active() ? fit_compensated(data, cmd.fit, cmd.comp) : fit_calibration(data, cmd.fit);
     if (!fit.status.ok)
       throw InputError(cmd.data_path, 0, fit.status.message, "see 'ridgecal fit --help'");

@@ -197,6 +197,7 @@ UnitSummary process_unit(const UnitChunk& chunk, const BatchOptions& options) {
   }
   FitOutcome fit;
   try {
+    require_variation(data, variation_floors(options.assess.uncertainty), false);
     // throws InputError e.g. for a setpoint with mixed roles, a reading outside a transform's domain
     fit = options.comp.active() ? fit_compensated(data, options.fit, options.comp) : fit_calibration(data, options.fit);
   } catch (const InputError& e) {
@@ -225,8 +226,13 @@ UnitSummary process_unit(const UnitChunk& chunk, const BatchOptions& options) {
   // costs about 15 times the fit itself, so a summary-only run without a
   // tolerance skips it; its summary then has no diagnostic warnings.)
   Assessment assessment;
-  if (options.assess.tolerance || options.write_records)
-    assessment = cal.surface ? assess_surface_calibration(cal, options.assess) : assess_calibration(data, cal, options.assess);
+  if (options.assess.tolerance || options.write_records) {
+    try {  // throws InputError e.g. for a percent-of-span tolerance on a zero span
+      assessment = cal.surface ? assess_surface_calibration(cal, options.assess) : assess_calibration(data, cal, options.assess);
+    } catch (const InputError& e) {
+      return fail(format_input_error(e));
+    }
+  }
   if (assessment.decision) u.verdict = assessment.decision->pass() ? UnitVerdict::Pass : UnitVerdict::Fail;
   for (const Warning& w : assessment.warnings) u.warnings.push_back(to_string(w.code) + ": " + w.message);
   if (options.write_records) {
