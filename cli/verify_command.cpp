@@ -2,6 +2,7 @@
 
 #include <fmt/format.h>
 
+#include <algorithm>
 #include <boost/program_options.hpp>
 #include <ostream>
 #include <sstream>
@@ -32,6 +33,28 @@ po::options_description verify_options() {
   // clang-format on
   add_tolerance_options(d);
   return d;
+}
+
+// A check with new data is judged against the calibrated ranges: a column
+// spreading less than 10 % of its calibrated range counts as constant (the
+// scatter of a one-point check stays well inside that; our judgement). Both
+// constant is a one-point check; only one of them is a frozen reference or a
+// stuck sensor.
+VariationFloors verify_variation_floors(const Calibration& cal) {
+  double xlo = 0, xhi = 0, ylo = 0, yhi = 0;
+  bool any = false;
+  for (const SetpointResult& sp : cal.setpoints) {
+    if (sp.role != SetRole::Train) continue;
+    xlo = any ? std::min(xlo, sp.mean_reading) : sp.mean_reading;
+    xhi = any ? std::max(xhi, sp.mean_reading) : sp.mean_reading;
+    ylo = any ? std::min(ylo, sp.mean_reference) : sp.mean_reference;
+    yhi = any ? std::max(yhi, sp.mean_reference) : sp.mean_reference;
+    any = true;
+  }
+  VariationFloors f;
+  f.reading = 0.1 * (xhi - xlo);
+  f.reference = 0.1 * (yhi - ylo);
+  return f;
 }
 }  // namespace
 
@@ -97,6 +120,7 @@ int run_verify_command(const VerifyCommand& cmd, std::ostream& out, std::ostream
     if (const std::string e = csv.validate(); !e.empty())
       throw InputError("", 0, "invalid column options: " + e, "see 'ridgecal verify --help'");
     const Dataset data = read_calibration_csv(cmd.data_path, csv);
+    require_variation(data, verify_variation_floors(rec.record.calibration), true);
     const AsFoundResult res = evaluate_as_found(rec, data, cmd.as_found);
     const nlohmann::json j = as_found_to_json(res, creation_time(cmd.timestamp));
     if (!cmd.output_path.empty()) write_file_atomic(cmd.output_path, record_text(j));

@@ -3,6 +3,9 @@
 #include <algorithm>
 #include <cassert>
 #include <cmath>
+#include <fmt/format.h>
+
+#include "ridgecal/errors.hpp"
 
 namespace ridgecal {
 
@@ -20,7 +23,8 @@ std::string AssessmentOptions::validate() const {
   return {};
 }
 
-void resolve_span(ToleranceSpec& tol, const Calibration& cal, const DiagnosticOptions& diag) {
+void resolve_span(ToleranceSpec& tol, const Calibration& cal, const DiagnosticOptions& diag,
+                  const std::string& file) {
   if (!(tol.percent_of_span > 0.0) || tol.span_high > tol.span_low) return;
   if (diag.has_span()) {
     tol.span_low = diag.span_low;
@@ -34,6 +38,13 @@ void resolve_span(ToleranceSpec& tol, const Calibration& cal, const DiagnosticOp
       tol.span_high = any ? std::max(tol.span_high, sp.mean_reference) : sp.mean_reference;
       any = true;
     }
+  if (!(tol.span_high > tol.span_low))
+    throw InputError(file, 0,
+                     fmt::format("the tolerance is {} % of the span, but the training references "
+                                 "span {} .. {}: a zero span",
+                                 tol.percent_of_span, tol.span_low, tol.span_high),
+                     "declare the instrument's span (--span LO..HI) or give the tolerance in "
+                     "reference units (--tol-offset)");
 }
 
 Assessment assess_calibration(const Dataset& data, const Calibration& cal,
@@ -43,7 +54,7 @@ Assessment assess_calibration(const Dataset& data, const Calibration& cal,
   a.uncertainty = evaluate_uncertainty(cal, options.uncertainty);
   if (options.tolerance) {
     ToleranceSpec tol = *options.tolerance;
-    resolve_span(tol, cal, options.diagnostics);
+    resolve_span(tol, cal, options.diagnostics, data.file);
     a.tolerance = tol;
     std::vector<PointToJudge> pts;
     for (const PointResult& p : cal.points) {

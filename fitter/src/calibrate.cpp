@@ -28,6 +28,8 @@ CalibrateResult calibrate(const Dataset& data, const CalibrateOptions& options) 
   assert(options.validate().empty());
   assert(options.comp.aux == !data.columns.aux_column.empty());
   CalibrateResult result;
+  // A constant or near-constant reference or reading is bad input (InputError).
+  require_variation(data, variation_floors(options.assess.uncertainty), false);
   // The one branch between the one-input and the extended model.
   const bool extended = options.comp.active();
   FitOutcome fit = extended ? fit_compensated(data, options.fit, options.comp)

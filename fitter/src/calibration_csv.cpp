@@ -337,4 +337,54 @@ Dataset read_calibration_csv(const std::string& path, const CsvOptions& options)
       path, options);
 }
 
+namespace {
+struct ColumnSpread {
+  double lo = 0.0, hi = 0.0, threshold = 0.0;
+  bool constant() const { return !(hi - lo > threshold); }
+};
+ColumnSpread column_spread(const std::vector<Observation>& rows, double Observation::*member,
+                           double floor) {
+  ColumnSpread c;
+  c.lo = c.hi = rows.front().*member;
+  for (const Observation& o : rows) {
+    c.lo = std::min(c.lo, o.*member);
+    c.hi = std::max(c.hi, o.*member);
+  }
+  c.threshold =
+      std::max(kConstantRelativeSpread * std::max(std::fabs(c.lo), std::fabs(c.hi)), floor);
+  return c;
+}
+}  // namespace
+
+void require_variation(const Dataset& data, const VariationFloors& floors, bool one_point_ok) {
+  if (data.rows.empty()) return;
+  const ColumnSpread x = column_spread(data.rows, &Observation::reading, floors.reading);
+  const ColumnSpread y = column_spread(data.rows, &Observation::reference, floors.reference);
+  const std::size_t line = data.rows.front().line;
+  const std::size_t n = data.rows.size();
+  if (one_point_ok && x.constant() == y.constant()) return;
+  if (x.constant() && y.constant())
+    throw InputError(data.file, line,
+                     fmt::format("neither the readings nor the references vary: all {} rows read "
+                                 "{} against reference {}",
+                                 n, x.lo, y.lo),
+                     "a calibration needs setpoints across the range");
+  if (y.constant())
+    throw InputError(
+        data.file, line,
+        fmt::format("the references do not vary: all {} lie within {} .. {} (a spread "
+                    "up to {:.3g} counts as constant) while the readings span {} .. {}",
+                    n, y.lo, y.hi, y.threshold, x.lo, x.hi),
+        "check the reference column and the reference standard (frozen or disconnected?); "
+        "see docs/robustness.md");
+  if (x.constant())
+    throw InputError(
+        data.file, line,
+        fmt::format("the readings do not vary: all {} lie within {} .. {} (a spread up "
+                    "to {:.3g} counts as constant) while the references span {} .. {}",
+                    n, x.lo, x.hi, x.threshold, y.lo, y.hi),
+        "check the reading column and the sensor (stuck, open or shorted?); see "
+        "docs/robustness.md");
+}
+
 }  // namespace ridgecal

@@ -236,7 +236,13 @@ std::vector<Warning> check_surface_hysteresis(const Dataset& data, const Calibra
 
 Assessment assess_surface_calibration(const Dataset& data, const Calibration& cal,
                                       const AssessmentOptions& options) {
-  Assessment a = assess_surface_calibration(cal, options);
+  Assessment a;
+  try {
+    a = assess_surface_calibration(cal, options);
+  } catch (const InputError& e) {  // e.g. a zero span: name the data file
+    if (!e.file().empty()) throw;
+    throw InputError(data.file, e.line(), e.message(), e.hint());
+  }
   for (Warning& w : check_surface_hysteresis(data, cal, a.tolerance ? &*a.tolerance : nullptr))
     a.warnings.push_back(std::move(w));
   return a;

@@ -317,4 +317,11 @@ UncertaintyBudget uncertainty_from_json(const nlohmann::json& j, const std::stri
   return u;
 }
 
+VariationFloors variation_floors(const UncertaintyOptions& options) {
+  VariationFloors f;
+  f.reading = options.resolution;
+  f.reference = 2.0 * options.reference_uncertainty / options.reference_k;
+  return f;
+}
+
 }  // namespace ridgecal

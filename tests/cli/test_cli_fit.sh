@@ -33,7 +33,7 @@ expect_bad "$b/nan.csv" "nan.csv:3: .*not a finite number"
 expect_bad "$b/inf.csv" "inf.csv:3: .*not a finite number"
 expect_bad "$b/ragged.csv" "ragged.csv:3: the row has 1 fields but the header \(line 1\) has 2"
 expect_bad "$b/too-few-setpoints.csv" "too-few-setpoints.csv: .*setpoint" --degrees 2..3
-expect_bad "$b/readings-equal.csv" "readings-equal.csv: all 5 readings are equal"
+expect_bad "$b/readings-equal.csv" "readings-equal.csv:2: the readings do not vary: all 5 lie within 5 \.\. 5 .* while the references span 1 \.\. 5\. check the reading column"
 expect_bad "$b/does-not-exist.csv" "does-not-exist.csv: cannot open the file"
 expect_bad "$b/missing-column.csv" "unknown|unrecognised" --no-such-option
 expect_bad "$b/missing-column.csv" "--degree and --lambda" --degree 2

@@ -262,3 +262,50 @@ BOOST_AUTO_TEST_CASE(as_found_refuses_a_modified_record) {
   BOOST_CHECK_THROW(evaluate_as_found(allowed, fresh, guarded), InputError);
   std::filesystem::remove_all(dir);
 }
+
+// Issue 13 item 6: the variation rule and the zero span.
+BOOST_AUTO_TEST_CASE(near_constant_columns_are_bad_input) {
+  Dataset ds;
+  ds.file = "d.csv";
+  for (int i = 0; i < 6; ++i) {
+    Observation o;
+    o.reading = 100.0 + 100.0 * i;
+    o.reference = 20.0;
+    o.line = static_cast<std::size_t>(i) + 2;
+    ds.rows.push_back(o);
+  }
+  // Frozen reference: exact, and within the relative rule (1e-9 * 20 = 2e-8).
+  BOOST_CHECK_THROW(require_variation(ds, VariationFloors{}, false), InputError);
+  BOOST_CHECK_THROW(require_variation(ds, VariationFloors{}, true), InputError);
+  ds.rows[3].reference = 20.0 + 1e-8;
+  try {
+    require_variation(ds, VariationFloors{}, false);
+    BOOST_FAIL("a spread of 1e-8 on 20 must count as constant");
+  } catch (const InputError& e) {
+    BOOST_TEST(e.line() == 2u);
+    BOOST_TEST(e.message().find("the references do not vary") == 0u);
+  }
+  // Just above the relative rule: accepted; a floor above the spread refuses again.
+  ds.rows[3].reference = 20.0 + 3e-8;
+  BOOST_CHECK_NO_THROW(require_variation(ds, VariationFloors{}, false));
+  VariationFloors f;
+  f.reference = 1e-7;
+  BOOST_CHECK_THROW(require_variation(ds, f, false), InputError);
+  // Both constant: bad for a fit, a one-point check for verify.
+  for (Observation& o : ds.rows) o.reading = 300.0, o.reference = 20.0;
+  BOOST_CHECK_THROW(require_variation(ds, VariationFloors{}, false), InputError);
+  BOOST_CHECK_NO_THROW(require_variation(ds, VariationFloors{}, true));
+}
+
+BOOST_AUTO_TEST_CASE(percent_of_span_on_a_zero_span_throws) {
+  Calibration cal = fit_line(0.0);
+  for (SetpointResult& sp : cal.setpoints) sp.mean_reference = 5.0;  // every training reference equal
+  ToleranceSpec t;
+  t.percent_of_span = 1.0;
+  BOOST_CHECK_THROW(resolve_span(t, cal, DiagnosticOptions{}, "d.csv"), InputError);
+  DiagnosticOptions declared;
+  declared.span_low = 0.0;
+  declared.span_high = 10.0;
+  BOOST_CHECK_NO_THROW(resolve_span(t, cal, declared, "d.csv"));
+  BOOST_TEST(t.span() == 10.0);
+}

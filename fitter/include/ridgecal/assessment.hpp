@@ -36,8 +36,11 @@ struct Assessment {
 };
 
 /// The span a %-of-span tolerance uses when none is given: the declared span,
-/// else the smallest..largest training setpoint reference.
-void resolve_span(ToleranceSpec& tol, const Calibration& cal, const DiagnosticOptions& diag);
+/// else the smallest..largest training setpoint reference. Throws InputError
+/// (`file`, no line) when that span is zero: a percent of a zero span is no
+/// tolerance, and the caller asked for one.
+void resolve_span(ToleranceSpec& tol, const Calibration& cal, const DiagnosticOptions& diag,
+                  const std::string& file = {});
 
 /// Judges the points of the final model: `training` and `test` (counting for
 /// the verdict) and `validation` (the cross-validated predictions, judged for

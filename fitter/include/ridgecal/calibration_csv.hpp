@@ -96,6 +96,28 @@ struct Dataset {
 Dataset parse_calibration_csv(const std::string& text, const std::string& file,
                               const CsvOptions& options);
 
+/// Relative spread at or below which a column counts as constant: values that
+/// agree to about 9 significant digits are one value written with noise in
+/// its last digits, not a measured variation (our judgement: loggers and
+/// spreadsheets rarely write more than 9 significant digits).
+inline constexpr double kConstantRelativeSpread = 1e-9;
+
+/// Absolute floors of the variation check (require_variation), 0 = none.
+struct VariationFloors {
+  double reading = 0.0;    ///< e.g. the reading resolution (one digit step), reading units
+  double reference = 0.0;  ///< e.g. the reference standard's expanded uncertainty, reference units
+};
+
+/// Checks that the readings and the references vary. A column is
+/// near-constant when max - min <= max(kConstantRelativeSpread * max|value|,
+/// its floor). Fitting (one_point_ok false): either column near-constant is
+/// bad input. Checking an instrument against a record (one_point_ok true, e.g.
+/// `verify`): only one column near-constant while the other varies is bad
+/// input (both near-constant is a legitimate one-point check).
+/// Throws InputError (`file:line` of the first data row) naming the column,
+/// its range and the threshold.
+void require_variation(const Dataset& data, const VariationFloors& floors, bool one_point_ok);
+
 /// Reads and parses a file (see parse_calibration_csv). A file larger than
 /// options.limits.max_bytes is refused before it is read.
 Dataset read_calibration_csv(const std::string& path, const CsvOptions& options);

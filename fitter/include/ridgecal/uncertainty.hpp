@@ -120,6 +120,12 @@ class FitCovariance {
   int rank_ = 0;
 };
 
+/// The floors of the variation check (calibration_csv.hpp) these options
+/// imply: the reading resolution, and the reference standard's uncertainty
+/// expanded with k = 2 (references closer together than that cannot be told
+/// apart).
+VariationFloors variation_floors(const UncertaintyOptions& options);
+
 /// Evaluates the budget. Preconditions: options.validate() is empty.
 UncertaintyBudget evaluate_uncertainty(const Calibration& cal, const UncertaintyOptions& options);
 

@@ -1,0 +1,55 @@
+#include "mc_adapter.hpp"
+
+#include <memory>
+
+#include "ridgecal/errors.hpp"
+#include "ridgecal/surface_assessment.hpp"
+#include "ridgecal/surface_uncertainty.hpp"
+
+namespace ridgecal::mc {
+
+McFit calibrate_adapter(const Dataset& data, const McOptions& options) {
+  McFit r;
+  FitOutcome fit;
+  try {
+    fit = options.comp.active() ? fit_compensated(data, options.fit, options.comp)
+                                : fit_calibration(data, options.fit);
+  } catch (const InputError& e) {
+    r.error = format_input_error(e);
+    return r;
+  }
+  if (!fit.status.ok) {
+    r.error = fit.status.message;
+    return r;
+  }
+  auto cal = std::make_shared<const Calibration>(std::move(fit.calibration));
+  Assessment a;
+  try {
+    a = cal->surface ? assess_surface_calibration(data, *cal, options.assess)
+                     : assess_calibration(data, *cal, options.assess);
+  } catch (const InputError& e) {
+    r.error = format_input_error(e);
+    return r;
+  }
+  r.ok = true;
+  r.has_verdict = a.decision.has_value();
+  r.pass = a.decision && a.decision->pass();
+  for (const Warning& w : a.warnings) r.warning_codes.push_back(to_string(w.code));
+  r.degree = cal->surface ? cal->surface->total_degree() : cal->model.degree();
+  r.lambda = cal->lambda;
+  r.training_rmse = cal->training.rmse;
+  r.validation_rmse = cal->validation.rmse;
+  r.test_rmse = cal->test.rmse;
+  if (cal->surface) {
+    auto unc = std::make_shared<const SurfaceUncertainty>(*cal, options.assess.uncertainty);
+    r.predict = [cal](double x, double aux) { return cal->surface->eval(x, aux); };
+    r.expanded = [unc](double x, double aux) { return unc->expanded_at(x, aux); };
+  } else {
+    auto budget = std::make_shared<const UncertaintyBudget>(std::move(a.uncertainty));
+    r.predict = [cal](double x, double) { return cal->model.eval(x); };
+    r.expanded = [budget](double x, double) { return budget->expanded_at(x); };
+  }
+  return r;
+}
+
+}  // namespace ridgecal::mc

@@ -1,0 +1,44 @@
+// ridgecal Monte Carlo harness: the ONE place where the harness calls the
+// library. Everything else in bench/monte_carlo sees only McFit.
+//
+// When the library gains a single calibrate() pipeline (dataset + options ->
+// calibration + assessment), only mc_adapter.cpp needs retargeting.
+#pragma once
+
+#include <functional>
+#include <string>
+#include <vector>
+
+#include "ridgecal/assessment.hpp"
+#include "ridgecal/calibration.hpp"
+#include "ridgecal/calibration_csv.hpp"
+#include "ridgecal/multi_input_fit.hpp"
+
+namespace ridgecal::mc {
+
+/// Everything one library call needs.
+struct McOptions {
+  FitOptions fit;
+  CompensationOptions comp;  ///< inactive: the 1-D fit
+  AssessmentOptions assess;  ///< tolerance optional
+};
+
+/// What the harness reads back from one calibration.
+struct McFit {
+  bool ok = false;           ///< false: the library refused the data (status or InputError)
+  std::string error;         ///< why, when !ok
+  bool has_verdict = false;  ///< a tolerance was given and a decision made
+  bool pass = false;         ///< the decision's verdict (meaningful with has_verdict)
+  std::vector<std::string> warning_codes;  ///< one entry per warning (codes may repeat)
+  int degree = -1;
+  double lambda = 0.0;
+  double test_rmse = 0.0, validation_rmse = 0.0, training_rmse = 0.0;
+  /// The delivered curve and its expanded uncertainty U(k) at (reading, aux).
+  std::function<double(double reading, double aux)> predict;
+  std::function<double(double reading, double aux)> expanded;
+};
+
+/// Fits and assesses one data set. Never throws for problems of the data.
+McFit calibrate_adapter(const Dataset& data, const McOptions& options);
+
+}  // namespace ridgecal::mc

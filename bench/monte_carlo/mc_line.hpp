@@ -1,0 +1,27 @@
+// ridgecal Monte Carlo harness: a production line of invented capacitive RH
+// probes, each unit's data written as CSV text and read back by the library's
+// parser (so that a missing cell is the parse error it would be in a batch).
+#pragma once
+
+#include <cstdint>
+#include <string>
+#include <vector>
+
+namespace ridgecal::mc {
+
+struct LineRow {
+  std::string kind;  ///< `good`, `stuck`, `open-circuit`, `spike`, `missing-cell`
+  int units = 0;
+  int rejected = 0;  ///< refused (parse or fit error) or verdict FAIL
+  int flagged = 0;   ///< fitted with at least one warning
+  int rejected_or_flagged = 0;
+};
+
+struct LineStats {
+  std::vector<LineRow> rows;
+};
+
+/// `good_units` good units, and max(50, good_units / 10) units of each gross defect.
+LineStats run_line(int good_units, std::uint64_t seed);
+
+}  // namespace ridgecal::mc
