@@ -152,7 +152,6 @@ int run_export_command(const ExportCommand& cmd, std::ostream& out, std::ostream
   try {
     // Refuses a record edited by hand unless --allow-modified (record_guard.hpp).
     const GuardedRecord guarded = load_record_checked(cmd.record_path, cmd.allow_modified);
-    const nlohmann::json& j = guarded.json;
     const CalibrationRecord& rec = guarded.record;
     const Calibration& cal = rec.calibration;
     firmware::HeaderMeta meta;
@@ -180,7 +179,7 @@ int run_export_command(const ExportCommand& cmd, std::ostream& out, std::ostream
     if (guarded.modified)
       meta.pass_fail = "RECORD MODIFIED after ridgecal wrote it (integrity SHA-256 does not match; exported with "
                        "--allow-modified); " + meta.pass_fail;
-    meta.record_sha256 = record_digest(j);
+    meta.record_sha256 = guarded.seal.computed;
     meta.tool_version = std::string("ridgecal ") + tool_version();
     for (const auto& p : cal.points) {
       meta.calibration_readings.push_back(p.reading);

@@ -159,7 +159,10 @@ int run_fit_command(const FitCommand& cmd, std::ostream& out, std::ostream& err)
       throw InputError(cmd.data_path, 0, result.status.message, "see 'ridgecal fit --help'");
     const CalibrationRecord& rec = result.record;
     const nlohmann::json j = record_to_json(rec);
-    const std::string report_html = cmd.report_path.empty() ? std::string() : report::render_html_report(j);
+    // The report is made from the record as any reader parses it.
+    const std::string report_html =
+        cmd.report_path.empty() ? std::string()
+                                : report::render_html_report(record_from_json(j, cmd.data_path), record_seal(j));
     if (!cmd.output_path.empty()) write_file_atomic(cmd.output_path, record_text(j));
     if (!cmd.report_path.empty()) write_file_atomic(cmd.report_path, report_html);
     if (!cmd.sensor.name.empty() || !cmd.sensor.reading_unit.empty() || !cmd.sensor.reference_unit.empty())

@@ -67,13 +67,12 @@ int run_report_command(const ReportCommand& cmd, std::ostream& out, std::ostream
     // Validates the layout and the integrity digest: an edited record is refused
     // unless --allow-modified, and then the report itself says so.
     const GuardedRecord guarded = load_record_checked(cmd.record_path, cmd.allow_modified);
-    const nlohmann::json& j = guarded.json;
     if (guarded.modified)
       err << "ridgecal report: warning: " << modified_record_note(cmd.record_path)
           << " (the integrity digest does not match the record content; the report says so)\n";
     report::ReportOptions opt;
     opt.date = cmd.date;
-    const std::string html = report::render_html_report(j, opt);
+    const std::string html = report::render_html_report(guarded.record, guarded.seal, opt);
     if (cmd.output_path == "-") {
       out << html;
     } else {
@@ -83,9 +82,6 @@ int run_report_command(const ReportCommand& cmd, std::ostream& out, std::ostream
     return kExitOk;
   } catch (const InputError& e) {
     err << "ridgecal report: " << format_input_error(e) << "\n";
-    return kExitBadInput;
-  } catch (const report::ReportInputError& e) {
-    err << "ridgecal report: " << cmd.record_path << ": " << e.what() << "\n";
     return kExitBadInput;
   }
 }

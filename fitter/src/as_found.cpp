@@ -27,11 +27,9 @@ CheckedRecord read_checked_record(const std::string& path, bool allow_modified) 
         "re-create it with 'ridgecal fit DATA.csv -o RECORD.json' from the original data, or pass "
         "--allow-modified to use it anyway (the output will say so)");
   c.modified_allowed = !c.integrity_ok;
+  // Strict for every member, the tolerance and uncertainty verify relies on
+  // included: a member in another layout is an error, not a silent "no tolerance".
   c.record = record_from_json(j, path);
-  // Strict for the members verify relies on: a tolerance or uncertainty in
-  // another layout is an error here, not a silent "no tolerance".
-  if (j.contains("tolerance")) c.record.tolerance = tolerance_from_json(j["tolerance"], path);
-  if (j.contains("uncertainty")) c.record.uncertainty = uncertainty_from_json(j["uncertainty"], path);
   return c;
 }
 

@@ -1,11 +1,14 @@
-// ridgecal internal: reading members of the record's additive sections
-// (tolerance, decision, uncertainty, warnings, as-found). Every failure is an
+// ridgecal internal: the one strict reader of JSON members, used for every
+// part of the record (record.cpp, surface_record.cpp, tolerance, decision,
+// uncertainty, warnings) and of the as-found file. Every failure is an
 // InputError naming the member.
 #pragma once
 
 #include <fmt/format.h>
 
 #include <cmath>
+#include <cstddef>
+#include <cstdint>
 #include <limits>
 #include <nlohmann/json.hpp>
 #include <string>
@@ -43,7 +46,38 @@ struct JsonReader {
                     const std::string& where) const {
     const nlohmann::json& v = member(obj, key, where);
     if (!v.is_number_integer()) fail(where + "." + key, "is not an integer");
+    if (v.is_number_unsigned() && v.get<std::uint64_t>() > static_cast<std::uint64_t>(
+                                      std::numeric_limits<long long>::max()))
+      fail(where + "." + key, "is too large");
     return v.get<long long>();
+  }
+  // An integer in [lo, hi].
+  long long bounded(const nlohmann::json& obj, const std::string& key, const std::string& where,
+                    long long lo, long long hi) const {
+    const long long v = integer(obj, key, where);
+    if (v < lo || v > hi)
+      fail(where + "." + key, fmt::format("is {}; it must be between {} and {}", v, lo, hi));
+    return v;
+  }
+  std::size_t count(const nlohmann::json& obj, const std::string& key,
+                    const std::string& where) const {
+    return static_cast<std::size_t>(
+        bounded(obj, key, where, 0, std::numeric_limits<long long>::max()));
+  }
+  int small(const nlohmann::json& obj, const std::string& key, const std::string& where,
+            int lo = -1, int hi = 1'000'000) const {
+    return static_cast<int>(bounded(obj, key, where, lo, hi));
+  }
+  int small_value(const nlohmann::json& v, const std::string& where, int lo, int hi) const {
+    if (!v.is_number_integer()) fail(where, "holds a value that is not an integer");
+    if (v.is_number_unsigned() ? v.get<std::uint64_t>() > static_cast<std::uint64_t>(hi)
+                               : (v.get<long long>() < lo || v.get<long long>() > hi))
+      fail(where, fmt::format("holds a value outside {}..{}", lo, hi));
+    return static_cast<int>(v.get<long long>());
+  }
+  double number_value(const nlohmann::json& v, const std::string& where) const {
+    if (!v.is_number()) fail(where, "holds a value that is not a number");
+    return v.get<double>();
   }
   std::string text(const nlohmann::json& obj, const std::string& key,
                    const std::string& where) const {

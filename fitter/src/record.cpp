@@ -5,6 +5,7 @@
 #include <fmt/format.h>
 #include <limits>
 
+#include "json_read.hpp"
 #include "ridgecal/atomic_file.hpp"
 #include "ridgecal/errors.hpp"
 #include "ridgecal/sha256.hpp"
@@ -50,107 +51,33 @@ json cell_json(const GridCell& c) {
               {"train_rmse", num(c.train_rmse)}};
 }
 
-// ---- reading helpers: every failure is an InputError naming the member ----
+// ---- reading: the one strict reader (json_read.hpp); every failure is an
+// InputError naming the member ----
 
-struct Reader {
-  const std::string& file;
+using Reader = detail::JsonReader;
 
-  [[noreturn]] void fail(const std::string& where, const std::string& what) const {
-    throw InputError(file, 0, fmt::format("record member '{}' {}", where, what),
-                     "re-create the record with 'ridgecal fit'");
-  }
-  const json& member(const json& obj, const std::string& key, const std::string& where) const {
-    if (!obj.is_object()) fail(where, "is not an object");
-    const auto it = obj.find(key);
-    if (it == obj.end()) fail(where + "." + key, "is missing");
-    return *it;
-  }
-  double number(const json& obj, const std::string& key, const std::string& where) const {
-    const json& v = member(obj, key, where);
-    if (v.is_null()) return std::numeric_limits<double>::quiet_NaN();
-    if (!v.is_number()) fail(where + "." + key, "is not a number");
-    return v.get<double>();
-  }
-  double finite(const json& obj, const std::string& key, const std::string& where) const {
-    const double v = number(obj, key, where);
-    if (!std::isfinite(v)) fail(where + "." + key, "is not a finite number");
-    return v;
-  }
-  long long integer(const json& obj, const std::string& key, const std::string& where) const {
-    const json& v = member(obj, key, where);
-    if (!v.is_number_integer()) fail(where + "." + key, "is not an integer");
-    if (v.is_number_unsigned() && v.get<std::uint64_t>() > static_cast<std::uint64_t>(
-                                      std::numeric_limits<long long>::max()))
-      fail(where + "." + key, "is too large");
-    return v.get<long long>();
-  }
-  // An integer in [lo, hi].
-  long long bounded(const json& obj, const std::string& key, const std::string& where, long long lo,
-                    long long hi) const {
-    const long long v = integer(obj, key, where);
-    if (v < lo || v > hi) fail(where + "." + key, fmt::format("is {}; it must be between {} and {}", v, lo, hi));
-    return v;
-  }
-  std::size_t count(const json& obj, const std::string& key, const std::string& where) const {
-    return static_cast<std::size_t>(bounded(obj, key, where, 0, std::numeric_limits<long long>::max()));
-  }
-  int small(const json& obj, const std::string& key, const std::string& where, int lo = -1,
-            int hi = 1'000'000) const {
-    return static_cast<int>(bounded(obj, key, where, lo, hi));
-  }
-  int small_value(const json& v, const std::string& where, int lo, int hi) const {
-    if (!v.is_number_integer()) fail(where, "holds a value that is not an integer");
-    if (v.is_number_unsigned() ? v.get<std::uint64_t>() > static_cast<std::uint64_t>(hi)
-                               : (v.get<long long>() < lo || v.get<long long>() > hi))
-      fail(where, fmt::format("holds a value outside {}..{}", lo, hi));
-    return static_cast<int>(v.get<long long>());
-  }
-  double number_value(const json& v, const std::string& where) const {
-    if (!v.is_number()) fail(where, "holds a value that is not a number");
-    return v.get<double>();
-  }
-  std::string text(const json& obj, const std::string& key, const std::string& where) const {
-    const json& v = member(obj, key, where);
-    if (!v.is_string()) fail(where + "." + key, "is not a string");
-    return v.get<std::string>();
-  }
-  std::string text_or(const json& obj, const std::string& key, const std::string& fallback) const {
-    const auto it = obj.find(key);
-    return (it != obj.end() && it->is_string()) ? it->get<std::string>() : fallback;
-  }
-  bool boolean(const json& obj, const std::string& key, const std::string& where) const {
-    const json& v = member(obj, key, where);
-    if (!v.is_boolean()) fail(where + "." + key, "is not true or false");
-    return v.get<bool>();
-  }
-  const json& array(const json& obj, const std::string& key, const std::string& where) const {
-    const json& v = member(obj, key, where);
-    if (!v.is_array()) fail(where + "." + key, "is not an array");
-    return v;
-  }
-  template <class F>
-  auto enum_value(const json& obj, const std::string& key, const std::string& where, F parse) const {
-    const std::string s = text(obj, key, where);
-    try {
-      return parse(s);
-    } catch (const std::invalid_argument& e) {
-      fail(where + "." + key, std::string("is invalid: ") + e.what());
-    }
-  }
-  Metrics metrics(const json& obj, const std::string& where) const {
-    Metrics m;
-    m.n = count(obj, "n", where);
-    m.predictors = small(obj, "predictors", where, 0, 64);
-    m.centered = boolean(obj, "centered", where);
-    m.rmse = number(obj, "rmse", where);
-    m.max_abs_error = number(obj, "max_abs_error", where);
-    m.bias = number(obj, "bias", where);
-    m.r2 = number(obj, "r2", where);
-    m.adj_r2 = number(obj, "adj_r2", where);
-    m.residual_sd = number(obj, "residual_sd", where);
-    return m;
-  }
-};
+Metrics read_metrics(const Reader& r, const json& obj, const std::string& where) {
+  Metrics m;
+  m.n = r.count(obj, "n", where);
+  m.predictors = r.small(obj, "predictors", where, 0, 64);
+  m.centered = r.boolean(obj, "centered", where);
+  m.rmse = r.number(obj, "rmse", where);
+  m.max_abs_error = r.number(obj, "max_abs_error", where);
+  m.bias = r.number(obj, "bias", where);
+  m.r2 = r.number(obj, "r2", where);
+  m.adj_r2 = r.number(obj, "adj_r2", where);
+  m.residual_sd = r.number(obj, "residual_sd", where);
+  return m;
+}
+
+// The optional assessment members, read strictly: present means written by
+// the fitter in its layout; anything else is an InputError naming the member.
+void read_assessment_members(const json& j, CalibrationRecord& rec, const std::string& file) {
+  if (j.contains("tolerance")) rec.tolerance = tolerance_from_json(j["tolerance"], file);
+  if (j.contains("decision")) rec.decision = decision_from_json(j["decision"], file);
+  if (j.contains("uncertainty")) rec.uncertainty = uncertainty_from_json(j["uncertainty"], file);
+  if (j.contains("warnings")) rec.warnings = warnings_from_json(j["warnings"], file);
+}
 
 }  // namespace
 
@@ -259,6 +186,19 @@ bool record_integrity_ok(const json& j) {
   return d != it->end() && d->is_string() && d->get<std::string>() == record_digest(j);
 }
 
+RecordSeal record_seal(const json& j) {
+  RecordSeal s;
+  s.computed = record_digest(j);
+  if (j.is_object()) {
+    const auto it = j.find("integrity");
+    if (it != j.end() && it->is_object()) {
+      const auto d = it->find("sha256");
+      if (d != it->end() && d->is_string()) s.stored = d->get<std::string>();
+    }
+  }
+  return s;
+}
+
 CalibrationRecord record_from_json(const json& j, const std::string& file) {
   const Reader r{file};
   if (!j.is_object()) r.fail("(top level)", "is not a JSON object");
@@ -353,9 +293,9 @@ CalibrationRecord record_from_json(const json& j, const std::string& file) {
     cal.setpoints.push_back(s2);
   }
   const json& met = r.member(j, "metrics", "record");
-  cal.training = r.metrics(r.member(met, "training", "metrics"), "metrics.training");
-  cal.validation = r.metrics(r.member(met, "validation", "metrics"), "metrics.validation");
-  cal.test = r.metrics(r.member(met, "test", "metrics"), "metrics.test");
+  cal.training = read_metrics(r, r.member(met, "training", "metrics"), "metrics.training");
+  cal.validation = read_metrics(r, r.member(met, "validation", "metrics"), "metrics.validation");
+  cal.test = read_metrics(r, r.member(met, "test", "metrics"), "metrics.test");
   for (const json& p : r.array(j, "points", "record")) {
     PointResult pr;
     pr.line = r.count(p, "line", "points[]");
@@ -370,25 +310,7 @@ CalibrationRecord record_from_json(const json& j, const std::string& file) {
     cal.points.push_back(pr);
   }
   if (cal.surface) read_surface_extras(j, cal);
-  // Assessment members: read when they follow our layout; a member in another
-  // layout (hand-made or older records) is left unset here. Callers that rely
-  // on them (verify) use read_assessment_strict().
-  try {
-    if (j.contains("tolerance")) rec.tolerance = tolerance_from_json(j["tolerance"], file);
-  } catch (const InputError&) {
-  }
-  try {
-    if (j.contains("decision")) rec.decision = decision_from_json(j["decision"], file);
-  } catch (const InputError&) {
-  }
-  try {
-    if (j.contains("uncertainty")) rec.uncertainty = uncertainty_from_json(j["uncertainty"], file);
-  } catch (const InputError&) {
-  }
-  try {
-    if (j.contains("warnings")) rec.warnings = warnings_from_json(j["warnings"], file);
-  } catch (const InputError&) {
-  }
+  read_assessment_members(j, rec, file);
   return rec;
 }
 

@@ -7,9 +7,10 @@
 namespace ridgecal {
 
 namespace {
-GuardedRecord check(nlohmann::json j, const std::string& file, bool allow_modified) {
+GuardedRecord check(const nlohmann::json& j, const std::string& file, bool allow_modified) {
   GuardedRecord out;
-  out.modified = !record_integrity_ok(j);
+  out.seal = record_seal(j);
+  out.modified = !out.seal.intact();
   if (out.modified && !allow_modified) {
     const bool has_digest = j.is_object() && j.contains("integrity");
     throw InputError(file, 0,
@@ -20,7 +21,6 @@ GuardedRecord check(nlohmann::json j, const std::string& file, bool allow_modifi
                      "file and its SHA-256), or pass --allow-modified to use it anyway; the output will say so");
   }
   out.record = record_from_json(j, file);
-  out.json = std::move(j);
   return out;
 }
 }  // namespace

@@ -4,6 +4,7 @@
 #include <fmt/format.h>
 #include <limits>
 
+#include "json_read.hpp"
 #include "ridgecal/errors.hpp"
 #include "ridgecal/multi_input_fit.hpp"
 
@@ -19,28 +20,17 @@ json scaling_json(const AxisScaling& s) {
   return json{{"min", s.min}, {"max", s.max}, {"center", s.center}, {"half_width", s.half_width}};
 }
 
-std::string term_rule(const Calibration& cal) {
-  const SurfaceModel& m = *cal.surface;
-  if (!cal.selection.powers.empty()) return "powers";
-  if (!m.has_aux) return "reading-only";
-  return cal.selection.aux_degrees.empty() ? "total-degree" : "separate-limits";
-}
-
+// Reading: thin adapters over the one strict reader (json_read.hpp).
 [[noreturn]] void fail(const std::string& file, const std::string& where, const std::string& what) {
-  throw InputError(file, 0, fmt::format("record member '{}' {}", where, what), "re-create the record with 'ridgecal fit'");
+  detail::JsonReader{file}.fail(where, what);
 }
 
 const json& member(const json& obj, const std::string& key, const std::string& where, const std::string& file) {
-  if (!obj.is_object()) fail(file, where, "is not an object");
-  const auto it = obj.find(key);
-  if (it == obj.end()) fail(file, where + "." + key, "is missing");
-  return *it;
+  return detail::JsonReader{file}.member(obj, key, where);
 }
 
 double finite(const json& obj, const std::string& key, const std::string& where, const std::string& file) {
-  const json& v = member(obj, key, where, file);
-  if (!v.is_number() || !std::isfinite(v.get<double>())) fail(file, where + "." + key, "is not a finite number");
-  return v.get<double>();
+  return detail::JsonReader{file}.finite(obj, key, where);
 }
 
 double number_or_nan(const json& obj, const std::string& key) {
@@ -49,9 +39,7 @@ double number_or_nan(const json& obj, const std::string& key) {
 }
 
 std::string text(const json& obj, const std::string& key, const std::string& where, const std::string& file) {
-  const json& v = member(obj, key, where, file);
-  if (!v.is_string()) fail(file, where + "." + key, "is not a string");
-  return v.get<std::string>();
+  return detail::JsonReader{file}.text(obj, key, where);
 }
 
 AxisScaling read_scaling(const json& obj, const std::string& where, const std::string& file) {
@@ -66,15 +54,33 @@ AxisScaling read_scaling(const json& obj, const std::string& where, const std::s
 
 template <class F>
 auto parse_enum(const json& obj, const std::string& key, const std::string& where, const std::string& file, F parse) {
-  const std::string s = text(obj, key, where, file);
-  try {
-    return parse(s);
-  } catch (const std::invalid_argument& e) {
-    fail(file, where + "." + key, std::string("is invalid: ") + e.what());
-  }
+  return detail::JsonReader{file}.enum_value(obj, key, where, parse);
 }
 
 }  // namespace
+
+// The descriptive members of `compensation` (also shown by the report).
+std::string surface_term_rule(const Calibration& cal) {
+  const SurfaceModel& m = *cal.surface;
+  if (!cal.selection.powers.empty()) return "powers";
+  if (!m.has_aux) return "reading-only";
+  return cal.selection.aux_degrees.empty() ? "total-degree" : "separate-limits";
+}
+
+std::string surface_aux_grouping(const CalibrationRecord& rec) {
+  const Calibration& cal = rec.calibration;
+  if (!cal.surface || !cal.surface->has_aux) return "none (no aux input)";
+  return rec.input.columns.aux_setpoint_column.empty()
+             ? fmt::format("aux value rounded to the nearest multiple of {:g}", cal.aux_step)
+             : "aux setpoint column '" + rec.input.columns.aux_setpoint_column + "'";
+}
+
+std::string surface_boundary_rule(const Calibration& cal) {
+  return cal.surface && cal.surface->has_aux
+             ? "groups of the lowest and highest aux level, and the lowest- and highest-reading group of every aux "
+               "level, always stay in training"
+             : "the groups with the smallest and largest mean reading always stay in training";
+}
 
 bool is_surface_record(const json& j) {
   if (!j.is_object()) return false;
@@ -137,22 +143,14 @@ void add_surface_members(json& j, const CalibrationRecord& rec) {
     for (double c : row) r.push_back(num(c));
     pw.push_back(r);
   }
-  std::string grouping = "none (no aux input)";
-  if (m.has_aux)
-    grouping = rec.input.columns.aux_setpoint_column.empty()
-                   ? fmt::format("aux value rounded to the nearest multiple of {:g}", cal.aux_step)
-                   : "aux setpoint column '" + rec.input.columns.aux_setpoint_column + "'";
   j["compensation"] = {
       {"transforms", tf},
       {"inputs", inputs},
-      {"aux_grouping", grouping},
+      {"aux_grouping", surface_aux_grouping(rec)},
       {"aux_step", m.has_aux && cal.aux_step > 0 ? json(cal.aux_step) : json(nullptr)},
       {"basis", to_string(m.basis)},
-      {"term_rule", term_rule(cal)},
-      {"boundary_rule",
-       m.has_aux ? "groups of the lowest and highest aux level, and the lowest- and highest-reading group of every aux "
-                   "level, always stay in training"
-                 : "the groups with the smallest and largest mean reading always stay in training"},
+      {"term_rule", surface_term_rule(cal)},
+      {"boundary_rule", surface_boundary_rule(cal)},
       {"evaluation",
        "u = transforms(reading); t = (u - inputs[0].center)/inputs[0].half_width; s = (aux - inputs[1].center)/"
        "inputs[1].half_width; v = sum_m terms[m].coefficient * B_i(t) * B_j(s) (B = Chebyshev T or plain power, "

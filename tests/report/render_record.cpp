@@ -11,6 +11,7 @@
 
 #include <nlohmann/json.hpp>
 
+#include "ridgecal/errors.hpp"
 #include "ridgecal/record.hpp"
 #include "ridgecal/report/html_report.hpp"
 
@@ -43,14 +44,19 @@ int main(int argc, char** argv) {
     return 2;
   }
   try {
+    // Read as every consumer reads a record: the record module's strict reader.
     const nlohmann::json rec = nlohmann::json::parse(in);
-    const std::string html = ridgecal::report::render_html_report(rec, opt);
+    const std::string html =
+        ridgecal::report::render_html_report(ridgecal::record_from_json(rec, argv[1]), ridgecal::record_seal(rec), opt);
     std::ofstream out(argv[2], std::ios::binary);
     out << html;
     if (!out) {
       std::cerr << "cannot write " << argv[2] << "\n";
       return 1;
     }
+  } catch (const ridgecal::InputError& e) {
+    std::cerr << "render_record: " << e.file() << ": " << e.message() << "\n";
+    return 2;
   } catch (const std::exception& e) {
     std::cerr << "render_record: " << e.what() << "\n";
     return 2;

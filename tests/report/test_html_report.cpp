@@ -5,9 +5,15 @@
 #include <sstream>
 
 #include "markup_check.hpp"
+#include "ridgecal/errors.hpp"
+#include "ridgecal/record.hpp"
 #include "ridgecal/report/html_report.hpp"
 
 using namespace ridgecal::report;
+using ridgecal::CalibrationRecord;
+using ridgecal::InputError;
+using ridgecal::record_from_json;
+using ridgecal::record_seal;
 using ridgecal::report::test::check_markup;
 using nlohmann::json;
 
@@ -23,6 +29,11 @@ std::string read_text(const std::string& path) {
 }
 
 json fixture(const std::string& name) { return json::parse(read_text(kDir + "/fixtures/record_" + name + ".json")); }
+
+/// The report of record JSON, read as every consumer reads it (record_from_json).
+std::string render(const json& j, const ReportOptions& o = {}) {
+  return render_html_report(record_from_json(j, "fixture.json"), record_seal(j), o);
+}
 
 ReportOptions fixed_options() {
   ReportOptions o;
@@ -63,11 +74,11 @@ void check_self_contained(const std::string& html) {
 BOOST_AUTO_TEST_SUITE(html_report)
 
 BOOST_AUTO_TEST_CASE(sections_come_in_reading_order) {
-  const std::string html = render_html_report(fixture("full"), fixed_options());
+  const std::string html = render(fixture("full"), fixed_options());
   const std::vector<std::string> order = {
       "<header id=\"header\"", "id=\"verdict\"",        "id=\"plots\"",    "id=\"fig-fit\"",
       "id=\"fig-errors\"",     "id=\"fig-validation-cv\"", "id=\"fig-validation-train\"",
-      "id=\"metrics\"",        "id=\"warnings\"",       "id=\"as-found\"", "id=\"model\"",
+      "id=\"metrics\"",        "id=\"warnings\"",       "id=\"model\"",
       "id=\"split\"",          "id=\"cautions\"",       "id=\"sign-off\"", "<footer>"};
   const auto pos = positions(html, order);
   for (std::size_t i = 0; i < order.size(); ++i) {
@@ -81,7 +92,7 @@ BOOST_AUTO_TEST_CASE(sections_come_in_reading_order) {
 BOOST_AUTO_TEST_CASE(markup_is_well_formed_and_self_contained) {
   for (const char* name : {"basic", "full", "hostile", "surface_aux", "surface_ntc"}) {
     BOOST_TEST_CONTEXT(name) {
-      const std::string html = render_html_report(fixture(name), fixed_options());
+      const std::string html = render(fixture(name), fixed_options());
       BOOST_TEST(html.rfind("<!DOCTYPE html>", 0) == 0u);
       BOOST_TEST(check_markup(html) == "");
       check_self_contained(html);
@@ -104,7 +115,7 @@ BOOST_AUTO_TEST_CASE(the_checks_can_fail) {
 
 BOOST_AUTO_TEST_CASE(hostile_strings_are_shown_literally) {
   const json rec = fixture("hostile");
-  const std::string html = render_html_report(rec, fixed_options());
+  const std::string html = render(rec, fixed_options());
   BOOST_TEST(html.find("<script>alert") == std::string::npos);
   BOOST_TEST(html.find("&lt;script&gt;alert(&#39;x&#39;)&lt;/script&gt; &amp; &quot;probe&quot;\u21B5line2 Ω–µ") !=
              std::string::npos);
@@ -120,81 +131,104 @@ BOOST_AUTO_TEST_CASE(hostile_strings_are_shown_literally) {
 }
 
 BOOST_AUTO_TEST_CASE(missing_numbers_show_as_not_available) {
-  const std::string html = render_html_report(fixture("hostile"), fixed_options());
+  const std::string html = render(fixture("hostile"), fixed_options());
   // test RMSE and R² are null in the hostile record (NaN written by the fitter).
   const auto metrics = html.substr(html.find("id=\"metrics\""), 3000);
   BOOST_TEST(metrics.find(">n/a<") != std::string::npos);
 }
 
 BOOST_AUTO_TEST_CASE(verdict_without_tolerance_says_no_decision) {
-  const std::string html = render_html_report(fixture("basic"), fixed_options());
+  const std::string html = render(fixture("basic"), fixed_options());
   BOOST_TEST(html.find("class=\"verdict none\"") != std::string::npos);
   BOOST_TEST(html.find("No tolerance given \u2014 no decision") != std::string::npos);
   BOOST_TEST(html.find(">PASS<") == std::string::npos);
 }
 
 BOOST_AUTO_TEST_CASE(verdict_shows_decision_tolerance_and_rule) {
-  const std::string pass = render_html_report(fixture("full"), fixed_options());
+  const std::string pass = render(fixture("full"), fixed_options());
   BOOST_TEST(pass.find("class=\"verdict pass\"") != std::string::npos);
   BOOST_TEST(pass.find(">PASS<") != std::string::npos);
   BOOST_TEST(pass.find("\u00B10.1 °C") != std::string::npos);
   BOOST_TEST(pass.find("Decision rule:") != std::string::npos);
   BOOST_TEST(pass.find("U = 0.035 °C (k = 2)") != std::string::npos);
-  const std::string fail = render_html_report(fixture("hostile"), fixed_options());
+  const std::string fail = render(fixture("hostile"), fixed_options());
   BOOST_TEST(fail.find("class=\"verdict fail\"") != std::string::npos);
 
-  json rec = fixture("basic");
-  rec["tolerance"] = 0.05;
-  const std::string tol_only = render_html_report(rec, fixed_options());
+  // A library caller's record with a tolerance but no decision.
+  const json basic = fixture("basic");
+  CalibrationRecord rec = record_from_json(basic, "basic.json");
+  rec.tolerance = ridgecal::ToleranceSpec{};
+  rec.tolerance->offset = 0.05;
+  const std::string tol_only = render_html_report(rec, record_seal(basic), fixed_options());
   BOOST_TEST(tol_only.find("The record holds no decision") != std::string::npos);
   BOOST_TEST(tol_only.find("class=\"verdict none\"") != std::string::npos);
 }
 
 BOOST_AUTO_TEST_CASE(plots_mark_train_validation_and_test_distinctly) {
-  const std::string full = render_html_report(fixture("full"), fixed_options());
+  const std::string full = render(fixture("full"), fixed_options());
   BOOST_TEST(full.find(">validation (held-out fold)<") != std::string::npos);
   BOOST_TEST(full.find(">tolerance \u00B10.1 °C<") != std::string::npos);
   BOOST_TEST(full.find("expanded uncertainty") != std::string::npos);
   BOOST_TEST(full.find(">chosen: degree 2, \u03BB = 10\u207B\u2076<") != std::string::npos);
   // Without held-out predictions in the record there is no validation series.
-  const std::string basic = render_html_report(fixture("basic"), fixed_options());
+  const std::string basic = render(fixture("basic"), fixed_options());
   BOOST_TEST(basic.find(">validation (held-out fold)<") == std::string::npos);
   BOOST_TEST(basic.find("held-out (validation) predictions are not in the record") != std::string::npos);
 }
 
 BOOST_AUTO_TEST_CASE(date_is_injectable_and_defaults_to_the_record) {
   const json rec = fixture("basic");
-  BOOST_TEST(render_html_report(rec, fixed_options()).find("<dd>2026-12-02 09:00 UTC</dd>") != std::string::npos);
-  const std::string dflt = render_html_report(rec);
+  BOOST_TEST(render(rec, fixed_options()).find("<dd>2026-12-02 09:00 UTC</dd>") != std::string::npos);
+  const std::string dflt = render(rec);
   BOOST_TEST(dflt.find("<dt>Report date</dt><dd>2026-12-01T14:32:05Z</dd>") != std::string::npos);
   json no_date = rec;
   no_date.erase("created_utc");
-  BOOST_TEST(render_html_report(no_date).find("<dt>Report date</dt><dd><span class=\"missing\">not recorded") !=
+  BOOST_TEST(render(no_date).find("<dt>Report date</dt><dd><span class=\"missing\">not recorded") !=
              std::string::npos);
 }
 
-BOOST_AUTO_TEST_CASE(sparse_or_odd_records_still_render) {
-  for (const json& rec : {json::object(), json{{"format", "ridgecal-record"}, {"points", 5}, {"model", "x"}},
-                          json{{"metrics", {{"test", {{"rmse", "high"}}}}}, {"selection", {{"grid", {1, 2}}}}},
-                          json{{"selection", {{"mode", "fixed"}}}, {"warnings", json::array()}}}) {
-    BOOST_TEST_CONTEXT(rec.dump()) {
-      const std::string html = render_html_report(rec, fixed_options());
-      BOOST_TEST(check_markup(html) == "");
-      check_self_contained(html);
-      BOOST_TEST(html.find("id=\"sign-off\"") != std::string::npos);
-    }
-  }
+BOOST_AUTO_TEST_CASE(sparse_records_still_render) {
+  // A record of a fixed fit without a grid, without points and without an
+  // assessment: every part it lacks is stated as missing.
+  CalibrationRecord rec;
+  rec.calibration.model.scaling = ridgecal::Scaling{0.0, 1.0};
+  rec.calibration.model.cheb = {0.5, 1.0};
+  rec.calibration.selection.mode = ridgecal::SelectionMode::Fixed;
+  rec.cautions.clear();
+  const json j = ridgecal::record_to_json(rec);
+  const std::string html = render(j, fixed_options());
+  BOOST_TEST(check_markup(html) == "");
+  check_self_contained(html);
+  BOOST_TEST(html.find("No cross-validation grid in the record (selection mode: fixed)") != std::string::npos);
+  BOOST_TEST(html.find("The record lists no setpoints.") != std::string::npos);
+  BOOST_TEST(html.find("The record has no warnings list.") != std::string::npos);
+  BOOST_TEST(html.find("id=\"sign-off\"") != std::string::npos);
 }
 
-BOOST_AUTO_TEST_CASE(not_a_record_is_rejected) {
-  BOOST_CHECK_THROW(render_html_report(json::array()), ReportInputError);
-  BOOST_CHECK_THROW(render_html_report(json{{"format", "something-else"}}), ReportInputError);
+BOOST_AUTO_TEST_CASE(only_records_the_fitter_writes_are_read) {
+  // The report never sees raw JSON: the record module reads it strictly.
+  BOOST_CHECK_THROW(render(json::array()), InputError);
+  BOOST_CHECK_THROW(render(json{{"format", "something-else"}}), InputError);
+  // An assessment member in a layout the fitter never writes is an error
+  // naming the member, not a guess (older reports read "tolerance": 0.05).
+  for (const char* member : {"tolerance", "decision", "uncertainty", "warnings"}) {
+    BOOST_TEST_CONTEXT(member) {
+      json rec = fixture("full");
+      rec[member] = 0.05;
+      try {
+        render(rec);
+        BOOST_ERROR("accepted");
+      } catch (const InputError& e) {
+        BOOST_TEST(e.message().find(std::string("'") + member) != std::string::npos, e.message());
+      }
+    }
+  }
 }
 
 BOOST_AUTO_TEST_CASE(cautions_and_sign_off_are_present) {
   // The record's cautions are shown; the report adds its own only where the
   // record does not already say the same.
-  const std::string html = render_html_report(fixture("full"), fixed_options());
+  const std::string html = render(fixture("full"), fixed_options());
   const auto cautions = html.substr(html.find("id=\"cautions\""));
   BOOST_TEST(cautions.find("local codes and certified procedures") != std::string::npos);
   BOOST_TEST(cautions.find("accredited calibration laboratory") != std::string::npos);
@@ -205,7 +239,7 @@ BOOST_AUTO_TEST_CASE(cautions_and_sign_off_are_present) {
 
   json bare = fixture("basic");
   bare["cautions"] = json::array();
-  const std::string own = render_html_report(bare, fixed_options());
+  const std::string own = render(bare, fixed_options());
   BOOST_TEST(own.find("the local codes and the certified procedures") != std::string::npos);
   BOOST_TEST(own.find("does not replace a calibration certificate from an accredited laboratory") != std::string::npos);
   BOOST_TEST(own.find("outside it the values are extrapolated") != std::string::npos);
@@ -213,7 +247,7 @@ BOOST_AUTO_TEST_CASE(cautions_and_sign_off_are_present) {
 
 BOOST_AUTO_TEST_CASE(rendering_is_deterministic) {
   const json rec = fixture("full");
-  BOOST_TEST(render_html_report(rec, fixed_options()) == render_html_report(rec, fixed_options()));
+  BOOST_TEST(render(rec, fixed_options()) == render(rec, fixed_options()));
 }
 
 // Golden file: the full fixture with a fixed date. After an intended change of
@@ -222,7 +256,7 @@ BOOST_AUTO_TEST_CASE(rendering_is_deterministic) {
 //       ../tests/report/golden/report_full.html --date "2026-12-02 09:00 UTC" --generator golden
 // (one command line; see docs/report.md).
 BOOST_AUTO_TEST_CASE(golden_file) {
-  const std::string actual = render_html_report(fixture("full"), fixed_options());
+  const std::string actual = render(fixture("full"), fixed_options());
   const std::string expected = read_text(kDir + "/golden/report_full.html");
   if (actual != expected) {
     std::ofstream("report_full.actual.html", std::ios::binary) << actual;
@@ -241,12 +275,12 @@ BOOST_AUTO_TEST_SUITE_END()
 BOOST_AUTO_TEST_SUITE(html_report_integrity)
 
 BOOST_AUTO_TEST_CASE(header_states_whether_the_digest_matches) {
-  BOOST_TEST(render_html_report(fixture("full")).find("<b>(verified)</b>") != std::string::npos);
-  const std::string hostile = render_html_report(fixture("hostile"));
+  BOOST_TEST(render(fixture("full")).find("<b>(verified)</b>") != std::string::npos);
+  const std::string hostile = render(fixture("hostile"));
   BOOST_TEST(hostile.find("DOES NOT MATCH the record content") != std::string::npos);
   json edited = fixture("basic");
   edited["model"]["lambda"] = 0.5;  // any change after sealing
-  BOOST_TEST(render_html_report(edited).find("DOES NOT MATCH") != std::string::npos);
+  BOOST_TEST(render(edited).find("DOES NOT MATCH") != std::string::npos);
 }
 
 BOOST_AUTO_TEST_SUITE_END()

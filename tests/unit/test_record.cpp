@@ -96,3 +96,60 @@ BOOST_AUTO_TEST_CASE(nan_metrics_become_null) {
   BOOST_TEST(j["metrics"]["test"]["rmse"].is_null());
   BOOST_TEST(record_text(j).find("NaN") == std::string::npos);
 }
+
+BOOST_AUTO_TEST_CASE(assessment_members_round_trip_and_are_read_strictly) {
+  CalibrationRecord rec = sample_record();
+  ToleranceSpec tol;
+  tol.offset = 0.05;
+  rec.tolerance = tol;
+  Decision d;
+  d.rule = DecisionRule::GuardedAcceptance;
+  d.verdict = Verdict::Fail;
+  d.statement = "one point out";
+  d.sets.push_back(SetJudgement{"test", 3, 1, 0.07, 1.4, true, Verdict::Fail});
+  d.points.push_back(PointJudgement{7, "test", 20.0, 0.07, 0.05, 0.01, 0.04, false});
+  rec.decision = d;
+  UncertaintyBudget u;
+  u.combined = 0.01;
+  u.expanded = 0.02;
+  u.band.push_back(BandPoint{1.0, 1.1, 0.001, 0.01, 0.02});
+  rec.uncertainty = u;
+  Warning w;
+  w.code = DiagnosticCode::CoverageGap;
+  w.message = "gap";
+  w.lines = {4, 5};
+  rec.warnings = {w};
+  const nlohmann::json j = record_to_json(rec);
+  const CalibrationRecord back = record_from_json(j, "r.json");
+  BOOST_REQUIRE(back.tolerance);
+  BOOST_TEST(back.tolerance->offset == 0.05);
+  BOOST_REQUIRE(back.decision);
+  BOOST_TEST(!back.decision->pass());
+  BOOST_TEST((back.decision->rule == DecisionRule::GuardedAcceptance));
+  BOOST_TEST(back.decision->points.size() == 1u);
+  BOOST_TEST(back.decision->points[0].acceptance_limit == 0.04);
+  BOOST_REQUIRE(back.uncertainty);
+  BOOST_TEST(back.uncertainty->band.size() == 1u);
+  BOOST_TEST(back.warnings.size() == 1u);
+  BOOST_TEST(back.warnings[0].lines.size() == 2u);
+  // The seal: stored and recomputed digests.
+  BOOST_TEST(record_seal(j).intact());
+  nlohmann::json edited = j;
+  edited["decision"]["verdict"] = "PASS";
+  BOOST_TEST(!record_seal(edited).intact());
+  BOOST_TEST(record_seal(edited).stored == j["integrity"]["sha256"].get<std::string>());
+  // A member in another layout is an error naming it, not a silently missing verdict.
+  for (const char* member : {"tolerance", "decision", "uncertainty", "warnings"}) {
+    nlohmann::json bad = j;
+    bad[member] = "PASS";
+    try {
+      record_from_json(bad, "bad.json");
+      BOOST_ERROR(member << " in another layout was accepted");
+    } catch (const InputError& e) {
+      BOOST_TEST(e.message().find(std::string("record member '") + member) != std::string::npos, e.message());
+    }
+  }
+  nlohmann::json bad = j;
+  bad["decision"].erase("verdict");
+  BOOST_CHECK_THROW(record_from_json(bad, "bad.json"), InputError);
+}

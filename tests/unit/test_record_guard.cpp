@@ -46,7 +46,8 @@ BOOST_AUTO_TEST_CASE(intact_record_loads_from_a_file) {
   const GuardedRecord r = load_record_checked(path, false);
   BOOST_TEST(!r.modified);
   BOOST_TEST(r.record.sensor.name == "guard probe");
-  BOOST_TEST(r.json["format"] == "ridgecal-record");
+  BOOST_TEST(r.seal.intact());
+  BOOST_TEST(r.seal.stored == r.seal.computed);
   std::remove(path.c_str());
   BOOST_CHECK_THROW(load_record_checked(path, false), InputError);  // gone
 }

@@ -19,6 +19,7 @@
 //   (optional, written when the fit was assessed; see tolerance.hpp,
 //   decision.hpp, uncertainty.hpp, diagnostics.hpp),
 //   integrity{algorithm: "sha256", sha256}
+// Every member, its unit and the version policy: docs/record-format.md.
 // Non-finite numbers are written as null. integrity.sha256 is the SHA-256 of
 // the record without its "integrity" member, serialised compactly with keys
 // sorted (nlohmann::json::dump()).
@@ -82,12 +83,23 @@ std::string record_digest(const nlohmann::json& j);
 /// True when j carries an integrity digest equal to record_digest(j).
 bool record_integrity_ok(const nlohmann::json& j);
 
-/// Parses a record. `file` is used in messages. Throws InputError on invalid
-/// JSON, a wrong format or version, or missing or mistyped members.
-/// Integrity is NOT checked here (see record_integrity_ok). The optional
-/// assessment members (tolerance, decision, uncertainty, warnings) are left
-/// unset when they do not follow our layout; as_found.hpp reads them strictly.
+/// Parses a record (the layout of docs/record-format.md). `file` is used in
+/// messages. Throws InputError on invalid JSON, a wrong format or version, or
+/// missing or mistyped members, the optional assessment members (tolerance,
+/// decision, uncertainty, warnings) included: when present they must follow
+/// the fitter's layout. Integrity is NOT checked here (see record_seal).
 CalibrationRecord record_from_json(const nlohmann::json& j, const std::string& file);
+
+/// The integrity member of a record as read.
+struct RecordSeal {
+  std::string stored;    ///< integrity.sha256 as found in the record; empty when it has none
+  std::string computed;  ///< record_digest() of the content
+  /// The stored digest is present and equals the content's.
+  bool intact() const { return !stored.empty() && stored == computed; }
+};
+
+/// The seal of j (j need not be a valid record).
+RecordSeal record_seal(const nlohmann::json& j);
 
 /// Largest record file read_record_json accepts (a record of a million-row
 /// run is about 300 MB).

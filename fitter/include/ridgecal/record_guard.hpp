@@ -8,7 +8,7 @@
 // Wiring a subcommand (one call, one note):
 //
 //   const GuardedRecord r = load_record_checked(cmd.record_path, cmd.allow_modified);
-//   ... use r.record (and r.json) ...
+//   ... use r.record (and r.seal for the digest) ...
 //   if (r.modified) { print/embed modified_record_note(cmd.record_path); }
 //
 // and add the option with allow_modified_option_help() as its help text.
@@ -24,8 +24,8 @@ namespace ridgecal {
 /// What load_record_checked returns.
 struct GuardedRecord {
   CalibrationRecord record;  ///< parsed content
-  nlohmann::json json;       ///< the document as read
   bool modified = false;     ///< true: the integrity digest did not match (only with allow_modified)
+  RecordSeal seal;           ///< the stored and the recomputed digest
 };
 
 /// Reads, integrity-checks and parses a record file.

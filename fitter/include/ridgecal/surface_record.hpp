@@ -41,4 +41,12 @@ void read_surface_members(const nlohmann::json& j, CalibrationRecord& rec, const
 /// extras (aux_degree, terms, aux) and the chosen cell.
 void read_surface_extras(const nlohmann::json& j, Calibration& cal);
 
+/// The descriptive members of `compensation`, from the model (the writer and
+/// the report use these, so the text has one source): the term rule
+/// (`powers`, `reading-only`, `total-degree`, `separate-limits`), how aux
+/// levels are grouped, and which groups always stay in training.
+std::string surface_term_rule(const Calibration& cal);
+std::string surface_aux_grouping(const CalibrationRecord& rec);
+std::string surface_boundary_rule(const Calibration& cal);
+
 }  // namespace ridgecal

@@ -1,11 +1,10 @@
 // ridgecal report: the QA calibration report as one self-contained HTML file.
 #pragma once
 
-#include <nlohmann/json.hpp>
-
 #include <optional>
-#include <stdexcept>
 #include <string>
+
+#include "ridgecal/record.hpp"
 
 namespace ridgecal::report {
 
@@ -19,18 +18,16 @@ struct ReportOptions {
   std::string generator_version;
 };
 
-/// Thrown when the input is not a calibration record at all (not a JSON object,
-/// or its "format" names another kind of document).
-class ReportInputError : public std::runtime_error {
- public:
-  using std::runtime_error::runtime_error;
-};
-
-/// Render the report. Sections, in reading order: header, verdict, plots (data
-/// and fit; errors with tolerance and uncertainty bands; validation curve),
-/// metrics, warnings, as-found results, model and selection, coefficients,
-/// split, cautions, sign-off. Missing parts of the record are stated as missing
-/// rather than guessed. The output contains no script and no external resource.
-std::string render_html_report(const nlohmann::json& record, const ReportOptions& options = {});
+/// Render the report of a parsed record (record_from_json; the record module
+/// is the only reader of record files). `seal` is the record's integrity
+/// member as read (record_seal): the header states whether it matches.
+/// Sections, in reading order: header, verdict, plots (data and fit; errors
+/// with tolerance and uncertainty bands; residual views of extended records;
+/// validation curve), metrics, warnings, model and selection, coefficients,
+/// split, cautions, sign-off. Parts the record does not hold (no tolerance, no
+/// decision, no cross-validation grid) are stated as missing rather than
+/// guessed. The output contains no script and no external resource.
+std::string render_html_report(const CalibrationRecord& record, const RecordSeal& seal,
+                               const ReportOptions& options = {});
 
 }  // namespace ridgecal::report
