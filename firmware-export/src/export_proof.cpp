@@ -25,6 +25,7 @@ std::optional<FloatingProgram<T>> make_program(const PolyModel& m, Basis b) {
   } else {
     for (long double c : m.power_in_x_ld()) p.coef.push_back(static_cast<T>(c));
   }
+  p.reading_degree = static_cast<int>(p.coef.size()) - 1;
   bool ok = std::isfinite(p.center) && std::isfinite(p.inv_half_width) && std::isfinite(p.x_lo) &&
             std::isfinite(p.x_hi) && p.x_lo <= p.x_hi;
   for (T c : p.coef) ok = ok && std::isfinite(c);

@@ -65,8 +65,8 @@ void inward(double lo, double hi, T* out_lo, T* out_hi) {
 }
 
 template <typename T>
-std::optional<SurfaceFloatingProgram<T>> make_program(const SurfaceModel& m) {
-  SurfaceFloatingProgram<T> p;
+std::optional<FloatingProgram<T>> make_program(const SurfaceModel& m) {
+  FloatingProgram<T> p;
   const Transforms& tr = m.transforms;
   p.divider = tr.divider.enabled;
   p.sensor_low = tr.divider.position == DividerPosition::SensorLow;
@@ -76,11 +76,11 @@ std::optional<SurfaceFloatingProgram<T>> make_program(const SurfaceModel& m) {
   p.reciprocal_kelvin = tr.reference == ReferenceTransform::ReciprocalKelvin;
   p.kelvin = static_cast<T>(kKelvinOffset);
   p.has_aux = m.has_aux;
-  p.t_center = static_cast<T>(m.input.center);
-  p.t_scale = static_cast<T>(1.0L / static_cast<long double>(m.input.half_width));
+  p.center = static_cast<T>(m.input.center);
+  p.inv_half_width = static_cast<T>(1.0L / static_cast<long double>(m.input.half_width));
   if (m.has_aux) {
-    p.s_center = static_cast<T>(m.aux.center);
-    p.s_scale = static_cast<T>(1.0L / static_cast<long double>(m.aux.half_width));
+    p.aux_center = static_cast<T>(m.aux.center);
+    p.aux_inv_half_width = static_cast<T>(1.0L / static_cast<long double>(m.aux.half_width));
   }
   const auto mono = m.monomial_in_scaled();
   p.reading_degree = static_cast<int>(mono.size()) - 1;
@@ -91,8 +91,8 @@ std::optional<SurfaceFloatingProgram<T>> make_program(const SurfaceModel& m) {
   const auto [lo, hi] = surface_reading_range(m);
   inward(lo, hi, &p.x_lo, &p.x_hi);
   if (m.has_aux) inward(m.aux.min, m.aux.max, &p.a_lo, &p.a_hi);
-  bool ok = std::isfinite(p.t_center) && std::isfinite(p.t_scale) && std::isfinite(p.s_center) &&
-            std::isfinite(p.s_scale) && std::isfinite(p.x_lo) && std::isfinite(p.x_hi) && p.x_lo <= p.x_hi &&
+  bool ok = std::isfinite(p.center) && std::isfinite(p.inv_half_width) && std::isfinite(p.aux_center) &&
+            std::isfinite(p.aux_inv_half_width) && std::isfinite(p.x_lo) && std::isfinite(p.x_hi) && p.x_lo <= p.x_hi &&
             std::isfinite(p.a_lo) && std::isfinite(p.a_hi) && p.a_lo <= p.a_hi && std::isfinite(p.divider_r) &&
             std::isfinite(p.divider_fs);
   for (T c : p.coef) ok = ok && std::isfinite(c);
@@ -113,8 +113,8 @@ double log_allowance_at(const SurfaceModel& m, double x, double aux) {
 }
 
 template <typename T>
-void check_point(const SurfaceModel& m, const SurfaceFloatingProgram<T>& p, T x, T a, Proof* d) {
-  const T y = eval_surface(p, x, a);
+void check_point(const SurfaceModel& m, const FloatingProgram<T>& p, T x, T a, Proof* d) {
+  const T y = eval_program(p, x, a);
   const double ref = m.eval(static_cast<double>(x), static_cast<double>(a));
   ++d->points;
   const double e = std::isfinite(y) ? std::fabs(static_cast<double>(y) - ref) : std::numeric_limits<double>::infinity();
@@ -127,7 +127,7 @@ void check_point(const SurfaceModel& m, const SurfaceFloatingProgram<T>& p, T x,
 }
 
 template <typename T>
-void measure(const SurfaceModel& m, const SurfaceFloatingProgram<T>& p, int grid_points, const HeaderMeta& meta,
+void measure(const SurfaceModel& m, const FloatingProgram<T>& p, int grid_points, const HeaderMeta& meta,
              Proof* d) {
   const int nr = std::min(grid_points, 801);
   const int na = p.has_aux ? 101 : 1;
@@ -327,7 +327,7 @@ void emit_prologue(std::ostringstream& o, const Names& n, const SurfaceModel& mo
 // ---- float / double ------------------------------------------------------------------
 
 template <typename T>
-void emit_floating_body(std::ostringstream& o, const Names& n, const SurfaceFloatingProgram<T>& p,
+void emit_floating_body(std::ostringstream& o, const Names& n, const FloatingProgram<T>& p,
                         const SurfaceModel& model, const HeaderMeta& meta, const Proof& proof) {
   constexpr bool is_float = std::is_same_v<T, float>;
   const char* type = is_float ? "float" : "double";
@@ -359,11 +359,11 @@ void emit_floating_body(std::ostringstream& o, const Names& n, const SurfaceFloa
   o << "/* Scaled variables: t = (u - " << P << "_T_CENTER) * " << P << "_T_SCALE"
     << (p.has_aux ? ", s = (aux - " + P + "_S_CENTER) * " + P + "_S_SCALE" : std::string()) << ",\n"
     << "   in [-1, 1] on the calibrated region (u = the transformed reading). */\n"
-    << "#define " << P << "_T_CENTER " << lit(p.t_center) << "\n"
-    << "#define " << P << "_T_SCALE " << lit(p.t_scale) << "\n";
+    << "#define " << P << "_T_CENTER " << lit(p.center) << "\n"
+    << "#define " << P << "_T_SCALE " << lit(p.inv_half_width) << "\n";
   if (p.has_aux)
-    o << "#define " << P << "_S_CENTER " << lit(p.s_center) << "\n"
-      << "#define " << P << "_S_SCALE " << lit(p.s_scale) << "\n";
+    o << "#define " << P << "_S_CENTER " << lit(p.aux_center) << "\n"
+      << "#define " << P << "_S_SCALE " << lit(p.aux_inv_half_width) << "\n";
   if (p.reciprocal_kelvin)
     o << "/* Inverse reference transform: reference = 1 / v - KELVIN_OFFSET (degC). */\n"
       << "#define " << P << "_KELVIN_OFFSET " << lit(p.kelvin) << "\n";

@@ -264,8 +264,8 @@ bool write_surface_fixture(const fs::path& dir, const fwtest::SurfaceFixture& f)
       model_txt << "V " << i << " " << f.model.eval(static_cast<double>(x), static_cast<double>(a)) << "\n";
       in.push_back(fbits(x));
       ain.push_back(fbits(a));
-      const std::string y = is_float ? hex8(fbits(eval_surface(*r.float_program, x, a)))
-                                     : hex16(dbits(eval_surface(*r.double_program, x, a)));
+      const std::string y = is_float ? hex8(fbits(eval_program(*r.float_program, x, a)))
+                                     : hex16(dbits(eval_program(*r.double_program, x, a)));
       L.add("V " + std::to_string(i) + " " + hex8(fbits(x)) + " " + ab(a) + y);
     }
     for (std::size_t i = 0; i < cx.size(); ++i) {
@@ -273,8 +273,8 @@ bool write_surface_fixture(const fs::path& dir, const fwtest::SurfaceFixture& f)
       chk.push_back(fbits(x));
       achk.push_back(fbits(a));
       int st = -1;
-      const std::string y = is_float ? hex8(fbits(eval_surface_checked(*r.float_program, x, a, &st)))
-                                     : hex16(dbits(eval_surface_checked(*r.double_program, x, a, &st)));
+      const std::string y = is_float ? hex8(fbits(eval_program_checked(*r.float_program, x, a, &st)))
+                                     : hex16(dbits(eval_program_checked(*r.double_program, x, a, &st)));
       L.add("K " + std::to_string(i) + " " + hex8(fbits(x)) + " " + ab(a) + std::to_string(st) + " " + y);
     }
   } else {

@@ -15,46 +15,6 @@
 
 namespace ridgecal::firmware {
 
-/// Status bits of the range-checked evaluation with an aux input: the low two
-/// bits are the reading's status (kInRange .. kNotANumber), the next two the
-/// aux input's (PREFIX_AUX_BELOW_RANGE = 4, _ABOVE_RANGE = 8, _NOT_A_NUMBER = 12).
-enum AuxRangeStatus : int { kAuxBelowRange = 4, kAuxAboveRange = 8, kAuxNotANumber = 12 };
-
-/// Everything the generated float/double code computes with, already rounded
-/// to the target type (the values written into the header).
-template <typename T>
-struct SurfaceFloatingProgram {
-  bool divider = false;
-  bool sensor_low = true;  ///< divider position
-  T divider_r = 0;         ///< fixed resistor
-  T divider_fs = 0;        ///< full scale counts
-  bool ln = false;
-  bool reciprocal_kelvin = false;
-  T kelvin = 0;  ///< 273.15 rounded to T
-  bool has_aux = false;
-  T t_center = 0, t_scale = 1;  ///< t = (u - t_center) * t_scale
-  T s_center = 0, s_scale = 1;  ///< s = (aux - s_center) * s_scale
-  /// coef[k * (aux_degree + 1) + l] = m[k][l] (row-major, the header's table order)
-  std::vector<T> coef;
-  int reading_degree = 0;
-  int aux_degree = 0;
-  T x_lo = 0, x_hi = 0;  ///< valid raw reading range, rounded inward to T
-  T a_lo = 0, a_hi = 0;  ///< valid aux range (has_aux only)
-};
-using SurfaceFloatProgram = SurfaceFloatingProgram<float>;
-using SurfaceDoubleProgram = SurfaceFloatingProgram<double>;
-
-/// The operation sequence of PREFIX_eval() in the generated header, on the
-/// host. Bit-identical to the target when the model has no ln (the header
-/// then uses only + - * /); with ln, the host's log/logf is used, which can
-/// differ by a few ulps from the target's C library (see the bound in the
-/// header and docs/firmware-export.md).
-float eval_surface(const SurfaceFloatProgram& p, float x, float aux);
-double eval_surface(const SurfaceDoubleProgram& p, double x, double aux);
-/// As PREFIX_eval_checked(): clamps both inputs, status bits as above.
-float eval_surface_checked(const SurfaceFloatProgram& p, float x, float aux, int* status);
-double eval_surface_checked(const SurfaceDoubleProgram& p, double x, double aux, int* status);
-
 /// Affine integer map of one raw input onto its scaled variable in Q frac:
 ///   q = rshift_round((raw - r0) * mul + add, shift)
 struct FixedAxis {
@@ -110,8 +70,8 @@ struct SurfaceExportResult {
   /// target C library whose log/logf differs from the host's by up to
   /// kLogUlps ulps of its result, propagated to the output (reference units).
   double libm_allowance = 0;
-  std::optional<SurfaceFloatProgram> float_program;
-  std::optional<SurfaceDoubleProgram> double_program;
+  std::optional<FloatProgram> float_program;  ///< eval_program()
+  std::optional<DoubleProgram> double_program;
   std::optional<SurfaceFixedPlan> fixed_plan;
   bool ok() const { return common.ok(); }
 };
