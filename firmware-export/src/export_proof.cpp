@@ -94,11 +94,11 @@ Deviation measure(const PolyModel& m, const DoubleProgram& p, int grid_points,
 Deviation measure(const PolyModel& m, const FixedPlan& p, int grid_points,
                   std::int64_t exhaustive_limit, const std::vector<double>& readings) {
   Deviation d;
-  const auto& s = p.settings;
+  const FixedAxis& s = p.t;
   const auto check = [&](std::int64_t raw) {
     const std::int32_t out = eval_fixed(p, static_cast<std::int32_t>(raw));
-    const double x = static_cast<double>(raw) / s.input_scale;
-    const double e = std::fabs(static_cast<double>(out) / s.output_scale - m.eval(x));
+    const double x = static_cast<double>(raw) / s.scale;
+    const double e = std::fabs(static_cast<double>(out) / p.output_scale - m.eval(x));
     ++d.points;
     if (e > d.max) {
       d.max = e;
@@ -116,7 +116,7 @@ Deviation measure(const PolyModel& m, const FixedPlan& p, int grid_points,
   }
   for (double r : readings) {
     if (!std::isfinite(r)) continue;
-    const double raw = std::nearbyint(r * s.input_scale);
+    const double raw = std::nearbyint(r * s.scale);
     if (raw < static_cast<double>(s.raw_min) || raw > static_cast<double>(s.raw_max)) continue;
     check(static_cast<std::int64_t>(raw));
     ++d.readings;

@@ -158,10 +158,10 @@ void measure(const SurfaceModel& m, const FloatingProgram<T>& p, int grid_points
   }
 }
 
-void measure_fixed(const SurfaceModel& m, const SurfaceFixedPlan& p, int grid_points, const HeaderMeta& meta,
+void measure_fixed(const SurfaceModel& m, const FixedPlan& p, int grid_points, const HeaderMeta& meta,
                    Proof* d) {
   const auto check = [&](std::int64_t r, std::int64_t ra) {
-    const std::int32_t out = eval_surface_fixed(p, static_cast<std::int32_t>(r), static_cast<std::int32_t>(ra));
+    const std::int32_t out = eval_fixed(p, static_cast<std::int32_t>(r), static_cast<std::int32_t>(ra));
     const double x = static_cast<double>(r) / p.t.scale;
     const double a = p.has_aux ? static_cast<double>(ra) / p.s.scale : 0.0;
     const double e = std::fabs(static_cast<double>(out) / p.output_scale - m.eval(x, a));
@@ -464,7 +464,7 @@ void emit_floating_body(std::ostringstream& o, const Names& n, const FloatingPro
 
 // ---- fixed ---------------------------------------------------------------------------
 
-void emit_fixed_body(std::ostringstream& o, const Names& n, const SurfaceFixedPlan& p, const HeaderMeta& meta,
+void emit_fixed_body(std::ostringstream& o, const Names& n, const FixedPlan& p, const HeaderMeta& meta,
                      const Proof& proof) {
   const std::string ru = esc(meta.reading_unit, 40), fu = esc(meta.reference_unit, 40),
                     au = esc(meta.aux_unit, 40);
@@ -667,9 +667,9 @@ SurfaceExportResult generate_surface_header(const SurfaceModel& model, const Hea
                        (model.transforms.reference == ReferenceTransform::ReciprocalKelvin ? 1 : 0);
     r.stats = stats_for("", (K + 1) * (L + 1), is_float ? 4 : 8, terms_ops + tr_mul, terms_ops + tr_add);
   } else {
-    SurfaceFixedPlan plan;
+    FixedPlan plan;
     std::string why;
-    if (!plan_surface_fixed(model, opt, &plan, &why)) {
+    if (!plan_fixed(firmware_model(model), opt, &plan, &why)) {
       r.message = "fixed point: " + why;
       return sr;
     }

@@ -134,7 +134,7 @@ bool write_fixture(const fs::path& dir, const fwtest::Fixture& f) {
     }
   } else {
     const FixedPlan& p = *r.fixed_plan;
-    const std::int64_t lo = p.settings.raw_min, hi = p.settings.raw_max;
+    const std::int64_t lo = p.t.raw_min, hi = p.t.raw_max;
     std::vector<std::int32_t> xs;
     for (int i = 0; i < 201; ++i) xs.push_back(static_cast<std::int32_t>(lo + (hi - lo) * i / 200));
     for (std::int64_t d = 0; d < 8; ++d) {
@@ -278,7 +278,7 @@ bool write_surface_fixture(const fs::path& dir, const fwtest::SurfaceFixture& f)
       L.add("K " + std::to_string(i) + " " + hex8(fbits(x)) + " " + ab(a) + std::to_string(st) + " " + y);
     }
   } else {
-    const SurfaceFixedPlan& p = *r.fixed_plan;
+    const FixedPlan& p = *r.fixed_plan;
     std::vector<std::pair<std::int32_t, std::int32_t>> xs;
     const std::int64_t lo = p.t.raw_min, hi = p.t.raw_max, alo = p.s.raw_min, ahi = p.s.raw_max;
     const int nx = has_aux ? 11 : 201, na = has_aux ? 6 : 1;
@@ -306,14 +306,14 @@ bool write_surface_fixture(const fs::path& dir, const fwtest::SurfaceFixture& f)
       in.push_back(static_cast<std::uint32_t>(x));
       ain.push_back(static_cast<std::uint32_t>(a));
       L.add("V " + std::to_string(i) + " " + hex8(static_cast<std::uint32_t>(x)) + " " + ab(a) +
-            hex8(static_cast<std::uint32_t>(eval_surface_fixed(p, x, a))));
+            hex8(static_cast<std::uint32_t>(eval_fixed(p, x, a))));
     }
     for (std::size_t i = 0; i < cx.size(); ++i) {
       const auto [x, a] = cx[i];
       chk.push_back(static_cast<std::uint32_t>(x));
       achk.push_back(static_cast<std::uint32_t>(a));
       int st = -1;
-      const std::int32_t y = eval_surface_fixed_checked(p, x, a, &st);
+      const std::int32_t y = eval_fixed_checked(p, x, a, &st);
       L.add("K " + std::to_string(i) + " " + hex8(static_cast<std::uint32_t>(x)) + " " + ab(a) +
             std::to_string(st) + " " + hex8(static_cast<std::uint32_t>(y)));
     }

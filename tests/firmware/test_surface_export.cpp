@@ -147,7 +147,7 @@ BOOST_AUTO_TEST_CASE(pressure_fixed_point_proof_and_accuracy) {
   const auto f = fixture("ptc2d_fixed");
   const SurfaceExportResult r = generate_surface_header(f.model, f.meta, f.options);
   BOOST_TEST_REQUIRE(r.ok(), r.common.message);
-  const SurfaceFixedPlan& p = *r.fixed_plan;
+  const FixedPlan& p = *r.fixed_plan;
   BOOST_TEST_MESSAGE("fixed: max deviation " << r.common.max_deviation << " bar");
   BOOST_TEST(p.t.raw_min == 5861);
   BOOST_TEST(p.t.raw_max == 59787);
@@ -161,10 +161,10 @@ BOOST_AUTO_TEST_CASE(pressure_fixed_point_proof_and_accuracy) {
   std::uniform_int_distribution<std::int32_t> ur(5861, 59787), ua(-2053, 7987);
   for (int i = 0; i < 20000; ++i) {
     const std::int32_t x = ur(rng), a = ua(rng);
-    const double y = eval_surface_fixed(p, x, a) / 1e4;
+    const double y = eval_fixed(p, x, a) / 1e4;
     BOOST_TEST(std::fabs(y - f.model.eval(x, a / 100.0)) < 0.6e-4);
-    BOOST_TEST(static_cast<long double>(eval_surface_fixed(p, x, a)) <= p.out.hi);
-    BOOST_TEST(static_cast<long double>(eval_surface_fixed(p, x, a)) >= p.out.lo);
+    BOOST_TEST(static_cast<long double>(eval_fixed(p, x, a)) <= p.out.hi);
+    BOOST_TEST(static_cast<long double>(eval_fixed(p, x, a)) >= p.out.lo);
   }
   BOOST_TEST(p.max_abs_product < 4.611686018427387904e18L);  // 2^62
   BOOST_TEST(p.max_abs_acc <= 2147483647.0L);
@@ -173,7 +173,7 @@ BOOST_AUTO_TEST_CASE(pressure_fixed_point_proof_and_accuracy) {
   BOOST_TEST(has(h, "static const int32_t FWT_COEF[FWT_N_COEF]"));
   BOOST_TEST(has(h, "Overflow proof"));
   int st = -1;
-  eval_surface_fixed_checked(p, 100, 9000, &st);
+  eval_fixed_checked(p, 100, 9000, &st);
   BOOST_TEST(st == kBelowRange + kAuxAboveRange);
 }
 
@@ -183,16 +183,16 @@ BOOST_AUTO_TEST_CASE(fixed_point_proof_can_fail) {
   const auto f = fixture("ptc2d_fixed");
   const SurfaceExportResult r = generate_surface_header(f.model, f.meta, f.options);
   BOOST_TEST_REQUIRE(r.ok());
-  SurfaceFixedPlan p = *r.fixed_plan;
+  FixedPlan p = *r.fixed_plan;
   std::string why;
-  BOOST_TEST(verify_surface_fixed_bounds(&p, &why));
-  SurfaceFixedPlan bad = p;
+  BOOST_TEST(verify_fixed_bounds(&p, &why));
+  FixedPlan bad = p;
   bad.t.mul *= 4;  // t_q four times too large: leaves int32
-  BOOST_TEST(!verify_surface_fixed_bounds(&bad, &why));
+  BOOST_TEST(!verify_fixed_bounds(&bad, &why));
   BOOST_TEST_MESSAGE("caught: " << why);
   bad = p;
   bad.sh_out[0] = 1;
-  BOOST_TEST(!verify_surface_fixed_bounds(&bad, &why));
+  BOOST_TEST(!verify_fixed_bounds(&bad, &why));
   BOOST_TEST_MESSAGE("caught: " << why);
 }
 
