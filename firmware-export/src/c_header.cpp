@@ -436,6 +436,7 @@ ExportResult generate_c_header(const PolyModel& model, const HeaderMeta& meta,
 
   const Names n{opt.prefix, macro_case(opt.prefix)};
   const int deg = model.degree();
+  const FirmwareModel fm = firmware_model(model);
   std::ostringstream body;
   std::string formats;
   std::uint32_t crc = 0;
@@ -450,11 +451,11 @@ ExportResult generate_c_header(const PolyModel& model, const HeaderMeta& meta,
     for (Basis b : {Basis::ScaledT, Basis::RawX}) {
       detail::Deviation d;
       if (is_float) {
-        auto p = detail::make_float_program(model, b);
+        auto p = detail::make_program<float>(fm, b);
         if (!p) continue;
         d = detail::measure(model, *p, opt.grid_points, meta.calibration_readings);
       } else {
-        auto p = detail::make_double_program(model, b);
+        auto p = detail::make_program<double>(fm, b);
         if (!p) continue;
         d = detail::measure(model, *p, opt.grid_points, meta.calibration_readings);
       }
@@ -474,12 +475,12 @@ ExportResult generate_c_header(const PolyModel& model, const HeaderMeta& meta,
               (best_basis == Basis::ScaledT ? "scaled t = (x - c) * s (chosen: lower error than raw x)"
                                             : "raw x (chosen: lower error than scaled t)");
     if (is_float) {
-      r.float_program = detail::make_float_program(model, best_basis);
+      r.float_program = detail::make_program<float>(fm, best_basis);
       crc = crc32_bytes(table_bytes(r.float_program->coef));
       emit_floating_body(body, n, *r.float_program, meta, proof);
       detail::emit_crc(body, n, "float", 4, n.P + "_DEGREE + 1");
     } else {
-      r.double_program = detail::make_double_program(model, best_basis);
+      r.double_program = detail::make_program<double>(fm, best_basis);
       crc = crc32_bytes(table_bytes(r.double_program->coef));
       emit_floating_body(body, n, *r.double_program, meta, proof);
       detail::emit_crc(body, n, "double", 8, n.P + "_DEGREE + 1");
@@ -489,7 +490,7 @@ ExportResult generate_c_header(const PolyModel& model, const HeaderMeta& meta,
   } else {
     FixedPlan plan;
     std::string why;
-    if (!plan_fixed(firmware_model(model), opt, &plan, &why)) {
+    if (!plan_fixed(fm, opt, &plan, &why)) {
       r.message = "fixed point: " + why;
       return r;
     }

@@ -8,6 +8,7 @@
 #include <limits>
 #include <sstream>
 
+#include "export_proof.hpp"
 #include "header_common.hpp"
 #include "ridgecal/firmware/c_literals.hpp"
 #include "ridgecal/firmware/c_text.hpp"
@@ -23,16 +24,7 @@ using detail::Names;
 using detail::stats_for;
 
 std::pair<double, double> surface_reading_range(const SurfaceModel& m) {
-  const auto back = [&](double u) {
-    double r = m.transforms.reading == ReadingTransform::Ln ? std::exp(u) : u;
-    const Divider& d = m.transforms.divider;
-    if (d.enabled)
-      r = d.position == DividerPosition::SensorLow ? d.full_scale * r / (d.fixed_resistance + r)
-                                                   : d.full_scale * d.fixed_resistance / (r + d.fixed_resistance);
-    return r;
-  };
-  const double a = back(m.input.min), b = back(m.input.max);
-  return {std::min(a, b), std::max(a, b)};
+  return raw_reading_range(firmware_model(m));
 }
 
 namespace {
@@ -52,52 +44,6 @@ std::string lit(T v) {
     return c_float_literal(v);
   else
     return c_double_literal(v);
-}
-
-template <typename T>
-void inward(double lo, double hi, T* out_lo, T* out_hi) {
-  T a = static_cast<T>(lo);
-  if (static_cast<double>(a) < lo) a = std::nextafter(a, std::numeric_limits<T>::infinity());
-  T b = static_cast<T>(hi);
-  if (static_cast<double>(b) > hi) b = std::nextafter(b, -std::numeric_limits<T>::infinity());
-  *out_lo = a;
-  *out_hi = b;
-}
-
-template <typename T>
-std::optional<FloatingProgram<T>> make_program(const SurfaceModel& m) {
-  FloatingProgram<T> p;
-  const Transforms& tr = m.transforms;
-  p.divider = tr.divider.enabled;
-  p.sensor_low = tr.divider.position == DividerPosition::SensorLow;
-  p.divider_r = static_cast<T>(tr.divider.fixed_resistance);
-  p.divider_fs = static_cast<T>(tr.divider.full_scale);
-  p.ln = tr.reading == ReadingTransform::Ln;
-  p.reciprocal_kelvin = tr.reference == ReferenceTransform::ReciprocalKelvin;
-  p.kelvin = static_cast<T>(kKelvinOffset);
-  p.has_aux = m.has_aux;
-  p.center = static_cast<T>(m.input.center);
-  p.inv_half_width = static_cast<T>(1.0L / static_cast<long double>(m.input.half_width));
-  if (m.has_aux) {
-    p.aux_center = static_cast<T>(m.aux.center);
-    p.aux_inv_half_width = static_cast<T>(1.0L / static_cast<long double>(m.aux.half_width));
-  }
-  const auto mono = m.monomial_in_scaled();
-  p.reading_degree = static_cast<int>(mono.size()) - 1;
-  p.aux_degree = m.has_aux ? static_cast<int>(mono[0].size()) - 1 : 0;
-  for (int k = 0; k <= p.reading_degree; ++k)
-    for (int l = 0; l <= p.aux_degree; ++l)
-      p.coef.push_back(static_cast<T>(mono[static_cast<std::size_t>(k)][static_cast<std::size_t>(l)]));
-  const auto [lo, hi] = surface_reading_range(m);
-  inward(lo, hi, &p.x_lo, &p.x_hi);
-  if (m.has_aux) inward(m.aux.min, m.aux.max, &p.a_lo, &p.a_hi);
-  bool ok = std::isfinite(p.center) && std::isfinite(p.inv_half_width) && std::isfinite(p.aux_center) &&
-            std::isfinite(p.aux_inv_half_width) && std::isfinite(p.x_lo) && std::isfinite(p.x_hi) && p.x_lo <= p.x_hi &&
-            std::isfinite(p.a_lo) && std::isfinite(p.a_hi) && p.a_lo <= p.a_hi && std::isfinite(p.divider_r) &&
-            std::isfinite(p.divider_fs);
-  for (T c : p.coef) ok = ok && std::isfinite(c);
-  if (!ok) return std::nullopt;
-  return p;
 }
 
 // Largest change of the output when u changes by kLogUlps ulps of T at u.
@@ -634,7 +580,7 @@ SurfaceExportResult generate_surface_header(const SurfaceModel& model, const Hea
               (needs_log ? std::string(", ln by ") + (is_float ? "logf" : "log") + " (C library)" : "");
     int terms_ops = 0;
     if (is_float) {
-      auto p = make_program<float>(model);
+      auto p = detail::make_program<float>(firmware_model(model), Basis::ScaledT);
       if (!p) {
         r.message = "model: a constant does not fit in float";
         return sr;
@@ -647,7 +593,7 @@ SurfaceExportResult generate_surface_header(const SurfaceModel& model, const Hea
       emit_floating_body(body, n, *p, model, meta, proof);
       detail::emit_crc(body, n, "float", 4, n.P + "_N_COEF");
     } else {
-      auto p = make_program<double>(model);
+      auto p = detail::make_program<double>(firmware_model(model), Basis::ScaledT);
       if (!p) {
         r.message = "model: a constant does not fit in double";
         return sr;

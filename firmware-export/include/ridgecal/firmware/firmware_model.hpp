@@ -6,6 +6,7 @@
 
 #include <array>
 #include <cstddef>
+#include <utility>
 #include <vector>
 
 #include "ridgecal/poly_model.hpp"
@@ -34,6 +35,9 @@ struct FirmwareModel {
   int aux_degree = 0;
   /// Dense table of monomial coefficients in the scaled inputs, row-major.
   std::vector<double> monomial;
+  /// One-input header only: the coefficients in powers of the raw reading
+  /// (its alternative raw-x Horner basis); empty when that basis is not offered.
+  std::vector<long double> raw_power;
 
   bool has_aux() const { return inputs.size() > 1; }
   std::size_t term_count() const { return monomial.size(); }
@@ -48,5 +52,9 @@ struct FirmwareModel {
 /// one-input case, an extended model keeps its transforms and aux input).
 FirmwareModel firmware_model(const PolyModel& model);
 FirmwareModel firmware_model(const SurfaceModel& model);
+
+/// The valid raw-reading range: the calibrated range of the transformed
+/// reading mapped back through the transforms (sorted).
+std::pair<double, double> raw_reading_range(const FirmwareModel& model);
 
 }  // namespace ridgecal::firmware
