@@ -306,20 +306,20 @@ void emit_fixed_body(std::ostringstream& o, const Names& n, const FixedPlan& p,
                      const HeaderMeta& meta, const Proof& proof) {
   const std::string ru = esc(meta.reading_unit, 40), fu = esc(meta.reference_unit, 40);
   const int deg = p.degree();
-  const auto& s = p.settings;
-  o << "/* Valid raw input range (integers; reading = raw / " << g(s.input_scale, 9) << " " << ru
+  const FixedAxis& s = p.t;
+  o << "/* Valid raw input range (integers; reading = raw / " << g(s.scale, 9) << " " << ru
     << "). */\n"
     << "#define " << n.P << "_RAW_MIN " << c_int32_literal(static_cast<std::int32_t>(s.raw_min)) << "\n"
     << "#define " << n.P << "_RAW_MAX " << c_int32_literal(static_cast<std::int32_t>(s.raw_max)) << "\n";
-  const double cal_lo = std::ceil(p.calibrated_min * s.input_scale - 1e-9);
-  const double cal_hi = std::floor(p.calibrated_max * s.input_scale + 1e-9);
+  const double cal_lo = std::ceil(p.calibrated_reading_min * s.scale - 1e-9);
+  const double cal_hi = std::floor(p.calibrated_reading_max * s.scale + 1e-9);
   if (static_cast<double>(s.raw_min) < cal_lo || static_cast<double>(s.raw_max) > cal_hi)
     o << "/* NOTE: this raw range extends beyond the calibrated range (raw " << g(cal_lo, 10) << " .. "
       << g(cal_hi, 10) << ");\n   results outside it are extrapolations of the fitted curve. */\n";
   o
-    << "/* Output unit: 1 / " << g(s.output_scale, 9) << " " << fu
-    << " (output = round(reference * " << g(s.output_scale, 9) << ")). */\n\n"
-    << "/* Coefficients of p * " << g(s.output_scale, 9)
+    << "/* Output unit: 1 / " << g(p.output_scale, 9) << " " << fu
+    << " (output = round(reference * " << g(p.output_scale, 9) << ")). */\n\n"
+    << "/* Coefficients of p * " << g(p.output_scale, 9)
     << " in powers of t; entry k is in Q" << "(q_k) (value * 2^q_k):\n";
   for (int k = 0; k <= deg; ++k)
     o << " *   k=" << k << ": q_k = " << p.q[static_cast<std::size_t>(k)] << "\n";
@@ -338,20 +338,20 @@ void emit_fixed_body(std::ostringstream& o, const Names& n, const FixedPlan& p,
     << "    const uint64_t biased = (uint64_t)(v + bias + ((int64_t)1 << (s - 1U)));\n"
     << "    return (int64_t)(biased >> s) - (bias >> s);\n}\n\n";
 
-  o << "/* " << n.p << "_eval_fixed: round(reference * " << g(s.output_scale, 9) << ") as int32 ("
-    << "1/" << g(s.output_scale, 9) << " " << fu << ")\n"
+  o << "/* " << n.p << "_eval_fixed: round(reference * " << g(p.output_scale, 9) << ") as int32 ("
+    << "1/" << g(p.output_scale, 9) << " " << fu << ")\n"
     << " * for a raw integer reading in [" << n.P << "_RAW_MIN, " << n.P << "_RAW_MAX].\n"
     << " * Precision: integer only -- int32 coefficients, int64 intermediates, every\n"
-    << " * shift rounds half up; output resolution 1/" << g(s.output_scale, 9) << " " << fu << ".\n"
-    << " * t_q = t * 2^" << p.t_frac << " = rshift_round((raw - " << p.r0 << ") * " << p.t_mul
-    << " + " << p.t_add << ", " << p.t_shift << ")\n"
+    << " * shift rounds half up; output resolution 1/" << g(p.output_scale, 9) << " " << fu << ".\n"
+    << " * t_q = t * 2^" << p.t.frac << " = rshift_round((raw - " << p.t.r0 << ") * " << p.t.mul
+    << " + " << p.t.add << ", " << p.t.shift << ")\n"
     << " * Overflow proof (exact integer interval arithmetic over the whole raw range,\n"
     << " * every value below is a proved bound of that intermediate):\n"
-    << " *   (raw - r0) * mul + add in " << range_text(p.t_pre) << "\n"
-    << " *   t_q in " << range_text(p.t_q) << "\n";
+    << " *   (raw - r0) * mul + add in " << range_text(p.t.pre) << "\n"
+    << " *   t_q in " << range_text(p.t.q) << "\n";
   for (int k = deg - 1; k >= 0; --k)
     o << " *   step " << k << ": acc*t_q in " << range_text(p.prod[static_cast<std::size_t>(k)])
-      << ", >> " << p.shift[static_cast<std::size_t>(k)] << ", acc (Q"
+      << ", >> " << p.sh_out[static_cast<std::size_t>(k)] << ", acc (Q"
       << p.q[static_cast<std::size_t>(k)] << ") in " << range_text(p.acc[static_cast<std::size_t>(k)])
       << "\n";
   o << " *   output in " << range_text(p.out) << "\n"
@@ -370,12 +370,12 @@ void emit_fixed_body(std::ostringstream& o, const Names& n, const FixedPlan& p,
     else
       o << "    return " << n.P << "_COEF[0];\n}\n\n";
   } else {
-    o << "    const int64_t t = " << n.p << "_rshift_round(((int64_t)raw - " << c_int64_literal(p.r0)
-      << ") * " << c_int64_literal(p.t_mul) << " + " << c_int64_literal(p.t_add) << ", "
-      << p.t_shift << "U);\n"
+    o << "    const int64_t t = " << n.p << "_rshift_round(((int64_t)raw - " << c_int64_literal(p.t.r0)
+      << ") * " << c_int64_literal(p.t.mul) << " + " << c_int64_literal(p.t.add) << ", "
+      << p.t.shift << "U);\n"
       << "    int64_t acc = (int64_t)" << n.P << "_COEF[" << deg << "];\n";
     for (int k = deg - 1; k >= 0; --k)
-      o << "    acc = " << n.p << "_rshift_round(acc * t, " << p.shift[static_cast<std::size_t>(k)]
+      o << "    acc = " << n.p << "_rshift_round(acc * t, " << p.sh_out[static_cast<std::size_t>(k)]
         << "U) + " << n.P << "_COEF[" << k << "];\n";
     if (p.q[0] > 0)
       o << "    return (int32_t)" << n.p << "_rshift_round(acc, " << p.q[0] << "U);\n}\n\n";
@@ -436,6 +436,7 @@ ExportResult generate_c_header(const PolyModel& model, const HeaderMeta& meta,
 
   const Names n{opt.prefix, macro_case(opt.prefix)};
   const int deg = model.degree();
+  const FirmwareModel fm = firmware_model(model);
   std::ostringstream body;
   std::string formats;
   std::uint32_t crc = 0;
@@ -450,11 +451,11 @@ ExportResult generate_c_header(const PolyModel& model, const HeaderMeta& meta,
     for (Basis b : {Basis::ScaledT, Basis::RawX}) {
       detail::Deviation d;
       if (is_float) {
-        auto p = detail::make_float_program(model, b);
+        auto p = detail::make_program<float>(fm, b);
         if (!p) continue;
         d = detail::measure(model, *p, opt.grid_points, meta.calibration_readings);
       } else {
-        auto p = detail::make_double_program(model, b);
+        auto p = detail::make_program<double>(fm, b);
         if (!p) continue;
         d = detail::measure(model, *p, opt.grid_points, meta.calibration_readings);
       }
@@ -474,12 +475,12 @@ ExportResult generate_c_header(const PolyModel& model, const HeaderMeta& meta,
               (best_basis == Basis::ScaledT ? "scaled t = (x - c) * s (chosen: lower error than raw x)"
                                             : "raw x (chosen: lower error than scaled t)");
     if (is_float) {
-      r.float_program = detail::make_float_program(model, best_basis);
+      r.float_program = detail::make_program<float>(fm, best_basis);
       crc = crc32_bytes(table_bytes(r.float_program->coef));
       emit_floating_body(body, n, *r.float_program, meta, proof);
       detail::emit_crc(body, n, "float", 4, n.P + "_DEGREE + 1");
     } else {
-      r.double_program = detail::make_double_program(model, best_basis);
+      r.double_program = detail::make_program<double>(fm, best_basis);
       crc = crc32_bytes(table_bytes(r.double_program->coef));
       emit_floating_body(body, n, *r.double_program, meta, proof);
       detail::emit_crc(body, n, "double", 8, n.P + "_DEGREE + 1");
@@ -489,7 +490,7 @@ ExportResult generate_c_header(const PolyModel& model, const HeaderMeta& meta,
   } else {
     FixedPlan plan;
     std::string why;
-    if (!plan_fixed(model, fixed_settings_for(model, opt), &plan, &why)) {
+    if (!plan_fixed(fm, opt, &plan, &why)) {
       r.message = "fixed point: " + why;
       return r;
     }
@@ -498,14 +499,14 @@ ExportResult generate_c_header(const PolyModel& model, const HeaderMeta& meta,
     r.fixed_plan = plan;
     std::string qs;
     for (std::size_t k = 0; k < plan.q.size(); ++k) qs += (k ? "," : "") + std::to_string(plan.q[k]);
-    formats = "int32 coefficients Q[" + qs + "] (t^0..t^n), t in Q" + std::to_string(plan.t_frac) +
-              ", int64 intermediates, output = round(y * " + g(plan.settings.output_scale, 9) +
+    formats = "int32 coefficients Q[" + qs + "] (t^0..t^n), t in Q" + std::to_string(plan.t.frac) +
+              ", int64 intermediates, output = round(y * " + g(plan.output_scale, 9) +
               ") int32";
     crc = crc32_bytes(table_bytes(plan.coef));
     emit_fixed_body(body, n, plan, meta, proof);
     detail::emit_crc(body, n, "int32_t", 4, n.P + "_DEGREE + 1");
     r.stats = stats_for("", deg + 1, 4, deg + 1, 2 * deg + 2);
-    at_units = " " + esc(meta.reading_unit, 40) + " (raw " + g(proof.dev.at * plan.settings.input_scale, 10) + ")";
+    at_units = " " + esc(meta.reading_unit, 40) + " (raw " + g(proof.dev.at * plan.t.scale, 10) + ")";
   }
 
   std::ostringstream o;

@@ -1,5 +1,5 @@
 // Internal: exact 128-bit integer helpers for the fixed-point overflow proofs,
-// shared by the 1-D (fixed_point.cpp) and the 2-D (surface_fixed.cpp) plans.
+// used by the fixed-point plan (fixed_point.cpp).
 #pragma once
 
 #include <cstdint>

@@ -61,18 +61,4 @@ std::string ExportOptions::validate() const {
   return {};
 }
 
-FixedSettings fixed_settings_for(const PolyModel& model, const ExportOptions& o) {
-  FixedSettings s;
-  s.input_scale = o.input_scale;
-  s.output_scale = o.output_scale;
-  const double lo = std::ceil(model.scaling.x_min * o.input_scale - 1e-9);
-  const double hi = std::floor(model.scaling.x_max * o.input_scale + 1e-9);
-  const auto clamp32 = [](double v) {
-    return static_cast<std::int64_t>(std::fmax(-2147483647.0, std::fmin(2147483647.0, v)));
-  };
-  s.raw_min = o.raw_min ? *o.raw_min : clamp32(lo);
-  s.raw_max = o.raw_max ? *o.raw_max : clamp32(hi);
-  return s;
-}
-
 }  // namespace ridgecal::firmware

@@ -8,31 +8,6 @@ namespace ridgecal::firmware::detail {
 namespace {
 
 template <typename T>
-std::optional<FloatingProgram<T>> make_program(const PolyModel& m, Basis b) {
-  FloatingProgram<T> p;
-  p.basis = b;
-  // valid range rounded inward, so a clamped input never leaves [x_min, x_max]
-  p.x_lo = static_cast<T>(m.scaling.x_min);
-  if (static_cast<double>(p.x_lo) < m.scaling.x_min)
-    p.x_lo = std::nextafter(p.x_lo, std::numeric_limits<T>::infinity());
-  p.x_hi = static_cast<T>(m.scaling.x_max);
-  if (static_cast<double>(p.x_hi) > m.scaling.x_max)
-    p.x_hi = std::nextafter(p.x_hi, -std::numeric_limits<T>::infinity());
-  if (b == Basis::ScaledT) {
-    p.center = static_cast<T>(m.scaling.center());
-    p.inv_half_width = static_cast<T>(1.0L / static_cast<long double>(m.scaling.half_width()));
-    for (double c : m.monomial_in_t()) p.coef.push_back(static_cast<T>(c));
-  } else {
-    for (long double c : m.power_in_x_ld()) p.coef.push_back(static_cast<T>(c));
-  }
-  bool ok = std::isfinite(p.center) && std::isfinite(p.inv_half_width) && std::isfinite(p.x_lo) &&
-            std::isfinite(p.x_hi) && p.x_lo <= p.x_hi;
-  for (T c : p.coef) ok = ok && std::isfinite(c);
-  if (!ok) return std::nullopt;
-  return p;
-}
-
-template <typename T>
 void check_point(const PolyModel& m, const FloatingProgram<T>& p, T x, Deviation* d) {
   const T y = eval_program(p, x);
   const double ref = m.eval(static_cast<double>(x));
@@ -74,12 +49,59 @@ Deviation measure_floating(const PolyModel& m, const FloatingProgram<T>& p, int 
 
 }  // namespace
 
-std::optional<FloatProgram> make_float_program(const PolyModel& m, Basis b) {
-  return make_program<float>(m, b);
+template <typename T>
+void inward(double lo, double hi, T* out_lo, T* out_hi) {
+  // valid range rounded inward, so a clamped input never leaves [lo, hi]
+  T a = static_cast<T>(lo);
+  if (static_cast<double>(a) < lo) a = std::nextafter(a, std::numeric_limits<T>::infinity());
+  T b = static_cast<T>(hi);
+  if (static_cast<double>(b) > hi) b = std::nextafter(b, -std::numeric_limits<T>::infinity());
+  *out_lo = a;
+  *out_hi = b;
 }
-std::optional<DoubleProgram> make_double_program(const PolyModel& m, Basis b) {
-  return make_program<double>(m, b);
+
+template <typename T>
+std::optional<FloatingProgram<T>> make_program(const FirmwareModel& m, Basis b) {
+  FloatingProgram<T> p;
+  p.basis = b;
+  const Transforms& tr = m.transforms;
+  p.divider = tr.divider.enabled;
+  p.sensor_low = tr.divider.position == DividerPosition::SensorLow;
+  p.divider_r = static_cast<T>(tr.divider.fixed_resistance);
+  p.divider_fs = static_cast<T>(tr.divider.full_scale);
+  p.ln = tr.reading == ReadingTransform::Ln;
+  p.reciprocal_kelvin = tr.reference == ReferenceTransform::ReciprocalKelvin;
+  p.kelvin = static_cast<T>(kKelvinOffset);
+  p.has_aux = m.has_aux();
+  p.reading_degree = m.reading_degree;
+  p.aux_degree = m.aux_degree;
+  if (b == Basis::ScaledT) {
+    p.center = static_cast<T>(m.inputs[0].center);
+    p.inv_half_width = static_cast<T>(1.0L / static_cast<long double>(m.inputs[0].half_width));
+    for (double c : m.monomial) p.coef.push_back(static_cast<T>(c));
+  } else {  // raw x: t = (x - 0) * 1 = x
+    if (m.raw_power.empty() || m.has_aux()) return std::nullopt;
+    for (long double c : m.raw_power) p.coef.push_back(static_cast<T>(c));
+    p.reading_degree = static_cast<int>(p.coef.size()) - 1;
+  }
+  if (m.has_aux()) {
+    p.aux_center = static_cast<T>(m.inputs[1].center);
+    p.aux_inv_half_width = static_cast<T>(1.0L / static_cast<long double>(m.inputs[1].half_width));
+  }
+  const auto [lo, hi] = raw_reading_range(m);
+  inward(lo, hi, &p.x_lo, &p.x_hi);
+  if (m.has_aux()) inward(m.inputs[1].min, m.inputs[1].max, &p.a_lo, &p.a_hi);
+  bool ok = std::isfinite(p.center) && std::isfinite(p.inv_half_width) && std::isfinite(p.aux_center) &&
+            std::isfinite(p.aux_inv_half_width) && std::isfinite(p.x_lo) && std::isfinite(p.x_hi) &&
+            p.x_lo <= p.x_hi && std::isfinite(p.a_lo) && std::isfinite(p.a_hi) && p.a_lo <= p.a_hi &&
+            std::isfinite(p.divider_r) && std::isfinite(p.divider_fs);
+  for (T c : p.coef) ok = ok && std::isfinite(c);
+  if (!ok) return std::nullopt;
+  return p;
 }
+
+template std::optional<FloatProgram> make_program<float>(const FirmwareModel&, Basis);
+template std::optional<DoubleProgram> make_program<double>(const FirmwareModel&, Basis);
 
 Deviation measure(const PolyModel& m, const FloatProgram& p, int grid_points,
                   const std::vector<double>& readings) {
@@ -93,11 +115,11 @@ Deviation measure(const PolyModel& m, const DoubleProgram& p, int grid_points,
 Deviation measure(const PolyModel& m, const FixedPlan& p, int grid_points,
                   std::int64_t exhaustive_limit, const std::vector<double>& readings) {
   Deviation d;
-  const auto& s = p.settings;
+  const FixedAxis& s = p.t;
   const auto check = [&](std::int64_t raw) {
     const std::int32_t out = eval_fixed(p, static_cast<std::int32_t>(raw));
-    const double x = static_cast<double>(raw) / s.input_scale;
-    const double e = std::fabs(static_cast<double>(out) / s.output_scale - m.eval(x));
+    const double x = static_cast<double>(raw) / s.scale;
+    const double e = std::fabs(static_cast<double>(out) / p.output_scale - m.eval(x));
     ++d.points;
     if (e > d.max) {
       d.max = e;
@@ -115,7 +137,7 @@ Deviation measure(const PolyModel& m, const FixedPlan& p, int grid_points,
   }
   for (double r : readings) {
     if (!std::isfinite(r)) continue;
-    const double raw = std::nearbyint(r * s.input_scale);
+    const double raw = std::nearbyint(r * s.scale);
     if (raw < static_cast<double>(s.raw_min) || raw > static_cast<double>(s.raw_max)) continue;
     check(static_cast<std::int64_t>(raw));
     ++d.readings;

@@ -16,10 +16,11 @@ struct Deviation {
   bool finite = true;      ///< false if the program produced inf/NaN somewhere
 };
 
-/// Float/double program for a basis, with inward-rounded range; nullopt if a
-/// constant does not fit the type (overflow to inf).
-std::optional<FloatProgram> make_float_program(const PolyModel& m, Basis b);
-std::optional<DoubleProgram> make_double_program(const PolyModel& m, Basis b);
+/// The float/double program of a model (T = float or double) for a basis, with
+/// the inward-rounded range; nullopt if a constant does not fit the type
+/// (overflow to inf) or the basis is not offered (raw x: one input only).
+template <typename T>
+std::optional<FloatingProgram<T>> make_program(const FirmwareModel& m, Basis b);
 
 Deviation measure(const PolyModel& m, const FloatProgram& p, int grid_points,
                   const std::vector<double>& readings);

@@ -8,6 +8,7 @@
 #include <limits>
 #include <sstream>
 
+#include "export_proof.hpp"
 #include "header_common.hpp"
 #include "ridgecal/firmware/c_literals.hpp"
 #include "ridgecal/firmware/c_text.hpp"
@@ -23,16 +24,7 @@ using detail::Names;
 using detail::stats_for;
 
 std::pair<double, double> surface_reading_range(const SurfaceModel& m) {
-  const auto back = [&](double u) {
-    double r = m.transforms.reading == ReadingTransform::Ln ? std::exp(u) : u;
-    const Divider& d = m.transforms.divider;
-    if (d.enabled)
-      r = d.position == DividerPosition::SensorLow ? d.full_scale * r / (d.fixed_resistance + r)
-                                                   : d.full_scale * d.fixed_resistance / (r + d.fixed_resistance);
-    return r;
-  };
-  const double a = back(m.input.min), b = back(m.input.max);
-  return {std::min(a, b), std::max(a, b)};
+  return raw_reading_range(firmware_model(m));
 }
 
 namespace {
@@ -54,52 +46,6 @@ std::string lit(T v) {
     return c_double_literal(v);
 }
 
-template <typename T>
-void inward(double lo, double hi, T* out_lo, T* out_hi) {
-  T a = static_cast<T>(lo);
-  if (static_cast<double>(a) < lo) a = std::nextafter(a, std::numeric_limits<T>::infinity());
-  T b = static_cast<T>(hi);
-  if (static_cast<double>(b) > hi) b = std::nextafter(b, -std::numeric_limits<T>::infinity());
-  *out_lo = a;
-  *out_hi = b;
-}
-
-template <typename T>
-std::optional<SurfaceFloatingProgram<T>> make_program(const SurfaceModel& m) {
-  SurfaceFloatingProgram<T> p;
-  const Transforms& tr = m.transforms;
-  p.divider = tr.divider.enabled;
-  p.sensor_low = tr.divider.position == DividerPosition::SensorLow;
-  p.divider_r = static_cast<T>(tr.divider.fixed_resistance);
-  p.divider_fs = static_cast<T>(tr.divider.full_scale);
-  p.ln = tr.reading == ReadingTransform::Ln;
-  p.reciprocal_kelvin = tr.reference == ReferenceTransform::ReciprocalKelvin;
-  p.kelvin = static_cast<T>(kKelvinOffset);
-  p.has_aux = m.has_aux;
-  p.t_center = static_cast<T>(m.input.center);
-  p.t_scale = static_cast<T>(1.0L / static_cast<long double>(m.input.half_width));
-  if (m.has_aux) {
-    p.s_center = static_cast<T>(m.aux.center);
-    p.s_scale = static_cast<T>(1.0L / static_cast<long double>(m.aux.half_width));
-  }
-  const auto mono = m.monomial_in_scaled();
-  p.reading_degree = static_cast<int>(mono.size()) - 1;
-  p.aux_degree = m.has_aux ? static_cast<int>(mono[0].size()) - 1 : 0;
-  for (int k = 0; k <= p.reading_degree; ++k)
-    for (int l = 0; l <= p.aux_degree; ++l)
-      p.coef.push_back(static_cast<T>(mono[static_cast<std::size_t>(k)][static_cast<std::size_t>(l)]));
-  const auto [lo, hi] = surface_reading_range(m);
-  inward(lo, hi, &p.x_lo, &p.x_hi);
-  if (m.has_aux) inward(m.aux.min, m.aux.max, &p.a_lo, &p.a_hi);
-  bool ok = std::isfinite(p.t_center) && std::isfinite(p.t_scale) && std::isfinite(p.s_center) &&
-            std::isfinite(p.s_scale) && std::isfinite(p.x_lo) && std::isfinite(p.x_hi) && p.x_lo <= p.x_hi &&
-            std::isfinite(p.a_lo) && std::isfinite(p.a_hi) && p.a_lo <= p.a_hi && std::isfinite(p.divider_r) &&
-            std::isfinite(p.divider_fs);
-  for (T c : p.coef) ok = ok && std::isfinite(c);
-  if (!ok) return std::nullopt;
-  return p;
-}
-
 // Largest change of the output when u changes by kLogUlps ulps of T at u.
 template <typename T>
 double log_allowance_at(const SurfaceModel& m, double x, double aux) {
@@ -113,8 +59,8 @@ double log_allowance_at(const SurfaceModel& m, double x, double aux) {
 }
 
 template <typename T>
-void check_point(const SurfaceModel& m, const SurfaceFloatingProgram<T>& p, T x, T a, Proof* d) {
-  const T y = eval_surface(p, x, a);
+void check_point(const SurfaceModel& m, const FloatingProgram<T>& p, T x, T a, Proof* d) {
+  const T y = eval_program(p, x, a);
   const double ref = m.eval(static_cast<double>(x), static_cast<double>(a));
   ++d->points;
   const double e = std::isfinite(y) ? std::fabs(static_cast<double>(y) - ref) : std::numeric_limits<double>::infinity();
@@ -127,7 +73,7 @@ void check_point(const SurfaceModel& m, const SurfaceFloatingProgram<T>& p, T x,
 }
 
 template <typename T>
-void measure(const SurfaceModel& m, const SurfaceFloatingProgram<T>& p, int grid_points, const HeaderMeta& meta,
+void measure(const SurfaceModel& m, const FloatingProgram<T>& p, int grid_points, const HeaderMeta& meta,
              Proof* d) {
   const int nr = std::min(grid_points, 801);
   const int na = p.has_aux ? 101 : 1;
@@ -158,10 +104,10 @@ void measure(const SurfaceModel& m, const SurfaceFloatingProgram<T>& p, int grid
   }
 }
 
-void measure_fixed(const SurfaceModel& m, const SurfaceFixedPlan& p, int grid_points, const HeaderMeta& meta,
+void measure_fixed(const SurfaceModel& m, const FixedPlan& p, int grid_points, const HeaderMeta& meta,
                    Proof* d) {
   const auto check = [&](std::int64_t r, std::int64_t ra) {
-    const std::int32_t out = eval_surface_fixed(p, static_cast<std::int32_t>(r), static_cast<std::int32_t>(ra));
+    const std::int32_t out = eval_fixed(p, static_cast<std::int32_t>(r), static_cast<std::int32_t>(ra));
     const double x = static_cast<double>(r) / p.t.scale;
     const double a = p.has_aux ? static_cast<double>(ra) / p.s.scale : 0.0;
     const double e = std::fabs(static_cast<double>(out) / p.output_scale - m.eval(x, a));
@@ -327,7 +273,7 @@ void emit_prologue(std::ostringstream& o, const Names& n, const SurfaceModel& mo
 // ---- float / double ------------------------------------------------------------------
 
 template <typename T>
-void emit_floating_body(std::ostringstream& o, const Names& n, const SurfaceFloatingProgram<T>& p,
+void emit_floating_body(std::ostringstream& o, const Names& n, const FloatingProgram<T>& p,
                         const SurfaceModel& model, const HeaderMeta& meta, const Proof& proof) {
   constexpr bool is_float = std::is_same_v<T, float>;
   const char* type = is_float ? "float" : "double";
@@ -359,11 +305,11 @@ void emit_floating_body(std::ostringstream& o, const Names& n, const SurfaceFloa
   o << "/* Scaled variables: t = (u - " << P << "_T_CENTER) * " << P << "_T_SCALE"
     << (p.has_aux ? ", s = (aux - " + P + "_S_CENTER) * " + P + "_S_SCALE" : std::string()) << ",\n"
     << "   in [-1, 1] on the calibrated region (u = the transformed reading). */\n"
-    << "#define " << P << "_T_CENTER " << lit(p.t_center) << "\n"
-    << "#define " << P << "_T_SCALE " << lit(p.t_scale) << "\n";
+    << "#define " << P << "_T_CENTER " << lit(p.center) << "\n"
+    << "#define " << P << "_T_SCALE " << lit(p.inv_half_width) << "\n";
   if (p.has_aux)
-    o << "#define " << P << "_S_CENTER " << lit(p.s_center) << "\n"
-      << "#define " << P << "_S_SCALE " << lit(p.s_scale) << "\n";
+    o << "#define " << P << "_S_CENTER " << lit(p.aux_center) << "\n"
+      << "#define " << P << "_S_SCALE " << lit(p.aux_inv_half_width) << "\n";
   if (p.reciprocal_kelvin)
     o << "/* Inverse reference transform: reference = 1 / v - KELVIN_OFFSET (degC). */\n"
       << "#define " << P << "_KELVIN_OFFSET " << lit(p.kelvin) << "\n";
@@ -464,7 +410,7 @@ void emit_floating_body(std::ostringstream& o, const Names& n, const SurfaceFloa
 
 // ---- fixed ---------------------------------------------------------------------------
 
-void emit_fixed_body(std::ostringstream& o, const Names& n, const SurfaceFixedPlan& p, const HeaderMeta& meta,
+void emit_fixed_body(std::ostringstream& o, const Names& n, const FixedPlan& p, const HeaderMeta& meta,
                      const Proof& proof) {
   const std::string ru = esc(meta.reading_unit, 40), fu = esc(meta.reference_unit, 40),
                     au = esc(meta.aux_unit, 40);
@@ -634,7 +580,7 @@ SurfaceExportResult generate_surface_header(const SurfaceModel& model, const Hea
               (needs_log ? std::string(", ln by ") + (is_float ? "logf" : "log") + " (C library)" : "");
     int terms_ops = 0;
     if (is_float) {
-      auto p = make_program<float>(model);
+      auto p = detail::make_program<float>(firmware_model(model), Basis::ScaledT);
       if (!p) {
         r.message = "model: a constant does not fit in float";
         return sr;
@@ -647,7 +593,7 @@ SurfaceExportResult generate_surface_header(const SurfaceModel& model, const Hea
       emit_floating_body(body, n, *p, model, meta, proof);
       detail::emit_crc(body, n, "float", 4, n.P + "_N_COEF");
     } else {
-      auto p = make_program<double>(model);
+      auto p = detail::make_program<double>(firmware_model(model), Basis::ScaledT);
       if (!p) {
         r.message = "model: a constant does not fit in double";
         return sr;
@@ -667,9 +613,9 @@ SurfaceExportResult generate_surface_header(const SurfaceModel& model, const Hea
                        (model.transforms.reference == ReferenceTransform::ReciprocalKelvin ? 1 : 0);
     r.stats = stats_for("", (K + 1) * (L + 1), is_float ? 4 : 8, terms_ops + tr_mul, terms_ops + tr_add);
   } else {
-    SurfaceFixedPlan plan;
+    FixedPlan plan;
     std::string why;
-    if (!plan_surface_fixed(model, opt, &plan, &why)) {
+    if (!plan_fixed(firmware_model(model), opt, &plan, &why)) {
       r.message = "fixed point: " + why;
       return sr;
     }

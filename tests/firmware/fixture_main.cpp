@@ -134,7 +134,7 @@ bool write_fixture(const fs::path& dir, const fwtest::Fixture& f) {
     }
   } else {
     const FixedPlan& p = *r.fixed_plan;
-    const std::int64_t lo = p.settings.raw_min, hi = p.settings.raw_max;
+    const std::int64_t lo = p.t.raw_min, hi = p.t.raw_max;
     std::vector<std::int32_t> xs;
     for (int i = 0; i < 201; ++i) xs.push_back(static_cast<std::int32_t>(lo + (hi - lo) * i / 200));
     for (std::int64_t d = 0; d < 8; ++d) {
@@ -264,8 +264,8 @@ bool write_surface_fixture(const fs::path& dir, const fwtest::SurfaceFixture& f)
       model_txt << "V " << i << " " << f.model.eval(static_cast<double>(x), static_cast<double>(a)) << "\n";
       in.push_back(fbits(x));
       ain.push_back(fbits(a));
-      const std::string y = is_float ? hex8(fbits(eval_surface(*r.float_program, x, a)))
-                                     : hex16(dbits(eval_surface(*r.double_program, x, a)));
+      const std::string y = is_float ? hex8(fbits(eval_program(*r.float_program, x, a)))
+                                     : hex16(dbits(eval_program(*r.double_program, x, a)));
       L.add("V " + std::to_string(i) + " " + hex8(fbits(x)) + " " + ab(a) + y);
     }
     for (std::size_t i = 0; i < cx.size(); ++i) {
@@ -273,12 +273,12 @@ bool write_surface_fixture(const fs::path& dir, const fwtest::SurfaceFixture& f)
       chk.push_back(fbits(x));
       achk.push_back(fbits(a));
       int st = -1;
-      const std::string y = is_float ? hex8(fbits(eval_surface_checked(*r.float_program, x, a, &st)))
-                                     : hex16(dbits(eval_surface_checked(*r.double_program, x, a, &st)));
+      const std::string y = is_float ? hex8(fbits(eval_program_checked(*r.float_program, x, a, &st)))
+                                     : hex16(dbits(eval_program_checked(*r.double_program, x, a, &st)));
       L.add("K " + std::to_string(i) + " " + hex8(fbits(x)) + " " + ab(a) + std::to_string(st) + " " + y);
     }
   } else {
-    const SurfaceFixedPlan& p = *r.fixed_plan;
+    const FixedPlan& p = *r.fixed_plan;
     std::vector<std::pair<std::int32_t, std::int32_t>> xs;
     const std::int64_t lo = p.t.raw_min, hi = p.t.raw_max, alo = p.s.raw_min, ahi = p.s.raw_max;
     const int nx = has_aux ? 11 : 201, na = has_aux ? 6 : 1;
@@ -306,14 +306,14 @@ bool write_surface_fixture(const fs::path& dir, const fwtest::SurfaceFixture& f)
       in.push_back(static_cast<std::uint32_t>(x));
       ain.push_back(static_cast<std::uint32_t>(a));
       L.add("V " + std::to_string(i) + " " + hex8(static_cast<std::uint32_t>(x)) + " " + ab(a) +
-            hex8(static_cast<std::uint32_t>(eval_surface_fixed(p, x, a))));
+            hex8(static_cast<std::uint32_t>(eval_fixed(p, x, a))));
     }
     for (std::size_t i = 0; i < cx.size(); ++i) {
       const auto [x, a] = cx[i];
       chk.push_back(static_cast<std::uint32_t>(x));
       achk.push_back(static_cast<std::uint32_t>(a));
       int st = -1;
-      const std::int32_t y = eval_surface_fixed_checked(p, x, a, &st);
+      const std::int32_t y = eval_fixed_checked(p, x, a, &st);
       L.add("K " + std::to_string(i) + " " + hex8(static_cast<std::uint32_t>(x)) + " " + ab(a) +
             std::to_string(st) + " " + hex8(static_cast<std::uint32_t>(y)));
     }

@@ -369,16 +369,16 @@ BOOST_AUTO_TEST_CASE(fixed_point_bounds_hold_for_every_input) {
     if (f.options.mode != NumericMode::Fixed) continue;
     FixedPlan p;
     std::string why;
-    BOOST_REQUIRE_MESSAGE(plan_fixed(f.model, fixed_settings_for(f.model, f.options), &p, &why), why);
+    BOOST_REQUIRE_MESSAGE(plan_fixed(firmware_model(f.model), f.options, &p, &why), why);
     const int n = p.degree();
     // Replay the generated arithmetic with 128-bit integers and check every
     // intermediate against the proved interval and the hard limits.
     const long double two62 = std::ldexp(1.0L, 62);
-    for (std::int64_t raw = p.settings.raw_min; raw <= p.settings.raw_max; ++raw) {
-      const __int128 pre = static_cast<__int128>(raw - p.r0) * p.t_mul + p.t_add;
-      BOOST_REQUIRE(static_cast<long double>(pre) >= p.t_pre.lo);
-      BOOST_REQUIRE(static_cast<long double>(pre) <= p.t_pre.hi);
-      const std::int64_t t = rshift_round(static_cast<std::int64_t>(pre), p.t_shift);
+    for (std::int64_t raw = p.t.raw_min; raw <= p.t.raw_max; ++raw) {
+      const __int128 pre = static_cast<__int128>(raw - p.t.r0) * p.t.mul + p.t.add;
+      BOOST_REQUIRE(static_cast<long double>(pre) >= p.t.pre.lo);
+      BOOST_REQUIRE(static_cast<long double>(pre) <= p.t.pre.hi);
+      const std::int64_t t = rshift_round(static_cast<std::int64_t>(pre), p.t.shift);
       std::int64_t acc = p.coef[static_cast<std::size_t>(n)];
       for (int k = n - 1; k >= 0; --k) {
         const __int128 prod = static_cast<__int128>(acc) * t;
@@ -386,7 +386,7 @@ BOOST_AUTO_TEST_CASE(fixed_point_bounds_hold_for_every_input) {
         BOOST_REQUIRE(static_cast<long double>(prod) >= b.lo);
         BOOST_REQUIRE(static_cast<long double>(prod) <= b.hi);
         BOOST_REQUIRE(std::fabs(static_cast<long double>(prod)) < two62);
-        acc = rshift_round(static_cast<std::int64_t>(prod), p.shift[static_cast<std::size_t>(k)]) +
+        acc = rshift_round(static_cast<std::int64_t>(prod), p.sh_out[static_cast<std::size_t>(k)]) +
               p.coef[static_cast<std::size_t>(k)];
         BOOST_REQUIRE(static_cast<long double>(acc) >= p.acc[static_cast<std::size_t>(k)].lo);
         BOOST_REQUIRE(static_cast<long double>(acc) <= p.acc[static_cast<std::size_t>(k)].hi);
@@ -428,7 +428,7 @@ BOOST_AUTO_TEST_CASE(fixed_point_wide_bipolar_range) {
   BOOST_REQUIRE(it != f.end());
   const ExportResult r = generate_c_header(it->model, it->meta, it->options);
   BOOST_REQUIRE(r.ok());
-  BOOST_TEST(r.fixed_plan->settings.raw_min == -30000);
+  BOOST_TEST(r.fixed_plan->t.raw_min == -30000);
   BOOST_TEST(r.points_checked == 60001u);
 }
 

@@ -50,9 +50,9 @@ BOOST_AUTO_TEST_CASE(pressure_float_and_double_track_the_model) {
     for (int i = 0; i < 2000; ++i) {
       const double x = ux(rng), a = ua(rng);
       const double ref = f.model.eval(x, a);
-      const double y = r.float_program ? static_cast<double>(eval_surface(*r.float_program, static_cast<float>(x),
+      const double y = r.float_program ? static_cast<double>(eval_program(*r.float_program, static_cast<float>(x),
                                                                           static_cast<float>(a)))
-                                       : eval_surface(*r.double_program, x, a);
+                                       : eval_program(*r.double_program, x, a);
       const double ref_in = r.float_program ? f.model.eval(static_cast<float>(x), static_cast<float>(a)) : ref;
       BOOST_TEST(std::fabs(y - ref_in) <= 2e-5, "at " << x << ", " << a << ": " << y << " vs " << ref_in);
     }
@@ -65,14 +65,14 @@ BOOST_AUTO_TEST_CASE(float_emulation_is_the_stated_nested_horner) {
   const auto f = fixture("ptc2d_float");
   const SurfaceExportResult r = generate_surface_header(f.model, f.meta, f.options);
   BOOST_TEST_REQUIRE(r.ok());
-  const SurfaceFloatProgram& p = *r.float_program;
+  const FloatProgram& p = *r.float_program;
   BOOST_TEST_REQUIRE(p.reading_degree == 2);
   BOOST_TEST_REQUIRE(p.aux_degree == 3);
   const auto& c = p.coef;
   for (float x : {5861.0f, 20000.5f, 33333.0f, 59787.5f})
     for (float a : {-20.53f, 0.0f, 41.25f, 79.87f}) {
-      volatile float t = (x - p.t_center) * p.t_scale;
-      volatile float s = (a - p.s_center) * p.s_scale;
+      volatile float t = (x - p.center) * p.inv_half_width;
+      volatile float s = (a - p.aux_center) * p.aux_inv_half_width;
       float w2 = c[11], w1 = c[7], w0 = c[3];
       for (int l = 2; l >= 0; --l) {
         volatile float q2 = w2 * s, q1 = w1 * s, q0 = w0 * s;
@@ -84,7 +84,7 @@ BOOST_AUTO_TEST_CASE(float_emulation_is_the_stated_nested_horner) {
       v = v + w1;
       volatile float v2 = v * t;
       const float expect = v2 + w0;
-      const float got = eval_surface(p, x, a);
+      const float got = eval_program(p, x, a);
       std::uint32_t be, bg;
       std::memcpy(&be, &expect, 4);
       std::memcpy(&bg, &got, 4);
@@ -130,24 +130,24 @@ BOOST_AUTO_TEST_CASE(pressure_header_contract) {
 BOOST_AUTO_TEST_CASE(checked_variant_reports_both_inputs) {
   const auto f = fixture("ptc2d_float");
   const SurfaceExportResult r = generate_surface_header(f.model, f.meta, f.options);
-  const SurfaceFloatProgram& p = *r.float_program;
+  const FloatProgram& p = *r.float_program;
   int st = -1;
-  eval_surface_checked(p, 30000.0f, 20.0f, &st);
+  eval_program_checked(p, 30000.0f, 20.0f, &st);
   BOOST_TEST(st == kInRange);
-  eval_surface_checked(p, 30000.0f, -40.0f, &st);
+  eval_program_checked(p, 30000.0f, -40.0f, &st);
   BOOST_TEST(st == kAuxBelowRange);
-  eval_surface_checked(p, 70000.0f, 90.0f, &st);
+  eval_program_checked(p, 70000.0f, 90.0f, &st);
   BOOST_TEST(st == kAboveRange + kAuxAboveRange);
-  const float y = eval_surface_checked(p, 1000.0f, std::numeric_limits<float>::quiet_NaN(), &st);
+  const float y = eval_program_checked(p, 1000.0f, std::numeric_limits<float>::quiet_NaN(), &st);
   BOOST_TEST(st == kBelowRange + kAuxNotANumber);
-  BOOST_TEST(y == eval_surface(p, p.x_lo, p.a_lo));
+  BOOST_TEST(y == eval_program(p, p.x_lo, p.a_lo));
 }
 
 BOOST_AUTO_TEST_CASE(pressure_fixed_point_proof_and_accuracy) {
   const auto f = fixture("ptc2d_fixed");
   const SurfaceExportResult r = generate_surface_header(f.model, f.meta, f.options);
   BOOST_TEST_REQUIRE(r.ok(), r.common.message);
-  const SurfaceFixedPlan& p = *r.fixed_plan;
+  const FixedPlan& p = *r.fixed_plan;
   BOOST_TEST_MESSAGE("fixed: max deviation " << r.common.max_deviation << " bar");
   BOOST_TEST(p.t.raw_min == 5861);
   BOOST_TEST(p.t.raw_max == 59787);
@@ -161,10 +161,10 @@ BOOST_AUTO_TEST_CASE(pressure_fixed_point_proof_and_accuracy) {
   std::uniform_int_distribution<std::int32_t> ur(5861, 59787), ua(-2053, 7987);
   for (int i = 0; i < 20000; ++i) {
     const std::int32_t x = ur(rng), a = ua(rng);
-    const double y = eval_surface_fixed(p, x, a) / 1e4;
+    const double y = eval_fixed(p, x, a) / 1e4;
     BOOST_TEST(std::fabs(y - f.model.eval(x, a / 100.0)) < 0.6e-4);
-    BOOST_TEST(static_cast<long double>(eval_surface_fixed(p, x, a)) <= p.out.hi);
-    BOOST_TEST(static_cast<long double>(eval_surface_fixed(p, x, a)) >= p.out.lo);
+    BOOST_TEST(static_cast<long double>(eval_fixed(p, x, a)) <= p.out.hi);
+    BOOST_TEST(static_cast<long double>(eval_fixed(p, x, a)) >= p.out.lo);
   }
   BOOST_TEST(p.max_abs_product < 4.611686018427387904e18L);  // 2^62
   BOOST_TEST(p.max_abs_acc <= 2147483647.0L);
@@ -173,7 +173,7 @@ BOOST_AUTO_TEST_CASE(pressure_fixed_point_proof_and_accuracy) {
   BOOST_TEST(has(h, "static const int32_t FWT_COEF[FWT_N_COEF]"));
   BOOST_TEST(has(h, "Overflow proof"));
   int st = -1;
-  eval_surface_fixed_checked(p, 100, 9000, &st);
+  eval_fixed_checked(p, 100, 9000, &st);
   BOOST_TEST(st == kBelowRange + kAuxAboveRange);
 }
 
@@ -183,16 +183,16 @@ BOOST_AUTO_TEST_CASE(fixed_point_proof_can_fail) {
   const auto f = fixture("ptc2d_fixed");
   const SurfaceExportResult r = generate_surface_header(f.model, f.meta, f.options);
   BOOST_TEST_REQUIRE(r.ok());
-  SurfaceFixedPlan p = *r.fixed_plan;
+  FixedPlan p = *r.fixed_plan;
   std::string why;
-  BOOST_TEST(verify_surface_fixed_bounds(&p, &why));
-  SurfaceFixedPlan bad = p;
+  BOOST_TEST(verify_fixed_bounds(&p, &why));
+  FixedPlan bad = p;
   bad.t.mul *= 4;  // t_q four times too large: leaves int32
-  BOOST_TEST(!verify_surface_fixed_bounds(&bad, &why));
+  BOOST_TEST(!verify_fixed_bounds(&bad, &why));
   BOOST_TEST_MESSAGE("caught: " << why);
   bad = p;
   bad.sh_out[0] = 1;
-  BOOST_TEST(!verify_surface_fixed_bounds(&bad, &why));
+  BOOST_TEST(!verify_fixed_bounds(&bad, &why));
   BOOST_TEST_MESSAGE("caught: " << why);
 }
 
@@ -230,8 +230,8 @@ BOOST_AUTO_TEST_CASE(steinhart_hart_float_and_double) {
       const double L = std::log(ohm);
       const double degc = 1.0 / (1.009249522e-3 + 2.378405444e-4 * L + 2.019202697e-7 * L * L * L) - 273.15;
       const double x = counts_for(ohm);
-      const double y = is_float ? static_cast<double>(eval_surface(*r.float_program, static_cast<float>(x), 0.0f))
-                                : eval_surface(*r.double_program, x, 0.0);
+      const double y = is_float ? static_cast<double>(eval_program(*r.float_program, static_cast<float>(x), 0.0f))
+                                : eval_program(*r.double_program, x, 0.0);
       BOOST_TEST(std::fabs(y - degc) < (is_float ? 2e-3 : 1e-9), ohm << " ohm: " << y << " vs " << degc << " degC");
       BOOST_TEST(std::fabs(y - f.model.eval(is_float ? static_cast<float>(x) : x)) < (is_float ? 2e-3 : 1e-9));
     }
@@ -279,7 +279,7 @@ BOOST_AUTO_TEST_CASE(reading_range_through_the_transforms) {
   BOOST_TEST_REQUIRE(r.ok(), r.common.message);
   BOOST_TEST(has(r.common.header, "(FWT_DIVIDER_FULL_SCALE - x)) / x"));
   const double x = 0.5 * (lo2 + hi2);
-  BOOST_TEST(std::fabs(eval_surface(*r.double_program, x, 0.0) - high.eval(x)) < 1e-9);
+  BOOST_TEST(std::fabs(eval_program(*r.double_program, x, 0.0) - high.eval(x)) < 1e-9);
 }
 
 BOOST_AUTO_TEST_CASE(aux_only_surface_declares_before_statements) {

@@ -131,7 +131,4 @@ struct ExportResult {
 ExportResult generate_c_header(const PolyModel& model, const HeaderMeta& meta,
                                const ExportOptions& options);
 
-/// The raw range fixed mode uses for these options and this model.
-FixedSettings fixed_settings_for(const PolyModel& model, const ExportOptions& options);
-
 }  // namespace ridgecal::firmware

@@ -1,36 +1,34 @@
 // ridgecal firmware export: integer-only evaluation for MCUs without an FPU.
 //
-// Input: a raw integer reading r in [raw_min, raw_max] (e.g. ADC counts);
-// the reading in reading units is x = r / input_scale.
-// Output: round(p(x) * output_scale) as int32 (e.g. output_scale 1000 gives
-// milli-units of the reference unit).
+// Input: a raw integer reading r in [raw_min, raw_max] (e.g. ADC counts),
+// the reading in reading units is x = r / input_scale; with a second input
+// likewise a raw aux integer. Output: round(p(x[, aux]) * output_scale) as
+// int32 (e.g. output_scale 1000 gives milli-units of the reference unit).
 //
 // Arithmetic (identical in the generated C and in eval_fixed below):
-//   t_q   = rshift_round((r - r0) * t_mul + t_add, t_shift)     t in Q t_frac
-//   acc_n = coef[n]                                             Q q[n]
-//   acc_k = rshift_round(acc_{k+1} * t_q, shift[k]) + coef[k]   Q q[k], k = n-1..0
-//   out   = rshift_round(acc_0, q[0])   (or acc_0 when q[0] == 0)
-// with rshift_round(v, s) = floor((v + 2^(s-1)) / 2^s) (round half up),
-// computed as ((uint64)(v + 2^62 + 2^(s-1)) >> s) - 2^(62-s): only a
-// non-negative value is ever shifted, so no implementation-defined right shift
-// of a negative number is involved. Valid for 1 <= s <= 61 and
-// -2^62 <= v + 2^(s-1) < 2^62; plan_fixed() proves that for every step.
+//   t_q = rshift_round((r - r0) * mul + add, shift)               t in Q t.frac
+//   s_q likewise from the raw aux value (second input only)
+//   w_k = Horner in s_q over row k: a = coef[k][L];
+//         a = rshift_round(a * s_q, sh_in[k][l]) + coef[k][l]    Q q[k][l]
+//   acc = w_K; acc = rshift_round(acc * t_q, sh_out[k]) + w_k     k = K-1..0
+//   out = rshift_round(acc, q[0][0])   (or acc when q[0][0] == 0)
+// One input is the case L = 0: acc_k = rshift_round(acc_{k+1} * t_q, sh_out[k]) + coef[k].
+// rshift_round(v, s) = floor((v + 2^(s-1)) / 2^s) (round half up), computed
+// as ((uint64)(v + 2^62 + 2^(s-1)) >> s) - 2^(62-s): only a non-negative value
+// is ever shifted, so no implementation-defined right shift of a negative
+// number is involved. Valid for 1 <= s <= 61 and -2^62 <= v + 2^(s-1) < 2^62;
+// plan_fixed() proves that for every step.
 #pragma once
 
 #include <cstdint>
 #include <string>
 #include <vector>
 
-#include "ridgecal/poly_model.hpp"
+#include "ridgecal/firmware/firmware_model.hpp"
 
 namespace ridgecal::firmware {
 
-struct FixedSettings {
-  std::int64_t raw_min = 0;    ///< smallest raw input (int32 range)
-  std::int64_t raw_max = 0;    ///< largest raw input (int32 range)
-  double input_scale = 1.0;    ///< raw counts per reading unit
-  double output_scale = 1000.0;  ///< output integer units per reference unit
-};
+struct ExportOptions;
 
 /// A closed integer interval [lo, hi] (values proved to hold every possible
 /// intermediate of one step).
@@ -39,45 +37,56 @@ struct IntRange {
   long double hi = 0;
 };
 
+/// Affine integer map of one raw input onto its scaled variable in Q frac:
+///   q = rshift_round((raw - r0) * mul + add, shift)
+struct FixedAxis {
+  std::int64_t raw_min = 0, raw_max = 0;
+  double scale = 1.0;  ///< raw counts per input unit
+  std::int64_t r0 = 0, mul = 0, add = 0;
+  int shift = 1, frac = 30;
+  IntRange pre, q;  ///< proved bounds of (raw - r0) * mul + add and of q
+};
+
+/// Integer-only plan of the polynomial (no transforms), one or two inputs.
+/// coef[k][l] and the inner accumulator at (k, l) are in Q q[k][l];
+/// sh_in[k][l] = q[k][l+1] + s.frac - q[k][l], sh_out[k] = q[k+1][0] + t.frac - q[k][0].
 struct FixedPlan {
-  FixedSettings settings;
-  double calibrated_min = 0;  ///< the model's calibrated range (reading units)
-  double calibrated_max = 0;
-  std::int64_t r0 = 0;        ///< integer near the centre of the calibrated range (raw counts)
-  std::int64_t t_mul = 0;     ///< t_q = rshift_round((r - r0) * t_mul + t_add, t_shift)
-  std::int64_t t_add = 0;
-  int t_shift = 1;
-  int t_frac = 30;            ///< t_q is t in Q t_frac
-  std::vector<std::int32_t> coef;  ///< coef[k] = round(m_k * output_scale * 2^q[k])
-  std::vector<int> q;              ///< fraction bits of acc_k (and coef[k])
-  std::vector<int> shift;          ///< shift[k] = q[k+1] + t_frac - q[k], k < n
-  // The proof (exact integer interval bounds over [raw_min, raw_max]):
-  IntRange t_pre;             ///< (r - r0) * t_mul + t_add
-  IntRange t_q;               ///< t_q
-  std::vector<IntRange> prod;  ///< acc_{k+1} * t_q, k < n
-  std::vector<IntRange> acc;   ///< acc_k
-  IntRange out;               ///< the int32 output
-  int degree() const { return static_cast<int>(coef.size()) - 1; }
+  double output_scale = 1000.0;
+  bool has_aux = false;
+  FixedAxis t, s;  ///< the reading and (has_aux) the aux input
+  int reading_degree = 0, aux_degree = 0;
+  std::vector<std::int32_t> coef;  ///< row-major [k * (L + 1) + l]
+  std::vector<int> q;              ///< row-major, as coef
+  std::vector<int> sh_in;          ///< row-major [k * L + l], l < L
+  std::vector<int> sh_out;         ///< k < K
+  // Proved bounds (exact integer interval arithmetic over the raw ranges):
+  std::vector<IntRange> prod;  ///< outer step k < K: acc * t_q
+  std::vector<IntRange> acc;   ///< outer accumulator after step k (k = K: w_K)
+  long double max_abs_product = 0;  ///< largest |a * s_q| or |acc * t_q|
+  long double max_abs_acc = 0;      ///< largest |accumulator| (int32 required)
+  IntRange out;
+  double calibrated_reading_min = 0, calibrated_reading_max = 0;
+  double calibrated_aux_min = 0, calibrated_aux_max = 0;
+  int degree() const { return reading_degree; }
 };
 
 /// floor((v + 2^(s-1)) / 2^s) exactly as the generated C computes it.
 std::int64_t rshift_round(std::int64_t v, int s);
 
-/// Chooses Q formats and proves by interval arithmetic that no intermediate
-/// leaves its range for any raw input in [raw_min, raw_max]. On failure
-/// returns false and writes the reason to *why.
-bool plan_fixed(const PolyModel& model, const FixedSettings& settings, FixedPlan* plan,
-                std::string* why);
-
-/// Re-checks the proof stored in plan (used by plan_fixed and the tests):
-/// recomputes every interval from the plan's integers and checks the limits.
+/// Chooses the Q formats and proves by interval arithmetic that no
+/// intermediate overflows for any raw input (pair) in the raw ranges (from
+/// options, default: the integers inside the calibrated ranges). On failure
+/// returns false and writes the reason to *why. Precondition: the model's
+/// transforms are the identity.
+bool plan_fixed(const FirmwareModel& model, const ExportOptions& options, FixedPlan* plan, std::string* why);
+/// Re-checks the plan's proof from its integers (used by plan_fixed and the tests).
 bool verify_fixed_bounds(FixedPlan* plan, std::string* why);
-
-/// Same integer operations as PREFIX_eval_fixed() in the generated header.
-/// Precondition: raw in [raw_min, raw_max].
-std::int32_t eval_fixed(const FixedPlan& plan, std::int32_t raw);
-/// Same as PREFIX_eval_fixed_checked(): clamps raw into range, reports status
-/// (kInRange / kBelowRange / kAboveRange from float_emulation.hpp).
+/// Same integer operations as PREFIX_eval_fixed(raw[, raw_aux]).
+/// Precondition: the inputs in their raw ranges.
+std::int32_t eval_fixed(const FixedPlan& plan, std::int32_t raw, std::int32_t raw_aux = 0);
+/// As PREFIX_eval_fixed_checked(): clamps the inputs into their raw ranges and
+/// reports the status (kInRange .. from float_emulation.hpp, plus the aux bits).
 std::int32_t eval_fixed_checked(const FixedPlan& plan, std::int32_t raw, int* status);
+std::int32_t eval_fixed_checked(const FixedPlan& plan, std::int32_t raw, std::int32_t raw_aux, int* status);
 
 }  // namespace ridgecal::firmware

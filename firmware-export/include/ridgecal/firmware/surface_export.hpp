@@ -15,93 +15,6 @@
 
 namespace ridgecal::firmware {
 
-/// Status bits of the range-checked evaluation with an aux input: the low two
-/// bits are the reading's status (kInRange .. kNotANumber), the next two the
-/// aux input's (PREFIX_AUX_BELOW_RANGE = 4, _ABOVE_RANGE = 8, _NOT_A_NUMBER = 12).
-enum AuxRangeStatus : int { kAuxBelowRange = 4, kAuxAboveRange = 8, kAuxNotANumber = 12 };
-
-/// Everything the generated float/double code computes with, already rounded
-/// to the target type (the values written into the header).
-template <typename T>
-struct SurfaceFloatingProgram {
-  bool divider = false;
-  bool sensor_low = true;  ///< divider position
-  T divider_r = 0;         ///< fixed resistor
-  T divider_fs = 0;        ///< full scale counts
-  bool ln = false;
-  bool reciprocal_kelvin = false;
-  T kelvin = 0;  ///< 273.15 rounded to T
-  bool has_aux = false;
-  T t_center = 0, t_scale = 1;  ///< t = (u - t_center) * t_scale
-  T s_center = 0, s_scale = 1;  ///< s = (aux - s_center) * s_scale
-  /// coef[k * (aux_degree + 1) + l] = m[k][l] (row-major, the header's table order)
-  std::vector<T> coef;
-  int reading_degree = 0;
-  int aux_degree = 0;
-  T x_lo = 0, x_hi = 0;  ///< valid raw reading range, rounded inward to T
-  T a_lo = 0, a_hi = 0;  ///< valid aux range (has_aux only)
-};
-using SurfaceFloatProgram = SurfaceFloatingProgram<float>;
-using SurfaceDoubleProgram = SurfaceFloatingProgram<double>;
-
-/// The operation sequence of PREFIX_eval() in the generated header, on the
-/// host. Bit-identical to the target when the model has no ln (the header
-/// then uses only + - * /); with ln, the host's log/logf is used, which can
-/// differ by a few ulps from the target's C library (see the bound in the
-/// header and docs/firmware-export.md).
-float eval_surface(const SurfaceFloatProgram& p, float x, float aux);
-double eval_surface(const SurfaceDoubleProgram& p, double x, double aux);
-/// As PREFIX_eval_checked(): clamps both inputs, status bits as above.
-float eval_surface_checked(const SurfaceFloatProgram& p, float x, float aux, int* status);
-double eval_surface_checked(const SurfaceDoubleProgram& p, double x, double aux, int* status);
-
-/// Affine integer map of one raw input onto its scaled variable in Q frac:
-///   q = rshift_round((raw - r0) * mul + add, shift)
-struct FixedAxis {
-  std::int64_t raw_min = 0, raw_max = 0;
-  double scale = 1.0;  ///< raw counts per input unit
-  std::int64_t r0 = 0, mul = 0, add = 0;
-  int shift = 1, frac = 30;
-  IntRange pre, q;  ///< proved bounds of (raw - r0) * mul + add and of q
-};
-
-/// Integer-only plan of the 2-D polynomial (no transforms). Table order and
-/// arithmetic as in the generated PREFIX_eval_fixed():
-///   w_k   = Horner in s_q over row k: a = coef[k][L]; a = rshift_round(a * s_q, sh_in[k][l]) + coef[k][l]
-///   acc   = w_K; acc = rshift_round(acc * t_q, sh_out[k]) + w_k  (k = K-1..0)
-///   out   = rshift_round(acc, q[0][0]) (or acc when q[0][0] == 0)
-/// coef[k][l] and the inner accumulator at (k, l) are in Q q[k][l];
-/// sh_in[k][l] = q[k][l+1] + s.frac - q[k][l], sh_out[k] = q[k+1][0] + t.frac - q[k][0].
-struct SurfaceFixedPlan {
-  double output_scale = 1000.0;
-  bool has_aux = false;
-  FixedAxis t, s;
-  int reading_degree = 0, aux_degree = 0;
-  std::vector<std::int32_t> coef;  ///< row-major [k * (L + 1) + l]
-  std::vector<int> q;              ///< row-major, as coef
-  std::vector<int> sh_in;          ///< row-major [k * L + l], l < L
-  std::vector<int> sh_out;         ///< k < K
-  // Proved bounds (exact integer interval arithmetic over the raw ranges):
-  long double max_abs_product = 0;  ///< largest |a * s_q| or |acc * t_q|
-  long double max_abs_acc = 0;      ///< largest |accumulator| (int32 required)
-  IntRange out;
-  double calibrated_reading_min = 0, calibrated_reading_max = 0;
-  double calibrated_aux_min = 0, calibrated_aux_max = 0;
-};
-
-/// Chooses the Q formats and proves by interval arithmetic that no
-/// intermediate overflows for any raw input pair in the raw ranges.
-/// Precondition: the model's transforms are the identity.
-bool plan_surface_fixed(const SurfaceModel& model, const ExportOptions& options, SurfaceFixedPlan* plan,
-                        std::string* why);
-/// Re-checks the plan's proof from its integers (also used by the tests).
-bool verify_surface_fixed_bounds(SurfaceFixedPlan* plan, std::string* why);
-/// Same integer operations as PREFIX_eval_fixed(raw[, raw_aux]).
-std::int32_t eval_surface_fixed(const SurfaceFixedPlan& plan, std::int32_t raw, std::int32_t raw_aux);
-/// As PREFIX_eval_fixed_checked(): clamps both inputs, status bits as above.
-std::int32_t eval_surface_fixed_checked(const SurfaceFixedPlan& plan, std::int32_t raw, std::int32_t raw_aux,
-                                        int* status);
-
 /// Result of a surface export: the common result plus the surface programs.
 struct SurfaceExportResult {
   ExportResult common;  ///< status, message, header, deviation, CRC, stats
@@ -110,9 +23,9 @@ struct SurfaceExportResult {
   /// target C library whose log/logf differs from the host's by up to
   /// kLogUlps ulps of its result, propagated to the output (reference units).
   double libm_allowance = 0;
-  std::optional<SurfaceFloatProgram> float_program;
-  std::optional<SurfaceDoubleProgram> double_program;
-  std::optional<SurfaceFixedPlan> fixed_plan;
+  std::optional<FloatProgram> float_program;  ///< eval_program()
+  std::optional<DoubleProgram> double_program;
+  std::optional<FixedPlan> fixed_plan;  ///< eval_fixed()
   bool ok() const { return common.ok(); }
 };
 
