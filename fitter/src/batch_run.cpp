@@ -21,6 +21,7 @@
 
 #include "ridgecal/errors.hpp"
 #include "ridgecal/surface_assessment.hpp"
+#include "ridgecal/batch_fast_parse.hpp"
 #include "ridgecal/sha256.hpp"
 
 namespace ridgecal {
