@@ -1,4 +1,5 @@
 #include "ridgecal/batch_reader.hpp"
+#include "ridgecal/batch_fast_parse.hpp"
 
 #include <sys/stat.h>
 

@@ -21,6 +21,7 @@
 
 #include "ridgecal/calibrate.hpp"
 #include "ridgecal/errors.hpp"
+#include "ridgecal/batch_fast_parse.hpp"
 #include "ridgecal/sha256.hpp"
 
 namespace ridgecal {

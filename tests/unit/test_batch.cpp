@@ -10,6 +10,7 @@
 #include <string>
 
 #include "ridgecal/atomic_file.hpp"
+#include "ridgecal/batch_fast_parse.hpp"
 #include "ridgecal/batch_run.hpp"
 #include "ridgecal/batch_synthetic.hpp"
 #include "ridgecal/errors.hpp"
