@@ -471,11 +471,8 @@ FitOutcome fit_compensated(const Dataset& data, const FitOptions& options, const
     }
   }
 
-  // Choose: lowest CV RMSE, or the simplest cell (fewest terms, then largest lambda) within one SE.
-  int best = -1;
-  for (std::size_t i = 0; i < sel.grid.size(); ++i)
-    if (!std::isnan(sel.grid[i].cv_rmse) && (best < 0 || sel.grid[i].cv_rmse < sel.grid[static_cast<std::size_t>(best)].cv_rmse))
-      best = static_cast<int>(i);
+  // Choose (a single cell without CV scores: the fixed model).
+  int best = choose_cell(sel.grid, options.rule);
   if (best < 0) {
     if (sel.grid.size() > 1) {
       out.status = Status::failure("no candidate model could be scored (every held-out prediction left the reference "
@@ -483,16 +480,6 @@ FitOutcome fit_compensated(const Dataset& data, const FitOptions& options, const
       return out;
     }
     best = 0;
-  } else if (options.rule == SelectionRule::OneSe) {
-    const double limit = sel.grid[static_cast<std::size_t>(best)].cv_rmse + sel.grid[static_cast<std::size_t>(best)].cv_se;
-    int pick = best;
-    for (std::size_t i = 0; i < sel.grid.size(); ++i) {
-      const GridCell& c = sel.grid[i];
-      if (!(c.cv_rmse <= limit)) continue;
-      const GridCell& p = sel.grid[static_cast<std::size_t>(pick)];
-      if (c.terms < p.terms || (c.terms == p.terms && c.lambda > p.lambda)) pick = static_cast<int>(i);
-    }
-    best = pick;
   }
   sel.chosen = best;
   const GridCell& chosen = sel.grid[static_cast<std::size_t>(best)];
