@@ -10,7 +10,6 @@
 #include "judgement_options.hpp"
 #include "ridgecal/atomic_file.hpp"
 #include "ridgecal/errors.hpp"
-#include "ridgecal/surface_assessment.hpp"
 #include "ridgecal/report/html_report.hpp"
 #include "ridgecal/text_check.hpp"
 
@@ -157,9 +156,7 @@ int run_fit_command(const FitCommand& cmd, std::ostream& out, std::ostream& err)
     rec.sensor = cmd.sensor;
     rec.input = InputInfo{cmd.data_path, data.sha256, data.rows.size(), cmd.csv};
     rec.calibration = fit.calibration;
-    const bool surface = rec.calibration.surface.has_value();
-    const Assessment assessment = surface ? assess_surface_calibration(data, rec.calibration, cmd.assess)
-                                          : assess_calibration(data, rec.calibration, cmd.assess);
+    const Assessment assessment = assess_calibration(data, rec.calibration, cmd.assess);
     rec.tolerance = assessment.tolerance;
     rec.decision = assessment.decision;
     rec.uncertainty = assessment.uncertainty;

@@ -20,7 +20,7 @@
 #include <thread>
 
 #include "ridgecal/errors.hpp"
-#include "ridgecal/surface_assessment.hpp"
+#include "ridgecal/assessment.hpp"
 #include "ridgecal/sha256.hpp"
 
 namespace ridgecal {
@@ -226,7 +226,8 @@ UnitSummary process_unit(const UnitChunk& chunk, const BatchOptions& options) {
   // tolerance skips it; its summary then has no diagnostic warnings.)
   Assessment assessment;
   if (options.assess.tolerance || options.write_records)
-    assessment = cal.surface ? assess_surface_calibration(cal, options.assess) : assess_calibration(data, cal, options.assess);
+    // Extended fits are assessed without the data here, as before: no hysteresis check in batch (issue 12 item 3).
+    assessment = cal.surface ? assess_calibration(cal, options.assess) : assess_calibration(data, cal, options.assess);
   if (assessment.decision) u.verdict = assessment.decision->pass() ? UnitVerdict::Pass : UnitVerdict::Fail;
   for (const Warning& w : assessment.warnings) u.warnings.push_back(to_string(w.code) + ": " + w.message);
   if (options.write_records) {
