@@ -3,34 +3,34 @@
 #include <memory>
 
 #include "ridgecal/errors.hpp"
-#include "ridgecal/surface_assessment.hpp"
+#include "ridgecal/calibrate.hpp"
 #include "ridgecal/surface_uncertainty.hpp"
 
 namespace ridgecal::mc {
 
 McFit calibrate_adapter(const Dataset& data, const McOptions& options) {
   McFit r;
-  FitOutcome fit;
+  // The library's one pipeline (calibrate.hpp): fit, assessment and record.
+  CalibrateOptions copt;
+  copt.fit = options.fit;
+  copt.comp = options.comp;
+  copt.assess = options.assess;
+  CalibrateResult result;
   try {
-    fit = options.comp.active() ? fit_compensated(data, options.fit, options.comp)
-                                : fit_calibration(data, options.fit);
+    result = calibrate(data, copt);
   } catch (const InputError& e) {
     r.error = format_input_error(e);
     return r;
   }
-  if (!fit.status.ok) {
-    r.error = fit.status.message;
+  if (!result.status.ok) {
+    r.error = result.status.message;
     return r;
   }
-  auto cal = std::make_shared<const Calibration>(std::move(fit.calibration));
+  auto cal = std::make_shared<const Calibration>(std::move(result.record.calibration));
   Assessment a;
-  try {
-    a = cal->surface ? assess_surface_calibration(data, *cal, options.assess)
-                     : assess_calibration(data, *cal, options.assess);
-  } catch (const InputError& e) {
-    r.error = format_input_error(e);
-    return r;
-  }
+  a.decision = std::move(result.record.decision);
+  a.warnings = std::move(result.record.warnings);
+  if (result.record.uncertainty) a.uncertainty = std::move(*result.record.uncertainty);
   r.ok = true;
   r.has_verdict = a.decision.has_value();
   r.pass = a.decision && a.decision->pass();

@@ -4,8 +4,10 @@
 #include <cassert>
 #include <cmath>
 #include <fmt/format.h>
+#include <optional>
 
 #include "ridgecal/errors.hpp"
+#include "ridgecal/surface_uncertainty.hpp"
 
 namespace ridgecal {
 
@@ -51,26 +53,36 @@ Assessment assess_calibration(const Dataset& data, const Calibration& cal,
                               const AssessmentOptions& options) {
   assert(options.validate().empty());
   Assessment a;
-  a.uncertainty = evaluate_uncertainty(cal, options.uncertainty);
+  // The budget; extended fits evaluate U at each point's own (reading, aux).
+  std::optional<SurfaceUncertainty> extended;
+  if (cal.surface) {
+    extended.emplace(cal, options.uncertainty);
+    a.uncertainty = extended->budget();
+  } else {
+    a.uncertainty = evaluate_uncertainty(cal, options.uncertainty);
+  }
+  const auto expanded_at = [&](const PointResult& p) {
+    return extended ? extended->expanded_at(p.reading, p.aux) : a.uncertainty.expanded_at(p.reading);
+  };
   if (options.tolerance) {
     ToleranceSpec tol = *options.tolerance;
     resolve_span(tol, cal, options.diagnostics, data.file);
     a.tolerance = tol;
     std::vector<PointToJudge> pts;
-    for (const PointResult& p : cal.points) {
-      const double u = a.uncertainty.expanded_at(p.reading);
-      pts.push_back(
-          {p.line, p.role == SetRole::Train ? "training" : "test", p.reference, p.error, u});
-    }
+    for (const PointResult& p : cal.points)
+      pts.push_back({p.line, p.role == SetRole::Train ? "training" : "test", p.reference, p.error, expanded_at(p)});
     for (const PointResult& p : cal.points)
       if (p.role == SetRole::Train && std::isfinite(p.cv_predicted))
-        pts.push_back({p.line, "validation", p.reference, p.cv_predicted - p.reference,
-                       a.uncertainty.expanded_at(p.reading)});
+        pts.push_back({p.line, "validation", p.reference, p.cv_predicted - p.reference, expanded_at(p)});
     if (tol.validate().empty()) a.decision = judge(pts, tol, options.rule, {"validation"});
   }
   a.warnings = diagnose_fit(data, cal, a.uncertainty, a.tolerance ? &*a.tolerance : nullptr,
                             options.diagnostics);
   return a;
+}
+
+Assessment assess_calibration(const Calibration& cal, const AssessmentOptions& options) {
+  return assess_calibration(Dataset{}, cal, options);
 }
 
 }  // namespace ridgecal

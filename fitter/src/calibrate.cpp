@@ -3,7 +3,7 @@
 #include <cassert>
 #include <utility>
 
-#include "ridgecal/surface_assessment.hpp"
+#include "ridgecal/assessment.hpp"
 
 namespace ridgecal {
 
@@ -47,8 +47,7 @@ CalibrateResult calibrate(const Dataset& data, const CalibrateOptions& options) 
   assert(rec.calibration.surface.has_value() == extended);
   if (options.skip_unjudged_assessment && !options.assess.tolerance) return result;
   // The verdict is computed here and only here (assessment), and kept in the record.
-  Assessment a = extended ? assess_surface_calibration(data, rec.calibration, options.assess)
-                          : assess_calibration(data, rec.calibration, options.assess);
+  Assessment a = assess_calibration(data, rec.calibration, options.assess);
   rec.tolerance = std::move(a.tolerance);
   rec.decision = std::move(a.decision);
   rec.uncertainty = std::move(a.uncertainty);

@@ -28,6 +28,23 @@ SelectionMode selection_mode_from_string(const std::string& s) {
   throw std::invalid_argument("selection mode must be 'cv' or 'fixed', got '" + s + "'");
 }
 
+int choose_cell(const std::vector<GridCell>& grid, SelectionRule rule) {
+  int best = -1;
+  for (std::size_t i = 0; i < grid.size(); ++i)
+    if (!std::isnan(grid[i].cv_rmse) && (best < 0 || grid[i].cv_rmse < grid[static_cast<std::size_t>(best)].cv_rmse))
+      best = static_cast<int>(i);
+  if (best < 0 || rule != SelectionRule::OneSe) return best;
+  const double limit = grid[static_cast<std::size_t>(best)].cv_rmse + grid[static_cast<std::size_t>(best)].cv_se;
+  int pick = best;
+  for (std::size_t i = 0; i < grid.size(); ++i) {
+    const GridCell& c = grid[i];
+    if (!(c.cv_rmse <= limit)) continue;
+    const GridCell& p = grid[static_cast<std::size_t>(pick)];
+    if (c.terms < p.terms || (c.terms == p.terms && c.lambda > p.lambda)) pick = static_cast<int>(i);
+  }
+  return pick;
+}
+
 std::vector<double> default_lambda_grid() {
   std::vector<double> g{0.0};
   const int count = 30;
@@ -328,6 +345,7 @@ FitOutcome fit_calibration(const Dataset& data, const FitOptions& options) {
       GridCell c;
       c.degree = d;
       c.lambda = lambdas[l];
+      c.terms = d + extra;
       if (can_cv && d > 0) {
         double m = 0;
         for (std::size_t k = 0; k < KK; ++k) m += std::sqrt(fold_mse[(k * ND + di) * L + l]);
@@ -352,23 +370,8 @@ FitOutcome fit_calibration(const Dataset& data, const FitOptions& options) {
     }
   }
 
-  // Choose.
-  int best = 0;
-  if (sel.grid.size() > 1) {
-    for (std::size_t i = 1; i < sel.grid.size(); ++i)
-      if (sel.grid[i].cv_rmse < sel.grid[static_cast<std::size_t>(best)].cv_rmse) best = static_cast<int>(i);
-    if (options.rule == SelectionRule::OneSe) {
-      const double limit = sel.grid[static_cast<std::size_t>(best)].cv_rmse + sel.grid[static_cast<std::size_t>(best)].cv_se;
-      int pick = best;
-      for (std::size_t i = 0; i < sel.grid.size(); ++i) {
-        const GridCell& c = sel.grid[i];
-        if (!(c.cv_rmse <= limit)) continue;
-        const GridCell& p = sel.grid[static_cast<std::size_t>(pick)];
-        if (c.degree < p.degree || (c.degree == p.degree && c.lambda > p.lambda)) pick = static_cast<int>(i);
-      }
-      best = pick;
-    }
-  }
+  // Choose (a single cell without CV scores: the fixed model).
+  const int best = std::max(0, choose_cell(sel.grid, options.rule));
   sel.chosen = best;
   const GridCell& chosen = sel.grid[static_cast<std::size_t>(best)];
   const int d = chosen.degree;

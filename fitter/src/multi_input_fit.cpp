@@ -471,11 +471,8 @@ FitOutcome fit_compensated(const Dataset& data, const FitOptions& options, const
     }
   }
 
-  // Choose: lowest CV RMSE, or the simplest cell (fewest terms, then largest lambda) within one SE.
-  int best = -1;
-  for (std::size_t i = 0; i < sel.grid.size(); ++i)
-    if (!std::isnan(sel.grid[i].cv_rmse) && (best < 0 || sel.grid[i].cv_rmse < sel.grid[static_cast<std::size_t>(best)].cv_rmse))
-      best = static_cast<int>(i);
+  // Choose (a single cell without CV scores: the fixed model).
+  int best = choose_cell(sel.grid, options.rule);
   if (best < 0) {
     if (sel.grid.size() > 1) {
       out.status = Status::failure("no candidate model could be scored (every held-out prediction left the reference "
@@ -483,16 +480,6 @@ FitOutcome fit_compensated(const Dataset& data, const FitOptions& options, const
       return out;
     }
     best = 0;
-  } else if (options.rule == SelectionRule::OneSe) {
-    const double limit = sel.grid[static_cast<std::size_t>(best)].cv_rmse + sel.grid[static_cast<std::size_t>(best)].cv_se;
-    int pick = best;
-    for (std::size_t i = 0; i < sel.grid.size(); ++i) {
-      const GridCell& c = sel.grid[i];
-      if (!(c.cv_rmse <= limit)) continue;
-      const GridCell& p = sel.grid[static_cast<std::size_t>(pick)];
-      if (c.terms < p.terms || (c.terms == p.terms && c.lambda > p.lambda)) pick = static_cast<int>(i);
-    }
-    best = pick;
   }
   sel.chosen = best;
   const GridCell& chosen = sel.grid[static_cast<std::size_t>(best)];
@@ -627,74 +614,6 @@ std::string surface_full(const Calibration& cal) {
     for (std::size_t l = 0; l < pw[k].size(); ++l)
       if (pw[k][l] != 0.0) s += fmt::format(" {}:{:.17g}", term_name(Term{static_cast<int>(k), static_cast<int>(l)}, m.has_aux), pw[k][l]);
   return s;
-}
-
-double LinearInputsFit::predict(const Eigen::Ref<const Eigen::RowVectorXd>& x) const {
-  long double s = intercept;
-  for (Eigen::Index j = 0; j < x.size(); ++j) s += slopes[static_cast<std::size_t>(j)] * static_cast<long double>(x(j));
-  return static_cast<double>(s);
-}
-
-LinearInputsFit fit_linear_inputs(const Eigen::MatrixXd& X, const Eigen::VectorXd& y, double lambda) {
-  assert(X.rows() == y.size() && X.rows() > X.cols() && X.cols() >= 1 && lambda >= 0.0);
-  LinearInputsFit f;
-  const Eigen::Index n = X.rows(), p = X.cols();
-  Eigen::MatrixXd T(n, p);
-  for (Eigen::Index j = 0; j < p; ++j) {
-    const double lo = X.col(j).minCoeff(), hi = X.col(j).maxCoeff();
-    if (!(hi > lo)) {
-      f.status = Status::failure(fmt::format("input {} is constant; every input must vary", j + 1));
-      return f;
-    }
-    f.scalings.push_back(AxisScaling::centered(lo, hi));
-    for (Eigen::Index i = 0; i < n; ++i) T(i, j) = f.scalings.back().to_scaled(X(i, j));
-  }
-  const RidgePath path(T, y, true);
-  f.status = path.status();
-  f.condition_number = path.condition_number();
-  Eigen::VectorXd b;
-  double b0 = 0.0;
-  path.coefficients(lambda, b, b0);
-  auto residuals = [&](const Eigen::VectorXd& bb, double bb0) {
-    Eigen::VectorXd r(n);
-    for (Eigen::Index i = 0; i < n; ++i) {
-      long double s = static_cast<long double>(y(i)) - bb0;
-      for (Eigen::Index j = 0; j < p; ++j) s -= static_cast<long double>(bb(j)) * T(i, j);
-      r(i) = static_cast<double>(s);
-    }
-    return r;
-  };
-  if (lambda == 0.0 && f.status.ok) {
-    // One step of iterative refinement: solve for the correction from the
-    // residual computed in long double.
-    const RidgePath corr(T, residuals(b, b0), true);
-    Eigen::VectorXd db;
-    double db0 = 0.0;
-    corr.coefficients(0.0, db, db0);
-    b += db;
-    b0 += db0;
-  }
-  f.scaled_coefficients = b;
-  f.scaled_intercept = b0;
-  long double ic = b0;
-  f.slopes.resize(static_cast<std::size_t>(p));
-  for (Eigen::Index j = 0; j < p; ++j) {
-    const AxisScaling& sc = f.scalings[static_cast<std::size_t>(j)];
-    const long double slope = static_cast<long double>(b(j)) / static_cast<long double>(sc.half_width);
-    f.slopes[static_cast<std::size_t>(j)] = slope;
-    ic -= slope * static_cast<long double>(sc.center);
-  }
-  f.intercept = ic;
-  const Eigen::VectorXd r = residuals(b, b0);
-  long double rss = 0, tss = 0;
-  const long double ym = y.mean();
-  for (Eigen::Index i = 0; i < n; ++i) {
-    rss += static_cast<long double>(r(i)) * r(i);
-    tss += (y(i) - ym) * (y(i) - ym);
-  }
-  f.residual_sd = n > p + 1 ? std::sqrt(static_cast<double>(rss / static_cast<long double>(n - p - 1))) : kNaN;
-  f.r2 = tss > 0 ? static_cast<double>(1.0L - rss / tss) : kNaN;
-  return f;
 }
 
 }  // namespace ridgecal

@@ -10,6 +10,7 @@
 #include <map>
 #include <set>
 
+#include "../support/linear_inputs_fit.hpp"
 #include "ridgecal/multi_input_fit.hpp"
 #include "ridgecal/record.hpp"
 #include "ridgecal/surface_record.hpp"

@@ -1,4 +1,4 @@
-// External check of the n-input degree-1 design (multi_input_fit.hpp) on NIST
+// External check of the n-input degree-1 design (tests/support/linear_inputs_fit.hpp) on NIST
 // StRD Longley: 6 predictors, degree 1, no penalty, a notoriously
 // ill-conditioned design. Data and certified values: tests/data/nist-strd
 // (see its README for the source). Independent cross-check: GSL's
@@ -13,6 +13,7 @@
 
 #include "ridgecal/atomic_file.hpp"
 #include "ridgecal/calibration_csv.hpp"
+#include "../support/linear_inputs_fit.hpp"
 #include "ridgecal/multi_input_fit.hpp"
 
 using namespace ridgecal;

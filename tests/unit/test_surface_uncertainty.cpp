@@ -1,5 +1,5 @@
 // Uncertainty budget, guarded acceptance and diagnostics of extended fits
-// (surface_uncertainty.hpp, surface_assessment.hpp). The known answers are
+// (surface_uncertainty.hpp, assessment.hpp, diagnostics.hpp). The known answers are
 // computed here independently of the fitter: least squares through the normal
 // equations of the raw columns [1, x, a] in long double (the model's standard
 // error does not depend on how the inputs are scaled), and the ridge sandwich
@@ -13,7 +13,8 @@
 
 #include "ridgecal/multi_input_fit.hpp"
 #include "ridgecal/record.hpp"
-#include "ridgecal/surface_assessment.hpp"
+#include "ridgecal/assessment.hpp"
+#include "ridgecal/surface_uncertainty.hpp"
 #include "ridgecal/surface_uncertainty.hpp"
 #include "test_support.hpp"
 
@@ -245,11 +246,11 @@ BOOST_AUTO_TEST_CASE(guarded_acceptance_uses_u_at_each_point) {
   tol.offset = worst * 1.001;  // every point conforms under simple acceptance ...
   ao.tolerance = tol;
   ao.uncertainty.reference_uncertainty = 0.002;
-  const Assessment simple = assess_surface_calibration(cal, ao);
+  const Assessment simple = assess_calibration(cal, ao);
   BOOST_REQUIRE(simple.decision);
   BOOST_TEST(simple.decision->pass());
   ao.rule = DecisionRule::GuardedAcceptance;  // ... but not once U is subtracted
-  const Assessment guarded = assess_surface_calibration(cal, ao);
+  const Assessment guarded = assess_calibration(cal, ao);
   BOOST_REQUIRE(guarded.decision);
   BOOST_TEST(!guarded.decision->pass());
   const SurfaceUncertainty su(cal, ao.uncertainty);
@@ -326,13 +327,13 @@ BOOST_AUTO_TEST_CASE(diagnostics_flag_extrapolation_overfit_and_grid_edges) {
   BOOST_REQUIRE_MESSAGE(out.status.ok, out.status.message);
   const SurfaceModel& m = *out.calibration.surface;
   // Outside in the reading only, in aux only, and inside.
-  const auto w = check_surface_extrapolation(m, {1200.0, 500.0, 500.0}, {20.0, 90.0, 20.0},
+  const auto w = check_extrapolation(m, {1200.0, 500.0, 500.0}, {20.0, 90.0, 20.0},
                                              {7, 8, 9}, "check points");
   BOOST_REQUIRE_EQUAL(w.size(), 1u);
   BOOST_TEST((w[0].code == DiagnosticCode::Extrapolation));
   BOOST_TEST((w[0].lines == std::vector<std::size_t>{7, 8}));
   BOOST_TEST(w[0].message.find("aux range") != std::string::npos);
-  BOOST_TEST(check_surface_extrapolation(m, {500.0}, {20.0}, {9}, "check points").empty());
+  BOOST_TEST(check_extrapolation(m, {500.0}, {20.0}, {9}, "check points").empty());
 
   Calibration cal = out.calibration;
   cal.training.n = 10, cal.training.rmse = 0.01;
@@ -358,7 +359,7 @@ BOOST_AUTO_TEST_CASE(diagnostics_flag_extrapolation_overfit_and_grid_edges) {
       sel.calibration.selection.grid[static_cast<std::size_t>(sel.calibration.selection.chosen)];
   BOOST_TEST(chosen.aux_degree == 1);  // the plane needs its aux term
   bool flagged = false;
-  for (const Warning& x : check_surface_grid_edges(sel.calibration))
+  for (const Warning& x : check_grid_edges(sel.calibration))
     flagged = flagged || (x.code == DiagnosticCode::DegreeAtGridEdge &&
                           x.message.find("aux degree") != std::string::npos);
   BOOST_TEST(flagged);
@@ -374,7 +375,7 @@ BOOST_AUTO_TEST_CASE(surface_record_round_trips_the_uncertainty) {
   ao.tolerance = tol;
   ao.rule = DecisionRule::GuardedAcceptance;
   ao.uncertainty.resolution = 1.0;
-  const Assessment a = assess_surface_calibration(out.calibration, ao);
+  const Assessment a = assess_calibration(out.calibration, ao);
   CalibrationRecord rec;
   rec.calibration = out.calibration;
   rec.tolerance = a.tolerance;
@@ -470,7 +471,7 @@ BOOST_AUTO_TEST_CASE(hysteresis_is_judged_per_setpoint_and_aux_level) {
     tol.offset = 0.02;
     ao.tolerance = tol;
     std::vector<Warning> hyst;
-    for (const Warning& w : assess_surface_calibration(ds, out.calibration, ao).warnings)
+    for (const Warning& w : assess_calibration(ds, out.calibration, ao).warnings)
       if (w.code == DiagnosticCode::Hysteresis) hyst.push_back(w);
     return hyst;
   };

@@ -44,8 +44,15 @@ void resolve_span(ToleranceSpec& tol, const Calibration& cal, const DiagnosticOp
 
 /// Judges the points of the final model: `training` and `test` (counting for
 /// the verdict) and `validation` (the cross-validated predictions, judged for
-/// information only). Preconditions: options.validate() is empty.
+/// information only), with the uncertainty budget (uncertainty.hpp; extended
+/// fits: surface_uncertainty.hpp, U at each point's own reading and aux value
+/// as the guard) and the warnings of diagnose_fit. Every model, one input or
+/// extended. `data` must be the data set the calibration was fitted on (rows
+/// match cal.points by index): its direction column drives the hysteresis
+/// check. Preconditions: options.validate() is empty.
 Assessment assess_calibration(const Dataset& data, const Calibration& cal,
                               const AssessmentOptions& options);
+/// The same without the data: no hysteresis check.
+Assessment assess_calibration(const Calibration& cal, const AssessmentOptions& options);
 
 }  // namespace ridgecal

@@ -5,9 +5,8 @@
 // so they give the same record, the same verdict and the same warnings for
 // the same data and options. It chooses between the one-input fit
 // (fit_calibration, calibration.hpp) and the extended fit (fit_compensated,
-// multi_input_fit.hpp: a second input, transforms, restricted powers), and
-// between their assessments (assess_calibration, assessment.hpp;
-// assess_surface_calibration, surface_assessment.hpp), in one branch.
+// multi_input_fit.hpp: a second input, transforms, restricted powers) in one
+// branch; one assessment (assess_calibration, assessment.hpp) serves both.
 //
 // The verdict (PASS/FAIL) is computed here, once, by the assessment, and
 // stored in the record (record.decision). Everything downstream (the CLI's

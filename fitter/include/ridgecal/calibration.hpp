@@ -27,11 +27,13 @@ namespace ridgecal {
 /// How the best grid cell is picked from the cross-validation scores.
 enum class SelectionRule {
   MinCv,  ///< `min-cv`: the lowest mean CV RMSE
-  OneSe,  ///< `one-se` (the default): the simplest cell (lowest degree, then
-          ///< largest lambda) whose mean CV RMSE is within one standard error
-          ///< of the lowest. With few setpoints the CV scores are noisy and the
-          ///< lowest often belongs to a needlessly high degree; this rule
-          ///< follows the sensor rather than its noise.
+  OneSe,  ///< `one-se` (the default): the simplest cell (fewest model terms,
+          ///< then largest lambda) whose mean CV RMSE is within one standard
+          ///< error of the lowest. In one input the terms are the degree plus
+          ///< the intercept, so "fewest terms" is "lowest degree". With few
+          ///< setpoints the CV scores are noisy and the lowest often belongs to
+          ///< a needlessly high degree; this rule follows the sensor rather
+          ///< than its noise.
 };
 std::string to_string(SelectionRule r);
 SelectionRule selection_rule_from_string(const std::string& s);  ///< throws std::invalid_argument
@@ -66,8 +68,15 @@ struct GridCell {
   double cv_se = 0.0;       ///< standard error of that mean: sd(fold RMSE) / sqrt(K)
   double train_rmse = 0.0;  ///< RMSE of the same cell fitted on all training points
   int aux_degree = -1;      ///< extended fits with an aux input: its degree limit; -1 otherwise
-  int terms = 0;            ///< extended fits: number of model terms; 0 otherwise
+  int terms = 0;            ///< number of model terms (1-D: degree + intercept); the complexity the rule compares
 };
+
+/// The selection rule, written once for every fit: the index in `grid` of the
+/// cell with the lowest mean CV RMSE (min-cv), or of the simplest cell within
+/// one standard error of it (one-se: fewest terms, then largest lambda; the
+/// first such cell in grid order on ties). Cells whose CV RMSE is NaN (not
+/// scored) are never chosen; -1 when no cell was scored.
+int choose_cell(const std::vector<GridCell>& grid, SelectionRule rule);
 
 struct SelectionInfo {
   SelectionMode mode = SelectionMode::CrossValidation;

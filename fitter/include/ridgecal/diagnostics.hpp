@@ -73,25 +73,43 @@ struct DiagnosticOptions {
   std::string validate() const;
 };
 
-/// All fit diagnostics. `data` must be the data set the calibration was fitted
-/// on (rows match cal.points by index; its direction column drives the
-/// hysteresis check). `tolerance` may be null (hysteresis is then not
-/// judged: the criterion is "differ beyond tolerance").
+/// All fit diagnostics, for every model. `data` must be the data set the
+/// calibration was fitted on (rows match cal.points by index; its direction
+/// column drives the hysteresis check), or empty (no hysteresis check).
+/// `tolerance` may be null (hysteresis is then not judged: the issue's
+/// criterion is "differ beyond tolerance").
+///
+/// One-input polynomials: every check below. Extended fits (cal.surface:
+/// transforms, an aux input, restricted powers): test vs validation, CV vs
+/// training, grid edges (with the aux degree), setpoint groups per term,
+/// outliers (studentized with the extended leverage), condition number,
+/// points outside the calibrated region of either input, and hysteresis per
+/// (setpoint, aux level). The coverage, residual-run and monotonicity checks
+/// are defined along one input and are not applied to extended fits.
 std::vector<Warning> diagnose_fit(const Dataset& data, const Calibration& cal,
                                   const UncertaintyBudget& uncertainty,
                                   const ToleranceSpec* tolerance, const DiagnosticOptions& options);
 
 // The individual checks (each returns the warnings it raises).
 std::vector<Warning> check_test_vs_validation(const Calibration& cal, const DiagnosticOptions& o);
+/// Validation (CV) RMSE more than o.cv_training_ratio times the training RMSE: overfit.
+std::vector<Warning> check_cv_vs_training(const Calibration& cal, const DiagnosticOptions& o);
+/// Degree, aux degree (extended fits) or lambda chosen at the edge of its candidate grid.
 std::vector<Warning> check_grid_edges(const Calibration& cal);
+/// Fewer than o.min_setpoints_per_coefficient training setpoints (groups) per
+/// coefficient (term).
 std::vector<Warning> check_setpoints_per_coefficient(const Calibration& cal,
                                                      const DiagnosticOptions& o);
 std::vector<Warning> check_coverage(const Calibration& cal, const DiagnosticOptions& o);
+/// Externally studentized residuals of the training points (extended fits: in
+/// the fitted output v, with the extended leverage).
 std::vector<Warning> check_outliers(const Calibration& cal, const DiagnosticOptions& o);
 std::vector<Warning> check_residual_runs(const Calibration& cal, const DiagnosticOptions& o);
 std::vector<Warning> check_monotonic(const PolyModel& model);
 /// Mean error of the up rows minus that of the down rows, per setpoint measured
 /// in both directions, against the tolerance at that setpoint (null: no check).
+/// Extended fits with an aux input: per (setpoint, aux level), the level being
+/// the aux setpoint label, else the aux value rounded to cal.aux_step.
 std::vector<Warning> check_hysteresis(const Dataset& data, const Calibration& cal,
                                       const UncertaintyBudget& uncertainty,
                                       const ToleranceSpec* tolerance);
@@ -101,6 +119,11 @@ std::vector<Warning> check_condition(const Calibration& cal, const DiagnosticOpt
 std::vector<Warning> check_extrapolation(const std::vector<double>& readings,
                                          const std::vector<std::size_t>& lines,
                                          const Scaling& range, const std::string& what);
+/// The same for an extended model: points whose (transformed) reading or aux
+/// value lies outside the calibrated region.
+std::vector<Warning> check_extrapolation(const SurfaceModel& model, const std::vector<double>& readings,
+                                         const std::vector<double>& aux,
+                                         const std::vector<std::size_t>& lines, const std::string& what);
 
 /// Wald-Wolfowitz runs test on the signs of a sequence (zeros skipped):
 /// the z statistic of the number of runs (NaN with fewer than 2 of each sign).

@@ -1,6 +1,5 @@
 // ridgecal: extended fits. Linearising transforms, a second input (aux) and
-// restricted powers, chosen and fitted like the 1-D curve (calibration.hpp),
-// plus the n-input degree-1 design.
+// restricted powers, chosen and fitted like the 1-D curve (calibration.hpp).
 //
 // Model: see surface_model.hpp. Terms (i = degree in the reading, j in aux):
 //   no aux:                 i <= d                      (d from FitOptions::degrees)
@@ -60,26 +59,5 @@ FitOutcome fit_compensated(const Dataset& data, const FitOptions& fit, const Com
 /// Lines describing an extended model for Calibration::brief()/full().
 std::string surface_brief(const Calibration& cal);
 std::string surface_full(const Calibration& cal);
-
-/// The n-input degree-1 design: y = b0 + sum_j b_j x_j, solved on scaled
-/// columns t_j = (x_j - center_j) / half_width_j (each input's range mapped on
-/// [-1, 1], i.e. the T_1 Chebyshev column of each input) through the centred
-/// thin SVD of ridge_path.hpp, with one step of iterative refinement in long
-/// double when lambda = 0. Coefficients in the raw inputs are derived in long double.
-struct LinearInputsFit {
-  Status status;                       ///< failure: an input is constant, or the design is rank deficient
-  std::vector<AxisScaling> scalings;   ///< one per input column
-  Eigen::VectorXd scaled_coefficients; ///< b on the scaled columns
-  double scaled_intercept = 0.0;
-  std::vector<long double> slopes;     ///< raw: y = intercept + sum slopes[j] x_j
-  long double intercept = 0.0L;
-  double condition_number = 0.0;       ///< of the centred scaled design
-  double residual_sd = 0.0;            ///< sqrt(RSS / (n - p - 1))
-  double r2 = 0.0;
-
-  double predict(const Eigen::Ref<const Eigen::RowVectorXd>& x) const;  ///< in the raw inputs
-};
-/// Preconditions: X.rows() == y.size() > X.cols() >= 1, all finite, lambda >= 0.
-LinearInputsFit fit_linear_inputs(const Eigen::MatrixXd& X, const Eigen::VectorXd& y, double lambda = 0.0);
 
 }  // namespace ridgecal
