@@ -12,8 +12,12 @@ u_fit(x, a) = s * sqrt(r (X'X)^-1 r') over the same grid the fitter uses
 the combined and expanded uncertainty, the band (largest U over aux at each
 reading) and the guard of every judged point (U at its own reading and aux).
 Exit 0 when all agree, 1 otherwise. --tamper scales the record's model
-standard error (fit-coefficients and the band's u_fit) by 1.001 before the
-comparison: the check must then fail (CTest runs it with WILL_FAIL).
+standard error (fit-coefficients) by 1.001 before the comparison: the check
+must then reject the record for exactly that component, and --tamper exits 0
+only when it does (1 when the tampered budget passes, is rejected for another
+reason, or the script fails in any other way).
+Without numpy the tool is named as missing: exit 1 under CI=true, else 77
+(skipped; tests/tools/need-tool.sh).
 """
 import json
 import math
@@ -24,7 +28,12 @@ import sys
 try:
     import numpy as np
 except ImportError:
-    print("SKIP: numpy is not installed for this interpreter (set RIDGECAL_NUMPY_PYTHON)")
+    print(f"MISSING TOOL: numpy (for {sys.executable}: apt-get install python3-numpy, or configure with "
+          "-DRIDGECAL_NUMPY_PYTHON=/usr/bin/python3)")
+    if os.environ.get("CI", "") in ("true", "TRUE", "True", "1", "yes"):
+        print("FAIL: numpy is missing and CI=true: a test that cannot run fails")
+        sys.exit(1)
+    print("SKIP: numpy is missing (a failure under CI=true)")
     sys.exit(77)
 
 # Agreement: both sides are double precision on a well-conditioned scaled
@@ -120,6 +129,16 @@ def main(argv):
         judged += 1
     if judged == 0:
         failures.append("the decision judged no points")
+    if tamper:
+        tampered = [f for f in failures if f.startswith("fit-coefficients:")]
+        others = [f for f in failures if not f.startswith("fit-coefficients:")]
+        if tampered and not others:
+            print(f"ok: the tampered budget is rejected for its model standard error: {tampered[0]}")
+            return 0
+        print("FAIL: the tampered budget (fit-coefficients x 1.001) was not rejected for that component alone:")
+        for f in (failures or ["(no disagreement found)"])[:20]:
+            print("  " + f)
+        return 1
     if failures:
         print("FAIL: the record's budget disagrees with numpy:")
         for f in failures[:20]:

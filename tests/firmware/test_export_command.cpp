@@ -1,5 +1,7 @@
 // Tests of `ridgecal export`: parsing (no files) and running (temp directory).
 #define BOOST_TEST_MODULE export_command
+#include <stdlib.h>
+
 #include <boost/test/unit_test.hpp>
 
 #include <filesystem>
@@ -30,9 +32,10 @@ struct TempDir {
   fs::path dir;
   fs::path record;
   TempDir() {
-    dir = fs::temp_directory_path() / ("ridgecal-export-test-" + std::to_string(::getpid()));
-    fs::remove_all(dir);
-    fs::create_directories(dir);
+    // A fresh directory of this test's own (mkdtemp): nothing else is removed.
+    std::string t = (fs::temp_directory_path() / "ridgecal-export-test-XXXXXX").string();
+    BOOST_REQUIRE(::mkdtemp(t.data()) != nullptr);
+    dir = t;
     record = dir / "ntc.json";
     std::ostringstream out, err;
     const int rc = fit_main({std::string(RIDGECAL_SAMPLES_DIR) + "/ntc-coldstore/ntc-coldstore.csv", "-o",

@@ -17,4 +17,4 @@ cmake -S . -B "$build" -G Ninja -DCMAKE_BUILD_TYPE=Debug -DCMAKE_CXX_FLAGS_DEBUG
   -DCMAKE_CXX_COMPILER="${CXX_FUZZ:-clang++}" -DCMAKE_C_COMPILER="${CC_FUZZ:-clang}" \
   -DRIDGECAL_FUZZ=ON -DRIDGECAL_BUILD_TESTS=ON -DRIDGECAL_FUZZ_SECONDS="$seconds" >/dev/null
 cmake --build "$build" -j "$jobs" --target fuzz_csv_reader fuzz_record
-ctest --test-dir "$build" -L fuzz --output-on-failure -j "$jobs"
+bash tests/run-suite.sh "$build" -L fuzz --output-on-failure -j "$jobs"

@@ -75,6 +75,8 @@ function waitFor(method, ms) {
   });
 }
 const sleep = (ms) => new Promise((r) => setTimeout(r, ms));
+// Requests sent and not yet finished or failed (by Network requestId).
+const inFlight = new Set();
 const allowed = (u) => u === reportUrl || u.startsWith('data:') || u.startsWith('about:');
 
 listeners.push((m) => {
@@ -91,15 +93,47 @@ listeners.push((m) => {
       if (p.entry?.level === 'error') problems.push(`console error: ${p.entry.text} ${p.entry.url || ''}`.trim());
       break;
     case 'Network.requestWillBeSent':
+      inFlight.add(p.requestId);
       if (!allowed(p.request?.url)) problems.push(`resource request: ${p.request.url}`);
       break;
+    case 'Network.loadingFinished':
+      inFlight.delete(p.requestId);
+      break;
     case 'Network.loadingFailed':
+      inFlight.delete(p.requestId);
       problems.push(`failed load: ${p.errorText} (${p.type || 'resource'})`);
       break;
     default:
       break;
   }
 });
+
+// Waits until the page has settled, instead of a fixed delay: the document is
+// complete, the page has run one animation frame and the task queued after it
+// (so scripts started by the load have run and their console messages, which
+// the protocol delivers in order, have arrived before the reply), and no
+// request is still in flight (each ended in loadingFinished or loadingFailed).
+// Gives up after SETTLE_MS with a problem naming what was still pending.
+const SETTLE_MS = 15000;
+async function settled(s) {
+  const deadline = Date.now() + SETTLE_MS;
+  for (;;) {
+    const r = await s('Runtime.evaluate', {
+      expression: `new Promise((done) => requestAnimationFrame(() => setTimeout(() => done(document.readyState), 0)))`,
+      awaitPromise: true, returnByValue: true,
+    });
+    if (r.result?.value === 'complete' && inFlight.size === 0) return;
+    if (Date.now() > deadline) {
+      problems.push(`page did not settle within ${SETTLE_MS} ms: readyState ${r.result?.value}, ${inFlight.size} request(s) in flight`);
+      return;
+    }
+    // Wake on the next network event, or poll again after a short while.
+    await Promise.race([
+      new Promise((resolve) => listeners.push((m) => { if (m.method?.startsWith('Network.loading')) resolve(); })),
+      sleep(50),
+    ]);
+  }
+}
 
 async function main() {
   const { targetId } = await send('Target.createTarget', { url: 'about:blank' });
@@ -115,7 +149,7 @@ async function main() {
   const nav = await s('Page.navigate', { url: reportUrl });
   if (nav.errorText) problems.push(`navigation failed: ${nav.errorText}`);
   await loaded;
-  await sleep(500);  // late console messages and failed loads
+  await settled(s);
   const metrics = await s('Page.getLayoutMetrics');
   const size = metrics.cssContentSize || metrics.contentSize;
   const shot = await s('Page.captureScreenshot', {

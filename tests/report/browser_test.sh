@@ -2,22 +2,34 @@
 # Browser test of a report (CTest). Usage:
 #   browser_test.sh RENDERER RECORD.json OUTDIR   render the record, then check it
 #   browser_test.sh --html REPORT.html OUTDIR          check a report made elsewhere
-#   browser_test.sh --expect-fail REPORT.html OUTDIR   the check must reject it
+#   browser_test.sh --expect-fail TEXT REPORT.html OUTDIR
+#                      the check must reject it (browser_check exit 1) with a
+#                      problem that contains TEXT
 # Loads the report in headless Chromium with the network off; fails on console
 # errors, resource requests or failed loads (browser_check.mjs); prints it to
 # PDF on A4 and Letter and requires 1 to 3 pages each (pdfinfo); a first
 # argument --max-pages N raises the limit (extended records: more plots).
-# Exit 77 (skip) only when chromium is missing and cannot be installed.
+# Needs chromium (or $RIDGECAL_CHROMIUM), node and pdfinfo, which setup.sh test
+# installs (install-browser.sh); this test installs nothing. A missing tool is
+# named and fails the test under CI=true (skipped otherwise; need-tool.sh).
 set -u
 here=$(cd "$(dirname "$0")" && pwd)
+. "$here/../tools/need-tool.sh"
+ridgecal_need_tools "run tests/report/install-browser.sh, as setup.sh test does" \
+  "${RIDGECAL_CHROMIUM:-chromium}" node pdfinfo
 expect_fail=0
 max_pages=3
 if [ "${1:-}" = "--max-pages" ]; then
   max_pages=$2
   shift 2
 fi
+expect_text=""
 if [ "${1:-}" = "--expect-fail" ] || [ "${1:-}" = "--html" ]; then
-  [ "$1" = "--expect-fail" ] && expect_fail=1
+  if [ "$1" = "--expect-fail" ]; then
+    expect_fail=1
+    expect_text=$2
+    shift
+  fi
   shift
   report=$1
   out=$2
@@ -32,28 +44,15 @@ else
 fi
 mkdir -p "$out"
 
-need_install=0
-command -v "${RIDGECAL_CHROMIUM:-chromium}" >/dev/null 2>&1 || need_install=1
-command -v pdfinfo >/dev/null 2>&1 || need_install=1
-command -v node >/dev/null 2>&1 || need_install=1
-if [ $need_install = 1 ]; then
-  echo "browser_test: chromium, pdfinfo or node missing; trying tests/report/install-browser.sh"
-  "$here/install-browser.sh" >"$out/install.log" 2>&1 || true
-  if ! command -v "${RIDGECAL_CHROMIUM:-chromium}" >/dev/null 2>&1 || ! command -v pdfinfo >/dev/null 2>&1 ||
-     ! command -v node >/dev/null 2>&1; then
-    echo "SKIP: chromium/pdfinfo/node could not be installed (see $out/install.log)"
-    exit 77
-  fi
-fi
-
-node "$here/browser_check.mjs" "$report" "$out"
+node "$here/browser_check.mjs" "$report" "$out" >"$out/check.log" 2>&1
 rc=$?
+cat "$out/check.log"
 if [ $expect_fail = 1 ]; then
-  if [ $rc = 1 ]; then
-    echo "OK: the broken report was rejected, as it must be"
+  if [ $rc = 1 ] && grep -qF -- "$expect_text" "$out/check.log"; then
+    echo "OK: the broken report was rejected, as it must be, for: $expect_text"
     exit 0
   fi
-  echo "FAIL: browser_check should have rejected $report (exit $rc)"
+  echo "FAIL: browser_check should have rejected $report with exit 1 and \"$expect_text\" (exit $rc)"
   exit 1
 fi
 [ $rc = 0 ] || { echo "FAIL: browser_check exit $rc"; exit 1; }

@@ -2,7 +2,7 @@
 """Independent structural check of a report, with Python's own parsers.
 
     check_report.py [--render RENDERER RECORD.json] REPORT.html
-    check_report.py --expect-fail REPORT.html
+    check_report.py --expect-fail [--expect-problem TEXT] REPORT.html
 
 With --render, RENDERER (tests/report/render_record) first writes REPORT.html
 from RECORD.json with a fixed date. Checks:
@@ -11,7 +11,8 @@ from RECORD.json with a fixed date. Checks:
   * no <script>, <iframe>, <img>, <link>, <object>, <embed>; no src/href
     attributes; no url() other than #fragment; no @import;
   * the report sections appear in reading order.
-Exit 0 when all hold (or, with --expect-fail, when some check fails).
+Exit 0 when all hold (or, with --expect-fail, when some check fails and,
+with --expect-problem, one of the problems found contains TEXT).
 """
 import html.parser
 import re
@@ -86,6 +87,9 @@ def main(argv):
     expect_fail = False
     if argv and argv[0] == "--expect-fail":
         expect_fail, argv = True, argv[1:]
+    expect_problem = None
+    if expect_fail and argv and argv[0] == "--expect-problem":
+        expect_problem, argv = argv[1], argv[2:]
     if argv and argv[0] == "--render":
         renderer, record, out = argv[1], argv[2], argv[3]
         subprocess.run([renderer, record, out, "--date", "2026-12-02 09:00 UTC"], check=True)
@@ -99,6 +103,9 @@ def main(argv):
     for pr in problems:
         print("problem:", pr)
     if expect_fail:
+        if expect_problem is not None and not any(expect_problem in pr for pr in problems):
+            print(f"check_report: {argv[0]} was rejected, but not for the expected problem '{expect_problem}'")
+            return 1
         if problems:
             print(f"check_report: {argv[0]} rejected as expected ({len(problems)} problems)")
             return 0

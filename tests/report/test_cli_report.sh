@@ -5,6 +5,8 @@
 set -u
 bin=$1 samples=$2 out=$3
 here=$(cd "$(dirname "$0")" && pwd)
+. "$here/../tools/need-tool.sh"
+ridgecal_need_tools "apt-get install python3" python3
 rm -rf "$out" && mkdir -p "$out"
 fails=0
 bad() { echo "FAIL: $*"; fails=$((fails + 1)); }

@@ -1,4 +1,6 @@
 // `ridgecal report`: command-line parsing and running (exit codes, atomic output).
+#include <stdlib.h>
+
 #include <boost/test/unit_test.hpp>
 
 #include <cstdio>
@@ -15,13 +17,19 @@ namespace fs = std::filesystem;
 namespace {
 const std::string kDir = RIDGECAL_REPORT_TEST_DIR;
 
+// A fresh directory of this test's own (mkdtemp), removed with what it holds
+// at the end: nothing outside it is written or deleted.
 struct TempDir {
   fs::path path;
   TempDir() {
-    path = fs::temp_directory_path() / fs::path("ridgecal-report-cli-" + std::to_string(std::rand()));
-    fs::create_directories(path);
+    std::string t = (fs::temp_directory_path() / "ridgecal-report-cli-XXXXXX").string();
+    BOOST_REQUIRE(::mkdtemp(t.data()) != nullptr);
+    path = t;
   }
-  ~TempDir() { fs::remove_all(path); }
+  ~TempDir() {
+    std::error_code ec;
+    fs::remove_all(path, ec);
+  }
 };
 
 std::string slurp(const fs::path& p) {

@@ -206,9 +206,8 @@ BOOST_AUTO_TEST_CASE(record_round_trips_the_assessment) {
 }
 
 BOOST_AUTO_TEST_CASE(as_found_refuses_a_modified_record) {
-  const auto dir =
-      std::filesystem::temp_directory_path() / ("ridgecal_asfound_" + std::to_string(::getpid()));
-  std::filesystem::create_directories(dir);
+  const test::TempDir tmp;
+  const auto& dir = tmp.path();
   const Calibration cal = fit_line(0.01);
   CalibrationRecord rec;
   rec.tool_version = "test";
@@ -262,7 +261,6 @@ BOOST_AUTO_TEST_CASE(as_found_refuses_a_modified_record) {
   AsFoundOptions guarded;
   guarded.rule = DecisionRule::GuardedAcceptance;
   BOOST_CHECK_THROW(evaluate_as_found(allowed, fresh, guarded), InputError);
-  std::filesystem::remove_all(dir);
 }
 
 // Issue 13 item 6: the variation rule and the zero span.

@@ -1,7 +1,8 @@
 // Extended fits: transforms, restricted powers, the second input (aux).
-// External checks: Steinhart-Hart recovery (issue 7), the pressure demo's
-// known surface, and agreement of the 2-D degree-1 case with the n-input
-// linear design.
+// Synthetic recovery tests: the Steinhart-Hart law (constants written from
+// memory, not from a published source; issue 7) and the pressure demo's known
+// surface are generated here and recovered by the fit; and agreement of the
+// 2-D degree-1 case with the n-input linear design.
 #define BOOST_TEST_MODULE compensation
 #include <boost/test/unit_test.hpp>
 #include <cmath>
@@ -20,9 +21,11 @@ using namespace ridgecal;
 
 namespace {
 
-// Steinhart-Hart coefficients commonly quoted for a 10 kOhm NTC thermistor
-// (1/T = A + B ln R + C (ln R)^3, T in kelvin, R in ohms). Values from common
-// practice, written down from memory; any smooth NTC-like set would do.
+// Steinhart-Hart coefficients of the size usual for a 10 kOhm NTC thermistor
+// (1/T = A + B ln R + C (ln R)^3, T in kelvin, R in ohms), written down from
+// memory, not from a published source: this is a synthetic recovery test (the
+// data are generated from these constants), not an external check; any smooth
+// NTC-like set would do.
 constexpr double kShA = 1.009249522e-3;
 constexpr double kShB = 2.378405444e-4;
 constexpr double kShC = 2.019202697e-7;

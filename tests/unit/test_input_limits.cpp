@@ -10,6 +10,7 @@
 #include "ridgecal/atomic_file.hpp"
 #include "ridgecal/calibration_csv.hpp"
 #include "ridgecal/errors.hpp"
+#include "test_support.hpp"
 
 using namespace ridgecal;
 
@@ -62,7 +63,8 @@ BOOST_AUTO_TEST_CASE(field_count_and_length_limits) {
 }
 
 BOOST_AUTO_TEST_CASE(file_size_limit_is_checked_before_reading) {
-  const std::string path = "ridgecal_test_input_limits.csv";
+  const ridgecal::test::TempDir tmp;
+  const std::string path = tmp / "limits.csv";
   {
     std::ofstream out(path);
     out << "reading,reference\n";
@@ -78,7 +80,6 @@ BOOST_AUTO_TEST_CASE(file_size_limit_is_checked_before_reading) {
     BOOST_TEST(has(e.what(), "the limit is 100 bytes"), e.what());
     BOOST_TEST(has(e.what(), "--max-bytes"), e.what());
   }
-  std::remove(path.c_str());
   // A stream without a size (a character device that never ends) is cut off too.
   try {
     read_file_bytes_limited("/dev/zero", 1 << 20, "hint");

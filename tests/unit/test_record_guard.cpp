@@ -41,7 +41,8 @@ bool has(const std::string& s, const std::string& n) { return s.find(n) != std::
 }  // namespace
 
 BOOST_AUTO_TEST_CASE(intact_record_loads_from_a_file) {
-  const std::string path = "ridgecal_test_record_guard.json";
+  const test::TempDir tmp;
+  const std::string path = tmp / "guard.json";
   write_file_atomic(path, good_text());
   const GuardedRecord r = load_record_checked(path, false);
   BOOST_TEST(!r.modified);

@@ -17,14 +17,24 @@ double cubic(double x) {
   return -20.0 + 150.0 * t + 12.0 * t * t - 8.0 * t * t * t;
 }
 constexpr double kCubicNoise = 0.05;
-// Acceptance from the issue: degree 3 chosen in at least 9 of 10 seeds.
+// Acceptance from the issue: degree 3 chosen in at least 9 of 10 seeds by the
+// default rule (one-se). Measured (seeds 1..10): cubic 10 of 10, margin 1;
+// line 9 of 10, margin 0.
 constexpr int kSeeds = 10;
 constexpr int kRequiredHits = 9;
+// min-cv, measured on the same seeds: on the cubic it picked degrees
+// 6 3 3 3 7 7 3 3 3 3 (degree 3 in 7 of 10, never below 3); on the line
+// 3 7 1 5 2 7 6 6 1 1 (degree 1 in 3 of 10). Its lowest score often belongs to
+// a higher degree that CV cannot tell apart, which is why one-se is the
+// default. Asserted with a margin of one seed; min-cv must never underfit the
+// cubic (a degree below 3 misses a term 80 times the noise).
+constexpr int kMinCvCubicHits = 6;
+constexpr int kMinCvLineHits = 2;
 }  // namespace
 
 BOOST_AUTO_TEST_CASE(known_cubic_picks_degree_three) {
   for (SelectionRule rule : {SelectionRule::MinCv, SelectionRule::OneSe}) {
-    int hits = 0;
+    int hits = 0, below = 0;
     std::string picks;
     for (int seed = 1; seed <= kSeeds; ++seed) {
       const Dataset ds = test::synthetic_run(cubic, 0.0, 100.0, 15, 4, kCubicNoise, 1000 + seed);
@@ -36,17 +46,18 @@ BOOST_AUTO_TEST_CASE(known_cubic_picks_degree_three) {
       const int d = fit.calibration.model.degree();
       picks += fmt::format(" {}", d);
       if (d == 3) ++hits;
+      if (d < 3) ++below;
     }
     BOOST_TEST_MESSAGE("rule " << to_string(rule) << ": degrees chosen" << picks);
-    // The acceptance criterion applies to the default rule; min-cv is reported only
-    // (its lowest score often belongs to a higher degree that CV cannot tell apart).
-    if (rule == FitOptions{}.rule)
-      BOOST_TEST(hits >= kRequiredHits, "rule " << to_string(rule) << " picked degree 3 in " << hits << " of "
-                                                << kSeeds << " seeds:" << picks);
+    BOOST_TEST(below == 0, "rule " << to_string(rule) << " underfitted the cubic:" << picks);
+    const int required = rule == FitOptions{}.rule ? kRequiredHits : kMinCvCubicHits;
+    BOOST_TEST(hits >= required, "rule " << to_string(rule) << " picked degree 3 in " << hits << " of " << kSeeds
+                                         << " seeds (required " << required << "):" << picks);
   }
 }
 
 BOOST_AUTO_TEST_CASE(noise_around_a_line_picks_degree_one) {
+  std::map<SelectionRule, int> hits_of;
   for (SelectionRule rule : {SelectionRule::MinCv, SelectionRule::OneSe}) {
     std::string picks;
     int hits = 0;
@@ -62,8 +73,13 @@ BOOST_AUTO_TEST_CASE(noise_around_a_line_picks_degree_one) {
       if (fit.calibration.model.degree() == 1) ++hits;
     }
     BOOST_TEST_MESSAGE("rule " << to_string(rule) << ": degrees chosen" << picks);
-    if (rule == FitOptions{}.rule) BOOST_TEST(hits >= kRequiredHits, "rule " << to_string(rule) << ":" << picks);
+    const int required = rule == FitOptions{}.rule ? kRequiredHits : kMinCvLineHits;
+    BOOST_TEST(hits >= required, "rule " << to_string(rule) << " picked degree 1 in " << hits << " of " << kSeeds
+                                         << " seeds (required " << required << "):" << picks);
+    hits_of[rule] = hits;
   }
+  // The reason one-se is the default: it finds the line far more often.
+  BOOST_TEST(hits_of[SelectionRule::OneSe] > hits_of[SelectionRule::MinCv]);
 }
 
 BOOST_AUTO_TEST_CASE(test_set_never_influences_the_choice) {

@@ -1,10 +1,15 @@
 // Shared helpers for the unit tests: synthetic calibration runs.
 #pragma once
 
+#include <stdlib.h>
+
 #include <cmath>
 #include <cstdint>
+#include <filesystem>
 #include <functional>
+#include <stdexcept>
 #include <string>
+#include <system_error>
 
 #include "ridgecal/calibration_csv.hpp"
 #include "ridgecal/grouped_split.hpp"
@@ -46,5 +51,28 @@ inline Dataset synthetic_run(const std::function<double(double)>& f, double x0, 
   }
   return ds;
 }
+
+/// A fresh directory of the test's own under the system temporary directory
+/// (mkdtemp), removed with its contents at the end. Tests write only there,
+/// never into the working directory, so that `ctest -j` is safe.
+class TempDir {
+ public:
+  TempDir() {
+    std::string t = (std::filesystem::temp_directory_path() / "ridgecal-test-XXXXXX").string();
+    if (::mkdtemp(t.data()) == nullptr) throw std::runtime_error("mkdtemp failed for " + t);
+    path_ = t;
+  }
+  TempDir(const TempDir&) = delete;
+  TempDir& operator=(const TempDir&) = delete;
+  ~TempDir() {
+    std::error_code ec;
+    std::filesystem::remove_all(path_, ec);
+  }
+  const std::filesystem::path& path() const { return path_; }
+  std::string operator/(const std::string& name) const { return (path_ / name).string(); }
+
+ private:
+  std::filesystem::path path_;
+};
 
 }  // namespace ridgecal::test
