@@ -1,7 +1,9 @@
 // Emits the C header text (the versioned contract in docs/firmware-export.md).
+#include <algorithm>
 #include <cmath>
 #include <cstdio>
 #include <sstream>
+#include <utility>
 
 #include "export_proof.hpp"
 #include "header_common.hpp"
@@ -89,6 +91,28 @@ bool choose_proof_tolerance(const HeaderMeta& meta, const ExportOptions& opt, Pr
   }
   out.limit = opt.max_deviation_fraction * out.tolerance;
   return true;
+}
+
+bool start_result(const HeaderMeta& meta, const ExportOptions& opt, ExportResult& r, ProofTolerance& pt) {
+  if (!choose_proof_tolerance(meta, opt, pt, r.message)) return false;
+  r.tolerance_used = pt.tolerance;
+  r.tolerance_source = pt.source;
+  r.deviation_limit = pt.limit;
+  return true;
+}
+
+void finish_result(ExportResult& r, std::string header, std::uint32_t crc, const std::string& formats,
+                   const ProofFigures& proof) {
+  r.header = std::move(header);
+  r.table_crc32 = crc;
+  r.formats = formats;
+  r.max_deviation = proof.max;
+  r.deviation_at = proof.at;
+  r.points_checked = proof.points;
+  r.readings_checked = proof.readings;
+  const CodeStats partial = r.stats;
+  r.stats = stats_for(r.header, partial.table_entries, partial.table_bytes / std::max(1, partial.table_entries),
+                      partial.multiplies_per_eval, partial.additions_per_eval);
 }
 
 void emit_table_codes_and_linkage(std::ostringstream& o, const Names& n) {
@@ -426,13 +450,10 @@ ExportResult generate_c_header(const PolyModel& model, const HeaderMeta& meta,
   }
   Proof proof;
   detail::ProofTolerance pt;
-  if (!detail::choose_proof_tolerance(meta, opt, pt, r.message)) return r;
+  if (!detail::start_result(meta, opt, r, pt)) return r;
   proof.tolerance = pt.tolerance;
   proof.tolerance_source = pt.source;
   proof.limit = pt.limit;
-  r.tolerance_used = proof.tolerance;
-  r.tolerance_source = proof.tolerance_source;
-  r.deviation_limit = proof.limit;
 
   const Names n{opt.prefix, macro_case(opt.prefix)};
   const int deg = model.degree();
@@ -515,16 +536,8 @@ ExportResult generate_c_header(const PolyModel& model, const HeaderMeta& meta,
   o << body.str();
   detail::emit_epilogue(o, n);
 
-  r.header = o.str();
-  r.table_crc32 = crc;
-  r.formats = formats;
-  r.max_deviation = proof.dev.max;
-  r.deviation_at = proof.dev.at;
-  r.points_checked = proof.dev.points;
-  r.readings_checked = proof.dev.readings;
-  const CodeStats partial = r.stats;
-  r.stats = stats_for(r.header, partial.table_entries, partial.table_bytes / std::max(1, partial.table_entries),
-                      partial.multiplies_per_eval, partial.additions_per_eval);
+  detail::finish_result(r, o.str(), crc, formats,
+                        {proof.dev.max, proof.dev.at, proof.dev.points, proof.dev.readings});
   if (!(proof.dev.max <= proof.limit)) {
     r.status = ExportStatus::Refused;
     r.message = "refused: max deviation " + g(proof.dev.max, 4) + " at reading " +

@@ -560,13 +560,10 @@ SurfaceExportResult generate_surface_header(const SurfaceModel& model, const Hea
   }
   Proof proof;
   detail::ProofTolerance pt;
-  if (!detail::choose_proof_tolerance(meta, opt, pt, r.message)) return sr;
+  if (!detail::start_result(meta, opt, r, pt)) return sr;
   proof.tolerance = pt.tolerance;
   proof.tolerance_source = pt.source;
   proof.limit = pt.limit;
-  r.tolerance_used = proof.tolerance;
-  r.tolerance_source = proof.tolerance_source;
-  r.deviation_limit = proof.limit;
 
   const Names n{opt.prefix, macro_case(opt.prefix)};
   std::ostringstream body;
@@ -640,17 +637,8 @@ SurfaceExportResult generate_surface_header(const SurfaceModel& model, const Hea
   o << body.str();
   detail::emit_epilogue(o, n);
 
-  r.header = o.str();
-  r.table_crc32 = crc;
-  r.formats = formats;
-  r.max_deviation = proof.max;
-  r.deviation_at = proof.at_x;
+  detail::finish_result(r, o.str(), crc, formats, {proof.max, proof.at_x, proof.points, proof.readings});
   sr.deviation_at_aux = proof.at_aux;
-  r.points_checked = proof.points;
-  r.readings_checked = proof.readings;
-  const CodeStats partial = r.stats;
-  r.stats = stats_for(r.header, partial.table_entries, partial.table_bytes / std::max(1, partial.table_entries),
-                      partial.multiplies_per_eval, partial.additions_per_eval);
   const double bound = proof.max + proof.allowance;
   const std::string where =
       " at reading " + g(proof.at_x, 9) + (model.has_aux ? ", aux " + g(proof.at_aux, 9) : std::string());
