@@ -5,6 +5,7 @@
 #pragma once
 
 #include "ridgecal/firmware/export.hpp"
+#include "ridgecal/firmware/firmware_model.hpp"
 #include "ridgecal/firmware/fixed_point.hpp"
 #include "ridgecal/firmware/float_emulation.hpp"
 #include "ridgecal/firmware/numeric_mode.hpp"
