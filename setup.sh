@@ -27,7 +27,7 @@ base_pkgs=(g++ cmake ninja-build pkg-config libeigen3-dev libboost-dev libboost-
 # (tests/fuzz), GSL (the Longley cross-check). The firmware target and browser
 # tools are installed by the scripts listed in test_installers; no test
 # installs anything itself.
-test_pkgs=(python3 python3-numpy clang-14 libclang-rt-14-dev libgsl-dev)
+test_pkgs=(python3 python3-numpy clang-14 libclang-rt-14-dev libgsl-dev clang-format)
 test_installers=()
 for f in tests/*/install-*.sh; do [[ -e $f ]] && test_installers+=("$f"); done
 

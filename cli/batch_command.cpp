@@ -1,9 +1,9 @@
 #include "batch_command.hpp"
 
+#include <fmt/format.h>
 #include <unistd.h>
 
 #include <boost/program_options.hpp>
-#include <fmt/format.h>
 #include <iostream>
 #include <ostream>
 #include <sstream>
@@ -20,10 +20,14 @@ namespace ridgecal::cli {
 
 std::string to_string(ProgressMode m) {
   switch (m) {
-    case ProgressMode::Bar: return "bar";
-    case ProgressMode::Lines: return "lines";
-    case ProgressMode::None: return "none";
-    default: return "auto";
+    case ProgressMode::Bar:
+      return "bar";
+    case ProgressMode::Lines:
+      return "lines";
+    case ProgressMode::None:
+      return "none";
+    default:
+      return "auto";
   }
 }
 ProgressMode progress_mode_from_string(const std::string& s) {
@@ -98,11 +102,15 @@ po::options_description batch_options() {
 std::string batch_usage() {
   std::ostringstream s;
   s << batch_options();
-  s << "\nOutputs are written atomically. Units that fail are listed in the summary with their error;\n"
+  s << "\nOutputs are written atomically. Units that fail are listed in the summary with their "
+       "error;\n"
        "the others are unaffected.\n"
-       "With --reports / --headers, a unit whose report or header cannot be made (e.g. a header the\n"
-       "export proof refuses) gets a warning in the summary, and no stale file of an earlier run is left.\n"
-       "Exit codes: 0 every unit fitted (and PASS, with a tolerance, and every report/header written),\n"
+       "With --reports / --headers, a unit whose report or header cannot be made (e.g. a header "
+       "the\n"
+       "export proof refuses) gets a warning in the summary, and no stale file of an earlier run "
+       "is left.\n"
+       "Exit codes: 0 every unit fitted (and PASS, with a tolerance, and every report/header "
+       "written),\n"
        "1 at least one unit failed, is out of tolerance or lacks a requested report/header,\n"
        "2 bad usage or unusable input (no summary written).\n";
   return s.str();
@@ -115,11 +123,15 @@ BatchCommand parse_batch_command(const std::vector<std::string>& args) {
     cmd.help = true;
     return cmd;
   }
-  if (!vm.count("data")) throw UsageError("give the batch file or directory: ridgecal batch DATA.csv --unit COL --out-dir DIR");
+  if (!vm.count("data"))
+    throw UsageError(
+        "give the batch file or directory: ridgecal batch DATA.csv --unit COL --out-dir DIR");
   const auto& data = vm["data"].as<std::vector<std::string>>();
-  if (data.size() != 1) throw UsageError(fmt::format("give exactly one batch file or directory, not {}", data.size()));
+  if (data.size() != 1)
+    throw UsageError(fmt::format("give exactly one batch file or directory, not {}", data.size()));
   cmd.data_path = data[0];
-  if (!vm.count("out-dir")) throw UsageError("--out-dir is required: the directory for the records and the summary");
+  if (!vm.count("out-dir"))
+    throw UsageError("--out-dir is required: the directory for the records and the summary");
   BatchOptions& b = cmd.batch;
   b.out_dir = vm["out-dir"].as<std::string>();
   if (vm.count("unit")) b.input.unit_column = vm["unit"].as<std::string>();
@@ -138,7 +150,8 @@ BatchCommand parse_batch_command(const std::vector<std::string>& args) {
     h.options.prefix = vm["headers"].as<std::string>();
     const std::string mode = vm["header-numeric"].as<std::string>();
     const auto m = firmware::numeric_mode_from_string(mode);
-    if (!m) throw UsageError(fmt::format("--header-numeric '{}': must be float, double or fixed", mode));
+    if (!m)
+      throw UsageError(fmt::format("--header-numeric '{}': must be float, double or fixed", mode));
     h.options.mode = *m;
     h.options.output_scale =
         parse_number_option("--header-output-scale", vm["header-output-scale"].as<std::string>());
@@ -171,7 +184,8 @@ BatchCommand parse_batch_command(const std::vector<std::string>& args) {
   f.split.test_fraction = vm["test-fraction"].as<double>();
   f.split.seed = vm["seed"].as<std::uint64_t>();
   if (vm.count("degree") != vm.count("lambda"))
-    throw UsageError("--degree and --lambda go together: give both for a fixed model, or neither to select one");
+    throw UsageError(
+        "--degree and --lambda go together: give both for a fixed model, or neither to select one");
   if (vm.count("degree")) {
     f.fixed_degree = vm["degree"].as<int>();
     f.fixed_lambda = vm["lambda"].as<double>();
@@ -188,7 +202,9 @@ BatchCommand parse_batch_command(const std::vector<std::string>& args) {
   b.assess.uncertainty = jc.uncertainty;
   b.assess.diagnostics = jc.diagnostics;
   if (jc.rule && !jc.tolerance)
-    throw UsageError("--decision needs a tolerance: give --tol-offset, --tol-proportional, --tol-percent-span or --tol-class");
+    throw UsageError(
+        "--decision needs a tolerance: give --tol-offset, --tol-proportional, --tol-percent-span "
+        "or --tol-class");
   if (const std::string e = b.validate(); !e.empty()) throw UsageError(e);
   return cmd;
 }
@@ -198,12 +214,14 @@ std::string progress_text(const BatchProgress& p) {
   std::string s = fmt::format("units {}", p.units_done);
   if (p.units_failed) s += fmt::format(" ({} failed)", p.units_failed);
   if (p.bytes_total > 0)
-    s += fmt::format(", {:.0f}% of input", 100.0 * static_cast<double>(p.bytes_read) / static_cast<double>(p.bytes_total));
+    s += fmt::format(", {:.0f}% of input", 100.0 * static_cast<double>(p.bytes_read) /
+                                               static_cast<double>(p.bytes_total));
   s += fmt::format(", {:.0f} units/s, {:.1f} s", rate, p.seconds);
   return s;
 }
 
-int run_batch_command(const BatchCommand& cmd, std::ostream& out, std::ostream& err, bool stderr_is_tty) {
+int run_batch_command(const BatchCommand& cmd, std::ostream& out, std::ostream& err,
+                      bool stderr_is_tty) {
   if (cmd.help) {
     out << batch_usage();
     return kExitOk;
@@ -214,39 +232,47 @@ int run_batch_command(const BatchCommand& cmd, std::ostream& out, std::ostream& 
   // `ridgecal export`, run on the record just written (thread-safe: each call
   // has its own streams and writes its own file atomically).
   if (cmd.reports)
-    opt.unit_outputs.push_back({"report", "reports", ".html", [](const std::string& rec, const std::string& path) {
-                                  ReportCommand rc;
-                                  rc.record_path = rec;
-                                  rc.output_path = path;
-                                  std::ostringstream o, e;
-                                  return run_report_command(rc, o, e) == kExitOk ? std::string() : one_line(e.str());
-                                }});
+    opt.unit_outputs.push_back(
+        {"report", "reports", ".html", [](const std::string& rec, const std::string& path) {
+           ReportCommand rc;
+           rc.record_path = rec;
+           rc.output_path = path;
+           std::ostringstream o, e;
+           return run_report_command(rc, o, e) == kExitOk ? std::string() : one_line(e.str());
+         }});
   if (cmd.header) {
     const ExportCommand proto = *cmd.header;
-    opt.unit_outputs.push_back({"header", "headers", ".h", [proto](const std::string& rec, const std::string& path) {
-                                  ExportCommand ec = proto;
-                                  ec.record_path = rec;
-                                  ec.output_path = path;
-                                  std::ostringstream o, e;
-                                  return run_export_command(ec, o, e) == kExitOk ? std::string() : one_line(e.str());
-                                }});
+    opt.unit_outputs.push_back(
+        {"header", "headers", ".h", [proto](const std::string& rec, const std::string& path) {
+           ExportCommand ec = proto;
+           ec.record_path = rec;
+           ec.output_path = path;
+           std::ostringstream o, e;
+           return run_export_command(ec, o, e) == kExitOk ? std::string() : one_line(e.str());
+         }});
   }
   ProgressMode mode = cmd.progress;
   if (mode == ProgressMode::Auto) mode = stderr_is_tty ? ProgressMode::Bar : ProgressMode::Lines;
-  const double interval = cmd.progress_interval_s > 0 ? cmd.progress_interval_s : (mode == ProgressMode::Bar ? 0.2 : 5.0);
+  const double interval = cmd.progress_interval_s > 0 ? cmd.progress_interval_s
+                                                      : (mode == ProgressMode::Bar ? 0.2 : 5.0);
   ProgressCallback cb;
   if (mode == ProgressMode::Bar) {
     cb = [&err](const BatchProgress& p) {
-      const double frac = p.bytes_total ? static_cast<double>(p.bytes_read) / static_cast<double>(p.bytes_total) : 0.0;
+      const double frac =
+          p.bytes_total ? static_cast<double>(p.bytes_read) / static_cast<double>(p.bytes_total)
+                        : 0.0;
       const int width = 30;
       const int filled = std::min(width, static_cast<int>(frac * width + 0.5));
       err << "\r[" << std::string(static_cast<std::size_t>(filled), '#')
-          << std::string(static_cast<std::size_t>(width - filled), '.') << "] " << progress_text(p) << "\x1b[K";
+          << std::string(static_cast<std::size_t>(width - filled), '.') << "] " << progress_text(p)
+          << "\x1b[K";
       if (p.finished) err << "\n";
       err.flush();
     };
   } else if (mode == ProgressMode::Lines) {
-    cb = [&err](const BatchProgress& p) { err << "ridgecal batch: " << progress_text(p) << "\n" << std::flush; };
+    cb = [&err](const BatchProgress& p) {
+      err << "ridgecal batch: " << progress_text(p) << "\n" << std::flush;
+    };
   } else {
     cb = [&err](const BatchProgress& p) {
       if (p.finished) err << "ridgecal batch: " << progress_text(p) << "\n";
@@ -257,9 +283,11 @@ int run_batch_command(const BatchCommand& cmd, std::ostream& out, std::ostream& 
     const BatchResult r = run_batch(inputs, opt, cb, interval);
     out << fmt::format("{} units: {} ok, {} failed", r.units, r.ok, r.failed);
     if (opt.assess.tolerance) out << fmt::format(", {} out of tolerance", r.out_of_tolerance);
-    if (!opt.unit_outputs.empty()) out << fmt::format(", {} with a report or header not written", r.outputs_failed);
+    if (!opt.unit_outputs.empty())
+      out << fmt::format(", {} with a report or header not written", r.outputs_failed);
     out << "\nsummary: " << opt.out_dir << "/summary.csv, " << opt.out_dir << "/summary.json\n";
-    return r.failed > 0 || r.out_of_tolerance > 0 || r.outputs_failed > 0 ? kExitOutOfTolerance : kExitOk;
+    return r.failed > 0 || r.out_of_tolerance > 0 || r.outputs_failed > 0 ? kExitOutOfTolerance
+                                                                          : kExitOk;
   } catch (const InputError& e) {
     err << "\nridgecal batch: " << format_input_error(e) << "\n";
     return kExitBadInput;
@@ -267,9 +295,11 @@ int run_batch_command(const BatchCommand& cmd, std::ostream& out, std::ostream& 
 }
 
 int batch_main(const std::vector<std::string>& args, std::ostream& out, std::ostream& err) {
-  return run_subcommand("batch", args, out, err, parse_batch_command, [&](const BatchCommand& cmd, std::ostream& o, std::ostream& e) {
-    return run_batch_command(cmd, o, e, &e == &std::cerr && ::isatty(STDERR_FILENO));
-  });
+  return run_subcommand("batch", args, out, err, parse_batch_command,
+                        [&](const BatchCommand& cmd, std::ostream& o, std::ostream& e) {
+                          return run_batch_command(cmd, o, e,
+                                                   &e == &std::cerr && ::isatty(STDERR_FILENO));
+                        });
 }
 
 }  // namespace ridgecal::cli

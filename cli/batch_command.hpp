@@ -29,12 +29,12 @@ std::string to_string(ProgressMode m);
 ProgressMode progress_mode_from_string(const std::string& s);  ///< throws std::invalid_argument
 
 struct BatchCommand {
-  std::string data_path;          ///< batch CSV or directory of CSV files
-  BatchOptions batch;             ///< includes the fit options and the output directory
-  std::string timestamp;          ///< injected creation time ("" = now, "none" = omit)
+  std::string data_path;  ///< batch CSV or directory of CSV files
+  BatchOptions batch;     ///< includes the fit options and the output directory
+  std::string timestamp;  ///< injected creation time ("" = now, "none" = omit)
   ProgressMode progress = ProgressMode::Auto;
-  double progress_interval_s = 0; ///< 0: 0.2 s for the bar, 5 s for lines
-  bool reports = false;           ///< --reports: reports/UNIT.html per fitted unit (as `ridgecal report`)
+  double progress_interval_s = 0;  ///< 0: 0.2 s for the bar, 5 s for lines
+  bool reports = false;  ///< --reports: reports/UNIT.html per fitted unit (as `ridgecal report`)
   /// --headers PREFIX: headers/UNIT.h per fitted unit (as `ridgecal export`;
   /// record_path and output_path are filled in per unit).
   std::optional<ExportCommand> header;
@@ -44,7 +44,8 @@ struct BatchCommand {
 /// Parses `ridgecal batch` arguments; throws UsageError.
 BatchCommand parse_batch_command(const std::vector<std::string>& args);
 /// Runs it; `stderr_is_tty` selects the progress bar in auto mode.
-int run_batch_command(const BatchCommand& cmd, std::ostream& out, std::ostream& err, bool stderr_is_tty);
+int run_batch_command(const BatchCommand& cmd, std::ostream& out, std::ostream& err,
+                      bool stderr_is_tty);
 /// Entry point for the dispatch table.
 int batch_main(const std::vector<std::string>& args, std::ostream& out, std::ostream& err);
 std::string batch_usage();

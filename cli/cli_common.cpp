@@ -1,11 +1,12 @@
 #include "cli_common.hpp"
 
+#include <fmt/format.h>
+
 #include <algorithm>
 #include <charconv>
 #include <cmath>
 #include <cstdlib>
 #include <ctime>
-#include <fmt/format.h>
 
 #include "ridgecal/calibration.hpp"
 
@@ -44,7 +45,9 @@ std::vector<int> parse_degree_list(const std::string& text) {
     }
     int a = 0, b = 0;
     if (dots == std::string::npos) {
-      if (!to_int(item, a)) throw UsageError(fmt::format("--degrees: '{}' is not a degree (write e.g. 1..7 or 1,2,3)", item));
+      if (!to_int(item, a))
+        throw UsageError(
+            fmt::format("--degrees: '{}' is not a degree (write e.g. 1..7 or 1,2,3)", item));
       b = a;
     } else if (!to_int(item.substr(0, dots), a) || !to_int(item.substr(dots + len), b) || b < a) {
       throw UsageError(fmt::format("--degrees: '{}' is not a range (write e.g. 1..7)", item));
@@ -79,15 +82,18 @@ std::vector<double> parse_lambda_list(const std::string& text) {
       const double b = parse_number_option("--lambdas", parts[1]);
       int n = 0;
       if (!to_int(parts[2], n) || n < 2 || n > 1000 || !(a > 0) || !(b > a))
-        throw UsageError(fmt::format("--lambdas: '{}' must be A:B:N with 0 < A < B and 2 <= N <= 1000", item));
+        throw UsageError(
+            fmt::format("--lambdas: '{}' must be A:B:N with 0 < A < B and 2 <= N <= 1000", item));
       for (int i = 0; i < n; ++i)
-        out.push_back(std::pow(10.0, std::log10(a) + (std::log10(b) - std::log10(a)) * i / (n - 1)));
+        out.push_back(
+            std::pow(10.0, std::log10(a) + (std::log10(b) - std::log10(a)) * i / (n - 1)));
     } else {
       throw UsageError(fmt::format("--lambdas: '{}' is neither a number nor A:B:N", item));
     }
   }
   for (double l : out)
-    if (l < 0) throw UsageError(fmt::format("--lambdas: {} is negative; penalties must be >= 0", l));
+    if (l < 0)
+      throw UsageError(fmt::format("--lambdas: {} is negative; penalties must be >= 0", l));
   return out;
 }
 
@@ -114,9 +120,9 @@ std::string creation_time(const std::string& injected) {
   return buf;
 }
 
-boost::program_options::variables_map parse_arguments(const std::vector<std::string>& args,
-                                                      const boost::program_options::options_description& options,
-                                                      const std::string& positional) {
+boost::program_options::variables_map parse_arguments(
+    const std::vector<std::string>& args,
+    const boost::program_options::options_description& options, const std::string& positional) {
   namespace po = boost::program_options;
   po::options_description all;
   all.add(options).add_options()(positional.c_str(), po::value<std::vector<std::string>>(), "");

@@ -42,16 +42,16 @@ std::string creation_time(const std::string& injected);
 /// Parses a subcommand's arguments: `options`, plus every positional argument
 /// collected as a std::vector<std::string> under the name `positional`.
 /// Throws UsageError with program_options' message.
-boost::program_options::variables_map parse_arguments(const std::vector<std::string>& args,
-                                                      const boost::program_options::options_description& options,
-                                                      const std::string& positional);
+boost::program_options::variables_map parse_arguments(
+    const std::vector<std::string>& args,
+    const boost::program_options::options_description& options, const std::string& positional);
 
 /// The entry point every subcommand shares: `parse(args)` (a UsageError
 /// becomes "ridgecal NAME: message" and "Try 'ridgecal NAME --help'." on err,
 /// exit 2), then `run(command, out, err)`.
 template <class Parse, class Run>
-int run_subcommand(const char* name, const std::vector<std::string>& args, std::ostream& out, std::ostream& err,
-                   Parse parse, Run run) {
+int run_subcommand(const char* name, const std::vector<std::string>& args, std::ostream& out,
+                   std::ostream& err, Parse parse, Run run) {
   decltype(parse(args)) cmd;
   try {
     cmd = parse(args);
@@ -63,6 +63,7 @@ int run_subcommand(const char* name, const std::vector<std::string>& args, std::
 }
 
 /// Subcommand entry point: args exclude the program and subcommand names.
-using SubcommandMain = int (*)(const std::vector<std::string>& args, std::ostream& out, std::ostream& err);
+using SubcommandMain = int (*)(const std::vector<std::string>& args, std::ostream& out,
+                               std::ostream& err);
 
 }  // namespace ridgecal::cli

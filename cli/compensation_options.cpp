@@ -49,27 +49,34 @@ auto parse_choice(const std::string& option, const std::string& text, F parse) {
 
 }  // namespace
 
-void parse_compensation_options(const po::variables_map& vm, CsvOptions& csv, CompensationOptions& c) {
+void parse_compensation_options(const po::variables_map& vm, CsvOptions& csv,
+                                CompensationOptions& c) {
   if (vm.count("aux")) {
     c.aux = true;
     csv.aux_column = vm["aux"].as<std::string>();
   }
   if (vm.count("aux-setpoint")) csv.aux_setpoint_column = vm["aux-setpoint"].as<std::string>();
   c.aux_step = vm["aux-step"].as<double>();
-  if (vm.count("aux-degree")) c.aux_degrees = parse_int_list("--aux-degree", vm["aux-degree"].as<std::string>());
+  if (vm.count("aux-degree"))
+    c.aux_degrees = parse_int_list("--aux-degree", vm["aux-degree"].as<std::string>());
   c.transforms.reading =
-      parse_choice("--reading-transform", vm["reading-transform"].as<std::string>(), reading_transform_from_string);
+      parse_choice("--reading-transform", vm["reading-transform"].as<std::string>(),
+                   reading_transform_from_string);
   c.transforms.reference =
-      parse_choice("--reference-transform", vm["reference-transform"].as<std::string>(), reference_transform_from_string);
+      parse_choice("--reference-transform", vm["reference-transform"].as<std::string>(),
+                   reference_transform_from_string);
   if (vm.count("powers")) c.powers = parse_int_list("--powers", vm["powers"].as<std::string>());
   if (vm.count("divider-resistor") != vm.count("divider-full-scale"))
-    throw UsageError("--divider-resistor and --divider-full-scale go together: give both to convert counts to resistance");
+    throw UsageError(
+        "--divider-resistor and --divider-full-scale go together: give both to convert counts to "
+        "resistance");
   if (vm.count("divider-resistor")) {
     c.transforms.divider.enabled = true;
     c.transforms.divider.fixed_resistance = vm["divider-resistor"].as<double>();
     c.transforms.divider.full_scale = vm["divider-full-scale"].as<double>();
     c.transforms.divider.position =
-        parse_choice("--divider-position", vm["divider-position"].as<std::string>(), divider_position_from_string);
+        parse_choice("--divider-position", vm["divider-position"].as<std::string>(),
+                     divider_position_from_string);
   } else if (!vm["divider-position"].defaulted()) {
     throw UsageError("--divider-position needs --divider-resistor and --divider-full-scale");
   }

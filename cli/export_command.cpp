@@ -1,10 +1,11 @@
 #include "export_command.hpp"
 
-#include <boost/program_options.hpp>
+#include <fmt/format.h>
+
 #include <algorithm>
+#include <boost/program_options.hpp>
 #include <cmath>
 #include <limits>
-#include <fmt/format.h>
 #include <ostream>
 #include <sstream>
 
@@ -12,8 +13,8 @@
 #include "ridgecal/atomic_file.hpp"
 #include "ridgecal/errors.hpp"
 #include "ridgecal/firmware/surface_export.hpp"
-#include "ridgecal/record_guard.hpp"
 #include "ridgecal/record.hpp"
+#include "ridgecal/record_guard.hpp"
 
 namespace po = boost::program_options;
 
@@ -66,7 +67,8 @@ RecordAssessment record_assessment(const CalibrationRecord& rec) {
       const auto [lo, hi] = firmware::surface_reading_range(*sm);
       const int na = sm->has_aux ? 41 : 1;
       for (int j = 0; j < na; ++j) {
-        const double a = sm->has_aux ? sm->aux.min + (sm->aux.max - sm->aux.min) * j / (na - 1) : 0.0;
+        const double a =
+            sm->has_aux ? sm->aux.min + (sm->aux.max - sm->aux.min) * j / (na - 1) : 0.0;
         for (int i = 0; i < 401; ++i) {
           const double x = lo + (hi - lo) * i / 400;
           const double y = sm->eval(x, a);
@@ -75,13 +77,14 @@ RecordAssessment record_assessment(const CalibrationRecord& rec) {
       }
     } else {
       for (int i = 0; i < kGrid; ++i) {
-        const double x = model.scaling.x_min + (model.scaling.x_max - model.scaling.x_min) * i / (kGrid - 1);
+        const double x =
+            model.scaling.x_min + (model.scaling.x_max - model.scaling.x_min) * i / (kGrid - 1);
         strictest = std::min(strictest, rec.tolerance->limit(model.eval(x)));
       }
     }
     if (std::isfinite(strictest) && strictest > 0) a.tolerance_abs = strictest;
-    a.tolerance_text = fmt::format("{} ({}); strictest over the range {:.6g}", rec.tolerance->describe(),
-                                   rec.tolerance->source, strictest);
+    a.tolerance_text = fmt::format("{} ({}); strictest over the range {:.6g}",
+                                   rec.tolerance->describe(), rec.tolerance->source, strictest);
   }
   if (rec.decision) {
     a.verdict = to_string(rec.decision->verdict);
@@ -111,7 +114,8 @@ ExportCommand parse_export_command(const std::vector<std::string>& args) {
     return cmd;
   }
   if (!vm.count("record"))
-    throw UsageError("give the calibration record: ridgecal export RECORD.json --prefix NAME -o NAME.h");
+    throw UsageError(
+        "give the calibration record: ridgecal export RECORD.json --prefix NAME -o NAME.h");
   const auto& rec = vm["record"].as<std::vector<std::string>>();
   if (rec.size() != 1) throw UsageError(fmt::format("give exactly one record, not {}", rec.size()));
   cmd.record_path = rec[0];
@@ -135,9 +139,12 @@ ExportCommand parse_export_command(const std::vector<std::string>& args) {
   cmd.options.grid_points = vm["grid-points"].as<int>();
   if (vm.count("raw-min")) cmd.options.raw_min = vm["raw-min"].as<std::int64_t>();
   if (vm.count("raw-max")) cmd.options.raw_max = vm["raw-max"].as<std::int64_t>();
-  cmd.options.input_scale = parse_number_option("--input-scale", vm["input-scale"].as<std::string>());
-  cmd.options.output_scale = parse_number_option("--output-scale", vm["output-scale"].as<std::string>());
-  cmd.options.aux_input_scale = parse_number_option("--aux-scale", vm["aux-scale"].as<std::string>());
+  cmd.options.input_scale =
+      parse_number_option("--input-scale", vm["input-scale"].as<std::string>());
+  cmd.options.output_scale =
+      parse_number_option("--output-scale", vm["output-scale"].as<std::string>());
+  cmd.options.aux_input_scale =
+      parse_number_option("--aux-scale", vm["aux-scale"].as<std::string>());
   if (vm.count("aux-raw-min")) cmd.options.aux_raw_min = vm["aux-raw-min"].as<std::int64_t>();
   if (vm.count("aux-raw-max")) cmd.options.aux_raw_max = vm["aux-raw-max"].as<std::int64_t>();
   if (const std::string e = cmd.options.validate(); !e.empty()) throw UsageError(e);
@@ -160,25 +167,32 @@ int run_export_command(const ExportCommand& cmd, std::ostream& out, std::ostream
     meta.reference_unit = rec.sensor.reference_unit;
     meta.degree = cal.surface ? cal.surface->total_degree() : cal.model.degree();
     meta.lambda = cal.lambda;
-    meta.validation_rmse = cal.validation.empty() ? firmware::HeaderMeta::kUnset : cal.validation.rmse;
+    meta.validation_rmse =
+        cal.validation.empty() ? firmware::HeaderMeta::kUnset : cal.validation.rmse;
     meta.validation_max_abs_error =
         cal.validation.empty() ? firmware::HeaderMeta::kUnset : cal.validation.max_abs_error;
     meta.test_rmse = cal.test.empty() ? firmware::HeaderMeta::kUnset : cal.test.rmse;
-    meta.test_max_abs_error = cal.test.empty() ? firmware::HeaderMeta::kUnset : cal.test.max_abs_error;
+    meta.test_max_abs_error =
+        cal.test.empty() ? firmware::HeaderMeta::kUnset : cal.test.max_abs_error;
     const RecordAssessment assessed = record_assessment(rec);
     // The verdict is the record's, computed once by the assessment when the
     // record was made: the header states it verbatim and never judges again.
     // --tolerance only feeds the refusal rule (header arithmetic vs model).
     meta.tolerance_abs = cmd.tolerance ? cmd.tolerance : assessed.tolerance_abs;
     if (cmd.tolerance) meta.tolerance_abs_source = "--tolerance, for the refusal rule only";
-    meta.tolerance_description = !cmd.tolerance_text.empty()       ? cmd.tolerance_text
-                                 : !assessed.tolerance_text.empty() ? assessed.tolerance_text
-                                                                    : std::string("none in the record");
-    meta.pass_fail = !assessed.verdict.empty() ? assessed.verdict
-                                               : std::string("not assessed (no tolerance in the record)");
+    meta.tolerance_description = !cmd.tolerance_text.empty() ? cmd.tolerance_text
+                                 : !assessed.tolerance_text.empty()
+                                     ? assessed.tolerance_text
+                                     : std::string("none in the record");
+    meta.pass_fail = !assessed.verdict.empty()
+                         ? assessed.verdict
+                         : std::string("not assessed (no tolerance in the record)");
     if (guarded.modified)
-      meta.pass_fail = "RECORD MODIFIED after ridgecal wrote it (integrity SHA-256 does not match; exported with "
-                       "--allow-modified); " + meta.pass_fail;
+      meta.pass_fail =
+          "RECORD MODIFIED after ridgecal wrote it (integrity SHA-256 does not match; exported "
+          "with "
+          "--allow-modified); " +
+          meta.pass_fail;
     meta.record_sha256 = guarded.seal.computed;
     meta.tool_version = std::string("ridgecal ") + tool_version();
     for (const auto& p : cal.points) {
@@ -186,7 +200,8 @@ int run_export_command(const ExportCommand& cmd, std::ostream& out, std::ostream
       meta.calibration_aux.push_back(p.aux);
     }
     // The record names the aux column, not its unit.
-    meta.aux_unit = rec.input.columns.aux_column.empty() ? std::string() : rec.input.columns.aux_column + " units";
+    meta.aux_unit = rec.input.columns.aux_column.empty() ? std::string()
+                                                         : rec.input.columns.aux_column + " units";
 
     // Extended records (aux input, transforms, restricted powers) go through the
     // surface generator (surface_export.hpp); 1-D records are unchanged.

@@ -1,7 +1,8 @@
 #include "fit_command.hpp"
 
-#include <boost/program_options.hpp>
 #include <fmt/format.h>
+
+#include <boost/program_options.hpp>
 #include <ostream>
 #include <sstream>
 
@@ -9,8 +10,8 @@
 #include "compensation_options.hpp"
 #include "judgement_options.hpp"
 #include "ridgecal/atomic_file.hpp"
-#include "ridgecal/errors.hpp"
 #include "ridgecal/calibrate.hpp"
+#include "ridgecal/errors.hpp"
 #include "ridgecal/report/html_report.hpp"
 #include "ridgecal/text_check.hpp"
 
@@ -62,11 +63,11 @@ po::options_description fit_options() {
 std::string fit_usage() {
   std::ostringstream s;
   s << fit_options();
-  s << "\nExit codes: 0 done (PASS, or no tolerance given), 1 out of tolerance (FAIL; the record is still written,\n"
+  s << "\nExit codes: 0 done (PASS, or no tolerance given), 1 out of tolerance (FAIL; the record "
+       "is still written,\n"
        "marked FAIL), 2 bad input or usage (nothing written).\n";
   return s.str();
 }
-
 
 FitCommand parse_fit_command(const std::vector<std::string>& args) {
   const po::variables_map vm = parse_arguments(args, fit_options(), "data");
@@ -75,9 +76,11 @@ FitCommand parse_fit_command(const std::vector<std::string>& args) {
     cmd.data_path = "--help";
     return cmd;
   }
-  if (!vm.count("data")) throw UsageError("give the calibration data file: ridgecal fit DATA.csv -o RECORD.json");
+  if (!vm.count("data"))
+    throw UsageError("give the calibration data file: ridgecal fit DATA.csv -o RECORD.json");
   const auto& data = vm["data"].as<std::vector<std::string>>();
-  if (data.size() != 1) throw UsageError(fmt::format("give exactly one data file, not {}", data.size()));
+  if (data.size() != 1)
+    throw UsageError(fmt::format("give exactly one data file, not {}", data.size()));
   cmd.data_path = data[0];
   if (vm.count("output")) cmd.output_path = vm["output"].as<std::string>();
   if (vm.count("report")) cmd.report_path = vm["report"].as<std::string>();
@@ -105,7 +108,8 @@ FitCommand parse_fit_command(const std::vector<std::string>& args) {
   cmd.fit.split.test_fraction = vm["test-fraction"].as<double>();
   cmd.fit.split.seed = vm["seed"].as<std::uint64_t>();
   if (vm.count("degree") != vm.count("lambda"))
-    throw UsageError("--degree and --lambda go together: give both for a fixed model, or neither to select one");
+    throw UsageError(
+        "--degree and --lambda go together: give both for a fixed model, or neither to select one");
   if (vm.count("degree")) {
     cmd.fit.fixed_degree = vm["degree"].as<int>();
     cmd.fit.fixed_lambda = vm["lambda"].as<double>();
@@ -119,15 +123,17 @@ FitCommand parse_fit_command(const std::vector<std::string>& args) {
   cmd.sensor.name = vm["sensor"].as<std::string>();
   cmd.sensor.reading_unit = vm["reading-unit"].as<std::string>();
   cmd.sensor.reference_unit = vm["reference-unit"].as<std::string>();
-  const std::pair<const char*, const std::string*> texts[] = {{"--sensor", &cmd.sensor.name},
-                                                              {"--reading-unit", &cmd.sensor.reading_unit},
-                                                              {"--reference-unit", &cmd.sensor.reference_unit}};
+  const std::pair<const char*, const std::string*> texts[] = {
+      {"--sensor", &cmd.sensor.name},
+      {"--reading-unit", &cmd.sensor.reading_unit},
+      {"--reference-unit", &cmd.sensor.reference_unit}};
   for (const auto& [option, value] : texts)
     if (const std::string why = name_problem(*value, kMaxRecordNameBytes); !why.empty())
       throw UsageError(fmt::format("{}: '{}' {}", option, shown_text(*value), why));
   if (!is_valid_utf8(cmd.data_path) || cmd.data_path.size() > 4096)
-    throw UsageError(fmt::format("the data file name '{}' is not valid UTF-8 or too long; rename the file",
-                                 shown_text(cmd.data_path)));
+    throw UsageError(
+        fmt::format("the data file name '{}' is not valid UTF-8 or too long; rename the file",
+                    shown_text(cmd.data_path)));
   cmd.timestamp = vm["timestamp"].as<std::string>();
   cmd.full = vm["full"].as<bool>();
   const JudgementCli jc = parse_judgement_options(vm);
@@ -136,7 +142,9 @@ FitCommand parse_fit_command(const std::vector<std::string>& args) {
   cmd.assess.uncertainty = jc.uncertainty;
   cmd.assess.diagnostics = jc.diagnostics;
   if (jc.rule && !jc.tolerance)
-    throw UsageError("--decision needs a tolerance: give --tol-offset, --tol-proportional, --tol-percent-span or --tol-class");
+    throw UsageError(
+        "--decision needs a tolerance: give --tol-offset, --tol-proportional, --tol-percent-span "
+        "or --tol-class");
   if (const std::string e = cmd.assess.validate(); !e.empty()) throw UsageError(e);
   return cmd;
 }
@@ -161,21 +169,26 @@ int run_fit_command(const FitCommand& cmd, std::ostream& out, std::ostream& err)
     const nlohmann::json j = record_to_json(rec);
     // The report is made from the record as any reader parses it.
     const std::string report_html =
-        cmd.report_path.empty() ? std::string()
-                                : report::render_html_report(record_from_json(j, cmd.data_path), record_seal(j));
+        cmd.report_path.empty()
+            ? std::string()
+            : report::render_html_report(record_from_json(j, cmd.data_path), record_seal(j));
     if (!cmd.output_path.empty()) write_file_atomic(cmd.output_path, record_text(j));
     if (!cmd.report_path.empty()) write_file_atomic(cmd.report_path, report_html);
-    if (!cmd.sensor.name.empty() || !cmd.sensor.reading_unit.empty() || !cmd.sensor.reference_unit.empty())
-      out << fmt::format("sensor: {} (reading in {}, reference in {})\n",
-                         cmd.sensor.name.empty() ? "unnamed" : cmd.sensor.name,
-                         cmd.sensor.reading_unit.empty() ? "unstated units" : cmd.sensor.reading_unit,
-                         cmd.sensor.reference_unit.empty() ? "unstated units" : cmd.sensor.reference_unit);
+    if (!cmd.sensor.name.empty() || !cmd.sensor.reading_unit.empty() ||
+        !cmd.sensor.reference_unit.empty())
+      out << fmt::format(
+          "sensor: {} (reading in {}, reference in {})\n",
+          cmd.sensor.name.empty() ? "unnamed" : cmd.sensor.name,
+          cmd.sensor.reading_unit.empty() ? "unstated units" : cmd.sensor.reading_unit,
+          cmd.sensor.reference_unit.empty() ? "unstated units" : cmd.sensor.reference_unit);
     out << (cmd.full ? rec.calibration.full() : rec.calibration.brief());
     out << (cmd.full ? rec.uncertainty->full(cmd.sensor.reference_unit)
                      : rec.uncertainty->brief(cmd.sensor.reference_unit));
     if (rec.tolerance) out << "tolerance: " << rec.tolerance->describe() << "\n";
-    if (rec.decision) out << (cmd.full ? rec.decision->full() : rec.decision->brief());
-    else out << "decision: none (no tolerance given)\n";
+    if (rec.decision)
+      out << (cmd.full ? rec.decision->full() : rec.decision->brief());
+    else
+      out << "decision: none (no tolerance given)\n";
     err << format_warnings(rec.warnings);
     if (!cmd.output_path.empty()) out << "record: " << cmd.output_path << "\n";
     if (!cmd.report_path.empty()) out << "report: " << cmd.report_path << "\n";

@@ -21,8 +21,8 @@ struct FitCommand {
   FitOptions fit;
   CompensationOptions comp;  ///< transforms, aux input, allowed powers (inactive by default)
   SensorInfo sensor;
-  std::string timestamp;  ///< injected creation time ("" = now, "none" = omit)
-  bool full = false;      ///< print the full text form
+  std::string timestamp;     ///< injected creation time ("" = now, "none" = omit)
+  bool full = false;         ///< print the full text form
   AssessmentOptions assess;  ///< tolerance, decision rule, uncertainty inputs, diagnostics
 };
 

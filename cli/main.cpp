@@ -9,9 +9,9 @@
 #include "export_command.hpp"
 #include "fit_command.hpp"
 #include "merge_command.hpp"
-#include "verify_command.hpp"
 #include "report_command.hpp"
 #include "ridgecal/record.hpp"
+#include "verify_command.hpp"
 
 namespace {
 
@@ -23,18 +23,26 @@ struct Subcommand {
 
 // Every subcommand: one file pair in cli/, one line here.
 const Subcommand kSubcommands[] = {
-    {"fit", "fit a calibration curve to a CSV run and write a calibration record", ridgecal::cli::fit_main},
-    {"batch", "calibrate every unit of a production batch: records and a summary", ridgecal::cli::batch_main},
+    {"fit", "fit a calibration curve to a CSV run and write a calibration record",
+     ridgecal::cli::fit_main},
+    {"batch", "calibrate every unit of a production batch: records and a summary",
+     ridgecal::cli::batch_main},
     {"merge-summaries", "merge the batch summaries of several shards", ridgecal::cli::merge_main},
-    {"verify", "as-found check: apply a calibration record to fresh readings, PASS/FAIL", ridgecal::cli::verify_main},
-    {"export", "write a freestanding C header (float, double or fixed point) from a record", ridgecal::cli::export_main},
-    {"report", "write the QA calibration report (HTML) of a calibration record", ridgecal::cli::report_main},
+    {"verify", "as-found check: apply a calibration record to fresh readings, PASS/FAIL",
+     ridgecal::cli::verify_main},
+    {"export", "write a freestanding C header (float, double or fixed point) from a record",
+     ridgecal::cli::export_main},
+    {"report", "write the QA calibration report (HTML) of a calibration record",
+     ridgecal::cli::report_main},
 };
 
 void usage(std::ostream& os) {
   os << "ridgecal " << ridgecal::tool_version() << ": calibration curves for sensors\n\n"
      << "usage: ridgecal COMMAND [options]   (ridgecal COMMAND --help for details)\n\ncommands:\n";
-  for (const auto& s : kSubcommands) os << "  " << s.name << std::string(std::strlen(s.name) < 10 ? 10 - std::strlen(s.name) : 1, ' ') << s.summary << "\n";
+  for (const auto& s : kSubcommands)
+    os << "  " << s.name
+       << std::string(std::strlen(s.name) < 10 ? 10 - std::strlen(s.name) : 1, ' ') << s.summary
+       << "\n";
   os << "\nexit codes: 0 pass, 1 out of tolerance, 2 bad input or usage\n"
      << "Safety-relevant calibration must follow local codes and certified procedures.\n";
 }

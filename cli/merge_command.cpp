@@ -1,8 +1,9 @@
 #include "merge_command.hpp"
 
+#include <fmt/format.h>
+
 #include <boost/program_options.hpp>
 #include <filesystem>
-#include <fmt/format.h>
 #include <ostream>
 #include <sstream>
 
@@ -29,8 +30,10 @@ po::options_description merge_options() {
 std::string merge_usage() {
   std::ostringstream s;
   s << merge_options();
-  s << "\nEach SHARD is a summary.json written by 'ridgecal batch', or the batch output directory holding it.\n"
-       "Exit codes: 0 merged and every unit ok, 1 merged with failed or out-of-tolerance units, 2 bad usage or input\n"
+  s << "\nEach SHARD is a summary.json written by 'ridgecal batch', or the batch output directory "
+       "holding it.\n"
+       "Exit codes: 0 merged and every unit ok, 1 merged with failed or out-of-tolerance units, 2 "
+       "bad usage or input\n"
        "(nothing written).\n";
   return s.str();
 }
@@ -42,7 +45,9 @@ MergeCommand parse_merge_command(const std::vector<std::string>& args) {
     cmd.help = true;
     return cmd;
   }
-  if (!vm.count("inputs")) throw UsageError("give the shard summaries: ridgecal merge-summaries A/summary.json B/summary.json -o DIR");
+  if (!vm.count("inputs"))
+    throw UsageError(
+        "give the shard summaries: ridgecal merge-summaries A/summary.json B/summary.json -o DIR");
   if (!vm.count("out-dir")) throw UsageError("--out-dir is required");
   cmd.inputs = vm["inputs"].as<std::vector<std::string>>();
   cmd.out_dir = vm["out-dir"].as<std::string>();
@@ -67,15 +72,18 @@ int run_merge_command(const MergeCommand& cmd, std::ostream& out, std::ostream& 
     const BatchSummary merged = merge_batch_summaries(shards, names, cmd.merge);
     std::error_code ec;
     std::filesystem::create_directories(cmd.out_dir, ec);
-    if (ec) throw InputError(cmd.out_dir, 0, "cannot create the output directory: " + ec.message(), "check the path");
+    if (ec)
+      throw InputError(cmd.out_dir, 0, "cannot create the output directory: " + ec.message(),
+                       "check the path");
     write_batch_summary(merged, cmd.out_dir);
     std::size_t failed = 0, oot = 0;
     for (const auto& u : merged.units) {
       failed += u.status == UnitStatus::Failed;
       oot += u.verdict == UnitVerdict::Fail;
     }
-    out << fmt::format("{} shards, {} units: {} ok, {} failed, {} out of tolerance\n", shards.size(),
-                       merged.units.size(), merged.units.size() - failed, failed, oot);
+    out << fmt::format("{} shards, {} units: {} ok, {} failed, {} out of tolerance\n",
+                       shards.size(), merged.units.size(), merged.units.size() - failed, failed,
+                       oot);
     return failed || oot ? kExitOutOfTolerance : kExitOk;
   } catch (const InputError& e) {
     err << "ridgecal merge-summaries: " << format_input_error(e) << "\n";

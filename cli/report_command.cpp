@@ -1,7 +1,8 @@
 #include "report_command.hpp"
 
-#include <boost/program_options.hpp>
 #include <fmt/format.h>
+
+#include <boost/program_options.hpp>
 #include <ostream>
 #include <sstream>
 
@@ -46,11 +47,14 @@ ReportCommand parse_report_command(const std::vector<std::string>& args) {
     cmd.help = true;
     return cmd;
   }
-  if (!vm.count("record")) throw UsageError("give the calibration record: ridgecal report RECORD.json -o REPORT.html");
+  if (!vm.count("record"))
+    throw UsageError("give the calibration record: ridgecal report RECORD.json -o REPORT.html");
   const auto& rec = vm["record"].as<std::vector<std::string>>();
-  if (rec.size() != 1) throw UsageError(fmt::format("give exactly one record file, not {}", rec.size()));
+  if (rec.size() != 1)
+    throw UsageError(fmt::format("give exactly one record file, not {}", rec.size()));
   cmd.record_path = rec[0];
-  if (!vm.count("output")) throw UsageError("give the report file: -o REPORT.html (or -o - for standard output)");
+  if (!vm.count("output"))
+    throw UsageError("give the report file: -o REPORT.html (or -o - for standard output)");
   cmd.output_path = vm["output"].as<std::string>();
   if (cmd.output_path.empty()) throw UsageError("-o: the report file name is empty");
   if (vm.count("date")) cmd.date = vm["date"].as<std::string>();

@@ -12,7 +12,7 @@ struct ReportCommand {
   std::string record_path;
   std::string output_path;          ///< "-" writes to standard output
   std::optional<std::string> date;  ///< report date shown; default: the record's created_utc
-  bool allow_modified = false;  ///< render a record whose integrity digest does not match
+  bool allow_modified = false;      ///< render a record whose integrity digest does not match
   bool help = false;
 };
 

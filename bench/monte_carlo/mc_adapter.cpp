@@ -2,8 +2,8 @@
 
 #include <memory>
 
-#include "ridgecal/errors.hpp"
 #include "ridgecal/calibrate.hpp"
+#include "ridgecal/errors.hpp"
 #include "ridgecal/surface_uncertainty.hpp"
 
 namespace ridgecal::mc {

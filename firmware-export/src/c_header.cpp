@@ -93,7 +93,8 @@ bool choose_proof_tolerance(const HeaderMeta& meta, const ExportOptions& opt, Pr
   return true;
 }
 
-bool start_result(const HeaderMeta& meta, const ExportOptions& opt, ExportResult& r, ProofTolerance& pt) {
+bool start_result(const HeaderMeta& meta, const ExportOptions& opt, ExportResult& r,
+                  ProofTolerance& pt) {
   if (!choose_proof_tolerance(meta, opt, pt, r.message)) return false;
   r.tolerance_used = pt.tolerance;
   r.tolerance_source = pt.source;
@@ -101,8 +102,8 @@ bool start_result(const HeaderMeta& meta, const ExportOptions& opt, ExportResult
   return true;
 }
 
-void finish_result(ExportResult& r, std::string header, std::uint32_t crc, const std::string& formats,
-                   const ProofFigures& proof) {
+void finish_result(ExportResult& r, std::string header, std::uint32_t crc,
+                   const std::string& formats, const ProofFigures& proof) {
   r.header = std::move(header);
   r.table_crc32 = crc;
   r.formats = formats;
@@ -111,7 +112,8 @@ void finish_result(ExportResult& r, std::string header, std::uint32_t crc, const
   r.points_checked = proof.points;
   r.readings_checked = proof.readings;
   const CodeStats partial = r.stats;
-  r.stats = stats_for(r.header, partial.table_entries, partial.table_bytes / std::max(1, partial.table_entries),
+  r.stats = stats_for(r.header, partial.table_entries,
+                      partial.table_bytes / std::max(1, partial.table_entries),
                       partial.multiplies_per_eval, partial.additions_per_eval);
 }
 
@@ -272,8 +274,9 @@ void emit_floating_body(std::ostringstream& o, const Names& n, const FloatingPro
       << "_T_SCALE, in [-1, 1] on the range. */\n"
       << "#define " << n.P << "_T_CENTER " << lit(p.center) << "\n"
       << "#define " << n.P << "_T_SCALE " << lit(p.inv_half_width) << "\n";
-  o << "\n/* Coefficients of p in powers of " << (t_basis ? "the scaled variable t" : "the raw reading x")
-    << " (index = power), " << type << ". */\n"
+  o << "\n/* Coefficients of p in powers of "
+    << (t_basis ? "the scaled variable t" : "the raw reading x") << " (index = power), " << type
+    << ". */\n"
     << "static const " << type << " " << n.P << "_COEF[" << n.P << "_DEGREE + 1] = {\n";
   for (int k = 0; k <= deg; ++k)
     o << "    " << lit(p.coef[static_cast<std::size_t>(k)]) << (k < deg ? "," : " ") << " /* "
@@ -286,8 +289,9 @@ void emit_floating_body(std::ostringstream& o, const Names& n, const FloatingPro
     << " *   one rounding per operation (no fused multiply-add: build with -ffp-contract=off).\n"
     << " * Range: [" << n.P << "_X_MIN, " << n.P << "_X_MAX]; outside it the result is an\n"
     << " *   unchecked extrapolation -- use " << n.p << "_eval_checked() for untrusted input.\n"
-    << " * Measured max |error| against the double-precision model: " << g(proof.dev.max, 4)
-    << " " << fu << "\n *   (" << proof.dev.points << " inputs over the range, calibration readings included). */\n"
+    << " * Measured max |error| against the double-precision model: " << g(proof.dev.max, 4) << " "
+    << fu << "\n *   (" << proof.dev.points
+    << " inputs over the range, calibration readings included). */\n"
     << n.P << "_INLINE " << type << " " << n.p << "_eval(" << type << " x)\n{\n"
     << "#if !defined(__GNUC__) || defined(__clang__)\n#pragma STDC FP_CONTRACT OFF\n#endif\n";
   if (deg == 0) {
@@ -305,13 +309,15 @@ void emit_floating_body(std::ostringstream& o, const Names& n, const FloatingPro
     << " * nearest limit (NaN: lower limit), and *status (if status is not NULL) is set to\n"
     << " * " << n.P << "_IN_RANGE, _BELOW_RANGE, _ABOVE_RANGE or _NOT_A_NUMBER. Precision as "
     << n.p << "_eval. */\n"
-    << n.P << "_INLINE " << type << " " << n.p << "_eval_checked(" << type << " x, int *status)\n{\n"
+    << n.P << "_INLINE " << type << " " << n.p << "_eval_checked(" << type
+    << " x, int *status)\n{\n"
     << "    int s;\n"
-    << "    if (x >= " << n.P << "_X_MIN && x <= " << n.P << "_X_MAX) {\n        s = " << n.P << "_IN_RANGE;\n"
-    << "    } else if (x < " << n.P << "_X_MIN) {\n        s = " << n.P << "_BELOW_RANGE;\n        x = "
-    << n.P << "_X_MIN;\n"
-    << "    } else if (x > " << n.P << "_X_MAX) {\n        s = " << n.P << "_ABOVE_RANGE;\n        x = "
-    << n.P << "_X_MAX;\n"
+    << "    if (x >= " << n.P << "_X_MIN && x <= " << n.P << "_X_MAX) {\n        s = " << n.P
+    << "_IN_RANGE;\n"
+    << "    } else if (x < " << n.P << "_X_MIN) {\n        s = " << n.P
+    << "_BELOW_RANGE;\n        x = " << n.P << "_X_MIN;\n"
+    << "    } else if (x > " << n.P << "_X_MAX) {\n        s = " << n.P
+    << "_ABOVE_RANGE;\n        x = " << n.P << "_X_MAX;\n"
     << "    } else { /* NaN: every comparison above is false */\n        s = " << n.P
     << "_NOT_A_NUMBER;\n        x = " << n.P << "_X_MIN;\n    }\n"
     << "    if (status != 0)\n        *status = s;\n"
@@ -333,18 +339,20 @@ void emit_fixed_body(std::ostringstream& o, const Names& n, const FixedPlan& p,
   const FixedAxis& s = p.t;
   o << "/* Valid raw input range (integers; reading = raw / " << g(s.scale, 9) << " " << ru
     << "). */\n"
-    << "#define " << n.P << "_RAW_MIN " << c_int32_literal(static_cast<std::int32_t>(s.raw_min)) << "\n"
-    << "#define " << n.P << "_RAW_MAX " << c_int32_literal(static_cast<std::int32_t>(s.raw_max)) << "\n";
+    << "#define " << n.P << "_RAW_MIN " << c_int32_literal(static_cast<std::int32_t>(s.raw_min))
+    << "\n"
+    << "#define " << n.P << "_RAW_MAX " << c_int32_literal(static_cast<std::int32_t>(s.raw_max))
+    << "\n";
   const double cal_lo = std::ceil(p.calibrated_reading_min * s.scale - 1e-9);
   const double cal_hi = std::floor(p.calibrated_reading_max * s.scale + 1e-9);
   if (static_cast<double>(s.raw_min) < cal_lo || static_cast<double>(s.raw_max) > cal_hi)
-    o << "/* NOTE: this raw range extends beyond the calibrated range (raw " << g(cal_lo, 10) << " .. "
-      << g(cal_hi, 10) << ");\n   results outside it are extrapolations of the fitted curve. */\n";
-  o
-    << "/* Output unit: 1 / " << g(p.output_scale, 9) << " " << fu
+    o << "/* NOTE: this raw range extends beyond the calibrated range (raw " << g(cal_lo, 10)
+      << " .. " << g(cal_hi, 10)
+      << ");\n   results outside it are extrapolations of the fitted curve. */\n";
+  o << "/* Output unit: 1 / " << g(p.output_scale, 9) << " " << fu
     << " (output = round(reference * " << g(p.output_scale, 9) << ")). */\n\n"
-    << "/* Coefficients of p * " << g(p.output_scale, 9)
-    << " in powers of t; entry k is in Q" << "(q_k) (value * 2^q_k):\n";
+    << "/* Coefficients of p * " << g(p.output_scale, 9) << " in powers of t; entry k is in Q"
+    << "(q_k) (value * 2^q_k):\n";
   for (int k = 0; k <= deg; ++k)
     o << " *   k=" << k << ": q_k = " << p.q[static_cast<std::size_t>(k)] << "\n";
   o << " */\nstatic const int32_t " << n.P << "_COEF[" << n.P << "_DEGREE + 1] = {\n";
@@ -376,8 +384,8 @@ void emit_fixed_body(std::ostringstream& o, const Names& n, const FixedPlan& p,
   for (int k = deg - 1; k >= 0; --k)
     o << " *   step " << k << ": acc*t_q in " << range_text(p.prod[static_cast<std::size_t>(k)])
       << ", >> " << p.sh_out[static_cast<std::size_t>(k)] << ", acc (Q"
-      << p.q[static_cast<std::size_t>(k)] << ") in " << range_text(p.acc[static_cast<std::size_t>(k)])
-      << "\n";
+      << p.q[static_cast<std::size_t>(k)] << ") in "
+      << range_text(p.acc[static_cast<std::size_t>(k)]) << "\n";
   o << " *   output in " << range_text(p.out) << "\n"
     << " *   limits: every shifted value within [-2^62, 2^62), every product within\n"
     << " *   +/-2^62, accumulators and output within int32.\n"
@@ -394,9 +402,9 @@ void emit_fixed_body(std::ostringstream& o, const Names& n, const FixedPlan& p,
     else
       o << "    return " << n.P << "_COEF[0];\n}\n\n";
   } else {
-    o << "    const int64_t t = " << n.p << "_rshift_round(((int64_t)raw - " << c_int64_literal(p.t.r0)
-      << ") * " << c_int64_literal(p.t.mul) << " + " << c_int64_literal(p.t.add) << ", "
-      << p.t.shift << "U);\n"
+    o << "    const int64_t t = " << n.p << "_rshift_round(((int64_t)raw - "
+      << c_int64_literal(p.t.r0) << ") * " << c_int64_literal(p.t.mul) << " + "
+      << c_int64_literal(p.t.add) << ", " << p.t.shift << "U);\n"
       << "    int64_t acc = (int64_t)" << n.P << "_COEF[" << deg << "];\n";
     for (int k = deg - 1; k >= 0; --k)
       o << "    acc = " << n.p << "_rshift_round(acc * t, " << p.sh_out[static_cast<std::size_t>(k)]
@@ -406,14 +414,16 @@ void emit_fixed_body(std::ostringstream& o, const Names& n, const FixedPlan& p,
     else
       o << "    return (int32_t)acc;\n}\n\n";
   }
-  o << "/* " << n.p << "_eval_fixed_checked: as " << n.p << "_eval_fixed, but never leaves the raw range:\n"
-    << " * raw outside [" << n.P << "_RAW_MIN, " << n.P << "_RAW_MAX] is clamped to the nearest limit and\n"
+  o << "/* " << n.p << "_eval_fixed_checked: as " << n.p
+    << "_eval_fixed, but never leaves the raw range:\n"
+    << " * raw outside [" << n.P << "_RAW_MIN, " << n.P
+    << "_RAW_MAX] is clamped to the nearest limit and\n"
     << " * *status (if status is not NULL) is set to " << n.P << "_IN_RANGE, _BELOW_RANGE or\n"
     << " * _ABOVE_RANGE. Precision as " << n.p << "_eval_fixed. */\n"
     << n.P << "_INLINE int32_t " << n.p << "_eval_fixed_checked(int32_t raw, int *status)\n{\n"
     << "    int s = " << n.P << "_IN_RANGE;\n"
-    << "    if (raw < " << n.P << "_RAW_MIN) {\n        s = " << n.P << "_BELOW_RANGE;\n        raw = "
-    << n.P << "_RAW_MIN;\n"
+    << "    if (raw < " << n.P << "_RAW_MIN) {\n        s = " << n.P
+    << "_BELOW_RANGE;\n        raw = " << n.P << "_RAW_MIN;\n"
     << "    } else if (raw > " << n.P << "_RAW_MAX) {\n        s = " << n.P
     << "_ABOVE_RANGE;\n        raw = " << n.P << "_RAW_MAX;\n    }\n"
     << "    if (status != 0)\n        *status = s;\n"
@@ -487,14 +497,16 @@ ExportResult generate_c_header(const PolyModel& model, const HeaderMeta& meta,
       }
     }
     if (!have) {
-      r.message = std::string("model: a coefficient does not fit in ") + (is_float ? "float" : "double");
+      r.message =
+          std::string("model: a coefficient does not fit in ") + (is_float ? "float" : "double");
       return r;
     }
     proof.dev = best;
     r.basis = best_basis;
-    formats = std::string(is_float ? "IEEE binary32" : "IEEE binary64") + ", Horner in " +
-              (best_basis == Basis::ScaledT ? "scaled t = (x - c) * s (chosen: lower error than raw x)"
-                                            : "raw x (chosen: lower error than scaled t)");
+    formats =
+        std::string(is_float ? "IEEE binary32" : "IEEE binary64") + ", Horner in " +
+        (best_basis == Basis::ScaledT ? "scaled t = (x - c) * s (chosen: lower error than raw x)"
+                                      : "raw x (chosen: lower error than scaled t)");
     if (is_float) {
       r.float_program = detail::make_program<float>(fm, best_basis);
       crc = crc32_bytes(table_bytes(r.float_program->coef));
@@ -519,15 +531,16 @@ ExportResult generate_c_header(const PolyModel& model, const HeaderMeta& meta,
                                 meta.calibration_readings);
     r.fixed_plan = plan;
     std::string qs;
-    for (std::size_t k = 0; k < plan.q.size(); ++k) qs += (k ? "," : "") + std::to_string(plan.q[k]);
+    for (std::size_t k = 0; k < plan.q.size(); ++k)
+      qs += (k ? "," : "") + std::to_string(plan.q[k]);
     formats = "int32 coefficients Q[" + qs + "] (t^0..t^n), t in Q" + std::to_string(plan.t.frac) +
-              ", int64 intermediates, output = round(y * " + g(plan.output_scale, 9) +
-              ") int32";
+              ", int64 intermediates, output = round(y * " + g(plan.output_scale, 9) + ") int32";
     crc = crc32_bytes(table_bytes(plan.coef));
     emit_fixed_body(body, n, plan, meta, proof);
     detail::emit_crc(body, n, "int32_t", 4, n.P + "_DEGREE + 1");
     r.stats = stats_for("", deg + 1, 4, deg + 1, 2 * deg + 2);
-    at_units = " " + esc(meta.reading_unit, 40) + " (raw " + g(proof.dev.at * plan.t.scale, 10) + ")";
+    at_units =
+        " " + esc(meta.reading_unit, 40) + " (raw " + g(proof.dev.at * plan.t.scale, 10) + ")";
   }
 
   std::ostringstream o;
@@ -541,14 +554,14 @@ ExportResult generate_c_header(const PolyModel& model, const HeaderMeta& meta,
   if (!(proof.dev.max <= proof.limit)) {
     r.status = ExportStatus::Refused;
     r.message = "refused: max deviation " + g(proof.dev.max, 4) + " at reading " +
-                g(proof.dev.at, 9) + " exceeds " + g(opt.max_deviation_fraction) + " x tolerance (" +
-                g(proof.tolerance) + ", " + proof.tolerance_source + ") = " + g(proof.limit, 4) +
-                " in " + to_string(opt.mode) + " mode";
+                g(proof.dev.at, 9) + " exceeds " + g(opt.max_deviation_fraction) +
+                " x tolerance (" + g(proof.tolerance) + ", " + proof.tolerance_source +
+                ") = " + g(proof.limit, 4) + " in " + to_string(opt.mode) + " mode";
     return r;
   }
   r.status = ExportStatus::Ok;
-  r.message = to_string(opt.mode) + " header: max deviation " + g(proof.dev.max, 4) + " <= " +
-              g(proof.limit, 4) + " over " + std::to_string(proof.dev.points) + " inputs";
+  r.message = to_string(opt.mode) + " header: max deviation " + g(proof.dev.max, 4) +
+              " <= " + g(proof.limit, 4) + " over " + std::to_string(proof.dev.points) + " inputs";
   return r;
 }
 

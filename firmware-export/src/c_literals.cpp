@@ -53,6 +53,8 @@ float parse_c_float_literal(const std::string& text) {
   return std::strtof(s.c_str(), nullptr);
 }
 
-double parse_c_double_literal(const std::string& text) { return std::strtod(text.c_str(), nullptr); }
+double parse_c_double_literal(const std::string& text) {
+  return std::strtod(text.c_str(), nullptr);
+}
 
 }  // namespace ridgecal::firmware

@@ -5,8 +5,12 @@
 namespace ridgecal::firmware {
 
 namespace {
-bool is_alpha(char c) { return (c >= 'A' && c <= 'Z') || (c >= 'a' && c <= 'z'); }
-bool is_digit(char c) { return c >= '0' && c <= '9'; }
+bool is_alpha(char c) {
+  return (c >= 'A' && c <= 'Z') || (c >= 'a' && c <= 'z');
+}
+bool is_digit(char c) {
+  return c >= '0' && c <= '9';
+}
 }  // namespace
 
 std::string check_c_prefix(std::string_view prefix) {
@@ -30,13 +34,15 @@ std::string check_c_prefix(std::string_view prefix) {
   // A C or C++ keyword as the prefix is legal inside longer names, but it is
   // almost surely a mistake (and confuses readers and tools): refuse it.
   static const char* const kKeywords[] = {
-      "auto", "bool", "break", "case", "char", "class", "const", "continue", "default", "delete", "do",
-      "double", "else", "enum", "extern", "false", "float", "for", "goto", "if", "inline", "int", "long",
-      "namespace", "new", "nullptr", "register", "restrict", "return", "short", "signed", "sizeof",
-      "static", "struct", "switch", "template", "this", "true", "typedef", "union", "unsigned", "using",
-      "virtual", "void", "volatile", "while"};
+      "auto",     "bool",    "break",    "case",     "char",     "class", "const",   "continue",
+      "default",  "delete",  "do",       "double",   "else",     "enum",  "extern",  "false",
+      "float",    "for",     "goto",     "if",       "inline",   "int",   "long",    "namespace",
+      "new",      "nullptr", "register", "restrict", "return",   "short", "signed",  "sizeof",
+      "static",   "struct",  "switch",   "template", "this",     "true",  "typedef", "union",
+      "unsigned", "using",   "virtual",  "void",     "volatile", "while"};
   for (const char* k : kKeywords)
-    if (prefix == k) return "prefix " + shown + " is a C or C++ keyword; choose a name such as 'sensor1'";
+    if (prefix == k)
+      return "prefix " + shown + " is a C or C++ keyword; choose a name such as 'sensor1'";
   return {};
 }
 

@@ -26,7 +26,9 @@ inline i128 floor_div_pow2(i128 v, int s) {
 
 /// Mathematical value of the generated rounding right shift by s (s >= 1):
 /// floor((v + 2^(s-1)) / 2^s).
-inline i128 rshift_round_exact(i128 v, int s) { return floor_div_pow2(v + (static_cast<i128>(1) << (s - 1)), s); }
+inline i128 rshift_round_exact(i128 v, int s) {
+  return floor_div_pow2(v + (static_cast<i128>(1) << (s - 1)), s);
+}
 
 /// True when a rounding right shift by s of every value in [lo, hi] is safe in
 /// int64: 1 <= s <= kMaxShift and the rounding addend cannot overflow.

@@ -17,9 +17,12 @@ std::string num(double v) {
 
 const char* to_string(ExportStatus status) {
   switch (status) {
-    case ExportStatus::Ok: return "ok";
-    case ExportStatus::Refused: return "refused";
-    case ExportStatus::InvalidInput: return "invalid input";
+    case ExportStatus::Ok:
+      return "ok";
+    case ExportStatus::Refused:
+      return "refused";
+    case ExportStatus::InvalidInput:
+      return "invalid input";
   }
   return "unknown";
 }
@@ -49,9 +52,11 @@ std::string ExportOptions::validate() const {
   if (!(std::isfinite(aux_input_scale) && aux_input_scale > 0.0))
     return "option aux_input_scale = " + num(aux_input_scale) + ": must be finite and > 0";
   if (aux_raw_min && (*aux_raw_min < -lim || *aux_raw_min > lim))
-    return "option aux_raw_min = " + std::to_string(*aux_raw_min) + ": must be in [-2147483647, 2147483647]";
+    return "option aux_raw_min = " + std::to_string(*aux_raw_min) +
+           ": must be in [-2147483647, 2147483647]";
   if (aux_raw_max && (*aux_raw_max < -lim || *aux_raw_max > lim))
-    return "option aux_raw_max = " + std::to_string(*aux_raw_max) + ": must be in [-2147483647, 2147483647]";
+    return "option aux_raw_max = " + std::to_string(*aux_raw_max) +
+           ": must be in [-2147483647, 2147483647]";
   if (aux_raw_min && aux_raw_max && *aux_raw_min > *aux_raw_max)
     return "option aux_raw_min = " + std::to_string(*aux_raw_min) + ": must be <= aux_raw_max (" +
            std::to_string(*aux_raw_max) + ")";

@@ -91,9 +91,10 @@ std::optional<FloatingProgram<T>> make_program(const FirmwareModel& m, Basis b) 
   const auto [lo, hi] = raw_reading_range(m);
   inward(lo, hi, &p.x_lo, &p.x_hi);
   if (m.has_aux()) inward(m.inputs[1].min, m.inputs[1].max, &p.a_lo, &p.a_hi);
-  bool ok = std::isfinite(p.center) && std::isfinite(p.inv_half_width) && std::isfinite(p.aux_center) &&
-            std::isfinite(p.aux_inv_half_width) && std::isfinite(p.x_lo) && std::isfinite(p.x_hi) &&
-            p.x_lo <= p.x_hi && std::isfinite(p.a_lo) && std::isfinite(p.a_hi) && p.a_lo <= p.a_hi &&
+  bool ok = std::isfinite(p.center) && std::isfinite(p.inv_half_width) &&
+            std::isfinite(p.aux_center) && std::isfinite(p.aux_inv_half_width) &&
+            std::isfinite(p.x_lo) && std::isfinite(p.x_hi) && p.x_lo <= p.x_hi &&
+            std::isfinite(p.a_lo) && std::isfinite(p.a_hi) && p.a_lo <= p.a_hi &&
             std::isfinite(p.divider_r) && std::isfinite(p.divider_fs);
   for (T c : p.coef) ok = ok && std::isfinite(c);
   if (!ok) return std::nullopt;
@@ -131,7 +132,8 @@ Deviation measure(const PolyModel& m, const FixedPlan& p, int grid_points,
     for (std::int64_t r = s.raw_min; r <= s.raw_max; ++r) check(r);
   } else {
     for (int i = 0; i < grid_points; ++i) {
-      const long double f = grid_points == 1 ? 0.0L : static_cast<long double>(i) / (grid_points - 1);
+      const long double f =
+          grid_points == 1 ? 0.0L : static_cast<long double>(i) / (grid_points - 1);
       check(s.raw_min + std::llround(f * static_cast<long double>(s.raw_max - s.raw_min)));
     }
   }

@@ -9,11 +9,11 @@
 namespace ridgecal::firmware::detail {
 
 struct Deviation {
-  double max = 0;          ///< max |emulated - model|, reference units
-  double at = 0;           ///< reading where it occurs
-  std::size_t points = 0;  ///< inputs checked in total
+  double max = 0;            ///< max |emulated - model|, reference units
+  double at = 0;             ///< reading where it occurs
+  std::size_t points = 0;    ///< inputs checked in total
   std::size_t readings = 0;  ///< of which calibration readings
-  bool finite = true;      ///< false if the program produced inf/NaN somewhere
+  bool finite = true;        ///< false if the program produced inf/NaN somewhere
 };
 
 /// The float/double program of a model (T = float or double) for a basis, with

@@ -42,8 +42,9 @@ std::pair<double, double> raw_reading_range(const FirmwareModel& m) {
     double r = tr.reading == ReadingTransform::Ln ? std::exp(u) : u;
     const Divider& d = tr.divider;
     if (d.enabled)
-      r = d.position == DividerPosition::SensorLow ? d.full_scale * r / (d.fixed_resistance + r)
-                                                   : d.full_scale * d.fixed_resistance / (r + d.fixed_resistance);
+      r = d.position == DividerPosition::SensorLow
+              ? d.full_scale * r / (d.fixed_resistance + r)
+              : d.full_scale * d.fixed_resistance / (r + d.fixed_resistance);
     return r;
   };
   const double a = back(m.inputs.at(0).min), b = back(m.inputs.at(0).max);

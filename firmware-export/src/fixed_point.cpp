@@ -28,10 +28,15 @@ IR imul(IR a, IR b) {
   return {*std::min_element(c, c + 4), *std::max_element(c, c + 4)};
 }
 long double mag(IR a) {
-  return std::max(std::fabs(static_cast<long double>(a.lo)), std::fabs(static_cast<long double>(a.hi)));
+  return std::max(std::fabs(static_cast<long double>(a.lo)),
+                  std::fabs(static_cast<long double>(a.hi)));
 }
-IntRange to_range(IR r) { return {static_cast<long double>(r.lo), static_cast<long double>(r.hi)}; }
-bool fits32(IR r) { return r.lo >= -kInt32Max && r.hi <= kInt32Max; }
+IntRange to_range(IR r) {
+  return {static_cast<long double>(r.lo), static_cast<long double>(r.hi)};
+}
+bool fits32(IR r) {
+  return r.lo >= -kInt32Max && r.hi <= kInt32Max;
+}
 
 struct DI {
   double lo, hi;
@@ -40,7 +45,9 @@ DI dmul(DI a, DI b) {
   const double c[4] = {a.lo * b.lo, a.lo * b.hi, a.hi * b.lo, a.hi * b.hi};
   return {*std::min_element(c, c + 4), *std::max_element(c, c + 4)};
 }
-double dmag(DI a) { return std::max(std::fabs(a.lo), std::fabs(a.hi)); }
+double dmag(DI a) {
+  return std::max(std::fabs(a.lo), std::fabs(a.hi));
+}
 
 int q_for(double need) {
   if (!(need > 0)) return 60;
@@ -49,7 +56,8 @@ int q_for(double need) {
 
 // Input map of one axis; returns "" or the reason (one_input: the wording of
 // the one-input header, which names the raw range).
-std::string plan_axis(FixedAxis* a, double center, double half_width, DI* range_scaled, bool one_input) {
+std::string plan_axis(FixedAxis* a, double center, double half_width, DI* range_scaled,
+                      bool one_input) {
   const double w = a->scale * half_width;  // raw counts per unit of the scaled variable
   const double c_raw = center * a->scale;
   if (!(w > 0) || !std::isfinite(w) || !std::isfinite(c_raw)) return "degenerate scaling";
@@ -60,8 +68,8 @@ std::string plan_axis(FixedAxis* a, double center, double half_width, DI* range_
   const double v_mag = std::max({std::fabs(v_min), std::fabs(v_max), 1.0});
   a->frac = 30 - std::max(0, static_cast<int>(std::ceil(std::log2(v_mag) - 1e-12)));
   if (a->frac < 8)
-    return one_input ? "raw range [" + std::to_string(a->raw_min) + ", " + std::to_string(a->raw_max) +
-                           "] extends far beyond the calibrated range"
+    return one_input ? "raw range [" + std::to_string(a->raw_min) + ", " +
+                           std::to_string(a->raw_max) + "] extends far beyond the calibrated range"
                      : std::string("raw range extends far beyond the calibrated range");
   a->shift = 0;
   for (int sh = kMaxShift; sh >= 1; --sh) {
@@ -80,7 +88,8 @@ std::string plan_axis(FixedAxis* a, double center, double half_width, DI* range_
 }
 
 std::string verify_axis(FixedAxis* a, IR* q) {
-  const i128 d_lo = static_cast<i128>(a->raw_min) - a->r0, d_hi = static_cast<i128>(a->raw_max) - a->r0;
+  const i128 d_lo = static_cast<i128>(a->raw_min) - a->r0,
+             d_hi = static_cast<i128>(a->raw_max) - a->r0;
   const IR pre{d_lo * a->mul + a->add, d_hi * a->mul + a->add};
   a->pre = to_range(pre);
   if (!rshift_precondition(pre.lo, pre.hi, a->shift)) return "input map leaves the shift's range";
@@ -91,7 +100,8 @@ std::string verify_axis(FixedAxis* a, IR* q) {
 }
 
 std::size_t idx(int k, int l, int L) {
-  return static_cast<std::size_t>(k) * static_cast<std::size_t>(L + 1) + static_cast<std::size_t>(l);
+  return static_cast<std::size_t>(k) * static_cast<std::size_t>(L + 1) +
+         static_cast<std::size_t>(l);
 }
 
 std::int64_t axis_value(const FixedAxis& a, std::int32_t raw) {
@@ -132,11 +142,13 @@ bool verify_fixed_bounds(FixedPlan* plan, std::string* why) {
       p.max_abs_product = std::max(p.max_abs_product, mag(prod));
       const int sh = p.sh_in[static_cast<std::size_t>(k * L + l)];
       if (!rshift_precondition(prod.lo, prod.hi, sh))
-        return fail("row " + std::to_string(k) + " step " + std::to_string(l) + ": product leaves the shift's range");
+        return fail("row " + std::to_string(k) + " step " + std::to_string(l) +
+                    ": product leaves the shift's range");
       const std::int32_t c = p.coef[idx(k, l, L)];
       a = IR{rshift_round_exact(prod.lo, sh) + c, rshift_round_exact(prod.hi, sh) + c};
       p.max_abs_acc = std::max(p.max_abs_acc, mag(a));
-      if (!fits32(a)) return fail("row " + std::to_string(k) + " step " + std::to_string(l) + ": exceeds int32");
+      if (!fits32(a))
+        return fail("row " + std::to_string(k) + " step " + std::to_string(l) + ": exceeds int32");
     }
     w[static_cast<std::size_t>(k)] = a;
   }
@@ -149,7 +161,8 @@ bool verify_fixed_bounds(FixedPlan* plan, std::string* why) {
     p.prod[static_cast<std::size_t>(k)] = to_range(prod);
     p.max_abs_product = std::max(p.max_abs_product, mag(prod));
     const int sh = p.sh_out[static_cast<std::size_t>(k)];
-    if (!rshift_precondition(prod.lo, prod.hi, sh)) return fail("outer step " + std::to_string(k) + ": product leaves the shift's range");
+    if (!rshift_precondition(prod.lo, prod.hi, sh))
+      return fail("outer step " + std::to_string(k) + ": product leaves the shift's range");
     const IR wk = w[static_cast<std::size_t>(k)];
     acc = IR{rshift_round_exact(prod.lo, sh) + wk.lo, rshift_round_exact(prod.hi, sh) + wk.hi};
     p.acc[static_cast<std::size_t>(k)] = to_range(acc);
@@ -168,14 +181,16 @@ bool verify_fixed_bounds(FixedPlan* plan, std::string* why) {
   return true;
 }
 
-bool plan_fixed(const FirmwareModel& model, const ExportOptions& o, FixedPlan* out, std::string* why) {
+bool plan_fixed(const FirmwareModel& model, const ExportOptions& o, FixedPlan* out,
+                std::string* why) {
   const auto fail = [&](const std::string& m) {
     if (why) *why = m;
     return false;
   };
   if (!model.transforms.identity())
-    return fail("the model has transforms (" + model.transforms.describe() +
-                "); fixed point supports the plain 2-D polynomial only: use --numeric float or double");
+    return fail(
+        "the model has transforms (" + model.transforms.describe() +
+        "); fixed point supports the plain 2-D polynomial only: use --numeric float or double");
   if (model.monomial.empty() || model.inputs.empty()) return fail("model has no coefficients");
   // The one-input header names the raw range in its messages and prefixes no axis.
   const bool one_input = !model.extended;
@@ -196,24 +211,30 @@ bool plan_fixed(const FirmwareModel& model, const ExportOptions& o, FixedPlan* o
   p.calibrated_reading_min = in.min;
   p.calibrated_reading_max = in.max;
   if (p.t.raw_min > p.t.raw_max)
-    return fail(one_input ? "no integer raw input in the range (raw_min " + std::to_string(p.t.raw_min) +
-                                " > raw_max " + std::to_string(p.t.raw_max) +
-                                "); for non-integer readings set input_scale (raw counts per reading unit) or "
-                                "raw_min/raw_max"
-                          : "no integer raw reading in the calibrated range; set --input-scale (raw counts per "
-                            "reading unit)");
+    return fail(
+        one_input
+            ? "no integer raw input in the range (raw_min " + std::to_string(p.t.raw_min) +
+                  " > raw_max " + std::to_string(p.t.raw_max) +
+                  "); for non-integer readings set input_scale (raw counts per reading unit) or "
+                  "raw_min/raw_max"
+            : "no integer raw reading in the calibrated range; set --input-scale (raw counts per "
+              "reading unit)");
   DI T{0, 0}, S{0, 0};
   if (std::string e = plan_axis(&p.t, in.center, in.half_width, &T, one_input); !e.empty())
     return fail(reading_prefix + e);
   if (p.has_aux) {
     const AxisScaling& ax = model.inputs[1];
     p.s.scale = o.aux_input_scale;
-    p.s.raw_min = o.aux_raw_min ? *o.aux_raw_min : clamp32(std::ceil(ax.min * o.aux_input_scale - 1e-9));
-    p.s.raw_max = o.aux_raw_max ? *o.aux_raw_max : clamp32(std::floor(ax.max * o.aux_input_scale + 1e-9));
+    p.s.raw_min =
+        o.aux_raw_min ? *o.aux_raw_min : clamp32(std::ceil(ax.min * o.aux_input_scale - 1e-9));
+    p.s.raw_max =
+        o.aux_raw_max ? *o.aux_raw_max : clamp32(std::floor(ax.max * o.aux_input_scale + 1e-9));
     p.calibrated_aux_min = ax.min;
     p.calibrated_aux_max = ax.max;
     if (p.s.raw_min > p.s.raw_max)
-      return fail("no integer raw aux value in the calibrated range; set --aux-scale (raw counts per aux unit)");
+      return fail(
+          "no integer raw aux value in the calibrated range; set --aux-scale (raw counts per aux "
+          "unit)");
     if (std::string e = plan_axis(&p.s, ax.center, ax.half_width, &S, false); !e.empty())
       return fail("aux: " + e);
   }
@@ -269,9 +290,11 @@ bool plan_fixed(const FirmwareModel& model, const ExportOptions& o, FixedPlan* o
     p.sh_in.assign(static_cast<std::size_t>((K + 1) * L), 0);
     for (int k = 0; k <= K; ++k)
       for (int l = 0; l < L; ++l)
-        p.sh_in[static_cast<std::size_t>(k * L + l)] = p.q[idx(k, l + 1, L)] + p.s.frac - p.q[idx(k, l, L)];
+        p.sh_in[static_cast<std::size_t>(k * L + l)] =
+            p.q[idx(k, l + 1, L)] + p.s.frac - p.q[idx(k, l, L)];
     p.sh_out.assign(static_cast<std::size_t>(K), 0);
-    for (int k = 0; k < K; ++k) p.sh_out[static_cast<std::size_t>(k)] = p.q[idx(k + 1, 0, L)] + p.t.frac - p.q[idx(k, 0, L)];
+    for (int k = 0; k < K; ++k)
+      p.sh_out[static_cast<std::size_t>(k)] = p.q[idx(k + 1, 0, L)] + p.t.frac - p.q[idx(k, 0, L)];
     p.coef.assign(mv.size(), 0);
     bool coef_ok = true;
     for (std::size_t i = 0; i < mv.size(); ++i) {
@@ -289,7 +312,8 @@ bool plan_fixed(const FirmwareModel& model, const ExportOptions& o, FixedPlan* o
       *out = p;
       return true;
     }
-    if (reason.find("input map") != std::string::npos || reason.find("scaled input") != std::string::npos)
+    if (reason.find("input map") != std::string::npos ||
+        reason.find("scaled input") != std::string::npos)
       return fail(reason);
     for (int& q : p.q) --q;  // coarser everywhere (shifts are unchanged) and retry
   }
@@ -315,7 +339,8 @@ std::int32_t eval_fixed_checked(const FixedPlan& p, std::int32_t raw, int* statu
   return eval_fixed_checked(p, raw, 0, status);
 }
 
-std::int32_t eval_fixed_checked(const FixedPlan& p, std::int32_t raw, std::int32_t raw_aux, int* status) {
+std::int32_t eval_fixed_checked(const FixedPlan& p, std::int32_t raw, std::int32_t raw_aux,
+                                int* status) {
   int st = kInRange;
   if (raw < p.t.raw_min) {
     st = kBelowRange;

@@ -7,7 +7,9 @@
 
 namespace ridgecal::firmware {
 
-const char* to_string(Basis basis) { return basis == Basis::ScaledT ? "scaled t" : "raw x"; }
+const char* to_string(Basis basis) {
+  return basis == Basis::ScaledT ? "scaled t" : "raw x";
+}
 
 namespace {
 
@@ -83,8 +85,12 @@ T eval_checked_impl(const FloatingProgram<T>& p, T x, T aux, int* status) {
 
 }  // namespace
 
-float eval_program(const FloatProgram& p, float x, float aux) { return eval_impl(p, x, aux); }
-double eval_program(const DoubleProgram& p, double x, double aux) { return eval_impl(p, x, aux); }
+float eval_program(const FloatProgram& p, float x, float aux) {
+  return eval_impl(p, x, aux);
+}
+double eval_program(const DoubleProgram& p, double x, double aux) {
+  return eval_impl(p, x, aux);
+}
 float eval_program_checked(const FloatProgram& p, float x, int* status) {
   return eval_checked_impl(p, x, 0.0f, status);
 }

@@ -38,7 +38,8 @@ bool choose_proof_tolerance(const HeaderMeta& meta, const ExportOptions& opt, Pr
                             std::string& message);
 
 /// choose_proof_tolerance, and on success the tolerance fields of `r`.
-bool start_result(const HeaderMeta& meta, const ExportOptions& opt, ExportResult& r, ProofTolerance& pt);
+bool start_result(const HeaderMeta& meta, const ExportOptions& opt, ExportResult& r,
+                  ProofTolerance& pt);
 
 /// Fills `r` from the finished header and its proof; the size figures of
 /// r.stats are completed from the header text.
@@ -46,8 +47,8 @@ struct ProofFigures {
   double max = 0, at = 0;
   std::size_t points = 0, readings = 0;
 };
-void finish_result(ExportResult& r, std::string header, std::uint32_t crc, const std::string& formats,
-                   const ProofFigures& proof);
+void finish_result(ExportResult& r, std::string header, std::uint32_t crc,
+                   const std::string& formats, const ProofFigures& proof);
 
 /// The PREFIX_TABLE_* result codes of PREFIX_check_table(), the PREFIX_INLINE
 /// macro (C99/C++, GNU C89, other C89) and the opening of extern "C".

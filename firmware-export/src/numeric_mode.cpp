@@ -4,9 +4,12 @@ namespace ridgecal::firmware {
 
 std::string to_string(NumericMode mode) {
   switch (mode) {
-    case NumericMode::Float: return "float";
-    case NumericMode::Double: return "double";
-    case NumericMode::Fixed: return "fixed";
+    case NumericMode::Float:
+      return "float";
+    case NumericMode::Double:
+      return "double";
+    case NumericMode::Fixed:
+      return "fixed";
   }
   return "unknown";
 }

@@ -80,11 +80,14 @@ AsFoundResult evaluate_as_found(const CheckedRecord& rec, const Dataset& data,
       p.error = p.predicted - p.reference;
       const double u = cal.surface->transforms.input(ob.reading);
       if (!std::isfinite(u))
-        throw InputError(data.file, ob.line,
-                         fmt::format("the reading {} is outside the domain of the record's reading transforms ({})",
-                                     ob.reading, cal.surface->transforms.describe()),
-                         "check the reading column and the record");
-      p.in_range = cal.surface->input.contains(u) && (!cal.surface->has_aux || cal.surface->aux.contains(ob.aux));
+        throw InputError(
+            data.file, ob.line,
+            fmt::format(
+                "the reading {} is outside the domain of the record's reading transforms ({})",
+                ob.reading, cal.surface->transforms.describe()),
+            "check the reading column and the record");
+      p.in_range = cal.surface->input.contains(u) &&
+                   (!cal.surface->has_aux || cal.surface->aux.contains(ob.aux));
     }
     refs.push_back(p.reference);
     preds.push_back(p.predicted);
@@ -94,26 +97,30 @@ AsFoundResult evaluate_as_found(const CheckedRecord& rec, const Dataset& data,
   }
   if (cal.surface) {
     r.degree = cal.surface->total_degree();
-    r.range = Scaling{cal.surface->input.min, cal.surface->input.max};  // of the transformed reading
-    r.metrics = compute_metrics(refs, preds, static_cast<int>(cal.surface->terms.size()) - (cal.intercept ? 1 : 0),
-                                cal.intercept);
+    r.range =
+        Scaling{cal.surface->input.min, cal.surface->input.max};  // of the transformed reading
+    r.metrics = compute_metrics(
+        refs, preds, static_cast<int>(cal.surface->terms.size()) - (cal.intercept ? 1 : 0),
+        cal.intercept);
     std::vector<double> us, as;
     for (const Observation& ob : data.rows) {
       us.push_back(cal.surface->transforms.input(ob.reading));
       as.push_back(ob.aux);
     }
     for (Warning& w : check_extrapolation(us, lines, r.range,
-                                          cal.surface->transforms.identity() ? "as-found readings"
-                                                                             : "as-found readings (transformed)"))
+                                          cal.surface->transforms.identity()
+                                              ? "as-found readings"
+                                              : "as-found readings (transformed)"))
       r.warnings.push_back(w);
     if (cal.surface->has_aux)
-      for (Warning& w : check_extrapolation(as, lines, Scaling{cal.surface->aux.min, cal.surface->aux.max},
-                                            "as-found aux values"))
+      for (Warning& w :
+           check_extrapolation(as, lines, Scaling{cal.surface->aux.min, cal.surface->aux.max},
+                               "as-found aux values"))
         r.warnings.push_back(w);
   } else {
-  r.metrics = compute_metrics(refs, preds, cal.model.degree(), cal.intercept);
-  for (Warning& w : check_extrapolation(xs, lines, cal.model.scaling, "as-found readings"))
-    r.warnings.push_back(w);
+    r.metrics = compute_metrics(refs, preds, cal.model.degree(), cal.intercept);
+    for (Warning& w : check_extrapolation(xs, lines, cal.model.scaling, "as-found readings"))
+      r.warnings.push_back(w);
   }
 
   if (options.tolerance) {

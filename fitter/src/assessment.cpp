@@ -1,9 +1,10 @@
 #include "ridgecal/assessment.hpp"
 
+#include <fmt/format.h>
+
 #include <algorithm>
 #include <cassert>
 #include <cmath>
-#include <fmt/format.h>
 #include <optional>
 
 #include "ridgecal/errors.hpp"
@@ -62,7 +63,8 @@ Assessment assess_calibration(const Dataset& data, const Calibration& cal,
     a.uncertainty = evaluate_uncertainty(cal, options.uncertainty);
   }
   const auto expanded_at = [&](const PointResult& p) {
-    return extended ? extended->expanded_at(p.reading, p.aux) : a.uncertainty.expanded_at(p.reading);
+    return extended ? extended->expanded_at(p.reading, p.aux)
+                    : a.uncertainty.expanded_at(p.reading);
   };
   if (options.tolerance) {
     ToleranceSpec tol = *options.tolerance;
@@ -70,10 +72,12 @@ Assessment assess_calibration(const Dataset& data, const Calibration& cal,
     a.tolerance = tol;
     std::vector<PointToJudge> pts;
     for (const PointResult& p : cal.points)
-      pts.push_back({p.line, p.role == SetRole::Train ? "training" : "test", p.reference, p.error, expanded_at(p)});
+      pts.push_back({p.line, p.role == SetRole::Train ? "training" : "test", p.reference, p.error,
+                     expanded_at(p)});
     for (const PointResult& p : cal.points)
       if (p.role == SetRole::Train && std::isfinite(p.cv_predicted))
-        pts.push_back({p.line, "validation", p.reference, p.cv_predicted - p.reference, expanded_at(p)});
+        pts.push_back(
+            {p.line, "validation", p.reference, p.cv_predicted - p.reference, expanded_at(p)});
     if (tol.validate().empty()) a.decision = judge(pts, tol, options.rule, {"validation"});
   }
   a.warnings = diagnose_fit(data, cal, a.uncertainty, a.tolerance ? &*a.tolerance : nullptr,

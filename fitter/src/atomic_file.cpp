@@ -1,14 +1,14 @@
 #include "ridgecal/atomic_file.hpp"
 
 #include <fcntl.h>
+#include <fmt/format.h>
 #include <sys/stat.h>
 #include <unistd.h>
 
 #include <cerrno>
-#include <cstdlib>
 #include <cstdint>
+#include <cstdlib>
 #include <cstring>
-#include <fmt/format.h>
 #include <fstream>
 #include <sstream>
 #include <vector>
@@ -23,8 +23,9 @@ void write_file_atomic(const std::string& path, std::string_view content) {
   buf.push_back('\0');
   const int fd = ::mkstemp(buf.data());
   if (fd < 0)
-    throw InputError(path, 0, std::string("cannot create a temporary file beside it: ") + std::strerror(errno),
-                     "check that the output directory exists and is writable");
+    throw InputError(
+        path, 0, std::string("cannot create a temporary file beside it: ") + std::strerror(errno),
+        "check that the output directory exists and is writable");
   const std::string tmp(buf.data());
   const char* p = content.data();
   std::size_t left = content.size();
@@ -58,22 +59,28 @@ std::string read_file_bytes(const std::string& path) {
   return ss.str();
 }
 
-std::string read_file_bytes_limited(const std::string& path, std::size_t max_bytes, const std::string& hint) {
+std::string read_file_bytes_limited(const std::string& path, std::size_t max_bytes,
+                                    const std::string& hint) {
   std::ifstream in(path, std::ios::binary);
   if (!in) throw InputError(path, 0, "cannot open the file", "check the path and the permissions");
   struct stat st {};
-  if (::stat(path.c_str(), &st) == 0 && S_ISREG(st.st_mode) && static_cast<std::uintmax_t>(st.st_size) > max_bytes)
-    throw InputError(path, 0, fmt::format("the file is {} bytes; the limit is {} bytes", st.st_size, max_bytes), hint);
+  if (::stat(path.c_str(), &st) == 0 && S_ISREG(st.st_mode) &&
+      static_cast<std::uintmax_t>(st.st_size) > max_bytes)
+    throw InputError(
+        path, 0, fmt::format("the file is {} bytes; the limit is {} bytes", st.st_size, max_bytes),
+        hint);
   std::string out;
   char buf[1 << 16];
   while (in) {
     in.read(buf, sizeof buf);
     const std::size_t got = static_cast<std::size_t>(in.gcount());
     if (got > max_bytes - out.size())
-      throw InputError(path, 0, fmt::format("the input is longer than the limit of {} bytes", max_bytes), hint);
+      throw InputError(
+          path, 0, fmt::format("the input is longer than the limit of {} bytes", max_bytes), hint);
     out.append(buf, got);
   }
-  if (in.bad()) throw InputError(path, 0, "cannot read the file", "check the path and the permissions");
+  if (in.bad())
+    throw InputError(path, 0, "cannot read the file", "check the path and the permissions");
   return out;
 }
 

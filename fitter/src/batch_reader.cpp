@@ -1,15 +1,15 @@
 #include "ridgecal/batch_reader.hpp"
-#include "ridgecal/batch_fast_parse.hpp"
 
+#include <fmt/format.h>
 #include <sys/stat.h>
 
 #include <algorithm>
 #include <charconv>
 #include <cmath>
-#include <string_view>
 #include <filesystem>
-#include <fmt/format.h>
+#include <string_view>
 
+#include "ridgecal/batch_fast_parse.hpp"
 #include "ridgecal/errors.hpp"
 
 namespace ridgecal {
@@ -21,24 +21,30 @@ std::string BatchInputOptions::validate() const {
   if (!unit_column.empty() &&
       (unit_column == csv.reading_column || unit_column == csv.reference_column ||
        unit_column == csv.setpoint_column || unit_column == csv.role_column))
-    return fmt::format("unit_column is '{}'; it must differ from the reading, reference, setpoint and role columns",
-                       unit_column);
+    return fmt::format(
+        "unit_column is '{}'; it must differ from the reading, reference, setpoint and role "
+        "columns",
+        unit_column);
   return {};
 }
 
 std::vector<std::string> batch_input_files(const std::string& path) {
   std::error_code ec;
   const fs::file_status st = fs::status(path, ec);
-  if (ec || !fs::exists(st)) throw InputError(path, 0, "no such file or directory", "check the path");
+  if (ec || !fs::exists(st))
+    throw InputError(path, 0, "no such file or directory", "check the path");
   if (!fs::is_directory(st)) return {path};
   std::vector<std::string> files;
   for (const auto& e : fs::directory_iterator(path, ec)) {
     if (e.path().extension() == ".csv" && e.is_regular_file()) files.push_back(e.path().string());
   }
-  if (ec) throw InputError(path, 0, "cannot list the directory: " + ec.message(), "check the permissions");
+  if (ec)
+    throw InputError(path, 0, "cannot list the directory: " + ec.message(),
+                     "check the permissions");
   std::sort(files.begin(), files.end());
   if (files.empty())
-    throw InputError(path, 0, "the directory holds no .csv file", "give a CSV file or a directory of CSV files");
+    throw InputError(path, 0, "the directory holds no .csv file",
+                     "give a CSV file or a directory of CSV files");
   return files;
 }
 
@@ -114,7 +120,9 @@ bool is_skipped(const std::string& line) {
   return true;  // blank
 }
 
-std::string stem_of(const std::string& path) { return fs::path(path).stem().string(); }
+std::string stem_of(const std::string& path) {
+  return fs::path(path).stem().string();
+}
 
 }  // namespace
 
@@ -141,7 +149,8 @@ bool UnitReader::open_next_file() {
   if (file_index_ >= files_.size()) return false;
   const std::string& file = files_[file_index_++];
   in_ = std::make_unique<std::ifstream>(file, std::ios::binary);
-  if (!*in_) throw InputError(file, 0, "cannot open the file", "check the path and the permissions");
+  if (!*in_)
+    throw InputError(file, 0, "cannot open the file", "check the path and the permissions");
   lineno_ = 0;
   has_pending_ = false;
   header_.clear();
@@ -152,12 +161,14 @@ bool UnitReader::open_next_file() {
     header_line_ = lineno_;
     break;
   }
-  if (header_.empty()) throw InputError(file, 0, "the file is empty", "a batch CSV needs a header row and data rows");
+  if (header_.empty())
+    throw InputError(file, 0, "the file is empty", "a batch CSV needs a header row and data rows");
   const std::vector<std::string> names = all_fields(header_, options_.csv.delimiter);
   auto require = [&](const std::string& name, const char* what) {
     const auto it = std::find(names.begin(), names.end(), name);
     if (it == names.end())
-      throw InputError(file, header_line_, fmt::format("the header has no {} column '{}'", what, name),
+      throw InputError(file, header_line_,
+                       fmt::format("the header has no {} column '{}'", what, name),
                        "name the column with the matching option");
     return static_cast<int>(it - names.begin());
   };
@@ -231,7 +242,8 @@ bool UnitReader::next(UnitChunk& out) {
     if (unit_idx_ < 0 && out.unit.empty()) out.unit = stem_of(out.file);
     ++next_index_;
     if (out.unit.empty()) {
-      out.error = fmt::format("{}:{}: the unit column '{}' is empty", out.file, out.first_line, options_.unit_column);
+      out.error = fmt::format("{}:{}: the unit column '{}' is empty", out.file, out.first_line,
+                              options_.unit_column);
     } else if (seen_before(fnv1a(out.unit))) {
       out.error = fmt::format(
           "{}:{}: unit '{}' appears again after other units; the rows of a unit must be contiguous "
@@ -250,7 +262,8 @@ bool UnitReader::seen_before(std::uint64_t h) {
     std::sort(seen_tail_.begin(), seen_tail_.end());
     const std::size_t mid = seen_sorted_.size();
     seen_sorted_.insert(seen_sorted_.end(), seen_tail_.begin(), seen_tail_.end());
-    std::inplace_merge(seen_sorted_.begin(), seen_sorted_.begin() + static_cast<std::ptrdiff_t>(mid), seen_sorted_.end());
+    std::inplace_merge(seen_sorted_.begin(),
+                       seen_sorted_.begin() + static_cast<std::ptrdiff_t>(mid), seen_sorted_.end());
     seen_tail_.clear();
   }
   return false;
@@ -291,7 +304,8 @@ void split_plain(std::string_view line, char delim, std::vector<std::string_view
   std::size_t start = 0;
   for (;;) {
     const std::size_t p = line.find(delim, start);
-    out.push_back(trim_view(line.substr(start, p == std::string_view::npos ? std::string_view::npos : p - start)));
+    out.push_back(trim_view(
+        line.substr(start, p == std::string_view::npos ? std::string_view::npos : p - start)));
     if (p == std::string_view::npos) return;
     start = p + 1;
   }
@@ -311,11 +325,12 @@ bool plain_number(std::string_view cell, double& v) {
 
 bool parse_unit_chunk_fast(const UnitChunk& chunk, const CsvOptions& options, Dataset& out) {
   // Columns and number formats only the general parser reads.
-  if (!options.aux_column.empty() || !options.aux_setpoint_column.empty() || !options.direction_column.empty() ||
-      options.decimal_comma)
+  if (!options.aux_column.empty() || !options.aux_setpoint_column.empty() ||
+      !options.direction_column.empty() || options.decimal_comma)
     return false;
   const std::string_view text(chunk.text);
-  if (text.find('"') != std::string_view::npos || text.find('\0') != std::string_view::npos) return false;
+  if (text.find('"') != std::string_view::npos || text.find('\0') != std::string_view::npos)
+    return false;
   out.file = chunk.file;
   out.sha256.clear();
   out.columns = options;
@@ -328,7 +343,8 @@ bool parse_unit_chunk_fast(const UnitChunk& chunk, const CsvOptions& options, Da
   std::size_t k = 0;  // line in chunk.text
   for (std::size_t pos = 0; pos < text.size();) {
     const std::size_t nl = text.find('\n', pos);
-    const std::string_view line = text.substr(pos, nl == std::string_view::npos ? std::string_view::npos : nl - pos);
+    const std::string_view line =
+        text.substr(pos, nl == std::string_view::npos ? std::string_view::npos : nl - pos);
     pos = nl == std::string_view::npos ? text.size() : nl + 1;
     ++k;
     const std::string_view t = trim_view(line);
@@ -342,10 +358,13 @@ bool parse_unit_chunk_fast(const UnitChunk& chunk, const CsvOptions& options, Da
           if (fields[i] == fields[j] && !fields[i].empty()) return false;
         if (fields[i] == options.reading_column) reading_idx = static_cast<int>(i);
         if (fields[i] == options.reference_column) reference_idx = static_cast<int>(i);
-        if (!options.setpoint_column.empty() && fields[i] == options.setpoint_column) setpoint_idx = static_cast<int>(i);
-        if (!options.role_column.empty() && fields[i] == options.role_column) role_idx = static_cast<int>(i);
+        if (!options.setpoint_column.empty() && fields[i] == options.setpoint_column)
+          setpoint_idx = static_cast<int>(i);
+        if (!options.role_column.empty() && fields[i] == options.role_column)
+          role_idx = static_cast<int>(i);
       }
-      if (reading_idx < 0 || reference_idx < 0 || (!options.setpoint_column.empty() && setpoint_idx < 0) ||
+      if (reading_idx < 0 || reference_idx < 0 ||
+          (!options.setpoint_column.empty() && setpoint_idx < 0) ||
           (!options.role_column.empty() && role_idx < 0))
         return false;
       continue;
@@ -379,8 +398,8 @@ std::string unit_file_stem(const std::string& unit) {
   std::string s;
   bool changed = unit.empty() || unit == "." || unit == ".." || unit.size() > 100;
   for (char c : unit.substr(0, 100)) {
-    const bool ok = (c >= 'A' && c <= 'Z') || (c >= 'a' && c <= 'z') || (c >= '0' && c <= '9') || c == '.' ||
-                    c == '_' || c == '-';
+    const bool ok = (c >= 'A' && c <= 'Z') || (c >= 'a' && c <= 'z') || (c >= '0' && c <= '9') ||
+                    c == '.' || c == '_' || c == '-';
     s += ok ? c : '_';
     changed = changed || !ok;
   }

@@ -1,6 +1,7 @@
 #include "ridgecal/batch_run.hpp"
 
 #include <fcntl.h>
+#include <fmt/format.h>
 #include <sys/stat.h>
 #include <unistd.h>
 
@@ -13,15 +14,14 @@
 #include <deque>
 #include <exception>
 #include <filesystem>
-#include <fmt/format.h>
 #include <limits>
 #include <map>
 #include <mutex>
 #include <thread>
 
+#include "ridgecal/batch_fast_parse.hpp"
 #include "ridgecal/calibrate.hpp"
 #include "ridgecal/errors.hpp"
-#include "ridgecal/batch_fast_parse.hpp"
 #include "ridgecal/sha256.hpp"
 
 namespace ridgecal {
@@ -37,14 +37,18 @@ std::string BatchOptions::validate() const {
     return "comp.aux and input.csv.aux_column disagree; set both (a second input) or neither";
   if (const std::string e = assess.validate(); !e.empty()) return e;
   if (out_dir.empty()) return "out_dir is empty; give the output directory";
-  if (jobs < 0 || jobs > 1024) return fmt::format("jobs is {}; it must be between 0 (all cores) and 1024", jobs);
+  if (jobs < 0 || jobs > 1024)
+    return fmt::format("jobs is {}; it must be between 0 (all cores) and 1024", jobs);
   for (const UnitOutput& o : unit_outputs) {
     if (!write_records)
-      return fmt::format("unit output '{}' needs records (write_records is false); records are its input", o.name);
+      return fmt::format(
+          "unit output '{}' needs records (write_records is false); records are its input", o.name);
     if (o.directory.empty() || o.directory.find('/') != std::string::npos || o.directory == "." ||
         o.directory == ".." || o.directory == "records")
-      return fmt::format("unit output '{}' has directory '{}'; it must be a plain directory name other than "
-                         "'records'", o.name, o.directory);
+      return fmt::format(
+          "unit output '{}' has directory '{}'; it must be a plain directory name other than "
+          "'records'",
+          o.name, o.directory);
     if (!o.write) return fmt::format("unit output '{}' has no writer", o.name);
   }
   if (window_per_job < 1 || window_per_job > 4096)
@@ -68,7 +72,8 @@ json batch_settings_json(const BatchOptions& o) {
                   {"role", o.input.csv.role_column},
                   {"delimiter", std::string(1, o.input.csv.delimiter)}};
   // only when given: the settings (and their digest) of batches without it are unchanged
-  if (!o.input.csv.direction_column.empty()) s["columns"]["direction"] = o.input.csv.direction_column;
+  if (!o.input.csv.direction_column.empty())
+    s["columns"]["direction"] = o.input.csv.direction_column;
   s["fit"] = {{"degrees", f.degrees},
               {"lambdas", f.lambdas},
               {"rule", to_string(f.rule)},
@@ -79,15 +84,18 @@ json batch_settings_json(const BatchOptions& o) {
               {"loso_below", f.split.loso_below},
               {"fixed_degree", f.fixed_degree ? json(*f.fixed_degree) : json(nullptr)},
               {"fixed_lambda", f.fixed_lambda ? json(*f.fixed_lambda) : json(nullptr)}};
-  s["judgement"] = {{"tolerance", o.assess.tolerance ? json(o.assess.tolerance->describe()) : json(nullptr)},
-                    {"decision", to_string(o.assess.rule)},
-                    {"reference_uncertainty", o.assess.uncertainty.reference_uncertainty},
-                    {"reference_k", o.assess.uncertainty.reference_k},
-                    {"resolution", o.assess.uncertainty.resolution},
-                    {"coverage_k", o.assess.uncertainty.coverage_k}};
-  s["sensor"] = {{"name", o.sensor.name}, {"reading_unit", o.sensor.reading_unit},
+  s["judgement"] = {
+      {"tolerance", o.assess.tolerance ? json(o.assess.tolerance->describe()) : json(nullptr)},
+      {"decision", to_string(o.assess.rule)},
+      {"reference_uncertainty", o.assess.uncertainty.reference_uncertainty},
+      {"reference_k", o.assess.uncertainty.reference_k},
+      {"resolution", o.assess.uncertainty.resolution},
+      {"coverage_k", o.assess.uncertainty.coverage_k}};
+  s["sensor"] = {{"name", o.sensor.name},
+                 {"reading_unit", o.sensor.reading_unit},
                  {"reference_unit", o.sensor.reference_unit}};
-  if (o.comp.active()) {  // only then: the settings (and their digest) of plain batches are unchanged
+  if (o.comp
+          .active()) {  // only then: the settings (and their digest) of plain batches are unchanged
     const CompensationOptions& c = o.comp;
     s["compensation"] = {{"aux_column", o.input.csv.aux_column},
                          {"aux_setpoint_column", o.input.csv.aux_setpoint_column},
@@ -102,7 +110,8 @@ json batch_settings_json(const BatchOptions& o) {
 namespace {
 
 [[noreturn]] void write_failed(const std::string& path, const char* what, int err) {
-  throw InputError(path, 0, fmt::format("cannot write the output file ({}): {}", what, std::strerror(err)),
+  throw InputError(path, 0,
+                   fmt::format("cannot write the output file ({}): {}", what, std::strerror(err)),
                    "check free disk space and permissions");
 }
 
@@ -166,7 +175,9 @@ void write_whole_file_atomic(const std::string& path, const std::string& content
   f.commit(sync);
 }
 
-std::string records_dir(const BatchOptions& o) { return o.out_dir + "/records"; }
+std::string records_dir(const BatchOptions& o) {
+  return o.out_dir + "/records";
+}
 
 }  // namespace
 
@@ -174,18 +185,20 @@ UnitSummary process_unit(const UnitChunk& chunk, const BatchOptions& options) {
   UnitSummary u;
   u.unit = chunk.unit;
   u.rows = chunk.rows;
-  u.lambda = u.validation_rmse = u.test_rmse = u.max_abs_error = std::numeric_limits<double>::quiet_NaN();
+  u.lambda = u.validation_rmse = u.test_rmse = u.max_abs_error =
+      std::numeric_limits<double>::quiet_NaN();
   const std::string stem = unit_file_stem(chunk.unit);
   const std::string rel = "records/" + stem + ".json";
-  auto output_path = [&](const UnitOutput& o) { return options.out_dir + "/" + o.directory + "/" + stem + o.extension; };
+  auto output_path = [&](const UnitOutput& o) {
+    return options.out_dir + "/" + o.directory + "/" + stem + o.extension;
+  };
   auto fail = [&](std::string why) {
     u.status = UnitStatus::Failed;
     u.error = std::move(why);
     // A record left by an earlier run must not pass for this run's result.
     if (options.write_records && chunk.error.empty()) {
       ::unlink((options.out_dir + "/" + rel).c_str());
-      for (const UnitOutput& o : options.unit_outputs)
-        ::unlink(output_path(o).c_str());
+      for (const UnitOutput& o : options.unit_outputs) ::unlink(output_path(o).c_str());
     }
     return u;
   };
@@ -209,12 +222,14 @@ UnitSummary process_unit(const UnitChunk& chunk, const BatchOptions& options) {
   copt.comp = options.comp;
   copt.assess = options.assess;
   copt.sensor = options.sensor;
-  copt.sensor.name = options.sensor.name.empty() ? chunk.unit : options.sensor.name + " / unit " + chunk.unit;
+  copt.sensor.name =
+      options.sensor.name.empty() ? chunk.unit : options.sensor.name + " / unit " + chunk.unit;
   copt.created_utc = options.created_utc;
   copt.skip_unjudged_assessment = !options.write_records;
   CalibrateResult result;
   try {
-    // throws InputError e.g. for a setpoint with mixed roles, a reading outside a transform's domain
+    // throws InputError e.g. for a setpoint with mixed roles, a reading outside a transform's
+    // domain
     result = calibrate(data, copt);
   } catch (const InputError& e) {
     return fail(format_input_error(e));
@@ -225,7 +240,8 @@ UnitSummary process_unit(const UnitChunk& chunk, const BatchOptions& options) {
   u.status = UnitStatus::Ok;
   u.degree = cal.surface ? cal.surface->total_degree() : cal.model.degree();
   u.lambda = cal.lambda;
-  u.validation_rmse = cal.validation.n ? cal.validation.rmse : std::numeric_limits<double>::quiet_NaN();
+  u.validation_rmse =
+      cal.validation.n ? cal.validation.rmse : std::numeric_limits<double>::quiet_NaN();
   u.test_rmse = cal.test.n ? cal.test.rmse : std::numeric_limits<double>::quiet_NaN();
   double maxe = 0.0;
   for (const PointResult& p : cal.points) maxe = std::max(maxe, std::fabs(p.error));
@@ -236,13 +252,16 @@ UnitSummary process_unit(const UnitChunk& chunk, const BatchOptions& options) {
     if (sel.degrees.size() > 1 && u.degree == sel.degrees.back())
       u.warnings.push_back(fmt::format("the chosen degree {} is the largest candidate", u.degree));
     if (sel.lambdas.size() > 1 && cal.lambda == sel.lambdas.back())
-      u.warnings.push_back(fmt::format("the chosen lambda {} is the largest candidate", cal.lambda));
+      u.warnings.push_back(
+          fmt::format("the chosen lambda {} is the largest candidate", cal.lambda));
   }
   // The verdict is the record's, computed once by the assessment.
-  if (const auto v = result.verdict()) u.verdict = *v == Verdict::Pass ? UnitVerdict::Pass : UnitVerdict::Fail;
+  if (const auto v = result.verdict())
+    u.verdict = *v == Verdict::Pass ? UnitVerdict::Pass : UnitVerdict::Fail;
   for (const Warning& w : rec.warnings) u.warnings.push_back(to_string(w.code) + ": " + w.message);
   if (options.write_records) {
-    write_whole_file_atomic(options.out_dir + "/" + rel, record_text(record_to_json(rec)), options.sync_records);
+    write_whole_file_atomic(options.out_dir + "/" + rel, record_text(record_to_json(rec)),
+                            options.sync_records);
     u.record = rel;
     for (const UnitOutput& o : options.unit_outputs) {
       const std::string path = output_path(o);
@@ -268,15 +287,20 @@ BatchResult run_batch(const std::vector<std::string>& inputs, const BatchOptions
   const auto t0 = Clock::now();
   std::error_code ec;
   fs::create_directories(options.out_dir, ec);
-  if (ec) throw InputError(options.out_dir, 0, "cannot create the output directory: " + ec.message(), "check the path and permissions");
+  if (ec)
+    throw InputError(options.out_dir, 0, "cannot create the output directory: " + ec.message(),
+                     "check the path and permissions");
   if (options.write_records) {
     fs::create_directories(records_dir(options), ec);
-    if (ec) throw InputError(records_dir(options), 0, "cannot create the directory: " + ec.message(), "check permissions");
+    if (ec)
+      throw InputError(records_dir(options), 0, "cannot create the directory: " + ec.message(),
+                       "check permissions");
   }
   for (const UnitOutput& o : options.unit_outputs) {
     const std::string dir = options.out_dir + "/" + o.directory;
     fs::create_directories(dir, ec);
-    if (ec) throw InputError(dir, 0, "cannot create the directory: " + ec.message(), "check permissions");
+    if (ec)
+      throw InputError(dir, 0, "cannot create the directory: " + ec.message(), "check permissions");
   }
 
   UnitReader reader(inputs, options.input);
@@ -296,9 +320,11 @@ BatchResult run_batch(const std::vector<std::string>& inputs, const BatchOptions
     (u.status == UnitStatus::Ok ? res.ok : res.failed)++;
     if (u.verdict == UnitVerdict::Fail) ++res.out_of_tolerance;
     if (u.outputs_failed > 0) ++res.outputs_failed;
-    if (progress && std::chrono::duration<double>(Clock::now() - last_report).count() >= progress_interval_s) {
+    if (progress &&
+        std::chrono::duration<double>(Clock::now() - last_report).count() >= progress_interval_s) {
       last_report = Clock::now();
-      prog = BatchProgress{res.units, res.failed, reader.bytes_read(), reader.bytes_total(), seconds(), false};
+      prog = BatchProgress{res.units, res.failed, reader.bytes_read(), reader.bytes_total(),
+                           seconds(), false};
       progress(prog);
     }
   };
@@ -310,7 +336,8 @@ BatchResult run_batch(const std::vector<std::string>& inputs, const BatchOptions
   } else {
     // Main thread: reads, and writes the summary rows in input order.
     // Workers: fit and write records. At most `window` units are in flight.
-    const std::uint64_t window = static_cast<std::uint64_t>(jobs) * static_cast<std::uint64_t>(options.window_per_job);
+    const std::uint64_t window =
+        static_cast<std::uint64_t>(jobs) * static_cast<std::uint64_t>(options.window_per_job);
     std::mutex mu;
     std::condition_variable work_cv, done_cv;
     std::deque<UnitChunk> queue;
@@ -393,7 +420,9 @@ BatchResult run_batch(const std::vector<std::string>& inputs, const BatchOptions
   csv.commit(true);
   js.commit(true);
   res.seconds = seconds();
-  if (progress) progress(BatchProgress{res.units, res.failed, reader.bytes_read(), reader.bytes_total(), res.seconds, true});
+  if (progress)
+    progress(BatchProgress{res.units, res.failed, reader.bytes_read(), reader.bytes_total(),
+                           res.seconds, true});
   return res;
 }
 

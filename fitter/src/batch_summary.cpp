@@ -1,8 +1,9 @@
 #include "ridgecal/batch_summary.hpp"
 
+#include <fmt/format.h>
+
 #include <algorithm>
 #include <cmath>
-#include <fmt/format.h>
 #include <limits>
 #include <map>
 
@@ -15,7 +16,9 @@ namespace ridgecal {
 
 using nlohmann::json;
 
-std::string to_string(UnitStatus s) { return s == UnitStatus::Ok ? "ok" : "failed"; }
+std::string to_string(UnitStatus s) {
+  return s == UnitStatus::Ok ? "ok" : "failed";
+}
 UnitStatus unit_status_from_string(const std::string& s) {
   if (s == "ok") return UnitStatus::Ok;
   if (s == "failed") return UnitStatus::Failed;
@@ -24,9 +27,12 @@ UnitStatus unit_status_from_string(const std::string& s) {
 
 std::string to_string(UnitVerdict v) {
   switch (v) {
-    case UnitVerdict::Pass: return "PASS";
-    case UnitVerdict::Fail: return "FAIL";
-    default: return "n/a";
+    case UnitVerdict::Pass:
+      return "PASS";
+    case UnitVerdict::Fail:
+      return "FAIL";
+    default:
+      return "n/a";
   }
 }
 UnitVerdict unit_verdict_from_string(const std::string& s) {
@@ -38,8 +44,12 @@ UnitVerdict unit_verdict_from_string(const std::string& s) {
 
 namespace {
 
-json num(double v) { return std::isfinite(v) ? json(v) : json(nullptr); }
-std::string csv_num(double v) { return std::isfinite(v) ? fmt::format("{}", v) : std::string(); }
+json num(double v) {
+  return std::isfinite(v) ? json(v) : json(nullptr);
+}
+std::string csv_num(double v) {
+  return std::isfinite(v) ? fmt::format("{}", v) : std::string();
+}
 
 std::string csv_field(const std::string& s) {
   if (s.find_first_of(",\"\r\n") == std::string::npos) return s;
@@ -58,7 +68,8 @@ std::string joined(const std::vector<std::string>& v) {
 }
 
 [[noreturn]] void bad(const std::string& file, const std::string& what) {
-  throw InputError(file, 0, "not a valid batch summary: " + what, "give summary.json files written by 'ridgecal batch'");
+  throw InputError(file, 0, "not a valid batch summary: " + what,
+                   "give summary.json files written by 'ridgecal batch'");
 }
 
 double number_or_nan(const json& j, const char* key, const std::string& file) {
@@ -78,14 +89,16 @@ std::string text(const json& j, const char* key, const std::string& file) {
 }  // namespace
 
 std::string summary_csv_header() {
-  return "unit,status,rows,degree,lambda,validation_rmse,test_rmse,max_abs_error,verdict,warnings,error,record\n";
+  return "unit,status,rows,degree,lambda,validation_rmse,test_rmse,max_abs_error,verdict,warnings,"
+         "error,record\n";
 }
 
 std::string summary_csv_row(const UnitSummary& u) {
-  return fmt::format("{},{},{},{},{},{},{},{},{},{},{},{}\n", csv_field(u.unit), to_string(u.status), u.rows,
-                     u.degree >= 0 ? std::to_string(u.degree) : std::string(), csv_num(u.lambda),
-                     csv_num(u.validation_rmse), csv_num(u.test_rmse), csv_num(u.max_abs_error), to_string(u.verdict),
-                     csv_field(joined(u.warnings)), csv_field(u.error), csv_field(u.record));
+  return fmt::format(
+      "{},{},{},{},{},{},{},{},{},{},{},{}\n", csv_field(u.unit), to_string(u.status), u.rows,
+      u.degree >= 0 ? std::to_string(u.degree) : std::string(), csv_num(u.lambda),
+      csv_num(u.validation_rmse), csv_num(u.test_rmse), csv_num(u.max_abs_error),
+      to_string(u.verdict), csv_field(joined(u.warnings)), csv_field(u.error), csv_field(u.record));
 }
 
 json unit_summary_to_json(const UnitSummary& u) {
@@ -117,7 +130,8 @@ UnitSummary unit_summary_from_json(const json& j, const std::string& file) {
   if (rows == j.end() || !rows->is_number_unsigned()) bad(file, "'rows' is missing or not a count");
   u.rows = rows->get<std::size_t>();
   const auto deg = j.find("degree");
-  if (deg == j.end() || !(deg->is_null() || deg->is_number_integer())) bad(file, "'degree' is not an integer");
+  if (deg == j.end() || !(deg->is_null() || deg->is_number_integer()))
+    bad(file, "'degree' is not an integer");
   u.degree = deg->is_null() ? -1 : deg->get<int>();
   u.lambda = number_or_nan(j, "lambda", file);
   u.validation_rmse = number_or_nan(j, "validation_rmse", file);
@@ -141,10 +155,12 @@ std::string summary_json_head(const std::string& created_utc, const json& settin
   s += fmt::format("  \"format_version\": {},\n", kBatchSummaryFormatVersion);
   s += fmt::format("  \"tool_version\": {},\n", json(tool_version()).dump());
   if (!created_utc.empty()) s += fmt::format("  \"created_utc\": {},\n", json(created_utc).dump());
-  s += fmt::format("  \"settings\": {},\n", settings.dump(-1, ' ', false, json::error_handler_t::replace));
+  s += fmt::format("  \"settings\": {},\n",
+                   settings.dump(-1, ' ', false, json::error_handler_t::replace));
   s += fmt::format("  \"settings_sha256\": \"{}\",\n",
                    sha256_hex(settings.dump(-1, ' ', false, json::error_handler_t::replace)));
-  s += fmt::format("  \"inputs\": {},\n", json(inputs).dump(-1, ' ', false, json::error_handler_t::replace));
+  s += fmt::format("  \"inputs\": {},\n",
+                   json(inputs).dump(-1, ' ', false, json::error_handler_t::replace));
   s += "  \"units\": [";
   return s;
 }
@@ -152,24 +168,32 @@ std::string summary_json_head(const std::string& created_utc, const json& settin
 std::string summary_json_unit(const UnitSummary& u, bool first) {
   // Written directly (this runs once per unit on the batch's main thread);
   // the same members and values as unit_summary_to_json, in a fixed order.
-  auto str = [](const std::string& v) { return json(v).dump(-1, ' ', false, json::error_handler_t::replace); };
-  auto jnum = [](double v) { return std::isfinite(v) ? fmt::format("{}", v) : std::string("null"); };
+  auto str = [](const std::string& v) {
+    return json(v).dump(-1, ' ', false, json::error_handler_t::replace);
+  };
+  auto jnum = [](double v) {
+    return std::isfinite(v) ? fmt::format("{}", v) : std::string("null");
+  };
   std::string w = "[";
   for (std::size_t i = 0; i < u.warnings.size(); ++i) w += (i ? "," : "") + str(u.warnings[i]);
   w += "]";
   return fmt::format(
-      "{}{{\"unit\":{},\"status\":\"{}\",\"rows\":{},\"degree\":{},\"lambda\":{},\"validation_rmse\":{},"
-      "\"test_rmse\":{},\"max_abs_error\":{},\"verdict\":\"{}\",\"warnings\":{},\"error\":{},\"record\":{}}}",
+      "{}{{\"unit\":{},\"status\":\"{}\",\"rows\":{},\"degree\":{},\"lambda\":{},\"validation_"
+      "rmse\":{},"
+      "\"test_rmse\":{},\"max_abs_error\":{},\"verdict\":\"{}\",\"warnings\":{},\"error\":{},"
+      "\"record\":{}}}",
       first ? "\n    " : ",\n    ", str(u.unit), to_string(u.status), u.rows,
-      u.degree >= 0 ? std::to_string(u.degree) : std::string("null"), jnum(u.lambda), jnum(u.validation_rmse),
-      jnum(u.test_rmse), jnum(u.max_abs_error), to_string(u.verdict), w, str(u.error), str(u.record));
+      u.degree >= 0 ? std::to_string(u.degree) : std::string("null"), jnum(u.lambda),
+      jnum(u.validation_rmse), jnum(u.test_rmse), jnum(u.max_abs_error), to_string(u.verdict), w,
+      str(u.error), str(u.record));
 }
 
 std::string summary_json_tail(std::uint64_t units, std::uint64_t ok, std::uint64_t failed,
                               std::uint64_t out_of_tolerance) {
   return fmt::format(
-      "\n  ],\n  \"totals\": {{\"units\": {}, \"ok\": {}, \"failed\": {}, \"out_of_tolerance\": {}}}\n}}\n", units,
-      ok, failed, out_of_tolerance);
+      "\n  ],\n  \"totals\": {{\"units\": {}, \"ok\": {}, \"failed\": {}, \"out_of_tolerance\": "
+      "{}}}\n}}\n",
+      units, ok, failed, out_of_tolerance);
 }
 
 BatchSummary read_batch_summary(const std::string& path) {
@@ -177,16 +201,19 @@ BatchSummary read_batch_summary(const std::string& path) {
   try {
     j = json::parse(read_file_bytes(path));
   } catch (const json::exception& e) {
-    throw InputError(path, 0, std::string("not valid JSON: ") + e.what(), "give summary.json files written by 'ridgecal batch'");
+    throw InputError(path, 0, std::string("not valid JSON: ") + e.what(),
+                     "give summary.json files written by 'ridgecal batch'");
   }
   if (!j.is_object()) bad(path, "the top level is not an object");
-  if (text(j, "format", path) != kBatchSummaryFormat) bad(path, "'format' is not ridgecal-batch-summary");
+  if (text(j, "format", path) != kBatchSummaryFormat)
+    bad(path, "'format' is not ridgecal-batch-summary");
   const auto v = j.find("format_version");
   if (v == j.end() || !v->is_number_integer() || v->get<int>() != kBatchSummaryFormatVersion)
     bad(path, fmt::format("'format_version' is not {}", kBatchSummaryFormatVersion));
   BatchSummary s;
   s.tool_version = text(j, "tool_version", path);
-  if (j.contains("created_utc") && j["created_utc"].is_string()) s.created_utc = j["created_utc"].get<std::string>();
+  if (j.contains("created_utc") && j["created_utc"].is_string())
+    s.created_utc = j["created_utc"].get<std::string>();
   if (!j.contains("settings") || !j["settings"].is_object()) bad(path, "'settings' is missing");
   s.settings = j["settings"];
   s.settings_sha256 = text(j, "settings_sha256", path);
@@ -198,7 +225,8 @@ BatchSummary read_batch_summary(const std::string& path) {
   return s;
 }
 
-BatchSummary merge_batch_summaries(const std::vector<BatchSummary>& shards, const std::vector<std::string>& names,
+BatchSummary merge_batch_summaries(const std::vector<BatchSummary>& shards,
+                                   const std::vector<std::string>& names,
                                    const MergeOptions& options) {
   BatchSummary out;
   if (shards.empty()) return out;
@@ -211,19 +239,21 @@ BatchSummary merge_batch_summaries(const std::vector<BatchSummary>& shards, cons
     const BatchSummary& s = shards[i];
     const std::string& name = i < names.size() ? names[i] : fmt::format("shard {}", i + 1);
     if (s.settings_sha256 != out.settings_sha256 && !options.allow_mixed_settings)
-      throw InputError(name, 0,
-                       fmt::format("its fit settings differ from those of {} (settings_sha256 {} vs {})",
-                                   names.empty() ? "the first shard" : names.front(), s.settings_sha256,
-                                   out.settings_sha256),
-                       "shard one batch with the same options everywhere, or pass --allow-mixed-settings");
+      throw InputError(
+          name, 0,
+          fmt::format("its fit settings differ from those of {} (settings_sha256 {} vs {})",
+                      names.empty() ? "the first shard" : names.front(), s.settings_sha256,
+                      out.settings_sha256),
+          "shard one batch with the same options everywhere, or pass --allow-mixed-settings");
     out.inputs.insert(out.inputs.end(), s.inputs.begin(), s.inputs.end());
     for (const UnitSummary& u : s.units) {
       const auto [it, fresh] = where.emplace(u.unit, i);
       if (!fresh)
-        throw InputError(name, 0,
-                         fmt::format("unit '{}' is also in {}", u.unit,
-                                     it->second < names.size() ? names[it->second] : "another shard"),
-                         "each unit must be fitted in exactly one shard");
+        throw InputError(
+            name, 0,
+            fmt::format("unit '{}' is also in {}", u.unit,
+                        it->second < names.size() ? names[it->second] : "another shard"),
+            "each unit must be fitted in exactly one shard");
       out.units.push_back(u);
     }
   }

@@ -1,9 +1,10 @@
 #include "ridgecal/calibration.hpp"
 
+#include <fmt/format.h>
+
 #include <algorithm>
 #include <cassert>
 #include <cmath>
-#include <fmt/format.h>
 #include <limits>
 #include <memory>
 #include <stdexcept>
@@ -14,14 +15,18 @@
 
 namespace ridgecal {
 
-std::string to_string(SelectionRule r) { return r == SelectionRule::MinCv ? "min-cv" : "one-se"; }
+std::string to_string(SelectionRule r) {
+  return r == SelectionRule::MinCv ? "min-cv" : "one-se";
+}
 SelectionRule selection_rule_from_string(const std::string& s) {
   if (s == "min-cv") return SelectionRule::MinCv;
   if (s == "one-se") return SelectionRule::OneSe;
   throw std::invalid_argument("selection rule must be 'min-cv' or 'one-se', got '" + s + "'");
 }
 
-std::string to_string(SelectionMode m) { return m == SelectionMode::CrossValidation ? "cv" : "fixed"; }
+std::string to_string(SelectionMode m) {
+  return m == SelectionMode::CrossValidation ? "cv" : "fixed";
+}
 SelectionMode selection_mode_from_string(const std::string& s) {
   if (s == "cv") return SelectionMode::CrossValidation;
   if (s == "fixed") return SelectionMode::Fixed;
@@ -31,16 +36,19 @@ SelectionMode selection_mode_from_string(const std::string& s) {
 int choose_cell(const std::vector<GridCell>& grid, SelectionRule rule) {
   int best = -1;
   for (std::size_t i = 0; i < grid.size(); ++i)
-    if (!std::isnan(grid[i].cv_rmse) && (best < 0 || grid[i].cv_rmse < grid[static_cast<std::size_t>(best)].cv_rmse))
+    if (!std::isnan(grid[i].cv_rmse) &&
+        (best < 0 || grid[i].cv_rmse < grid[static_cast<std::size_t>(best)].cv_rmse))
       best = static_cast<int>(i);
   if (best < 0 || rule != SelectionRule::OneSe) return best;
-  const double limit = grid[static_cast<std::size_t>(best)].cv_rmse + grid[static_cast<std::size_t>(best)].cv_se;
+  const double limit =
+      grid[static_cast<std::size_t>(best)].cv_rmse + grid[static_cast<std::size_t>(best)].cv_se;
   int pick = best;
   for (std::size_t i = 0; i < grid.size(); ++i) {
     const GridCell& c = grid[i];
     if (!(c.cv_rmse <= limit)) continue;
     const GridCell& p = grid[static_cast<std::size_t>(pick)];
-    if (c.terms < p.terms || (c.terms == p.terms && c.lambda > p.lambda)) pick = static_cast<int>(i);
+    if (c.terms < p.terms || (c.terms == p.terms && c.lambda > p.lambda))
+      pick = static_cast<int>(i);
   }
   return pick;
 }
@@ -61,15 +69,16 @@ std::string FitOptions::validate() const {
     return "fixed_degree and fixed_lambda go together; give both or neither";
   if (fixed_degree) {
     if (*fixed_degree < (intercept ? 0 : 1) || *fixed_degree > kMaxDegree)
-      return fmt::format("fixed_degree is {}; it must be between {} and {}", *fixed_degree, intercept ? 0 : 1,
-                         kMaxDegree);
+      return fmt::format("fixed_degree is {}; it must be between {} and {}", *fixed_degree,
+                         intercept ? 0 : 1, kMaxDegree);
     if (!(std::isfinite(*fixed_lambda) && *fixed_lambda >= 0.0))
       return fmt::format("fixed_lambda is {}; it must be a finite number >= 0", *fixed_lambda);
   } else {
     if (degrees.empty()) return "degrees is empty; give at least one candidate degree";
     for (int d : degrees)
       if (d < 1 || d > kMaxDegree)
-        return fmt::format("degrees contains {}; every candidate degree must be between 1 and {}", d, kMaxDegree);
+        return fmt::format("degrees contains {}; every candidate degree must be between 1 and {}",
+                           d, kMaxDegree);
     if (lambdas.empty()) return "lambdas is empty; give at least one candidate penalty";
     for (double l : lambdas)
       if (!(std::isfinite(l) && l >= 0.0))
@@ -81,7 +90,8 @@ std::string FitOptions::validate() const {
 namespace {
 
 // Design columns 1..D for every row: T_k(t), or T_k(t) - T_k(t0) through the origin.
-Eigen::MatrixXd design(const std::vector<double>& readings, const Scaling& sc, int D, bool intercept) {
+Eigen::MatrixXd design(const std::vector<double>& readings, const Scaling& sc, int D,
+                       bool intercept) {
   Eigen::MatrixXd X(static_cast<Eigen::Index>(readings.size()), D);
   std::vector<double> row(static_cast<std::size_t>(D) + 1), row0(static_cast<std::size_t>(D) + 1);
   chebyshev_row(sc.to_t(0.0), D, row0.data());
@@ -95,7 +105,8 @@ Eigen::MatrixXd design(const std::vector<double>& readings, const Scaling& sc, i
 
 Eigen::MatrixXd take_rows(const Eigen::MatrixXd& X, const std::vector<std::size_t>& idx, int cols) {
   Eigen::MatrixXd out(static_cast<Eigen::Index>(idx.size()), cols);
-  for (std::size_t i = 0; i < idx.size(); ++i) out.row(static_cast<Eigen::Index>(i)) = X.row(static_cast<Eigen::Index>(idx[i])).head(cols);
+  for (std::size_t i = 0; i < idx.size(); ++i)
+    out.row(static_cast<Eigen::Index>(i)) = X.row(static_cast<Eigen::Index>(idx[i])).head(cols);
   return out;
 }
 
@@ -105,7 +116,8 @@ Eigen::VectorXd take(const std::vector<double>& v, const std::vector<std::size_t
   return out;
 }
 
-std::vector<double> cheb_from_fit(const Eigen::VectorXd& b, double b0, const Scaling& sc, bool intercept) {
+std::vector<double> cheb_from_fit(const Eigen::VectorXd& b, double b0, const Scaling& sc,
+                                  bool intercept) {
   const int D = static_cast<int>(b.size());
   std::vector<double> c(static_cast<std::size_t>(D) + 1);
   c[0] = b0;
@@ -114,7 +126,8 @@ std::vector<double> cheb_from_fit(const Eigen::VectorXd& b, double b0, const Sca
     std::vector<double> row0(static_cast<std::size_t>(D) + 1);
     chebyshev_row(sc.to_t(0.0), D, row0.data());
     long double s = 0;
-    for (int k = 1; k <= D; ++k) s += static_cast<long double>(b(k - 1)) * row0[static_cast<std::size_t>(k)];
+    for (int k = 1; k <= D; ++k)
+      s += static_cast<long double>(b(k - 1)) * row0[static_cast<std::size_t>(k)];
     c[0] = static_cast<double>(-s);
   }
   return c;
@@ -135,10 +148,12 @@ FitOutcome fit_calibration(const Dataset& data, const FitOptions& options) {
     x[i] = data.rows[i].reading;
     y[i] = data.rows[i].reference;
     for (const double v : {x[i], y[i]})
-      if (!std::isfinite(v) || (v != 0.0 && (std::fabs(v) > kMaxMagnitude || std::fabs(v) < kMinMagnitude))) {
-        out.status = Status::failure(fmt::format(
-            "line {}: the value {} is not finite or its magnitude is outside the supported range [{:g}, {:g}]",
-            data.rows[i].line, v, kMinMagnitude, kMaxMagnitude));
+      if (!std::isfinite(v) ||
+          (v != 0.0 && (std::fabs(v) > kMaxMagnitude || std::fabs(v) < kMinMagnitude))) {
+        out.status =
+            Status::failure(fmt::format("line {}: the value {} is not finite or its magnitude is "
+                                        "outside the supported range [{:g}, {:g}]",
+                                        data.rows[i].line, v, kMinMagnitude, kMaxMagnitude));
         return out;
       }
   }
@@ -157,8 +172,9 @@ FitOutcome fit_calibration(const Dataset& data, const FitOptions& options) {
   }
   const auto [xmin_it, xmax_it] = std::minmax_element(x.begin(), x.end());
   if (n == 0 || *xmin_it == *xmax_it) {
-    out.status = Status::failure(fmt::format("all {} readings are equal ({}); a calibration needs readings that vary",
-                                             n, n ? *xmin_it : 0.0));
+    out.status = Status::failure(
+        fmt::format("all {} readings are equal ({}); a calibration needs readings that vary", n,
+                    n ? *xmin_it : 0.0));
     return out;
   }
 
@@ -167,7 +183,8 @@ FitOutcome fit_calibration(const Dataset& data, const FitOptions& options) {
   std::vector<int> degrees = fixed ? std::vector<int>{*options.fixed_degree} : options.degrees;
   std::sort(degrees.begin(), degrees.end());
   degrees.erase(std::unique(degrees.begin(), degrees.end()), degrees.end());
-  std::vector<double> lambdas = fixed ? std::vector<double>{*options.fixed_lambda} : options.lambdas;
+  std::vector<double> lambdas =
+      fixed ? std::vector<double>{*options.fixed_lambda} : options.lambdas;
   std::sort(lambdas.begin(), lambdas.end());
   lambdas.erase(std::unique(lambdas.begin(), lambdas.end()), lambdas.end());
 
@@ -175,8 +192,8 @@ FitOutcome fit_calibration(const Dataset& data, const FitOptions& options) {
   const std::size_t min_needed = static_cast<std::size_t>(std::max(1, degrees.front() + extra));
   if (groups.size() < std::max<std::size_t>(min_needed, 2)) {
     out.status = Status::failure(fmt::format(
-        "only {} distinct setpoint(s); the smallest candidate model (degree {}) needs at least {}", groups.size(),
-        degrees.front(), std::max<std::size_t>(min_needed, 2)));
+        "only {} distinct setpoint(s); the smallest candidate model (degree {}) needs at least {}",
+        groups.size(), degrees.front(), std::max<std::size_t>(min_needed, 2)));
     return out;
   }
 
@@ -194,10 +211,12 @@ FitOutcome fit_calibration(const Dataset& data, const FitOptions& options) {
       row_role[r] = split.role[g];
       row_fold[r] = split.fold[g];
     }
-    cal.setpoints.push_back(SetpointResult{groups[g].id, groups[g].mean_reading, groups[g].mean_reference,
-                                           groups[g].rows.size(), split.role[g], split.fold[g]});
+    cal.setpoints.push_back(SetpointResult{groups[g].id, groups[g].mean_reading,
+                                           groups[g].mean_reference, groups[g].rows.size(),
+                                           split.role[g], split.fold[g]});
   }
-  for (std::size_t r = 0; r < n; ++r) (row_role[r] == SetRole::Train ? train_rows : test_rows).push_back(r);
+  for (std::size_t r = 0; r < n; ++r)
+    (row_role[r] == SetRole::Train ? train_rows : test_rows).push_back(r);
 
   Scaling sc;
   sc.x_min = std::numeric_limits<double>::infinity();
@@ -207,24 +226,28 @@ FitOutcome fit_calibration(const Dataset& data, const FitOptions& options) {
     sc.x_max = std::max(sc.x_max, x[r]);
   }
   if (!(sc.x_max > sc.x_min)) {
-    out.status = Status::failure("all training readings are equal; a calibration needs readings that vary");
+    out.status =
+        Status::failure("all training readings are equal; a calibration needs readings that vary");
     return out;
   }
   cal.model.scaling = sc;
 
   // Fold row sets; a degree is scored only if every fold's training part has enough setpoints.
   const int K = split.n_folds;
-  std::vector<std::vector<std::size_t>> fold_train(static_cast<std::size_t>(K)), fold_val(static_cast<std::size_t>(K));
+  std::vector<std::vector<std::size_t>> fold_train(static_cast<std::size_t>(K)),
+      fold_val(static_cast<std::size_t>(K));
   std::vector<std::size_t> fold_groups(static_cast<std::size_t>(K), 0);
   for (std::size_t g = 0; g < groups.size(); ++g)
     if (split.fold[g] >= 0) ++fold_groups[static_cast<std::size_t>(split.fold[g])];
   for (auto& v : fold_train) v.reserve(train_rows.size());
   for (auto& v : fold_val) v.reserve(train_rows.size());
   for (std::size_t r : train_rows)
-    for (int k = 0; k < K; ++k) (row_fold[r] == k ? fold_val : fold_train)[static_cast<std::size_t>(k)].push_back(r);
+    for (int k = 0; k < K; ++k)
+      (row_fold[r] == k ? fold_val : fold_train)[static_cast<std::size_t>(k)].push_back(r);
   std::size_t min_fold_train_groups = n_train_groups;
   for (int k = 0; k < K; ++k)
-    min_fold_train_groups = std::min(min_fold_train_groups, n_train_groups - fold_groups[static_cast<std::size_t>(k)]);
+    min_fold_train_groups =
+        std::min(min_fold_train_groups, n_train_groups - fold_groups[static_cast<std::size_t>(k)]);
 
   SelectionInfo& sel = cal.selection;
   sel.mode = fixed ? SelectionMode::Fixed : SelectionMode::CrossValidation;
@@ -235,8 +258,9 @@ FitOutcome fit_calibration(const Dataset& data, const FitOptions& options) {
   for (int d : degrees) {
     const std::size_t need = static_cast<std::size_t>(d + extra);
     if (n_train_groups < std::max<std::size_t>(need, 1)) {
-      sel.notes.push_back(fmt::format("degree {} dropped: it needs {} training setpoints, there are {}", d, need,
-                                      n_train_groups));
+      sel.notes.push_back(
+          fmt::format("degree {} dropped: it needs {} training setpoints, there are {}", d, need,
+                      n_train_groups));
       continue;
     }
     if (!fixed && K > 0 && min_fold_train_groups < need) {
@@ -249,15 +273,17 @@ FitOutcome fit_calibration(const Dataset& data, const FitOptions& options) {
   }
   if (sel.degrees.empty()) {
     out.status = Status::failure(fmt::format(
-        "fewer distinct training setpoints ({}) than the smallest candidate model needs", n_train_groups));
+        "fewer distinct training setpoints ({}) than the smallest candidate model needs",
+        n_train_groups));
     return out;
   }
   const bool can_cv = K >= 2;
   if (!fixed && !can_cv && sel.degrees.size() * lambdas.size() > 1) {
-    out.status = Status::failure(fmt::format(
-        "only {} training setpoints: too few to cross-validate (at least 3 are needed, the end setpoints "
-        "always stay in training); give a fixed model with --degree and --lambda",
-        n_train_groups));
+    out.status = Status::failure(
+        fmt::format("only {} training setpoints: too few to cross-validate (at least 3 are needed, "
+                    "the end setpoints "
+                    "always stay in training); give a fixed model with --degree and --lambda",
+                    n_train_groups));
     return out;
   }
 
@@ -269,9 +295,10 @@ FitOutcome fit_calibration(const Dataset& data, const FitOptions& options) {
     chebyshev_row(sc.to_t(0.0), Dmax, row0.data());
     for (double v : row0)
       if (!std::isfinite(v) || std::fabs(v) > 1e150) {
-        out.status = Status::failure(fmt::format(
-            "reading 0 lies too far outside the calibrated range {:g} .. {:g} for a fit through the origin",
-            sc.x_min, sc.x_max));
+        out.status =
+            Status::failure(fmt::format("reading 0 lies too far outside the calibrated range {:g} "
+                                        ".. {:g} for a fit through the origin",
+                                        sc.x_min, sc.x_max));
         return out;
       }
   }
@@ -286,7 +313,8 @@ FitOutcome fit_calibration(const Dataset& data, const FitOptions& options) {
   std::vector<int> pos_degrees;  // the scored degrees > 0, ascending
   for (int d : sel.degrees)
     if (d > 0) pos_degrees.push_back(d);
-  const std::size_t first_pos = ND - pos_degrees.size();  // index of the first positive degree in sel.degrees
+  const std::size_t first_pos =
+      ND - pos_degrees.size();  // index of the first positive degree in sel.degrees
   const std::size_t KK = static_cast<std::size_t>(std::max(K, 0));
   // fold_mse[(k * ND + di) * L + l], train_mse[di * L + l]
   std::vector<double> fold_mse(can_cv ? KK * ND * L : 0), train_mse(ND * L);
@@ -298,13 +326,15 @@ FitOutcome fit_calibration(const Dataset& data, const FitOptions& options) {
   std::vector<double> val_buf(pos_degrees.size() * NestedRidge::kLanes), train_buf(val_buf.size());
   Eigen::VectorXd pred;
   // Scores one problem (fold k, or k = -1: all training points) into the tables.
-  auto score_problem = [&](int k, const std::vector<std::size_t>& tr, const std::vector<std::size_t>* va) {
+  auto score_problem = [&](int k, const std::vector<std::size_t>& tr,
+                           const std::vector<std::size_t>* va) {
     if (pos_degrees.empty()) return;
     NestedRidge& engine = engines[k >= 0 ? static_cast<std::size_t>(k) : KK];
     engine.factor(X, y.data(), tr, pos_degrees.back(), options.intercept);
     if (va) engine.set_validation(X, y.data(), *va);
-    const int fast = static_cast<int>(std::upper_bound(pos_degrees.begin(), pos_degrees.end(), engine.usable()) -
-                                      pos_degrees.begin());
+    const int fast =
+        static_cast<int>(std::upper_bound(pos_degrees.begin(), pos_degrees.end(), engine.usable()) -
+                         pos_degrees.begin());
     constexpr std::size_t kLanes = NestedRidge::kLanes;
     for (std::size_t l0 = 0; l0 < L; l0 += kLanes) {
       const std::size_t nl = std::min(kLanes, L - l0);
@@ -314,8 +344,10 @@ FitOutcome fit_calibration(const Dataset& data, const FitOptions& options) {
         const std::size_t di = first_pos + static_cast<std::size_t>(t);
         for (std::size_t q = 0; q < nl; ++q) {
           const std::size_t src = static_cast<std::size_t>(t) * kLanes + q;
-          if (va) fold_mse[(static_cast<std::size_t>(k) * ND + di) * L + l0 + q] = val_buf[src];
-          else train_mse[di * L + l0 + q] = train_buf[src];
+          if (va)
+            fold_mse[(static_cast<std::size_t>(k) * ND + di) * L + l0 + q] = val_buf[src];
+          else
+            train_mse[di * L + l0 + q] = train_buf[src];
         }
       }
     }
@@ -328,14 +360,17 @@ FitOutcome fit_calibration(const Dataset& data, const FitOptions& options) {
       for (std::size_t l = 0; l < L; ++l) {
         path.predict(W, lambdas[l], pred);
         const double mse = (pred - ref).squaredNorm() / static_cast<double>(ref.size());
-        if (va) fold_mse[(static_cast<std::size_t>(k) * ND + di) * L + l] = mse;
-        else train_mse[di * L + l] = mse;
+        if (va)
+          fold_mse[(static_cast<std::size_t>(k) * ND + di) * L + l] = mse;
+        else
+          train_mse[di * L + l] = mse;
       }
     }
   };
   if (can_cv)
     for (int k = 0; k < K; ++k)
-      score_problem(k, fold_train[static_cast<std::size_t>(k)], &fold_val[static_cast<std::size_t>(k)]);
+      score_problem(k, fold_train[static_cast<std::size_t>(k)],
+                    &fold_val[static_cast<std::size_t>(k)]);
   score_problem(-1, train_rows, nullptr);
 
   sel.grid.reserve(ND * L);
@@ -356,7 +391,9 @@ FitOutcome fit_calibration(const Dataset& data, const FitOptions& options) {
           ss += (v - m) * (v - m);
         }
         c.cv_rmse = m;
-        c.cv_se = KK > 1 ? std::sqrt(ss / static_cast<double>(KK - 1)) / std::sqrt(static_cast<double>(KK)) : 0.0;
+        c.cv_se = KK > 1 ? std::sqrt(ss / static_cast<double>(KK - 1)) /
+                               std::sqrt(static_cast<double>(KK))
+                         : 0.0;
       } else {
         c.cv_rmse = c.cv_se = std::numeric_limits<double>::quiet_NaN();
       }
@@ -392,7 +429,8 @@ FitOutcome fit_calibration(const Dataset& data, const FitOptions& options) {
   } else {
     const RidgePath path(take_rows(X, train_rows, d), y_train, options.intercept);
     if (!path.status().ok && cal.lambda == 0.0) {
-      out.status = Status::failure(path.status().message + "; add setpoints, lower the degree or use lambda > 0");
+      out.status = Status::failure(path.status().message +
+                                   "; add setpoints, lower the degree or use lambda > 0");
       return out;
     }
     Eigen::VectorXd b;
@@ -416,7 +454,8 @@ FitOutcome fit_calibration(const Dataset& data, const FitOptions& options) {
         const RidgePath path(take_rows(X, tr, d), take(y, tr), options.intercept);
         path.predict(path.project(take_rows(X, va, d)), cal.lambda, pred);
       }
-      for (std::size_t i = 0; i < va.size(); ++i) cv_pred[va[i]] = pred(static_cast<Eigen::Index>(i));
+      for (std::size_t i = 0; i < va.size(); ++i)
+        cv_pred[va[i]] = pred(static_cast<Eigen::Index>(i));
     }
   }
 
@@ -433,7 +472,8 @@ FitOutcome fit_calibration(const Dataset& data, const FitOptions& options) {
   for (double c : cal.model.cheb)
     if (!std::isfinite(c)) {
       out.status = Status::failure(
-          "the fit produced a non-finite coefficient; the data are too extreme for this model (lower the degree, "
+          "the fit produced a non-finite coefficient; the data are too extreme for this model "
+          "(lower the degree, "
           "use lambda > 0, or rescale the columns)");
       return out;
     }
@@ -462,10 +502,11 @@ FitOutcome fit_calibration(const Dataset& data, const FitOptions& options) {
       te_pred.push_back(p.predicted);
     }
     if (!std::isfinite(p.predicted) || !std::isfinite(p.error)) {
-      out.status = Status::failure(fmt::format(
-          "line {}: the fitted curve gives a non-finite value at reading {}; the data are too extreme for this "
-          "model (lower the degree, or rescale the columns)",
-          p.line, p.reading));
+      out.status =
+          Status::failure(fmt::format("line {}: the fitted curve gives a non-finite value at "
+                                      "reading {}; the data are too extreme for this "
+                                      "model (lower the degree, or rescale the columns)",
+                                      p.line, p.reading));
       return out;
     }
     cal.points.push_back(std::move(p));
@@ -478,18 +519,23 @@ FitOutcome fit_calibration(const Dataset& data, const FitOptions& options) {
 
 std::string Calibration::brief() const {
   std::string s;
-  if (surface) s += surface_brief(*this);
+  if (surface)
+    s += surface_brief(*this);
   else {
-  if (selection.mode == SelectionMode::Fixed)
-    s += fmt::format("model: degree {}, lambda {:g} (fixed by the user)\n", model.degree(), lambda);
-  else
-    s += fmt::format("model: degree {}, lambda {:g} (chosen by {} grouped CV over {} folds, rule {})\n", model.degree(),
-                     lambda, to_string(selection.scheme), selection.n_folds, to_string(selection.rule));
-  s += fmt::format("range: reading {:g} .. {:g}\n", model.scaling.x_min, model.scaling.x_max);
+    if (selection.mode == SelectionMode::Fixed)
+      s += fmt::format("model: degree {}, lambda {:g} (fixed by the user)\n", model.degree(),
+                       lambda);
+    else
+      s += fmt::format(
+          "model: degree {}, lambda {:g} (chosen by {} grouped CV over {} folds, rule {})\n",
+          model.degree(), lambda, to_string(selection.scheme), selection.n_folds,
+          to_string(selection.rule));
+    s += fmt::format("range: reading {:g} .. {:g}\n", model.scaling.x_min, model.scaling.x_max);
   }
   std::size_t ntr = 0, nte = 0;
   for (const auto& sp : setpoints) (sp.role == SetRole::Train ? ntr : nte)++;
-  s += fmt::format("setpoints: {} training, {} test{}\n", ntr, nte, user_named_test ? " (named by the role column)" : "");
+  s += fmt::format("setpoints: {} training, {} test{}\n", ntr, nte,
+                   user_named_test ? " (named by the role column)" : "");
   s += "training:   " + training.brief() + "\n";
   s += "validation: " + validation.brief() + "\n";
   s += "test:       " + test.brief() + "\n";
@@ -502,12 +548,13 @@ std::string Calibration::full() const {
   const auto g = [](double v, const char* spec) {
     return std::isfinite(v) ? fmt::format(fmt::runtime(spec), v) : std::string("n/a");
   };
-  if (surface) s += surface_full(*this);
+  if (surface)
+    s += surface_full(*this);
   else {
-  s += "chebyshev coefficients (scaled reading t):";
-  for (double c : model.cheb) s += " " + g(c, "{:.17g}");
-  s += "\npower coefficients (raw reading x):";
-  for (double c : model.power_in_x()) s += " " + g(c, "{:.17g}");
+    s += "chebyshev coefficients (scaled reading t):";
+    for (double c : model.cheb) s += " " + g(c, "{:.17g}");
+    s += "\npower coefficients (raw reading x):";
+    for (double c : model.power_in_x()) s += " " + g(c, "{:.17g}");
   }
   s += "\ncondition number: " + g(condition_number, "{:.3g}") + "\n";
   for (const auto& note : selection.notes) s += "note: " + note + "\n";

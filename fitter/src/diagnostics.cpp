@@ -82,7 +82,8 @@ std::string DiagnosticOptions::validate() const {
     return fmt::format("test_validation_ratio is {}; it must be a finite number > 1",
                        test_validation_ratio);
   if (!(std::isfinite(cv_training_ratio) && cv_training_ratio > 1.0))
-    return fmt::format("cv_training_ratio is {}; it must be a finite number > 1", cv_training_ratio);
+    return fmt::format("cv_training_ratio is {}; it must be a finite number > 1",
+                       cv_training_ratio);
   if (!(std::isfinite(min_setpoints_per_coefficient) && min_setpoints_per_coefficient >= 0.0))
     return fmt::format("min_setpoints_per_coefficient is {}; it must be a finite number >= 0",
                        min_setpoints_per_coefficient);
@@ -211,14 +212,15 @@ std::vector<Warning> check_setpoints_per_coefficient(const Calibration& cal,
     if (terms == 0) return {};
     const double per = static_cast<double>(ntr) / static_cast<double>(terms);
     if (!(per < o.min_setpoints_per_coefficient)) return {};
-    return {make(DiagnosticCode::FewSetpointsPerCoefficient,
-                 fmt::format("Only {} training setpoint groups for {} terms ({:.1f} per term, fewer "
-                             "than {:g}): the model "
-                             "between the groups is poorly constrained; add setpoints or levels of "
-                             "the second input, or "
-                             "use fewer terms.",
-                             ntr, terms, per, o.min_setpoints_per_coefficient),
-                 {}, per)};
+    return {
+        make(DiagnosticCode::FewSetpointsPerCoefficient,
+             fmt::format("Only {} training setpoint groups for {} terms ({:.1f} per term, fewer "
+                         "than {:g}): the model "
+                         "between the groups is poorly constrained; add setpoints or levels of "
+                         "the second input, or "
+                         "use fewer terms.",
+                         ntr, terms, per, o.min_setpoints_per_coefficient),
+             {}, per)};
   }
   const int coefs = cal.model.degree() + (cal.intercept ? 1 : 0);
   if (coefs <= 0) return {};
@@ -536,7 +538,8 @@ std::vector<Warning> check_extrapolation(const std::vector<double>& readings,
 
 std::vector<Warning> check_extrapolation(const SurfaceModel& m, const std::vector<double>& readings,
                                          const std::vector<double>& aux,
-                                         const std::vector<std::size_t>& lines, const std::string& what) {
+                                         const std::vector<std::size_t>& lines,
+                                         const std::string& what) {
   std::vector<std::size_t> out_reading, out_aux;
   double worst = 0.0;  // in half-widths of the scaled input beyond [-1, 1]
   for (std::size_t i = 0; i < readings.size(); ++i) {

@@ -25,6 +25,8 @@ InputError::InputError(std::string file, std::size_t line, std::string message, 
       message_(std::move(message)),
       hint_(std::move(hint)) {}
 
-std::string format_input_error(const InputError& e) { return e.what(); }
+std::string format_input_error(const InputError& e) {
+  return e.what();
+}
 
 }  // namespace ridgecal

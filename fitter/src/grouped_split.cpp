@@ -1,9 +1,10 @@
 #include "ridgecal/grouped_split.hpp"
 
+#include <fmt/format.h>
+
 #include <algorithm>
 #include <cassert>
 #include <cmath>
-#include <fmt/format.h>
 #include <map>
 #include <stdexcept>
 
@@ -11,7 +12,9 @@
 
 namespace ridgecal {
 
-std::string to_string(SetRole r) { return r == SetRole::Train ? "train" : "test"; }
+std::string to_string(SetRole r) {
+  return r == SetRole::Train ? "train" : "test";
+}
 SetRole set_role_from_string(const std::string& s) {
   if (s == "train") return SetRole::Train;
   if (s == "test") return SetRole::Test;
@@ -24,7 +27,8 @@ std::string to_string(FoldScheme s) {
 FoldScheme fold_scheme_from_string(const std::string& s) {
   if (s == "k-fold") return FoldScheme::KFold;
   if (s == "leave-one-setpoint-out") return FoldScheme::LeaveOneSetpointOut;
-  throw std::invalid_argument("fold scheme must be 'k-fold' or 'leave-one-setpoint-out', got '" + s + "'");
+  throw std::invalid_argument("fold scheme must be 'k-fold' or 'leave-one-setpoint-out', got '" +
+                              s + "'");
 }
 
 std::string SplitOptions::validate() const {
@@ -63,11 +67,12 @@ std::vector<SetpointGroup> group_by_setpoint(const Dataset& ds) {
     }
     SetpointGroup& g = groups[it->second];
     if (g.user_role != ob.role)
-      throw InputError(ds.file, ob.line,
-                       fmt::format("setpoint '{}' has rows with different roles ('{}' here, '{}' on line {})",
-                                   g.id, to_string(ob.role), to_string(g.user_role),
-                                   ds.rows[g.rows.front()].line),
-                       "repeated readings at one setpoint must share one role");
+      throw InputError(
+          ds.file, ob.line,
+          fmt::format("setpoint '{}' has rows with different roles ('{}' here, '{}' on line {})",
+                      g.id, to_string(ob.role), to_string(g.user_role),
+                      ds.rows[g.rows.front()].line),
+          "repeated readings at one setpoint must share one role");
     g.rows.push_back(i);
   }
   for (SetpointGroup& g : groups) {
@@ -86,8 +91,8 @@ std::vector<SetpointGroup> group_by_setpoint(const Dataset& ds) {
   return groups;
 }
 
-std::vector<std::size_t> stratified_pick(const std::vector<std::size_t>& candidates, std::size_t count,
-                                         SplitRng& rng) {
+std::vector<std::size_t> stratified_pick(const std::vector<std::size_t>& candidates,
+                                         std::size_t count, SplitRng& rng) {
   std::vector<std::size_t> out;
   const std::size_t n = candidates.size();
   assert(count <= n);
@@ -99,13 +104,14 @@ std::vector<std::size_t> stratified_pick(const std::vector<std::size_t>& candida
   return out;
 }
 
-void assign_folds(const std::vector<std::size_t>& candidates, const SplitOptions& options, SplitRng& rng,
-                  Split& sp) {
+void assign_folds(const std::vector<std::size_t>& candidates, const SplitOptions& options,
+                  SplitRng& rng, Split& sp) {
   if (static_cast<int>(candidates.size()) < options.loso_below ||
       static_cast<int>(candidates.size()) <= options.folds) {
     sp.scheme = FoldScheme::LeaveOneSetpointOut;
     sp.n_folds = static_cast<int>(candidates.size());
-    for (std::size_t i = 0; i < candidates.size(); ++i) sp.fold[candidates[i]] = static_cast<int>(i);
+    for (std::size_t i = 0; i < candidates.size(); ++i)
+      sp.fold[candidates[i]] = static_cast<int>(i);
     return;
   }
   sp.scheme = FoldScheme::KFold;
@@ -115,7 +121,8 @@ void assign_folds(const std::vector<std::size_t>& candidates, const SplitOptions
     std::vector<int> labels(K);
     for (std::size_t k = 0; k < K; ++k) labels[k] = static_cast<int>(k);
     for (std::size_t k = K; k > 1; --k) std::swap(labels[k - 1], labels[rng.below(k)]);
-    for (std::size_t k = 0; k < K && start + k < candidates.size(); ++k) sp.fold[candidates[start + k]] = labels[k];
+    for (std::size_t k = 0; k < K && start + k < candidates.size(); ++k)
+      sp.fold[candidates[start + k]] = labels[k];
   }
 }
 
@@ -136,7 +143,8 @@ Split make_split(const std::vector<SetpointGroup>& groups, const SplitOptions& o
     for (std::size_t g = 0; g < n; ++g)
       if (groups[g].user_role == UserRole::Check) sp.role[g] = SetRole::Test;
   } else if (n >= 3) {
-    std::size_t want = static_cast<std::size_t>(std::llround(options.test_fraction * static_cast<double>(n)));
+    std::size_t want =
+        static_cast<std::size_t>(std::llround(options.test_fraction * static_cast<double>(n)));
     const std::size_t room = n > min_train_groups ? n - min_train_groups : 0;
     want = std::min({want, room, n - 2});
     std::vector<std::size_t> interior;

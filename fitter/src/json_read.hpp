@@ -46,8 +46,8 @@ struct JsonReader {
                     const std::string& where) const {
     const nlohmann::json& v = member(obj, key, where);
     if (!v.is_number_integer()) fail(where + "." + key, "is not an integer");
-    if (v.is_number_unsigned() && v.get<std::uint64_t>() > static_cast<std::uint64_t>(
-                                      std::numeric_limits<long long>::max()))
+    if (v.is_number_unsigned() &&
+        v.get<std::uint64_t>() > static_cast<std::uint64_t>(std::numeric_limits<long long>::max()))
       fail(where + "." + key, "is too large");
     return v.get<long long>();
   }

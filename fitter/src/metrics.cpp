@@ -1,8 +1,9 @@
 #include "ridgecal/metrics.hpp"
 
+#include <fmt/format.h>
+
 #include <cassert>
 #include <cmath>
-#include <fmt/format.h>
 #include <limits>
 
 namespace ridgecal {
@@ -13,8 +14,8 @@ std::string Metrics::brief() const {
   const auto f = [](double v, const char* spec) {
     return std::isfinite(v) ? fmt::format(fmt::runtime(spec), v) : std::string("n/a");
   };
-  return fmt::format("n={} RMSE={} max|err|={} bias={} R2={}", n, f(rmse, "{:.6g}"), f(max_abs_error, "{:.6g}"),
-                     f(bias, "{:+.3g}"), f(r2, "{:.8f}"));
+  return fmt::format("n={} RMSE={} max|err|={} bias={} R2={}", n, f(rmse, "{:.6g}"),
+                     f(max_abs_error, "{:.6g}"), f(bias, "{:+.3g}"), f(r2, "{:.8f}"));
 }
 
 Metrics compute_metrics(const std::vector<double>& reference, const std::vector<double>& predicted,

@@ -1,9 +1,10 @@
 #include "ridgecal/multi_input_fit.hpp"
 
+#include <fmt/format.h>
+
 #include <algorithm>
 #include <cassert>
 #include <cmath>
-#include <fmt/format.h>
 #include <limits>
 #include <map>
 #include <memory>
@@ -22,28 +23,34 @@ constexpr int kMaxTerms = 120;
 
 std::string CompensationOptions::validate(const FitOptions& fit) const {
   if (const std::string e = transforms.validate(); !e.empty()) return e;
-  if (!fit.intercept) return "intercept is false; extended models (transforms, aux, powers) always have the (0,0) term or none via powers";
+  if (!fit.intercept)
+    return "intercept is false; extended models (transforms, aux, powers) always have the (0,0) "
+           "term or none via powers";
   if (aux && !(std::isfinite(aux_step) && aux_step > 0.0))
     return fmt::format("aux_step is {}; it must be a finite number > 0", aux_step);
-  if (!aux && !aux_degrees.empty()) return "aux_degrees is given without an aux input; name the aux column";
+  if (!aux && !aux_degrees.empty())
+    return "aux_degrees is given without an aux input; name the aux column";
   for (int a : aux_degrees)
     if (a < 0 || a > kMaxAuxDegree)
-      return fmt::format("aux_degrees contains {}; every aux degree must be between 0 and {}", a, kMaxAuxDegree);
+      return fmt::format("aux_degrees contains {}; every aux degree must be between 0 and {}", a,
+                         kMaxAuxDegree);
   if (fit.fixed_degree && aux_degrees.size() > 1)
-    return "aux_degrees has several values with a fixed model; give one aux degree with --degree and --lambda";
+    return "aux_degrees has several values with a fixed model; give one aux degree with --degree "
+           "and --lambda";
   if (!powers.empty()) {
     std::vector<int> p = powers;
     std::sort(p.begin(), p.end());
-    if (std::adjacent_find(p.begin(), p.end()) != p.end()) return "powers contains a value twice; list each power once";
+    if (std::adjacent_find(p.begin(), p.end()) != p.end())
+      return "powers contains a value twice; list each power once";
     if (p.front() < 0 || p.back() > kMaxDegree)
-      return fmt::format("powers contains {}; every power must be between 0 and {}", p.front() < 0 ? p.front() : p.back(),
-                         kMaxDegree);
+      return fmt::format("powers contains {}; every power must be between 0 and {}",
+                         p.front() < 0 ? p.front() : p.back(), kMaxDegree);
     if (p.back() < 1) return "powers is {0}; give at least one power >= 1";
     if (aux && aux_degrees.empty())
       return "powers and an aux input need aux_degrees (the aux degree limit, --aux-degree)";
     if (fit.fixed_degree && *fit.fixed_degree != p.back())
-      return fmt::format("fixed_degree is {} but the largest allowed power is {}; they must agree", *fit.fixed_degree,
-                         p.back());
+      return fmt::format("fixed_degree is {} but the largest allowed power is {}; they must agree",
+                         *fit.fixed_degree, p.back());
   }
   return {};
 }
@@ -83,10 +90,12 @@ std::vector<Group> make_groups(const Dataset& ds, const CompensationOptions& com
     }
     Group& g = groups[it->second];
     if (g.user_role != ob.role)
-      throw InputError(ds.file, ob.line,
-                       fmt::format("setpoint '{}' has rows with different roles ('{}' here, '{}' on line {})", g.id,
-                                   to_string(ob.role), to_string(g.user_role), ds.rows[g.rows.front()].line),
-                       "repeated readings at one setpoint must share one role");
+      throw InputError(
+          ds.file, ob.line,
+          fmt::format("setpoint '{}' has rows with different roles ('{}' here, '{}' on line {})",
+                      g.id, to_string(ob.role), to_string(g.user_role),
+                      ds.rows[g.rows.front()].line),
+          "repeated readings at one setpoint must share one role");
     g.rows.push_back(r);
   }
   for (Group& g : groups) {
@@ -121,7 +130,8 @@ std::vector<Group> make_groups(const Dataset& ds, const CompensationOptions& com
     levels.emplace_back(static_cast<double>(s.first / static_cast<long double>(s.second)), name);
   std::sort(levels.begin(), levels.end());
   std::map<std::string, int> level_index;
-  for (std::size_t i = 0; i < levels.size(); ++i) level_index[levels[i].second] = static_cast<int>(i);
+  for (std::size_t i = 0; i < levels.size(); ++i)
+    level_index[levels[i].second] = static_cast<int>(i);
   for (Group& g : groups) g.level_index = level_index[g.level];
   std::sort(groups.begin(), groups.end(), [](const Group& a, const Group& b) {
     if (a.level_index != b.level_index) return a.level_index < b.level_index;
@@ -131,22 +141,25 @@ std::vector<Group> make_groups(const Dataset& ds, const CompensationOptions& com
   const int last_level = static_cast<int>(levels.size()) - 1;
   for (std::size_t g = 0; g < groups.size(); ++g) {
     const bool first_in_level = g == 0 || groups[g - 1].level_index != groups[g].level_index;
-    const bool last_in_level = g + 1 == groups.size() || groups[g + 1].level_index != groups[g].level_index;
-    groups[g].boundary = groups[g].level_index == 0 || groups[g].level_index == last_level || first_in_level ||
-                         last_in_level;
+    const bool last_in_level =
+        g + 1 == groups.size() || groups[g + 1].level_index != groups[g].level_index;
+    groups[g].boundary = groups[g].level_index == 0 || groups[g].level_index == last_level ||
+                         first_in_level || last_in_level;
   }
   return groups;
 }
 
 // The 1-D split of grouped_split.cpp, with "interior" meaning "not on the boundary".
-Split make_boundary_split(const std::vector<Group>& groups, const SplitOptions& options, std::size_t min_train) {
+Split make_boundary_split(const std::vector<Group>& groups, const SplitOptions& options,
+                          std::size_t min_train) {
   const std::size_t n = groups.size();
   Split sp;
   sp.role.assign(n, SetRole::Train);
   sp.fold.assign(n, -1);
   SplitRng rng(options.seed);
-  const bool user_roles = std::any_of(groups.begin(), groups.end(),
-                                      [](const Group& g) { return g.user_role != UserRole::Unspecified; });
+  const bool user_roles = std::any_of(groups.begin(), groups.end(), [](const Group& g) {
+    return g.user_role != UserRole::Unspecified;
+  });
   std::vector<std::size_t> interior;
   for (std::size_t g = 0; g < n; ++g)
     if (!groups[g].boundary) interior.push_back(g);
@@ -155,7 +168,8 @@ Split make_boundary_split(const std::vector<Group>& groups, const SplitOptions& 
     for (std::size_t g = 0; g < n; ++g)
       if (groups[g].user_role == UserRole::Check) sp.role[g] = SetRole::Test;
   } else {
-    std::size_t want = static_cast<std::size_t>(std::llround(options.test_fraction * static_cast<double>(n)));
+    std::size_t want =
+        static_cast<std::size_t>(std::llround(options.test_fraction * static_cast<double>(n)));
     const std::size_t room = n > min_train ? n - min_train : 0;
     want = std::min({want, room, interior.size()});
     for (std::size_t g : stratified_pick(interior, want, rng)) sp.role[g] = SetRole::Test;
@@ -182,7 +196,8 @@ Eigen::VectorXd take(const std::vector<double>& v, const std::vector<std::size_t
 
 Eigen::MatrixXd take_rows(const Eigen::MatrixXd& X, const std::vector<std::size_t>& idx) {
   Eigen::MatrixXd out(static_cast<Eigen::Index>(idx.size()), X.cols());
-  for (std::size_t i = 0; i < idx.size(); ++i) out.row(static_cast<Eigen::Index>(i)) = X.row(static_cast<Eigen::Index>(idx[i]));
+  for (std::size_t i = 0; i < idx.size(); ++i)
+    out.row(static_cast<Eigen::Index>(i)) = X.row(static_cast<Eigen::Index>(idx[i]));
   return out;
 }
 
@@ -198,7 +213,8 @@ double rmse_ref(const Transforms& tr, const Eigen::VectorXd& vhat, const Eigen::
 
 }  // namespace
 
-FitOutcome fit_compensated(const Dataset& data, const FitOptions& options, const CompensationOptions& comp) {
+FitOutcome fit_compensated(const Dataset& data, const FitOptions& options,
+                           const CompensationOptions& comp) {
   assert(options.validate().empty() && comp.validate(options).empty());
   FitOutcome out;
   Calibration& cal = out.calibration;
@@ -215,19 +231,23 @@ FitOutcome fit_compensated(const Dataset& data, const FitOptions& options, const
     u[r] = tr.input(ob.reading);
     v[r] = tr.output(ob.reference);
     if (!std::isfinite(u[r]))
-      throw InputError(data.file, ob.line,
-                       fmt::format("the reading {} is outside the domain of the reading transforms ({})", ob.reading,
-                                   tr.describe()),
-                       tr.divider.enabled ? fmt::format("divider counts must lie strictly between 0 and {}",
-                                                        tr.divider.full_scale)
-                                          : "ln needs a reading > 0");
+      throw InputError(
+          data.file, ob.line,
+          fmt::format("the reading {} is outside the domain of the reading transforms ({})",
+                      ob.reading, tr.describe()),
+          tr.divider.enabled ? fmt::format("divider counts must lie strictly between 0 and {}",
+                                           tr.divider.full_scale)
+                             : "ln needs a reading > 0");
     if (!std::isfinite(v[r]))
-      throw InputError(data.file, ob.line,
-                       fmt::format("the reference {} is outside the domain of the reference transform", ob.reference),
-                       "reciprocal-kelvin needs a reference in degC above -273.15");
+      throw InputError(
+          data.file, ob.line,
+          fmt::format("the reference {} is outside the domain of the reference transform",
+                      ob.reference),
+          "reciprocal-kelvin needs a reference in degC above -273.15");
     if (comp.aux) {
       if (!std::isfinite(ob.aux))
-        throw InputError(data.file, ob.line, "the row has no aux value", "name the aux column with --aux");
+        throw InputError(data.file, ob.line, "the row has no aux value",
+                         "name the aux column with --aux");
       a[r] = ob.aux;
     }
   }
@@ -243,7 +263,8 @@ FitOutcome fit_compensated(const Dataset& data, const FitOptions& options, const
   aux_degrees.erase(std::unique(aux_degrees.begin(), aux_degrees.end()), aux_degrees.end());
   std::vector<int> powers = comp.powers;
   std::sort(powers.begin(), powers.end());
-  std::vector<double> lambdas = fixed ? std::vector<double>{*options.fixed_lambda} : options.lambdas;
+  std::vector<double> lambdas =
+      fixed ? std::vector<double>{*options.fixed_lambda} : options.lambdas;
   std::sort(lambdas.begin(), lambdas.end());
   lambdas.erase(std::unique(lambdas.begin(), lambdas.end()), lambdas.end());
 
@@ -262,8 +283,8 @@ FitOutcome fit_compensated(const Dataset& data, const FitOptions& options, const
     for (int d : degrees)
       for (int ad : aux_degrees) cands.push_back({d, ad, terms_rectangle(d, ad)});
   }
-  const bool intercept = std::find(cands.front().terms.begin(), cands.front().terms.end(), Term{0, 0}) !=
-                         cands.front().terms.end();
+  const bool intercept = std::find(cands.front().terms.begin(), cands.front().terms.end(),
+                                   Term{0, 0}) != cands.front().terms.end();
   cal.intercept = intercept;
 
   const std::vector<Group> groups = make_groups(data, comp);
@@ -271,9 +292,10 @@ FitOutcome fit_compensated(const Dataset& data, const FitOptions& options, const
   for (const Candidate& c : cands) min_terms = std::min(min_terms, c.terms.size());
   const std::size_t min_needed = std::max<std::size_t>(min_terms, 2);
   if (groups.size() < min_needed) {
-    out.status = Status::failure(fmt::format(
-        "only {} distinct setpoint group(s); the smallest candidate model ({} terms) needs at least {}", groups.size(),
-        min_terms, min_needed));
+    out.status =
+        Status::failure(fmt::format("only {} distinct setpoint group(s); the smallest candidate "
+                                    "model ({} terms) needs at least {}",
+                                    groups.size(), min_terms, min_needed));
     return out;
   }
   const Split split = make_boundary_split(groups, options.split, min_needed);
@@ -289,12 +311,13 @@ FitOutcome fit_compensated(const Dataset& data, const FitOptions& options, const
       row_role[r] = split.role[g];
       row_fold[r] = split.fold[g];
     }
-    SetpointResult sp{groups[g].id, groups[g].mean_reading, groups[g].mean_reference, groups[g].rows.size(),
-                      split.role[g], split.fold[g]};
+    SetpointResult sp{groups[g].id,          groups[g].mean_reading, groups[g].mean_reference,
+                      groups[g].rows.size(), split.role[g],          split.fold[g]};
     sp.mean_aux = groups[g].mean_aux;
     cal.setpoints.push_back(sp);
   }
-  for (std::size_t r = 0; r < n; ++r) (row_role[r] == SetRole::Train ? train_rows : test_rows).push_back(r);
+  for (std::size_t r = 0; r < n; ++r)
+    (row_role[r] == SetRole::Train ? train_rows : test_rows).push_back(r);
 
   // Scalings over the training rows.
   double umin = std::numeric_limits<double>::infinity(), umax = -umin, amin = umin, amax = -umin;
@@ -305,7 +328,9 @@ FitOutcome fit_compensated(const Dataset& data, const FitOptions& options, const
     amax = std::max(amax, a[r]);
   }
   if (!(umax > umin)) {
-    out.status = Status::failure("all training readings are equal after the transforms; a calibration needs readings that vary");
+    out.status = Status::failure(
+        "all training readings are equal after the transforms; a calibration needs readings that "
+        "vary");
     return out;
   }
   if (comp.aux && !(amax > amin)) {
@@ -316,7 +341,8 @@ FitOutcome fit_compensated(const Dataset& data, const FitOptions& options, const
   model.transforms = tr;
   model.has_aux = comp.aux;
   model.basis = basis;
-  model.input = basis == SurfaceBasis::Chebyshev ? AxisScaling::centered(umin, umax) : AxisScaling::about_zero(umin, umax);
+  model.input = basis == SurfaceBasis::Chebyshev ? AxisScaling::centered(umin, umax)
+                                                 : AxisScaling::about_zero(umin, umax);
   if (comp.aux) model.aux = AxisScaling::centered(amin, amax);
   std::vector<double> ts(n), ss(n, 0.0);
   for (std::size_t r = 0; r < n; ++r) {
@@ -326,15 +352,18 @@ FitOutcome fit_compensated(const Dataset& data, const FitOptions& options, const
 
   // Folds.
   const int K = split.n_folds;
-  std::vector<std::vector<std::size_t>> fold_train(static_cast<std::size_t>(K)), fold_val(static_cast<std::size_t>(K));
+  std::vector<std::vector<std::size_t>> fold_train(static_cast<std::size_t>(K)),
+      fold_val(static_cast<std::size_t>(K));
   std::vector<std::size_t> fold_groups(static_cast<std::size_t>(K), 0);
   for (std::size_t g = 0; g < groups.size(); ++g)
     if (split.fold[g] >= 0) ++fold_groups[static_cast<std::size_t>(split.fold[g])];
   for (std::size_t r : train_rows)
-    for (int k = 0; k < K; ++k) (row_fold[r] == k ? fold_val : fold_train)[static_cast<std::size_t>(k)].push_back(r);
+    for (int k = 0; k < K; ++k)
+      (row_fold[r] == k ? fold_val : fold_train)[static_cast<std::size_t>(k)].push_back(r);
   std::size_t min_fold_train_groups = n_train_groups;
   for (int k = 0; k < K; ++k)
-    min_fold_train_groups = std::min(min_fold_train_groups, n_train_groups - fold_groups[static_cast<std::size_t>(k)]);
+    min_fold_train_groups =
+        std::min(min_fold_train_groups, n_train_groups - fold_groups[static_cast<std::size_t>(k)]);
   std::size_t n_levels = 0;
   if (comp.aux) {
     std::map<std::string, int> lv;
@@ -353,43 +382,51 @@ FitOutcome fit_compensated(const Dataset& data, const FitOptions& options, const
   std::vector<Candidate> scored;
   for (const Candidate& c : cands) {
     const std::size_t need = c.terms.size();
-    const std::string name = c.aux_degree >= 0 ? fmt::format("degree {} / aux degree {}", c.degree, c.aux_degree)
-                                               : fmt::format("degree {}", c.degree);
+    const std::string name = c.aux_degree >= 0
+                                 ? fmt::format("degree {} / aux degree {}", c.degree, c.aux_degree)
+                                 : fmt::format("degree {}", c.degree);
     int max_j = 0;
     for (const Term& t : c.terms) max_j = std::max(max_j, t.j);
     if (need > kMaxTerms) {
-      sel.notes.push_back(fmt::format("{} dropped: {} terms exceed the limit of {}", name, need, kMaxTerms));
+      sel.notes.push_back(
+          fmt::format("{} dropped: {} terms exceed the limit of {}", name, need, kMaxTerms));
       continue;
     }
     if (n_train_groups < need) {
-      sel.notes.push_back(fmt::format("{} dropped: it has {} terms, there are {} training setpoint groups", name, need,
-                                      n_train_groups));
+      sel.notes.push_back(
+          fmt::format("{} dropped: it has {} terms, there are {} training setpoint groups", name,
+                      need, n_train_groups));
       continue;
     }
     if (comp.aux && n_levels < static_cast<std::size_t>(max_j) + 1) {
-      sel.notes.push_back(fmt::format("{} dropped: aux degree {} needs {} aux levels in training, there are {}", name,
-                                      max_j, max_j + 1, n_levels));
+      sel.notes.push_back(
+          fmt::format("{} dropped: aux degree {} needs {} aux levels in training, there are {}",
+                      name, max_j, max_j + 1, n_levels));
       continue;
     }
     if (!fixed && K > 0 && min_fold_train_groups < need) {
-      sel.notes.push_back(fmt::format("{} dropped: a cross-validation fold would train on {} groups, it needs {}", name,
-                                      min_fold_train_groups, need));
+      sel.notes.push_back(
+          fmt::format("{} dropped: a cross-validation fold would train on {} groups, it needs {}",
+                      name, min_fold_train_groups, need));
       continue;
     }
     scored.push_back(c);
-    if (std::find(sel.degrees.begin(), sel.degrees.end(), c.degree) == sel.degrees.end()) sel.degrees.push_back(c.degree);
+    if (std::find(sel.degrees.begin(), sel.degrees.end(), c.degree) == sel.degrees.end())
+      sel.degrees.push_back(c.degree);
   }
   if (scored.empty()) {
     out.status = Status::failure(fmt::format(
-        "fewer distinct training setpoint groups ({}) than the smallest candidate model needs", n_train_groups));
+        "fewer distinct training setpoint groups ({}) than the smallest candidate model needs",
+        n_train_groups));
     return out;
   }
   const bool can_cv = K >= 2;
   if (!fixed && !can_cv && scored.size() * lambdas.size() > 1) {
-    out.status = Status::failure(fmt::format(
-        "only {} training setpoint groups off the boundary: too few to cross-validate (the boundary groups always "
-        "stay in training); give a fixed model with --degree and --lambda",
-        split.n_folds));
+    out.status = Status::failure(
+        fmt::format("only {} training setpoint groups off the boundary: too few to cross-validate "
+                    "(the boundary groups always "
+                    "stay in training); give a fixed model with --degree and --lambda",
+                    split.n_folds));
     return out;
   }
 
@@ -410,7 +447,8 @@ FitOutcome fit_compensated(const Dataset& data, const FitOptions& options, const
     std::vector<double> row(cols.size());
     for (std::size_t r = 0; r < n; ++r) {
       if (!cols.empty()) probe.basis_row(ts[r], ss[r], row.data());
-      for (std::size_t q = 0; q < cols.size(); ++q) X(static_cast<Eigen::Index>(r), static_cast<Eigen::Index>(q)) = row[q];
+      for (std::size_t q = 0; q < cols.size(); ++q)
+        X(static_cast<Eigen::Index>(r), static_cast<Eigen::Index>(q)) = row[q];
     }
     return X;
   };
@@ -457,7 +495,9 @@ FitOutcome fit_compensated(const Dataset& data, const FitOptions& options, const
         double s2 = 0;
         for (double q : fr) s2 += (q - m) * (q - m);
         cell.cv_rmse = m;
-        cell.cv_se = fr.size() > 1 ? std::sqrt(s2 / static_cast<double>(fr.size() - 1)) / std::sqrt(static_cast<double>(fr.size())) : 0.0;
+        cell.cv_se = fr.size() > 1 ? std::sqrt(s2 / static_cast<double>(fr.size() - 1)) /
+                                         std::sqrt(static_cast<double>(fr.size()))
+                                   : 0.0;
       } else {
         cell.cv_rmse = cell.cv_se = kNaN;
       }
@@ -465,7 +505,8 @@ FitOutcome fit_compensated(const Dataset& data, const FitOptions& options, const
         full->predict(Wt, lambdas[l], pred);
         cell.train_rmse = rmse_ref(tr, pred, y_train);
       } else {
-        cell.train_rmse = rmse_ref(tr, Eigen::VectorXd::Constant(v_train.size(), v_train.mean()), y_train);
+        cell.train_rmse =
+            rmse_ref(tr, Eigen::VectorXd::Constant(v_train.size(), v_train.mean()), y_train);
       }
       sel.grid.push_back(cell);
     }
@@ -475,8 +516,9 @@ FitOutcome fit_compensated(const Dataset& data, const FitOptions& options, const
   int best = choose_cell(sel.grid, options.rule);
   if (best < 0) {
     if (sel.grid.size() > 1) {
-      out.status = Status::failure("no candidate model could be scored (every held-out prediction left the reference "
-                                   "transform's domain); give a fixed model with --degree and --lambda");
+      out.status = Status::failure(
+          "no candidate model could be scored (every held-out prediction left the reference "
+          "transform's domain); give a fixed model with --degree and --lambda");
       return out;
     }
     best = 0;
@@ -501,7 +543,8 @@ FitOutcome fit_compensated(const Dataset& data, const FitOptions& options, const
   } else {
     const RidgePath path(take_rows(X, train_rows), v_train, intercept);
     if (!path.status().ok && cal.lambda == 0.0) {
-      out.status = Status::failure(path.status().message + "; add setpoints, lower the degree or use lambda > 0");
+      out.status = Status::failure(path.status().message +
+                                   "; add setpoints, lower the degree or use lambda > 0");
       return out;
     }
     Eigen::VectorXd b;
@@ -527,7 +570,8 @@ FitOutcome fit_compensated(const Dataset& data, const FitOptions& options, const
       const auto& va = fold_val[static_cast<std::size_t>(k)];
       const RidgePath path(take_rows(X, trr), take(v, trr), intercept);
       path.predict(path.project(take_rows(X, va)), cal.lambda, pred);
-      for (std::size_t i = 0; i < va.size(); ++i) cv_pred[va[i]] = tr.output_inverse(pred(static_cast<Eigen::Index>(i)));
+      for (std::size_t i = 0; i < va.size(); ++i)
+        cv_pred[va[i]] = tr.output_inverse(pred(static_cast<Eigen::Index>(i)));
     }
   }
 
@@ -581,21 +625,27 @@ std::string surface_brief(const Calibration& cal) {
       shape += (i ? "," : " ") + std::to_string(cal.selection.powers[i]);
     if (m.has_aux) shape += fmt::format(", aux degree {}", m.aux_degree());
   } else if (m.has_aux) {
-    const GridCell* c = cal.selection.chosen >= 0 ? &cal.selection.grid[static_cast<std::size_t>(cal.selection.chosen)] : nullptr;
-    shape = c && c->aux_degree >= 0 ? fmt::format("degree {}, aux degree {}", m.reading_degree(), c->aux_degree)
-                                    : fmt::format("total degree {}", m.total_degree());
+    const GridCell* c = cal.selection.chosen >= 0
+                            ? &cal.selection.grid[static_cast<std::size_t>(cal.selection.chosen)]
+                            : nullptr;
+    shape = c && c->aux_degree >= 0
+                ? fmt::format("degree {}, aux degree {}", m.reading_degree(), c->aux_degree)
+                : fmt::format("total degree {}", m.total_degree());
   } else {
     shape = fmt::format("degree {}", m.reading_degree());
   }
   if (cal.selection.mode == SelectionMode::Fixed)
-    s += fmt::format("model: {} ({} terms, {} basis), lambda {:g} (fixed by the user)\n", shape, m.terms.size(),
-                     to_string(m.basis), cal.lambda);
+    s += fmt::format("model: {} ({} terms, {} basis), lambda {:g} (fixed by the user)\n", shape,
+                     m.terms.size(), to_string(m.basis), cal.lambda);
   else
-    s += fmt::format("model: {} ({} terms, {} basis), lambda {:g} (chosen by {} grouped CV over {} folds, rule {})\n",
-                     shape, m.terms.size(), to_string(m.basis), cal.lambda, to_string(cal.selection.scheme),
-                     cal.selection.n_folds, to_string(cal.selection.rule));
+    s += fmt::format(
+        "model: {} ({} terms, {} basis), lambda {:g} (chosen by {} grouped CV over {} folds, rule "
+        "{})\n",
+        shape, m.terms.size(), to_string(m.basis), cal.lambda, to_string(cal.selection.scheme),
+        cal.selection.n_folds, to_string(cal.selection.rule));
   if (!m.transforms.identity()) s += "transforms: " + m.transforms.describe() + "\n";
-  s += fmt::format("range: {} {:g} .. {:g}", m.transforms.identity() ? "reading" : "transformed reading", m.input.min,
+  s += fmt::format("range: {} {:g} .. {:g}",
+                   m.transforms.identity() ? "reading" : "transformed reading", m.input.min,
                    m.input.max);
   if (m.has_aux) s += fmt::format(", aux {:g} .. {:g}", m.aux.min, m.aux.max);
   s += "\n";
@@ -612,7 +662,10 @@ std::string surface_full(const Calibration& cal) {
   const auto pw = m.power_in_raw();
   for (std::size_t k = 0; k < pw.size(); ++k)
     for (std::size_t l = 0; l < pw[k].size(); ++l)
-      if (pw[k][l] != 0.0) s += fmt::format(" {}:{:.17g}", term_name(Term{static_cast<int>(k), static_cast<int>(l)}, m.has_aux), pw[k][l]);
+      if (pw[k][l] != 0.0)
+        s += fmt::format(" {}:{:.17g}",
+                         term_name(Term{static_cast<int>(k), static_cast<int>(l)}, m.has_aux),
+                         pw[k][l]);
   return s;
 }
 

@@ -23,7 +23,9 @@ void chebyshev_row(double t, int degree, double* out) {
   for (int k = 2; k <= degree; ++k) out[k] = 2.0 * t * out[k - 1] - out[k - 2];
 }
 
-double PolyModel::eval(double x) const { return chebyshev_eval(cheb, scaling.to_t(x)); }
+double PolyModel::eval(double x) const {
+  return chebyshev_eval(cheb, scaling.to_t(x));
+}
 
 double PolyModel::derivative(double x) const {
   // d/dx sum m_k t^k = (1/h) sum k m_k t^{k-1}
@@ -55,7 +57,8 @@ std::vector<long double> monomial_in_t_ld(const std::vector<double>& cheb) {
   if (n < 0) return m;
   const auto T = chebyshev_monomials(n);
   for (int k = 0; k <= n; ++k)
-    for (std::size_t i = 0; i < T[k].size(); ++i) m[i] += static_cast<long double>(cheb[k]) * T[k][i];
+    for (std::size_t i = 0; i < T[k].size(); ++i)
+      m[i] += static_cast<long double>(cheb[k]) * T[k][i];
   return m;
 }
 }  // namespace

@@ -1,8 +1,9 @@
 #include "ridgecal/record.hpp"
 
+#include <fmt/format.h>
+
 #include <cmath>
 #include <cstdint>
-#include <fmt/format.h>
 #include <limits>
 
 #include "json_read.hpp"
@@ -15,21 +16,27 @@ namespace ridgecal {
 
 using nlohmann::json;
 
-const char* tool_version() { return RIDGECAL_VERSION_STRING; }
+const char* tool_version() {
+  return RIDGECAL_VERSION_STRING;
+}
 
 std::vector<std::string> standard_cautions() {
   return {
-      "Safety-relevant calibration must follow local codes and certified procedures; this record does "
+      "Safety-relevant calibration must follow local codes and certified procedures; this record "
+      "does "
       "not replace them.",
       "This record does not replace a certificate from an accredited calibration laboratory.",
-      "The calibration is valid only inside the calibrated reading range; outside it the curve is an "
+      "The calibration is valid only inside the calibrated reading range; outside it the curve is "
+      "an "
       "extrapolation.",
   };
 }
 
 namespace {
 
-json num(double v) { return std::isfinite(v) ? json(v) : json(nullptr); }
+json num(double v) {
+  return std::isfinite(v) ? json(v) : json(nullptr);
+}
 
 json metrics_json(const Metrics& m) {
   return json{{"n", m.n},
@@ -104,35 +111,37 @@ json record_to_json(const CalibrationRecord& rec) {
   json cheb = json::array(), power = json::array();
   for (double c : cal.model.cheb) cheb.push_back(num(c));
   for (double c : cal.model.power_in_x()) power.push_back(num(c));
-  j["model"] = {{"kind", "polynomial"},
-                {"degree", cal.model.degree()},
-                {"lambda", cal.lambda},
-                {"intercept", cal.intercept},
-                {"basis", "chebyshev"},
-                {"penalty",
-                 "minimise (1/n)*sum(error^2) + lambda*sum_{k>=1} c_k^2 over the Chebyshev coefficients c_k "
-                 "of the scaled reading t=(x-center)/half_width; the intercept is not penalised"},
-                {"scaling",
-                 {{"x_min", cal.model.scaling.x_min},
-                  {"x_max", cal.model.scaling.x_max},
-                  {"center", cal.model.scaling.center()},
-                  {"half_width", cal.model.scaling.half_width()}}},
-                {"chebyshev_coefficients", cheb},
-                {"power_coefficients", power},
-                {"condition_number", num(cal.condition_number)}};
+  j["model"] = {
+      {"kind", "polynomial"},
+      {"degree", cal.model.degree()},
+      {"lambda", cal.lambda},
+      {"intercept", cal.intercept},
+      {"basis", "chebyshev"},
+      {"penalty",
+       "minimise (1/n)*sum(error^2) + lambda*sum_{k>=1} c_k^2 over the Chebyshev coefficients c_k "
+       "of the scaled reading t=(x-center)/half_width; the intercept is not penalised"},
+      {"scaling",
+       {{"x_min", cal.model.scaling.x_min},
+        {"x_max", cal.model.scaling.x_max},
+        {"center", cal.model.scaling.center()},
+        {"half_width", cal.model.scaling.half_width()}}},
+      {"chebyshev_coefficients", cheb},
+      {"power_coefficients", power},
+      {"condition_number", num(cal.condition_number)}};
   json grid = json::array();
   for (const GridCell& c : cal.selection.grid) grid.push_back(cell_json(c));
-  j["selection"] = {{"mode", to_string(cal.selection.mode)},
-                    {"rule", to_string(cal.selection.rule)},
-                    {"fold_scheme", to_string(cal.selection.scheme)},
-                    {"folds", cal.selection.n_folds},
-                    {"degrees", cal.selection.degrees},
-                    {"lambdas", cal.selection.lambdas},
-                    {"grid", grid},
-                    {"chosen", cal.selection.chosen >= 0
-                                   ? cell_json(cal.selection.grid[static_cast<std::size_t>(cal.selection.chosen)])
-                                   : json(nullptr)},
-                    {"notes", cal.selection.notes}};
+  j["selection"] = {
+      {"mode", to_string(cal.selection.mode)},
+      {"rule", to_string(cal.selection.rule)},
+      {"fold_scheme", to_string(cal.selection.scheme)},
+      {"folds", cal.selection.n_folds},
+      {"degrees", cal.selection.degrees},
+      {"lambdas", cal.selection.lambdas},
+      {"grid", grid},
+      {"chosen", cal.selection.chosen >= 0
+                     ? cell_json(cal.selection.grid[static_cast<std::size_t>(cal.selection.chosen)])
+                     : json(nullptr)},
+      {"notes", cal.selection.notes}};
   json sps = json::array();
   for (const SetpointResult& sp : cal.setpoints)
     sps.push_back({{"id", sp.id},
@@ -205,8 +214,8 @@ CalibrationRecord record_from_json(const json& j, const std::string& file) {
   if (r.text(j, "format", "record") != kRecordFormat)
     r.fail("format", fmt::format("is not '{}'", kRecordFormat));
   if (r.integer(j, "format_version", "record") != kRecordFormatVersion)
-    r.fail("format_version", fmt::format("is not {} (this ridgecal reads version {})", kRecordFormatVersion,
-                                         kRecordFormatVersion));
+    r.fail("format_version", fmt::format("is not {} (this ridgecal reads version {})",
+                                         kRecordFormatVersion, kRecordFormatVersion));
   CalibrationRecord rec;
   rec.tool_version = r.text(j, "tool_version", "record");
   rec.created_utc = r.text_or(j, "created_utc", "");
@@ -214,7 +223,8 @@ CalibrationRecord record_from_json(const json& j, const std::string& file) {
   for (const json& c : r.array(j, "cautions", "record"))
     if (c.is_string()) rec.cautions.push_back(c.get<std::string>());
   const json& s = r.member(j, "sensor", "record");
-  rec.sensor = {r.text(s, "name", "sensor"), r.text(s, "reading_unit", "sensor"), r.text(s, "reference_unit", "sensor")};
+  rec.sensor = {r.text(s, "name", "sensor"), r.text(s, "reading_unit", "sensor"),
+                r.text(s, "reference_unit", "sensor")};
   const json& in = r.member(j, "input", "record");
   rec.input.file = r.text(in, "file", "input");
   rec.input.sha256 = r.text(in, "sha256", "input");
@@ -230,24 +240,27 @@ CalibrationRecord record_from_json(const json& j, const std::string& file) {
 
   Calibration& cal = rec.calibration;
   const json& m = r.member(j, "model", "record");
-  if (is_surface_record(j)) read_surface_members(j, rec, file);
+  if (is_surface_record(j))
+    read_surface_members(j, rec, file);
   else {
-  cal.lambda = r.finite(m, "lambda", "model");
-  cal.intercept = r.boolean(m, "intercept", "model");
-  cal.condition_number = r.number(m, "condition_number", "model");
-  const json& sc = r.member(m, "scaling", "model");
-  cal.model.scaling.x_min = r.finite(sc, "x_min", "model.scaling");
-  cal.model.scaling.x_max = r.finite(sc, "x_max", "model.scaling");
-  if (!(cal.model.scaling.x_max > cal.model.scaling.x_min)) r.fail("model.scaling", "has x_max <= x_min");
-  const json& cheb = r.array(m, "chebyshev_coefficients", "model");
-  if (cheb.empty() || cheb.size() > 64) r.fail("model.chebyshev_coefficients", "has an invalid length");
-  for (const json& c : cheb) {
-    if (!c.is_number() || !std::isfinite(c.get<double>()))
-      r.fail("model.chebyshev_coefficients", "holds a value that is not a finite number");
-    cal.model.cheb.push_back(c.get<double>());
-  }
-  if (r.integer(m, "degree", "model") != cal.model.degree())
-    r.fail("model.degree", "does not match the number of coefficients");
+    cal.lambda = r.finite(m, "lambda", "model");
+    cal.intercept = r.boolean(m, "intercept", "model");
+    cal.condition_number = r.number(m, "condition_number", "model");
+    const json& sc = r.member(m, "scaling", "model");
+    cal.model.scaling.x_min = r.finite(sc, "x_min", "model.scaling");
+    cal.model.scaling.x_max = r.finite(sc, "x_max", "model.scaling");
+    if (!(cal.model.scaling.x_max > cal.model.scaling.x_min))
+      r.fail("model.scaling", "has x_max <= x_min");
+    const json& cheb = r.array(m, "chebyshev_coefficients", "model");
+    if (cheb.empty() || cheb.size() > 64)
+      r.fail("model.chebyshev_coefficients", "has an invalid length");
+    for (const json& c : cheb) {
+      if (!c.is_number() || !std::isfinite(c.get<double>()))
+        r.fail("model.chebyshev_coefficients", "holds a value that is not a finite number");
+      cal.model.cheb.push_back(c.get<double>());
+    }
+    if (r.integer(m, "degree", "model") != cal.model.degree())
+      r.fail("model.degree", "does not match the number of coefficients");
   }
 
   const json& sel = r.member(j, "selection", "record");
@@ -266,7 +279,8 @@ CalibrationRecord record_from_json(const json& j, const std::string& file) {
     g.cv_rmse = r.number(c, "cv_rmse", "selection.grid[]");
     g.cv_se = r.number(c, "cv_se", "selection.grid[]");
     g.train_rmse = r.number(c, "train_rmse", "selection.grid[]");
-    if (g.degree == cal.model.degree() && g.lambda == cal.lambda) cal.selection.chosen = static_cast<int>(cal.selection.grid.size());
+    if (g.degree == cal.model.degree() && g.lambda == cal.lambda)
+      cal.selection.chosen = static_cast<int>(cal.selection.grid.size());
     cal.selection.grid.push_back(g);
   }
   for (const json& n : r.array(sel, "notes", "selection"))
@@ -322,14 +336,18 @@ json parse_record_json(const std::string& text, const std::string& file) {
   for (const char c : text) {
     if (c == '\n') ++line;
     if (in_string) {
-      if (escaped) escaped = false;
-      else if (c == '\\') escaped = true;
-      else if (c == '"') in_string = false;
+      if (escaped)
+        escaped = false;
+      else if (c == '\\')
+        escaped = true;
+      else if (c == '"')
+        in_string = false;
     } else if (c == '"') {
       in_string = true;
     } else if (c == '[' || c == '{') {
       if (++depth > kMaxRecordDepth)
-        throw InputError(file, line, fmt::format("the JSON nests deeper than {} levels", kMaxRecordDepth),
+        throw InputError(file, line,
+                         fmt::format("the JSON nests deeper than {} levels", kMaxRecordDepth),
                          "is it a record written by 'ridgecal fit'?");
     } else if (c == ']' || c == '}') {
       --depth;
@@ -342,7 +360,8 @@ json parse_record_json(const std::string& text, const std::string& file) {
     std::size_t at = 1;
     for (std::size_t i = 0; i + 1 < e.byte && i < text.size(); ++i)
       if (text[i] == '\n') ++at;
-    throw InputError(file, at, "the file is not valid JSON", "is it a record written by 'ridgecal fit'?");
+    throw InputError(file, at, "the file is not valid JSON",
+                     "is it a record written by 'ridgecal fit'?");
   } catch (const json::exception& e) {
     // e.g. out_of_range 406: a number literal beyond the range of a double.
     throw InputError(file, 0, std::string("the file is not a usable JSON document: ") + e.what(),
@@ -351,7 +370,8 @@ json parse_record_json(const std::string& text, const std::string& file) {
 }
 
 json read_record_json(const std::string& path) {
-  return parse_record_json(read_file_bytes_limited(path, kMaxRecordBytes, "a record is never this large"), path);
+  return parse_record_json(
+      read_file_bytes_limited(path, kMaxRecordBytes, "a record is never this large"), path);
 }
 
 std::string record_text(const json& j) {

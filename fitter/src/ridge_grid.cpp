@@ -7,8 +7,8 @@
 
 namespace ridgecal {
 
-void NestedRidge::factor(const Eigen::MatrixXd& X, const double* y, const std::vector<std::size_t>& rows, int cols,
-                         bool intercept) {
+void NestedRidge::factor(const Eigen::MatrixXd& X, const double* y,
+                         const std::vector<std::size_t>& rows, int cols, bool intercept) {
   assert(cols >= 1 && cols <= kMaxColumns && !rows.empty() && X.cols() >= cols);
   D_ = cols;
   m_ = static_cast<int>(rows.size());
@@ -88,7 +88,9 @@ void NestedRidge::factor(const Eigen::MatrixXd& X, const double* y, const std::v
   for (std::size_t j = 0; j < rows_in_r; ++j)
     for (int k = static_cast<int>(j); k < D_; ++k)
       R_[j * kMaxColumns + static_cast<std::size_t>(k)] = A_[static_cast<std::size_t>(k) * m + j];
-  for (int j = 0; j < D_; ++j) z_[static_cast<std::size_t>(j)] = static_cast<std::size_t>(j) < m ? yw_[static_cast<std::size_t>(j)] : 0.0;
+  for (int j = 0; j < D_; ++j)
+    z_[static_cast<std::size_t>(j)] =
+        static_cast<std::size_t>(j) < m ? yw_[static_cast<std::size_t>(j)] : 0.0;
   rperp2_ = 0.0;
   for (std::size_t i = static_cast<std::size_t>(D_); i < m; ++i) rperp2_ += yw_[i] * yw_[i];
 
@@ -109,7 +111,8 @@ void NestedRidge::factor(const Eigen::MatrixXd& X, const double* y, const std::v
   nv_ = 0;
 }
 
-void NestedRidge::set_validation(const Eigen::MatrixXd& X, const double* y, const std::vector<std::size_t>& rows) {
+void NestedRidge::set_validation(const Eigen::MatrixXd& X, const double* y,
+                                 const std::vector<std::size_t>& rows) {
   nv_ = static_cast<int>(rows.size());
   W_.resize(rows.size() * static_cast<std::size_t>(D_));
   yv_.resize(rows.size());
@@ -118,7 +121,8 @@ void NestedRidge::set_validation(const Eigen::MatrixXd& X, const double* y, cons
     yv_[i] = y[rows[i]];
     for (int k = 0; k < D_; ++k)
       W_[i * static_cast<std::size_t>(D_) + static_cast<std::size_t>(k)] =
-          X.data()[static_cast<std::size_t>(k) * ld + rows[i]] - x_mean_[static_cast<std::size_t>(k)];
+          X.data()[static_cast<std::size_t>(k) * ld + rows[i]] -
+          x_mean_[static_cast<std::size_t>(k)];
   }
 }
 
@@ -128,7 +132,9 @@ void NestedRidge::set_validation(const Eigen::MatrixXd& X, const double* y, cons
 namespace {
 constexpr int L = NestedRidge::kLanes;
 constexpr std::size_t S = NestedRidge::kMaxColumns;
-inline std::size_t at(int j, int k) { return static_cast<std::size_t>(j) * S + static_cast<std::size_t>(k); }
+inline std::size_t at(int j, int k) {
+  return static_cast<std::size_t>(j) * S + static_cast<std::size_t>(k);
+}
 }  // namespace
 
 // The lane kernels are compiled twice, for AVX2 and for the baseline x86-64
@@ -190,8 +196,8 @@ RIDGECAL_LANE_CLONES void NestedRidge::solve(int d) {
   }
 }
 
-RIDGECAL_LANE_CLONES void NestedRidge::score(const double* lambdas, int nl, const int* degrees, int count, double* val_mse,
-                        double* train_mse) {
+RIDGECAL_LANE_CLONES void NestedRidge::score(const double* lambdas, int nl, const int* degrees,
+                                             int count, double* val_mse, double* train_mse) {
   assert(nl >= 1 && nl <= L);
   double mu[L];
   for (int q = 0; q < L; ++q) mu[q] = std::sqrt(static_cast<double>(m_) * lambdas[q < nl ? q : 0]);
@@ -215,7 +221,8 @@ RIDGECAL_LANE_CLONES void NestedRidge::score(const double* lambdas, int nl, cons
     if (train_mse) {
       // ||yc - Xc_d b||^2 = ||z_d - R_d b||^2 + sum_{j >= d} z_j^2 + rperp2.
       double tail = rperp2_;
-      for (int j = d; j < D_; ++j) tail += z_[static_cast<std::size_t>(j)] * z_[static_cast<std::size_t>(j)];
+      for (int j = d; j < D_; ++j)
+        tail += z_[static_cast<std::size_t>(j)] * z_[static_cast<std::size_t>(j)];
       Lanes sse = Lanes{} + tail;
       for (int j = 0; j < d; ++j) {
         const double* rj = R_.data() + at(j, 0);

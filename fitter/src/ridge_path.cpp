@@ -1,8 +1,9 @@
 #include "ridgecal/ridge_path.hpp"
 
+#include <fmt/format.h>
+
 #include <cassert>
 #include <cmath>
-#include <fmt/format.h>
 #include <limits>
 
 namespace ridgecal {
@@ -35,7 +36,8 @@ RidgePath::RidgePath(const Eigen::Ref<const Eigen::MatrixXd>& X,
   for (Eigen::Index j = 0; j < s_.size(); ++j)
     if (s_(j) > tol) ++rank_;
   if (rank_ < p)
-    status_ = Status::failure(fmt::format("the design is rank deficient (rank {} of {} columns)", rank_, p));
+    status_ = Status::failure(
+        fmt::format("the design is rank deficient (rank {} of {} columns)", rank_, p));
 }
 
 double RidgePath::condition_number() const {
@@ -49,8 +51,10 @@ void RidgePath::filter(double lambda, Eigen::VectorXd& fz) const {
   const double nl = static_cast<double>(n_) * lambda;
   for (Eigen::Index j = 0; j < s_.size(); ++j) {
     const double s = s_(j);
-    if (j >= rank_) fz(j) = lambda > 0.0 ? s / (s * s + nl) * z_(j) : 0.0;
-    else fz(j) = s / (s * s + nl) * z_(j);
+    if (j >= rank_)
+      fz(j) = lambda > 0.0 ? s / (s * s + nl) * z_(j) : 0.0;
+    else
+      fz(j) = s / (s * s + nl) * z_(j);
   }
 }
 

@@ -9,7 +9,9 @@
 
 namespace ridgecal {
 
-std::string to_string(SurfaceBasis b) { return b == SurfaceBasis::Chebyshev ? "chebyshev" : "power"; }
+std::string to_string(SurfaceBasis b) {
+  return b == SurfaceBasis::Chebyshev ? "chebyshev" : "power";
+}
 SurfaceBasis surface_basis_from_string(const std::string& s) {
   if (s == "chebyshev") return SurfaceBasis::Chebyshev;
   if (s == "power") return SurfaceBasis::Power;
@@ -77,8 +79,9 @@ std::vector<std::vector<long double>> basis_monomials(SurfaceBasis b, int n) {
 
 std::vector<std::vector<long double>> monomial_ld(const SurfaceModel& m) {
   const int D = m.reading_degree(), A = m.aux_degree();
-  std::vector<std::vector<long double>> out(static_cast<std::size_t>(D) + 1,
-                                            std::vector<long double>(static_cast<std::size_t>(A) + 1, 0.0L));
+  std::vector<std::vector<long double>> out(
+      static_cast<std::size_t>(D) + 1,
+      std::vector<long double>(static_cast<std::size_t>(A) + 1, 0.0L));
   const auto Bt = basis_monomials(m.basis, D);
   // The aux input always uses the tensor partner of the basis: Chebyshev for
   // the Chebyshev basis, powers for the power basis.
@@ -143,9 +146,11 @@ std::vector<std::vector<long double>> SurfaceModel::power_in_raw_ld() const {
   const auto m = monomial_ld(*this);
   const int D = reading_degree(), A = aux_degree();
   const auto Pu = shifted_powers(input.center, input.half_width, D);
-  const auto Pa = has_aux ? shifted_powers(aux.center, aux.half_width, A) : shifted_powers(0.0L, 1.0L, A);
-  std::vector<std::vector<long double>> out(static_cast<std::size_t>(D) + 1,
-                                            std::vector<long double>(static_cast<std::size_t>(A) + 1, 0.0L));
+  const auto Pa =
+      has_aux ? shifted_powers(aux.center, aux.half_width, A) : shifted_powers(0.0L, 1.0L, A);
+  std::vector<std::vector<long double>> out(
+      static_cast<std::size_t>(D) + 1,
+      std::vector<long double>(static_cast<std::size_t>(A) + 1, 0.0L));
   for (int k = 0; k <= D; ++k)
     for (int l = 0; l <= A; ++l) {
       if (m[k][l] == 0.0L) continue;
@@ -179,7 +184,8 @@ std::vector<Term> terms_rectangle(int d, int a) {
   std::vector<Term> t;
   for (int j = 0; j <= a; ++j)
     for (int i = 0; i <= d; ++i) t.push_back({i, j});
-  std::stable_sort(t.begin(), t.end(), [](const Term& x, const Term& y) { return x.i + x.j < y.i + y.j; });
+  std::stable_sort(t.begin(), t.end(),
+                   [](const Term& x, const Term& y) { return x.i + x.j < y.i + y.j; });
   return t;
 }
 
@@ -187,7 +193,8 @@ std::vector<Term> terms_powers(const std::vector<int>& powers, int a) {
   std::vector<Term> t;
   for (int j = 0; j <= a; ++j)
     for (int p : powers) t.push_back({p, j});
-  std::stable_sort(t.begin(), t.end(), [](const Term& x, const Term& y) { return x.i + x.j < y.i + y.j; });
+  std::stable_sort(t.begin(), t.end(),
+                   [](const Term& x, const Term& y) { return x.i + x.j < y.i + y.j; });
   return t;
 }
 

@@ -1,7 +1,8 @@
 #include "ridgecal/surface_record.hpp"
 
-#include <cmath>
 #include <fmt/format.h>
+
+#include <cmath>
 #include <limits>
 
 #include "json_read.hpp"
@@ -14,7 +15,9 @@ using nlohmann::json;
 
 namespace {
 
-json num(double v) { return std::isfinite(v) ? json(v) : json(nullptr); }
+json num(double v) {
+  return std::isfinite(v) ? json(v) : json(nullptr);
+}
 
 json scaling_json(const AxisScaling& s) {
   return json{{"min", s.min}, {"max", s.max}, {"center", s.center}, {"half_width", s.half_width}};
@@ -25,20 +28,24 @@ json scaling_json(const AxisScaling& s) {
   detail::JsonReader{file}.fail(where, what);
 }
 
-const json& member(const json& obj, const std::string& key, const std::string& where, const std::string& file) {
+const json& member(const json& obj, const std::string& key, const std::string& where,
+                   const std::string& file) {
   return detail::JsonReader{file}.member(obj, key, where);
 }
 
-double finite(const json& obj, const std::string& key, const std::string& where, const std::string& file) {
+double finite(const json& obj, const std::string& key, const std::string& where,
+              const std::string& file) {
   return detail::JsonReader{file}.finite(obj, key, where);
 }
 
 double number_or_nan(const json& obj, const std::string& key) {
   const auto it = obj.find(key);
-  return (it != obj.end() && it->is_number()) ? it->get<double>() : std::numeric_limits<double>::quiet_NaN();
+  return (it != obj.end() && it->is_number()) ? it->get<double>()
+                                              : std::numeric_limits<double>::quiet_NaN();
 }
 
-std::string text(const json& obj, const std::string& key, const std::string& where, const std::string& file) {
+std::string text(const json& obj, const std::string& key, const std::string& where,
+                 const std::string& file) {
   return detail::JsonReader{file}.text(obj, key, where);
 }
 
@@ -48,12 +55,14 @@ AxisScaling read_scaling(const json& obj, const std::string& where, const std::s
   s.max = finite(obj, "max", where, file);
   s.center = finite(obj, "center", where, file);
   s.half_width = finite(obj, "half_width", where, file);
-  if (!(s.max > s.min) || !(s.half_width > 0.0)) fail(file, where, "has max <= min or half_width <= 0");
+  if (!(s.max > s.min) || !(s.half_width > 0.0))
+    fail(file, where, "has max <= min or half_width <= 0");
   return s;
 }
 
 template <class F>
-auto parse_enum(const json& obj, const std::string& key, const std::string& where, const std::string& file, F parse) {
+auto parse_enum(const json& obj, const std::string& key, const std::string& where,
+                const std::string& file, F parse) {
   return detail::JsonReader{file}.enum_value(obj, key, where, parse);
 }
 
@@ -77,7 +86,8 @@ std::string surface_aux_grouping(const CalibrationRecord& rec) {
 
 std::string surface_boundary_rule(const Calibration& cal) {
   return cal.surface && cal.surface->has_aux
-             ? "groups of the lowest and highest aux level, and the lowest- and highest-reading group of every aux "
+             ? "groups of the lowest and highest aux level, and the lowest- and highest-reading "
+               "group of every aux "
                "level, always stay in training"
              : "the groups with the smallest and largest mean reading always stay in training";
 }
@@ -96,12 +106,15 @@ void add_surface_members(json& j, const CalibrationRecord& rec) {
   const SurfaceModel& m = *cal.surface;
   json& cols = j["input"]["columns"];
   if (!rec.input.columns.aux_column.empty()) cols["aux"] = rec.input.columns.aux_column;
-  if (!rec.input.columns.aux_setpoint_column.empty()) cols["aux_setpoint"] = rec.input.columns.aux_setpoint_column;
+  if (!rec.input.columns.aux_setpoint_column.empty())
+    cols["aux_setpoint"] = rec.input.columns.aux_setpoint_column;
 
   const std::string basis_text =
       m.basis == SurfaceBasis::Chebyshev
-          ? (m.has_aux ? "tensor Chebyshev T_i(t)*T_j(s) in the scaled inputs" : "Chebyshev T_i(t) in the scaled input")
-          : (m.has_aux ? "plain powers t^i*s^j of the scaled inputs" : "plain powers t^i of the scaled input");
+          ? (m.has_aux ? "tensor Chebyshev T_i(t)*T_j(s) in the scaled inputs"
+                       : "Chebyshev T_i(t) in the scaled input")
+          : (m.has_aux ? "plain powers t^i*s^j of the scaled inputs"
+                       : "plain powers t^i of the scaled input");
   j["model"] = {
       {"kind", "surface"},
       {"degree", m.total_degree()},
@@ -111,7 +124,8 @@ void add_surface_members(json& j, const CalibrationRecord& rec) {
       {"intercept", cal.intercept},
       {"basis", to_string(m.basis)},
       {"penalty",
-       fmt::format("minimise (1/n)*sum((v-q)^2) + lambda*sum c_m^2 over the coefficients c_m of every term but (0,0), "
+       fmt::format("minimise (1/n)*sum((v-q)^2) + lambda*sum c_m^2 over the coefficients c_m of "
+                   "every term but (0,0), "
                    "basis {}; v is the transformed reference; the (0,0) term is not penalised",
                    basis_text)},
       {"condition_number", num(cal.condition_number)}};
@@ -126,12 +140,17 @@ void add_surface_members(json& j, const CalibrationRecord& rec) {
                      {"position", to_string(m.transforms.divider.position)},
                      {"full_scale", m.transforms.divider.full_scale}};
   json inputs = json::array();
-  inputs.push_back({{"name", "reading"}, {"column", rec.input.columns.reading_column}, {"scaling", scaling_json(m.input)}});
+  inputs.push_back({{"name", "reading"},
+                    {"column", rec.input.columns.reading_column},
+                    {"scaling", scaling_json(m.input)}});
   if (m.has_aux)
-    inputs.push_back({{"name", "aux"}, {"column", rec.input.columns.aux_column}, {"scaling", scaling_json(m.aux)}});
+    inputs.push_back({{"name", "aux"},
+                      {"column", rec.input.columns.aux_column},
+                      {"scaling", scaling_json(m.aux)}});
   json terms = json::array();
   for (std::size_t q = 0; q < m.terms.size(); ++q)
-    terms.push_back({{"i", m.terms[q].i}, {"j", m.terms[q].j}, {"coefficient", num(m.coefficients[q])}});
+    terms.push_back(
+        {{"i", m.terms[q].i}, {"j", m.terms[q].j}, {"coefficient", num(m.coefficients[q])}});
   json mono = json::array(), pw = json::array();
   for (const auto& row : m.monomial_in_scaled()) {
     json r = json::array();
@@ -152,9 +171,12 @@ void add_surface_members(json& j, const CalibrationRecord& rec) {
       {"term_rule", surface_term_rule(cal)},
       {"boundary_rule", surface_boundary_rule(cal)},
       {"evaluation",
-       "u = transforms(reading); t = (u - inputs[0].center)/inputs[0].half_width; s = (aux - inputs[1].center)/"
-       "inputs[1].half_width; v = sum_m terms[m].coefficient * B_i(t) * B_j(s) (B = Chebyshev T or plain power, "
-       "per basis) = sum_kl monomial_coefficients[k][l] t^k s^l; reference = inverse reference transform of v"},
+       "u = transforms(reading); t = (u - inputs[0].center)/inputs[0].half_width; s = (aux - "
+       "inputs[1].center)/"
+       "inputs[1].half_width; v = sum_m terms[m].coefficient * B_i(t) * B_j(s) (B = Chebyshev T or "
+       "plain power, "
+       "per basis) = sum_kl monomial_coefficients[k][l] t^k s^l; reference = inverse reference "
+       "transform of v"},
       {"terms", terms},
       {"monomial_coefficients", mono},
       {"power_coefficients", pw}};
@@ -173,8 +195,10 @@ void add_surface_members(json& j, const CalibrationRecord& rec) {
     sel["chosen"]["terms"] = c.terms;
   }
   if (m.has_aux) {
-    for (std::size_t i = 0; i < cal.setpoints.size(); ++i) j["split"]["setpoints"][i]["aux"] = num(cal.setpoints[i].mean_aux);
-    for (std::size_t i = 0; i < cal.points.size(); ++i) j["points"][i]["aux"] = num(cal.points[i].aux);
+    for (std::size_t i = 0; i < cal.setpoints.size(); ++i)
+      j["split"]["setpoints"][i]["aux"] = num(cal.setpoints[i].mean_aux);
+    for (std::size_t i = 0; i < cal.points.size(); ++i)
+      j["points"][i]["aux"] = num(cal.points[i].aux);
   }
 }
 
@@ -190,31 +214,41 @@ void read_surface_members(const json& j, CalibrationRecord& rec, const std::stri
   const json& c = member(j, "compensation", "record", file);
   SurfaceModel m;
   const json& tf = member(c, "transforms", "compensation", file);
-  m.transforms.reading = parse_enum(tf, "reading", "compensation.transforms", file, reading_transform_from_string);
-  m.transforms.reference = parse_enum(tf, "reference", "compensation.transforms", file, reference_transform_from_string);
+  m.transforms.reading =
+      parse_enum(tf, "reading", "compensation.transforms", file, reading_transform_from_string);
+  m.transforms.reference =
+      parse_enum(tf, "reference", "compensation.transforms", file, reference_transform_from_string);
   const json& dv = member(tf, "divider", "compensation.transforms", file);
   if (!dv.is_null()) {
     m.transforms.divider.enabled = true;
-    m.transforms.divider.fixed_resistance = finite(dv, "fixed_resistance", "compensation.transforms.divider", file);
-    m.transforms.divider.full_scale = finite(dv, "full_scale", "compensation.transforms.divider", file);
-    m.transforms.divider.position =
-        parse_enum(dv, "position", "compensation.transforms.divider", file, divider_position_from_string);
+    m.transforms.divider.fixed_resistance =
+        finite(dv, "fixed_resistance", "compensation.transforms.divider", file);
+    m.transforms.divider.full_scale =
+        finite(dv, "full_scale", "compensation.transforms.divider", file);
+    m.transforms.divider.position = parse_enum(dv, "position", "compensation.transforms.divider",
+                                               file, divider_position_from_string);
   }
-  if (const std::string e = m.transforms.validate(); !e.empty()) fail(file, "compensation.transforms", "is invalid: " + e);
+  if (const std::string e = m.transforms.validate(); !e.empty())
+    fail(file, "compensation.transforms", "is invalid: " + e);
   m.basis = parse_enum(c, "basis", "compensation", file, surface_basis_from_string);
   const json& inputs = member(c, "inputs", "compensation", file);
-  if (!inputs.is_array() || inputs.empty() || inputs.size() > 2) fail(file, "compensation.inputs", "must list 1 or 2 inputs");
-  m.input = read_scaling(member(inputs[0], "scaling", "compensation.inputs[0]", file), "compensation.inputs[0].scaling", file);
+  if (!inputs.is_array() || inputs.empty() || inputs.size() > 2)
+    fail(file, "compensation.inputs", "must list 1 or 2 inputs");
+  m.input = read_scaling(member(inputs[0], "scaling", "compensation.inputs[0]", file),
+                         "compensation.inputs[0].scaling", file);
   m.has_aux = inputs.size() == 2;
   if (m.has_aux)
-    m.aux = read_scaling(member(inputs[1], "scaling", "compensation.inputs[1]", file), "compensation.inputs[1].scaling", file);
+    m.aux = read_scaling(member(inputs[1], "scaling", "compensation.inputs[1]", file),
+                         "compensation.inputs[1].scaling", file);
   const json& terms = member(c, "terms", "compensation", file);
-  if (!terms.is_array() || terms.empty() || terms.size() > 256) fail(file, "compensation.terms", "has an invalid length");
+  if (!terms.is_array() || terms.empty() || terms.size() > 256)
+    fail(file, "compensation.terms", "has an invalid length");
   for (const json& t : terms) {
     const json& ij = member(t, "i", "compensation.terms[]", file);
     const json& jj = member(t, "j", "compensation.terms[]", file);
-    if (!ij.is_number_integer() || !jj.is_number_integer() || ij.get<long long>() < 0 || ij.get<long long>() > 40 ||
-        jj.get<long long>() < 0 || jj.get<long long>() > 40 || (!m.has_aux && jj.get<long long>() != 0))
+    if (!ij.is_number_integer() || !jj.is_number_integer() || ij.get<long long>() < 0 ||
+        ij.get<long long>() > 40 || jj.get<long long>() < 0 || jj.get<long long>() > 40 ||
+        (!m.has_aux && jj.get<long long>() != 0))
       fail(file, "compensation.terms[]", "has an invalid power");
     m.terms.push_back(Term{ij.get<int>(), jj.get<int>()});
     m.coefficients.push_back(finite(t, "coefficient", "compensation.terms[]", file));
@@ -224,7 +258,8 @@ void read_surface_members(const json& j, CalibrationRecord& rec, const std::stri
   if (st != c.end() && st->is_number()) cal.aux_step = st->get<double>();
 
   const json& cols = j["input"]["columns"];
-  if (cols.contains("aux") && cols["aux"].is_string()) rec.input.columns.aux_column = cols["aux"].get<std::string>();
+  if (cols.contains("aux") && cols["aux"].is_string())
+    rec.input.columns.aux_column = cols["aux"].get<std::string>();
   if (cols.contains("aux_setpoint") && cols["aux_setpoint"].is_string())
     rec.input.columns.aux_setpoint_column = cols["aux_setpoint"].get<std::string>();
 
@@ -233,7 +268,9 @@ void read_surface_members(const json& j, CalibrationRecord& rec, const std::stri
     const auto it = sel.find(key);
     if (it == sel.end() || !it->is_array()) continue;
     for (const json& v : *it)
-      if (v.is_number_integer()) (std::string(key) == "powers" ? cal.selection.powers : cal.selection.aux_degrees).push_back(v.get<int>());
+      if (v.is_number_integer())
+        (std::string(key) == "powers" ? cal.selection.powers : cal.selection.aux_degrees)
+            .push_back(v.get<int>());
   }
 }
 
@@ -243,21 +280,28 @@ void read_surface_extras(const json& j, Calibration& cal) {
   cal.selection.chosen = -1;
   for (std::size_t i = 0; i < cal.selection.grid.size() && i < grid.size(); ++i) {
     GridCell& g = cal.selection.grid[i];
-    g.aux_degree = grid[i].contains("aux_degree") && grid[i]["aux_degree"].is_number_integer() ? grid[i]["aux_degree"].get<int>() : -1;
-    g.terms = grid[i].contains("terms") && grid[i]["terms"].is_number_integer() ? grid[i]["terms"].get<int>() : 0;
+    g.aux_degree = grid[i].contains("aux_degree") && grid[i]["aux_degree"].is_number_integer()
+                       ? grid[i]["aux_degree"].get<int>()
+                       : -1;
+    g.terms = grid[i].contains("terms") && grid[i]["terms"].is_number_integer()
+                  ? grid[i]["terms"].get<int>()
+                  : 0;
   }
   const json& ch = j["selection"]["chosen"];
   if (ch.is_object())
     for (std::size_t i = 0; i < cal.selection.grid.size(); ++i) {
       const GridCell& g = cal.selection.grid[i];
-      if (ch.value("degree", -99) == g.degree && ch.value("lambda", -1.0) == g.lambda && ch.value("terms", -1) == g.terms &&
+      if (ch.value("degree", -99) == g.degree && ch.value("lambda", -1.0) == g.lambda &&
+          ch.value("terms", -1) == g.terms &&
           (ch["aux_degree"].is_null() ? -1 : ch.value("aux_degree", -2)) == g.aux_degree)
         cal.selection.chosen = static_cast<int>(i);
     }
   const json& sps = j["split"]["setpoints"];
-  for (std::size_t i = 0; i < cal.setpoints.size() && i < sps.size(); ++i) cal.setpoints[i].mean_aux = number_or_nan(sps[i], "aux");
+  for (std::size_t i = 0; i < cal.setpoints.size() && i < sps.size(); ++i)
+    cal.setpoints[i].mean_aux = number_or_nan(sps[i], "aux");
   const json& pts = j["points"];
-  for (std::size_t i = 0; i < cal.points.size() && i < pts.size(); ++i) cal.points[i].aux = number_or_nan(pts[i], "aux");
+  for (std::size_t i = 0; i < cal.points.size() && i < pts.size(); ++i)
+    cal.points[i].aux = number_or_nan(pts[i], "aux");
 }
 
 }  // namespace ridgecal

@@ -16,12 +16,16 @@ std::size_t utf8_sequence(std::string_view s, std::size_t i) {
     len = 2;
   } else if (c >= 0xE0 && c <= 0xEF) {
     len = 3;
-    if (c == 0xE0) lo = 0xA0;       // no overlong forms
-    else if (c == 0xED) hi = 0x9F;  // no UTF-16 surrogates
+    if (c == 0xE0)
+      lo = 0xA0;  // no overlong forms
+    else if (c == 0xED)
+      hi = 0x9F;  // no UTF-16 surrogates
   } else if (c >= 0xF0 && c <= 0xF4) {
     len = 4;
-    if (c == 0xF0) lo = 0x90;       // no overlong forms
-    else if (c == 0xF4) hi = 0x8F;  // nothing above U+10FFFF
+    if (c == 0xF0)
+      lo = 0x90;  // no overlong forms
+    else if (c == 0xF4)
+      hi = 0x8F;  // nothing above U+10FFFF
   } else {
     return 0;
   }
@@ -43,11 +47,13 @@ bool is_valid_utf8(std::string_view s) {
 }
 
 std::string name_problem(std::string_view s, std::size_t max_bytes) {
-  if (s.size() > max_bytes) return fmt::format("is {} bytes long; at most {} are allowed", s.size(), max_bytes);
+  if (s.size() > max_bytes)
+    return fmt::format("is {} bytes long; at most {} are allowed", s.size(), max_bytes);
   for (std::size_t i = 0; i < s.size();) {
     const std::size_t n = utf8_sequence(s, i);
     if (n == 0)
-      return fmt::format("is not valid UTF-8 (byte 0x{:02x} at offset {})", static_cast<unsigned char>(s[i]), i);
+      return fmt::format("is not valid UTF-8 (byte 0x{:02x} at offset {})",
+                         static_cast<unsigned char>(s[i]), i);
     const unsigned char c = static_cast<unsigned char>(s[i]);
     if (n == 1 && (c < 0x20 || c == 0x7F))
       return fmt::format("contains the control character 0x{:02x} at offset {}", c, i);

@@ -158,7 +158,9 @@ double UncertaintyBudget::expanded_at(double reading) const {
 
 namespace {
 // Screen text never shows nan or inf: a figure that overflowed reads "n/a".
-std::string shown_3g(double v) { return std::isfinite(v) ? fmt::format("{:.3g}", v) : std::string("n/a"); }
+std::string shown_3g(double v) {
+  return std::isfinite(v) ? fmt::format("{:.3g}", v) : std::string("n/a");
+}
 }  // namespace
 
 std::string UncertaintyBudget::brief(const std::string& unit) const {
@@ -166,8 +168,8 @@ std::string UncertaintyBudget::brief(const std::string& unit) const {
   std::string s = fmt::format("uncertainty: U = {}{} (k = {:g}), combined standard u = {}{}\n",
                               shown_3g(expanded), u, k, shown_3g(combined), u);
   for (const UncertaintyComponent& c : components)
-    s += fmt::format("  {:<19} {}{} (type {}, {})\n", c.name, shown_3g(c.standard), u, to_string(c.type),
-                     to_string(c.distribution));
+    s += fmt::format("  {:<19} {}{} (type {}, {})\n", c.name, shown_3g(c.standard), u,
+                     to_string(c.type), to_string(c.distribution));
   return s;
 }
 

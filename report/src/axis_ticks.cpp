@@ -16,9 +16,12 @@ double nice_step(double raw_step) {
   const double f = raw_step / base;
   // Tolerance so that e.g. 0.2000000001 still counts as 2.
   double m = 10.0;
-  if (f <= 1.0 + 1e-9) m = 1.0;
-  else if (f <= 2.0 + 1e-9) m = 2.0;
-  else if (f <= 5.0 + 1e-9) m = 5.0;
+  if (f <= 1.0 + 1e-9)
+    m = 1.0;
+  else if (f <= 2.0 + 1e-9)
+    m = 2.0;
+  else if (f <= 5.0 + 1e-9)
+    m = 5.0;
   return m * base;
 }
 

@@ -71,7 +71,10 @@ std::string format_lambda(double v) {
   }
   static const char* const kSup[] = {"\u2070", "\u00B9", "\u00B2", "\u00B3", "\u2074",
                                      "\u2075", "\u2076", "\u2077", "\u2078", "\u2079"};
-  std::string out = (ms == "1" ? std::string() : ms == "-1" ? std::string("-") : ms + "\u00D7") + "10";
+  std::string out = (ms == "1"    ? std::string()
+                     : ms == "-1" ? std::string("-")
+                                  : ms + "\u00D7") +
+                    "10";
   if (e < 0) out += "\u207B";
   for (char c : std::to_string(e < 0 ? -e : e)) out += kSup[c - '0'];
   return out;

@@ -15,7 +15,9 @@ namespace ridgecal::report {
 namespace {
 
 using C = std::string;  // coordinates are written through format_coord
-C f(double v) { return format_coord(v); }
+C f(double v) {
+  return format_coord(v);
+}
 
 constexpr double kTickFont = 12.0;
 constexpr double kLabelFont = 13.0;
@@ -93,7 +95,8 @@ Mapped layout_axis(const AxisSpec& spec, Extent ext, double p0, double p1) {
     // Thin the labels to what the length of the axis can hold (about 40 px
     // per label), whatever the number of decades.
     const double decades = std::log10(ax.hi / ax.lo);
-    const double px_per_decade = (std::fabs(p1 - p0) - (m.has_zero_slot ? kZeroSlot : 0.0)) / decades;
+    const double px_per_decade =
+        (std::fabs(p1 - p0) - (m.has_zero_slot ? kZeroSlot : 0.0)) / decades;
     const int every = std::max(1, static_cast<int>(std::ceil(40.0 / px_per_decade - 1e-9)));
     std::vector<Tick> kept;
     for (Tick t : m.ticks) {
@@ -162,7 +165,6 @@ std::string stroke_attrs(const std::string& color, double width, const std::stri
   return s;
 }
 
-
 std::string hatch_defs(const std::vector<Band>& bands, const std::string& id) {
   std::string o;
   for (std::size_t i = 0; i < bands.size(); ++i) {
@@ -184,11 +186,13 @@ struct LegendLayout {
   std::vector<Item> items;
   std::vector<std::vector<std::size_t>> rows;
   double col_w = 0;  // 0 = items packed by their own width
-  double height() const { return rows.empty() ? 0.0 : static_cast<double>(rows.size()) * kLegendRow + 6.0; }
+  double height() const {
+    return rows.empty() ? 0.0 : static_cast<double>(rows.size()) * kLegendRow + 6.0;
+  }
 };
 
-LegendLayout layout_legend(const std::vector<Band>& bands, const std::vector<Series>& series, double avail,
-                           int columns) {
+LegendLayout layout_legend(const std::vector<Band>& bands, const std::vector<Series>& series,
+                           double avail, int columns) {
   LegendLayout L;
   for (std::size_t i = 0; i < bands.size(); ++i)
     if (!bands[i].name.empty()) L.items.push_back({bands[i].name, nullptr, i, 0});
@@ -221,8 +225,8 @@ LegendLayout layout_legend(const std::vector<Band>& bands, const std::vector<Ser
   return L;
 }
 
-std::string draw_legend(const LegendLayout& L, const std::vector<Band>& bands, const std::string& id, double x0,
-                        double y0) {
+std::string draw_legend(const LegendLayout& L, const std::vector<Band>& bands,
+                        const std::string& id, double x0, double y0) {
   if (L.rows.empty()) return {};
   std::string o = "<g class=\"legend\" font-size=\"12\">";
   double y = y0 + kLegendRow / 2;
@@ -232,19 +236,22 @@ std::string draw_legend(const LegendLayout& L, const std::vector<Band>& bands, c
       const auto& it = L.items[i];
       if (!it.s) {
         const Band& b = bands[it.band];
-        const std::string fill =
-            b.hatched ? fmt::format("url(#{}-hatch{})", html_escape(id), it.band) : html_escape(b.fill);
+        const std::string fill = b.hatched
+                                     ? fmt::format("url(#{}-hatch{})", html_escape(id), it.band)
+                                     : html_escape(b.fill);
         o += fmt::format(
             R"(<rect x="{}" y="{}" width="26" height="12" fill="{}" fill-opacity="{}" stroke="{}" stroke-width="1"/>)",
-            f(x), f(y - 6), fill, f(b.opacity), html_escape(b.edge_color.empty() ? std::string("#888888") : b.edge_color));
+            f(x), f(y - 6), fill, f(b.opacity),
+            html_escape(b.edge_color.empty() ? std::string("#888888") : b.edge_color));
       } else {
         const SeriesStyle& st = it.s->style;
         if (it.s->draw_line)
-          o += fmt::format(R"(<line x1="{}" y1="{}" x2="{}" y2="{}"{}/>)", f(x), f(y), f(x + 26), f(y),
-                           stroke_attrs(st.color, st.line_width, st.dash));
+          o += fmt::format(R"(<line x1="{}" y1="{}" x2="{}" y2="{}"{}/>)", f(x), f(y), f(x + 26),
+                           f(y), stroke_attrs(st.color, st.line_width, st.dash));
         o += svg_marker(st.marker, x + 13, y, st.marker_size, st.color, st.marker_filled);
       }
-      o += fmt::format(R"(<text x="{}" y="{}">{}</text>)", f(x + 32), f(y + 4.2), html_escape(it.name));
+      o += fmt::format(R"(<text x="{}" y="{}">{}</text>)", f(x + 32), f(y + 4.2),
+                       html_escape(it.name));
       x += L.col_w > 0 ? L.col_w : it.w;
     }
     y += kLegendRow;
@@ -258,38 +265,40 @@ std::string svg_marker(Marker m, double cx, double cy, double size, const std::s
                        bool filled) {
   const std::string col = html_escape(color);
   const std::string fill = filled ? col : std::string("#ffffff");
-  const std::string common =
-      fmt::format(R"( fill="{}" stroke="{}" stroke-width="1.4")", fill, col);
+  const std::string common = fmt::format(R"( fill="{}" stroke="{}" stroke-width="1.4")", fill, col);
   const double r = size / 2.0;
   switch (m) {
     case Marker::none:
       return {};
     case Marker::circle:
-      return fmt::format(R"(<circle cx="{}" cy="{}" r="{}"{}/>)", f(cx), f(cy), f(r * 0.92), common);
+      return fmt::format(R"(<circle cx="{}" cy="{}" r="{}"{}/>)", f(cx), f(cy), f(r * 0.92),
+                         common);
     case Marker::square: {
       const double h = r * 0.82;
       return fmt::format(R"(<rect x="{}" y="{}" width="{}" height="{}"{}/>)", f(cx - h), f(cy - h),
                          f(2 * h), f(2 * h), common);
     }
     case Marker::triangle:
-      return fmt::format(R"(<path d="M{} {}L{} {}L{} {}Z"{}/>)", f(cx), f(cy - r * 1.05),
-                         f(cx + r), f(cy + r * 0.75), f(cx - r), f(cy + r * 0.75), common);
+      return fmt::format(R"(<path d="M{} {}L{} {}L{} {}Z"{}/>)", f(cx), f(cy - r * 1.05), f(cx + r),
+                         f(cy + r * 0.75), f(cx - r), f(cy + r * 0.75), common);
     case Marker::triangle_down:
-      return fmt::format(R"(<path d="M{} {}L{} {}L{} {}Z"{}/>)", f(cx), f(cy + r * 1.05),
-                         f(cx + r), f(cy - r * 0.75), f(cx - r), f(cy - r * 0.75), common);
+      return fmt::format(R"(<path d="M{} {}L{} {}L{} {}Z"{}/>)", f(cx), f(cy + r * 1.05), f(cx + r),
+                         f(cy - r * 0.75), f(cx - r), f(cy - r * 0.75), common);
     case Marker::diamond:
       return fmt::format(R"(<path d="M{} {}L{} {}L{} {}L{} {}Z"{}/>)", f(cx), f(cy - r * 1.1),
                          f(cx + r * 0.85), f(cy), f(cx), f(cy + r * 1.1), f(cx - r * 0.85), f(cy),
                          common);
     case Marker::cross: {
       const double h = r * 0.8;
-      return fmt::format(R"(<path d="M{} {}L{} {}M{} {}L{} {}" fill="none" stroke="{}" stroke-width="2"/>)",
-                         f(cx - h), f(cy - h), f(cx + h), f(cy + h), f(cx - h), f(cy + h),
-                         f(cx + h), f(cy - h), col);
+      return fmt::format(
+          R"(<path d="M{} {}L{} {}M{} {}L{} {}" fill="none" stroke="{}" stroke-width="2"/>)",
+          f(cx - h), f(cy - h), f(cx + h), f(cy + h), f(cx - h), f(cy + h), f(cx + h), f(cy - h),
+          col);
     }
     case Marker::plus:
-      return fmt::format(R"(<path d="M{} {}L{} {}M{} {}L{} {}" fill="none" stroke="{}" stroke-width="2"/>)",
-                         f(cx - r), f(cy), f(cx + r), f(cy), f(cx), f(cy - r), f(cx), f(cy + r), col);
+      return fmt::format(
+          R"(<path d="M{} {}L{} {}M{} {}L{} {}" fill="none" stroke="{}" stroke-width="2"/>)",
+          f(cx - r), f(cy), f(cx + r), f(cy), f(cx), f(cy - r), f(cx), f(cy + r), col);
   }
   return {};
 }
@@ -312,7 +321,8 @@ std::string SvgPlot::render_legend(double width) const {
 std::string SvgPlot::render() const {
   const double left = 70, right = 18;
   const double avail = width_ - left - right;
-  const LegendLayout legend = show_legend ? layout_legend(bands, series, avail, legend_columns) : LegendLayout{};
+  const LegendLayout legend =
+      show_legend ? layout_legend(bands, series, avail, legend_columns) : LegendLayout{};
   const double top = 10 + legend.height();
   const double bottom = 46;
   const double px0 = left, px1 = width_ - right;
@@ -350,10 +360,12 @@ std::string SvgPlot::render() const {
       R"(<svg class="plot" id="{0}" width="{1}" height="{2}" viewBox="0 0 {1} {2}" role="img" aria-labelledby="{0}-title" font-family="DejaVu Sans, Liberation Sans, Arial, sans-serif" font-size="{3}">)",
       html_escape(id_), f(width_), f(height_), f(kTickFont));
   o += "\n";
-  o += fmt::format(R"(<title id="{}-title">{}</title>)", html_escape(id_), html_escape(description));
+  o +=
+      fmt::format(R"(<title id="{}-title">{}</title>)", html_escape(id_), html_escape(description));
   o += "\n<defs>";
-  o += fmt::format(R"(<clipPath id="{}-clip"><rect x="{}" y="{}" width="{}" height="{}"/></clipPath>)",
-                   html_escape(id_), f(px0), f(py1), f(px1 - px0), f(py0 - py1));
+  o += fmt::format(
+      R"(<clipPath id="{}-clip"><rect x="{}" y="{}" width="{}" height="{}"/></clipPath>)",
+      html_escape(id_), f(px0), f(py1), f(px1 - px0), f(py0 - py1));
   o += hatch_defs(bands, id_);
   o += "</defs>\n";
 
@@ -363,10 +375,12 @@ std::string SvgPlot::render() const {
   o += "\n<g class=\"grid\" stroke=\"#e3e3e3\" stroke-width=\"1\">";
   for (const Tick& t : mx.ticks)
     if (t.major && !(mx.has_zero_slot && t.value == 0.0))
-      o += fmt::format(R"(<line x1="{0}" y1="{1}" x2="{0}" y2="{2}"/>)", f(mx.map(t.value)), f(py0), f(py1));
+      o += fmt::format(R"(<line x1="{0}" y1="{1}" x2="{0}" y2="{2}"/>)", f(mx.map(t.value)), f(py0),
+                       f(py1));
   for (const Tick& t : my.ticks)
     if (t.major && !(my.has_zero_slot && t.value == 0.0))
-      o += fmt::format(R"(<line x1="{1}" y1="{0}" x2="{2}" y2="{0}"/>)", f(my.map(t.value)), f(px0), f(px1));
+      o += fmt::format(R"(<line x1="{1}" y1="{0}" x2="{2}" y2="{0}"/>)", f(my.map(t.value)), f(px0),
+                       f(px1));
   o += "</g>\n";
 
   // ---- bands ----
@@ -381,7 +395,8 @@ std::string SvgPlot::render() const {
     if (idx.size() < 2) continue;
     for (std::size_t k = 0; k < idx.size(); ++k) {
       const std::size_t i = idx[k];
-      const std::string seg = fmt::format("{}{} {}", k == 0 ? "M" : "L", f(mx.map(b.x[i])), f(my.map(b.hi[i])));
+      const std::string seg =
+          fmt::format("{}{} {}", k == 0 ? "M" : "L", f(mx.map(b.x[i])), f(my.map(b.hi[i])));
       d += seg;
       hi_edge += seg;
     }
@@ -394,9 +409,10 @@ std::string SvgPlot::render() const {
       lo_edge += fmt::format("{}{} {}", k == 0 ? "M" : "L", f(mx.map(b.x[i])), f(my.map(b.lo[i])));
     }
     d += "Z";
-    const std::string fill = b.hatched ? fmt::format("url(#{}-hatch{})", html_escape(id_), bi)
-                                       : html_escape(b.fill);
-    o += fmt::format(R"(<path d="{}" fill="{}" fill-opacity="{}" stroke="none"/>)", d, fill, f(b.opacity));
+    const std::string fill =
+        b.hatched ? fmt::format("url(#{}-hatch{})", html_escape(id_), bi) : html_escape(b.fill);
+    o += fmt::format(R"(<path d="{}" fill="{}" fill-opacity="{}" stroke="none"/>)", d, fill,
+                     f(b.opacity));
     if (!b.edge_color.empty())
       o += fmt::format(R"(<path d="{}{}" fill="none"{}/>)", hi_edge, lo_edge,
                        stroke_attrs(b.edge_color, 1.2, b.edge_dash));
@@ -426,7 +442,8 @@ std::string SvgPlot::render() const {
                          f(xp - 3), f(xp + 3));
       }
       if (!d.empty())
-        o += fmt::format(R"(<path d="{}" fill="none"{}/>)", d, stroke_attrs(s.style.color, 1.0, ""));
+        o +=
+            fmt::format(R"(<path d="{}" fill="none"{}/>)", d, stroke_attrs(s.style.color, 1.0, ""));
     }
     if (s.draw_line) {
       std::string d;
@@ -458,8 +475,9 @@ std::string SvgPlot::render() const {
     if (!ok(a.x, a.y)) continue;
     const double xp = mx.map(a.x), yp = my.map(a.y);
     if (a.ring)
-      o += fmt::format(R"(<circle cx="{}" cy="{}" r="9" fill="none" stroke="#000000" stroke-width="1.6"/>)",
-                       f(xp), f(yp));
+      o += fmt::format(
+          R"(<circle cx="{}" cy="{}" r="9" fill="none" stroke="#000000" stroke-width="1.6"/>)",
+          f(xp), f(yp));
     // Put the text on the side with more room.
     const double tw = text_width(a.text, kTickFont);
     const bool left_side = xp + 14 + tw > px1;
@@ -471,22 +489,25 @@ std::string SvgPlot::render() const {
 
   // ---- frame, ticks, labels ----
   o += "\n<g class=\"axes\" stroke=\"#222222\" stroke-width=\"1.2\" fill=\"none\">";
-  o += fmt::format(R"(<path d="M{} {}L{} {}L{} {}"/>)", f(px0), f(py1), f(px0), f(py0), f(px1), f(py0));
+  o += fmt::format(R"(<path d="M{} {}L{} {}L{} {}"/>)", f(px0), f(py1), f(px0), f(py0), f(px1),
+                   f(py0));
   if (mx.has_zero_slot) {
     // Axis break between the "0" position and the log range: a gap with two slashes.
     o += fmt::format(R"(<rect x="{}" y="{}" width="6" height="4" fill="#ffffff" stroke="none"/>)",
                      f(mx.break_pos - 3), f(py0 - 2));
     o += fmt::format(R"(<path d="M{} {}L{} {}M{} {}L{} {}"/>)", f(mx.break_pos - 6), f(py0 + 5),
-                     f(mx.break_pos - 1), f(py0 - 5), f(mx.break_pos + 1), f(py0 + 5), f(mx.break_pos + 6),
-                     f(py0 - 5));
+                     f(mx.break_pos - 1), f(py0 - 5), f(mx.break_pos + 1), f(py0 + 5),
+                     f(mx.break_pos + 6), f(py0 - 5));
   }
   for (const Tick& t : mx.ticks) {
     const double xp = mx.map(t.value);
-    o += fmt::format(R"(<line x1="{0}" y1="{1}" x2="{0}" y2="{2}"/>)", f(xp), f(py0), f(py0 + (t.major ? 6 : 3)));
+    o += fmt::format(R"(<line x1="{0}" y1="{1}" x2="{0}" y2="{2}"/>)", f(xp), f(py0),
+                     f(py0 + (t.major ? 6 : 3)));
   }
   for (const Tick& t : my.ticks) {
     const double yp = my.map(t.value);
-    o += fmt::format(R"(<line x1="{0}" y1="{1}" x2="{2}" y2="{1}"/>)", f(px0 - (t.major ? 6 : 3)), f(yp), f(px0));
+    o += fmt::format(R"(<line x1="{0}" y1="{1}" x2="{2}" y2="{1}"/>)", f(px0 - (t.major ? 6 : 3)),
+                     f(yp), f(px0));
   }
   o += "</g>\n<g class=\"tick-labels\" fill=\"#111111\">";
   for (const Tick& t : mx.ticks)
@@ -498,8 +519,10 @@ std::string SvgPlot::render() const {
       o += fmt::format(R"(<text x="{}" y="{}" text-anchor="end">{}</text>)", f(px0 - 9),
                        f(my.map(t.value) + kTickFont * 0.35), html_escape(t.label));
   o += "</g>\n";
-  o += fmt::format(R"(<text class="axis-label" x="{}" y="{}" text-anchor="middle" font-size="{}">{}</text>)",
-                   f((px0 + px1) / 2), f(height_ - 6), f(kLabelFont), html_escape(with_multiplier(x_axis.label, mx)));
+  o += fmt::format(
+      R"(<text class="axis-label" x="{}" y="{}" text-anchor="middle" font-size="{}">{}</text>)",
+      f((px0 + px1) / 2), f(height_ - 6), f(kLabelFont),
+      html_escape(with_multiplier(x_axis.label, mx)));
   o += "\n";
   o += fmt::format(
       R"~(<text class="axis-label" transform="translate({},{}) rotate(-90)" text-anchor="middle" font-size="{}">{}</text>)~",

@@ -149,8 +149,9 @@ int main(int argc, char** argv) {
   }
   std::cout << "fw_compare: " << exp.size() << " lines, " << identical << " bit-identical";
   if (narrow || tol_mode)
-    std::cout << ", " << within << " within the " << (tol_mode ? "stated log() bound" : "32-bit-double bound")
-              << " (max |diff| " << max_diff << ", bound " << bound << ")";
+    std::cout << ", " << within << " within the "
+              << (tol_mode ? "stated log() bound" : "32-bit-double bound") << " (max |diff| "
+              << max_diff << ", bound " << bound << ")";
   std::cout << ", " << bad << " differing\n";
   return bad == 0 ? 0 : 1;
 }

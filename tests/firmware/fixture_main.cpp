@@ -68,14 +68,21 @@ std::vector<float> float_inputs(float lo, float hi, const std::vector<double>& r
   return v;
 }
 std::vector<float> float_checked_inputs(float lo, float hi) {
-  return {lo, hi, std::nextafter(lo, -1e30f), std::nextafter(hi, 1e30f), lo - 1000.0f,
-          hi + 1000.0f, -std::numeric_limits<float>::infinity(),
-          std::numeric_limits<float>::infinity(), std::numeric_limits<float>::quiet_NaN(),
+  return {lo,
+          hi,
+          std::nextafter(lo, -1e30f),
+          std::nextafter(hi, 1e30f),
+          lo - 1000.0f,
+          hi + 1000.0f,
+          -std::numeric_limits<float>::infinity(),
+          std::numeric_limits<float>::infinity(),
+          std::numeric_limits<float>::quiet_NaN(),
           0.5f * (lo + hi)};
 }
 
 void write_inputs_h(const fs::path& p, const std::vector<std::uint32_t>& v,
-                    const std::vector<std::uint32_t>& chk, const std::vector<std::uint32_t>* aux = nullptr,
+                    const std::vector<std::uint32_t>& chk,
+                    const std::vector<std::uint32_t>* aux = nullptr,
                     const std::vector<std::uint32_t>* chk_aux = nullptr) {
   std::ofstream o(p);
   if (aux && chk_aux) {
@@ -110,10 +117,10 @@ bool write_fixture(const fs::path& dir, const fwtest::Fixture& f) {
     const float lo = is_float ? r.float_program->x_lo : static_cast<float>(r.double_program->x_lo);
     const float hi = is_float ? r.float_program->x_hi : static_cast<float>(r.double_program->x_hi);
     // double mode: inputs are floats inside the double range
-    const float lo_in = is_float || static_cast<double>(lo) >= r.double_program->x_lo
-                            ? lo : std::nextafter(lo, hi);
-    const float hi_in = is_float || static_cast<double>(hi) <= r.double_program->x_hi
-                            ? hi : std::nextafter(hi, lo);
+    const float lo_in =
+        is_float || static_cast<double>(lo) >= r.double_program->x_lo ? lo : std::nextafter(lo, hi);
+    const float hi_in =
+        is_float || static_cast<double>(hi) <= r.double_program->x_hi ? hi : std::nextafter(hi, lo);
     const auto xs = float_inputs(lo_in, hi_in, f.meta.calibration_readings);
     const auto cx = float_checked_inputs(lo_in, hi_in);
     L.add("I mode=" + mode + " n=" + std::to_string(xs.size()) + " k=" + std::to_string(cx.size()));
@@ -127,10 +134,11 @@ bool write_fixture(const fs::path& dir, const fwtest::Fixture& f) {
     for (std::size_t i = 0; i < cx.size(); ++i) {
       chk.push_back(fbits(cx[i]));
       int st = -1;
-      const std::string y =
-          is_float ? hex8(fbits(eval_program_checked(*r.float_program, cx[i], &st)))
-                   : hex16(dbits(eval_program_checked(*r.double_program, cx[i], &st)));
-      L.add("K " + std::to_string(i) + " " + hex8(fbits(cx[i])) + " " + std::to_string(st) + " " + y);
+      const std::string y = is_float
+                                ? hex8(fbits(eval_program_checked(*r.float_program, cx[i], &st)))
+                                : hex16(dbits(eval_program_checked(*r.double_program, cx[i], &st)));
+      L.add("K " + std::to_string(i) + " " + hex8(fbits(cx[i])) + " " + std::to_string(st) + " " +
+            y);
     }
   } else {
     const FixedPlan& p = *r.fixed_plan;
@@ -141,10 +149,14 @@ bool write_fixture(const fs::path& dir, const fwtest::Fixture& f) {
       xs.push_back(static_cast<std::int32_t>(lo + d));
       xs.push_back(static_cast<std::int32_t>(hi - d));
     }
-    std::vector<std::int32_t> cx = {static_cast<std::int32_t>(lo),     static_cast<std::int32_t>(hi),
-                                    static_cast<std::int32_t>(lo - 1), static_cast<std::int32_t>(hi + 1),
-                                    -2147483647 - 1,                   2147483647,
-                                    0,                                 static_cast<std::int32_t>((lo + hi) / 2)};
+    std::vector<std::int32_t> cx = {static_cast<std::int32_t>(lo),
+                                    static_cast<std::int32_t>(hi),
+                                    static_cast<std::int32_t>(lo - 1),
+                                    static_cast<std::int32_t>(hi + 1),
+                                    -2147483647 - 1,
+                                    2147483647,
+                                    0,
+                                    static_cast<std::int32_t>((lo + hi) / 2)};
     L.add("I mode=" + mode + " n=" + std::to_string(xs.size()) + " k=" + std::to_string(cx.size()));
     L.add("C " + hex8(r.table_crc32) + " 0");
     for (std::size_t i = 0; i < xs.size(); ++i) {
@@ -163,8 +175,8 @@ bool write_fixture(const fs::path& dir, const fwtest::Fixture& f) {
   L.add("END " + std::to_string(L.n + 1));
   std::ofstream(dir / "expected.txt") << L.s.str();
   write_inputs_h(dir / "fwt_inputs.h", in, chk);
-  std::ofstream(dir / "export.txt") << r.message << "\nmax_deviation " << r.max_deviation
-                                    << "\nformats " << r.formats << "\n";
+  std::ofstream(dir / "export.txt")
+      << r.message << "\nmax_deviation " << r.max_deviation << "\nformats " << r.formats << "\n";
   std::cout << f.name << ": " << r.message << "\n";
   return true;
 }
@@ -212,14 +224,19 @@ bool write_surface_fixture(const fs::path& dir, const fwtest::SurfaceFixture& f)
     const int nx = has_aux ? 11 : 201, na = has_aux ? 6 : 1;
     for (int j = 0; j < na; ++j)
       for (int i = 0; i < nx; ++i) {
-        const float a = na == 1 ? alo : static_cast<float>(static_cast<double>(alo) + (static_cast<double>(ahi) - alo) * j / (na - 1));
-        const float x = static_cast<float>(static_cast<double>(xlo) + (static_cast<double>(xhi) - xlo) * i / (nx - 1));
+        const float a = na == 1
+                            ? alo
+                            : static_cast<float>(static_cast<double>(alo) +
+                                                 (static_cast<double>(ahi) - alo) * j / (na - 1));
+        const float x = static_cast<float>(static_cast<double>(xlo) +
+                                           (static_cast<double>(xhi) - xlo) * i / (nx - 1));
         xs.emplace_back(std::fmin(std::fmax(x, xlo), xhi), std::fmin(std::fmax(a, alo), ahi));
       }
     for (std::size_t i = 0; i < f.meta.calibration_readings.size(); ++i) {
       const float x = static_cast<float>(f.meta.calibration_readings[i]);
       const float a = has_aux ? static_cast<float>(f.meta.calibration_aux[i]) : 0.0f;
-      xs.emplace_back(std::fmin(std::fmax(x, xlo), xhi), has_aux ? std::fmin(std::fmax(a, alo), ahi) : a);
+      xs.emplace_back(std::fmin(std::fmax(x, xlo), xhi),
+                      has_aux ? std::fmin(std::fmax(a, alo), ahi) : a);
     }
     xs.emplace_back(xlo, alo);
     xs.emplace_back(xhi, ahi);
@@ -232,11 +249,20 @@ bool write_surface_fixture(const fs::path& dir, const fwtest::SurfaceFixture& f)
       const float o1 = std::nextafter(v, dir);
       return is_float ? o1 : std::nextafter(o1, dir);
     };
-    const float nan = std::numeric_limits<float>::quiet_NaN(), inf = std::numeric_limits<float>::infinity();
-    std::vector<std::pair<float, float>> cx = {
-        {xlo, alo}, {xhi, ahi}, {out(xlo, -1e30f), am}, {out(xhi, 1e30f), am},
-        {xm, out(alo, -1e30f)}, {xm, out(ahi, 1e30f)}, {xlo - 1000.0f, ahi + 1000.0f},
-        {-inf, inf}, {nan, nan}, {xm, nan}, {nan, am}, {xm, am}};
+    const float nan = std::numeric_limits<float>::quiet_NaN(),
+                inf = std::numeric_limits<float>::infinity();
+    std::vector<std::pair<float, float>> cx = {{xlo, alo},
+                                               {xhi, ahi},
+                                               {out(xlo, -1e30f), am},
+                                               {out(xhi, 1e30f), am},
+                                               {xm, out(alo, -1e30f)},
+                                               {xm, out(ahi, 1e30f)},
+                                               {xlo - 1000.0f, ahi + 1000.0f},
+                                               {-inf, inf},
+                                               {nan, nan},
+                                               {xm, nan},
+                                               {nan, am},
+                                               {xm, am}};
     if (!has_aux)
       for (auto& c : cx) c.second = 0.0f;
     if (r.float_program ? r.float_program->ln : r.double_program->ln) {
@@ -251,7 +277,8 @@ bool write_surface_fixture(const fs::path& dir, const fwtest::SurfaceFixture& f)
         narrow = rf.common.max_deviation + rf.libm_allowance + r.common.max_deviation;
       }
       char b[128];
-      std::snprintf(b, sizeof b, "# tol %.6e %.6e", 2 * r.common.max_deviation + r.libm_allowance, narrow);
+      std::snprintf(b, sizeof b, "# tol %.6e %.6e", 2 * r.common.max_deviation + r.libm_allowance,
+                    narrow);
       tol_line = b;
     }
     L.add("I mode=" + mode + " n=" + std::to_string(xs.size()) + " k=" + std::to_string(cx.size()));
@@ -261,7 +288,8 @@ bool write_surface_fixture(const fs::path& dir, const fwtest::SurfaceFixture& f)
     model_txt.precision(17);
     for (std::size_t i = 0; i < xs.size(); ++i) {
       const auto [x, a] = xs[i];
-      model_txt << "V " << i << " " << f.model.eval(static_cast<double>(x), static_cast<double>(a)) << "\n";
+      model_txt << "V " << i << " " << f.model.eval(static_cast<double>(x), static_cast<double>(a))
+                << "\n";
       in.push_back(fbits(x));
       ain.push_back(fbits(a));
       const std::string y = is_float ? hex8(fbits(eval_program(*r.float_program, x, a)))
@@ -273,9 +301,11 @@ bool write_surface_fixture(const fs::path& dir, const fwtest::SurfaceFixture& f)
       chk.push_back(fbits(x));
       achk.push_back(fbits(a));
       int st = -1;
-      const std::string y = is_float ? hex8(fbits(eval_program_checked(*r.float_program, x, a, &st)))
-                                     : hex16(dbits(eval_program_checked(*r.double_program, x, a, &st)));
-      L.add("K " + std::to_string(i) + " " + hex8(fbits(x)) + " " + ab(a) + std::to_string(st) + " " + y);
+      const std::string y = is_float
+                                ? hex8(fbits(eval_program_checked(*r.float_program, x, a, &st)))
+                                : hex16(dbits(eval_program_checked(*r.double_program, x, a, &st)));
+      L.add("K " + std::to_string(i) + " " + hex8(fbits(x)) + " " + ab(a) + std::to_string(st) +
+            " " + y);
     }
   } else {
     const FixedPlan& p = *r.fixed_plan;
@@ -284,25 +314,35 @@ bool write_surface_fixture(const fs::path& dir, const fwtest::SurfaceFixture& f)
     const int nx = has_aux ? 11 : 201, na = has_aux ? 6 : 1;
     for (int j = 0; j < na; ++j)
       for (int i = 0; i < nx; ++i)
-        xs.emplace_back(static_cast<std::int32_t>(lo + (hi - lo) * i / (nx - 1)),
-                        static_cast<std::int32_t>(na == 1 ? alo : alo + (ahi - alo) * j / (na - 1)));
+        xs.emplace_back(
+            static_cast<std::int32_t>(lo + (hi - lo) * i / (nx - 1)),
+            static_cast<std::int32_t>(na == 1 ? alo : alo + (ahi - alo) * j / (na - 1)));
     for (std::int64_t d = 0; d < 4; ++d) {
       xs.emplace_back(static_cast<std::int32_t>(lo + d), static_cast<std::int32_t>(ahi - d));
       xs.emplace_back(static_cast<std::int32_t>(hi - d), static_cast<std::int32_t>(alo + d));
     }
     const auto i32 = [](std::int64_t v) { return static_cast<std::int32_t>(v); };
     std::vector<std::pair<std::int32_t, std::int32_t>> cx = {
-        {i32(lo), i32(alo)}, {i32(hi), i32(ahi)}, {i32(lo - 1), i32((alo + ahi) / 2)}, {i32(hi + 1), i32(ahi + 1)},
-        {i32((lo + hi) / 2), i32(alo - 1)}, {-2147483647 - 1, 2147483647}, {2147483647, -2147483647 - 1},
+        {i32(lo), i32(alo)},
+        {i32(hi), i32(ahi)},
+        {i32(lo - 1), i32((alo + ahi) / 2)},
+        {i32(hi + 1), i32(ahi + 1)},
+        {i32((lo + hi) / 2), i32(alo - 1)},
+        {-2147483647 - 1, 2147483647},
+        {2147483647, -2147483647 - 1},
         {i32((lo + hi) / 2), i32((alo + ahi) / 2)}};
     L.add("I mode=" + mode + " n=" + std::to_string(xs.size()) + " k=" + std::to_string(cx.size()));
     L.add("C " + hex8(r.common.table_crc32) + " 0");
-    const auto ab = [&](std::int32_t a) { return has_aux ? hex8(static_cast<std::uint32_t>(a)) + " " : std::string(); };
-    std::ofstream model_txt(dir / "model.txt");  // round(model * output_scale) reference (documentation)
+    const auto ab = [&](std::int32_t a) {
+      return has_aux ? hex8(static_cast<std::uint32_t>(a)) + " " : std::string();
+    };
+    std::ofstream model_txt(dir /
+                            "model.txt");  // round(model * output_scale) reference (documentation)
     model_txt.precision(17);
     for (std::size_t i = 0; i < xs.size(); ++i) {
       const auto [x, a] = xs[i];
-      model_txt << "V " << i << " " << f.model.eval(x / p.t.scale, a / p.s.scale) * p.output_scale << "\n";
+      model_txt << "V " << i << " " << f.model.eval(x / p.t.scale, a / p.s.scale) * p.output_scale
+                << "\n";
       in.push_back(static_cast<std::uint32_t>(x));
       ain.push_back(static_cast<std::uint32_t>(a));
       L.add("V " + std::to_string(i) + " " + hex8(static_cast<std::uint32_t>(x)) + " " + ab(a) +
@@ -320,10 +360,11 @@ bool write_surface_fixture(const fs::path& dir, const fwtest::SurfaceFixture& f)
   }
   L.add("END " + std::to_string(L.n + 1));
   std::ofstream(dir / "expected.txt") << (tol_line.empty() ? "" : tol_line + "\n") << L.s.str();
-  write_inputs_h(dir / "fwt_inputs.h", in, chk, has_aux ? &ain : nullptr, has_aux ? &achk : nullptr);
-  std::ofstream(dir / "export.txt") << r.common.message << "\nmax_deviation " << r.common.max_deviation
-                                    << "\nlibm_allowance " << r.libm_allowance << "\nformats "
-                                    << r.common.formats << "\n";
+  write_inputs_h(dir / "fwt_inputs.h", in, chk, has_aux ? &ain : nullptr,
+                 has_aux ? &achk : nullptr);
+  std::ofstream(dir / "export.txt")
+      << r.common.message << "\nmax_deviation " << r.common.max_deviation << "\nlibm_allowance "
+      << r.libm_allowance << "\nformats " << r.common.formats << "\n";
   std::cout << f.name << ": " << r.common.message << "\n";
   return true;
 }

@@ -2,10 +2,9 @@
 // sensors; no measured data).
 #pragma once
 
+#include <cmath>
 #include <string>
 #include <vector>
-
-#include <cmath>
 
 #include "ridgecal/firmware/export.hpp"
 #include "ridgecal/firmware/surface_export.hpp"
@@ -73,8 +72,8 @@ inline std::vector<Fixture> target_fixtures() {
   b.name = "bridge_fixed";
   b.model = bridge_model();
   // Hostile text in every string field: the headers must still compile clean.
-  b.meta = base_meta("bridge <script>alert(1)</script> */ #define X 1 /* \"quoted\" 'q' ?\?/", "counts\n#error injected",
-                     "k\xc2\xb5Pa \\", 0.5);
+  b.meta = base_meta("bridge <script>alert(1)</script> */ #define X 1 /* \"quoted\" 'q' ?\?/",
+                     "counts\n#error injected", "k\xc2\xb5Pa \\", 0.5);
   b.meta.tolerance_description = "+/-0.5 kPa */ int evil; /*\r\n" + std::string(500, '~');
   b.meta.pass_fail = "PASS \\";
   b.meta.tool_version = "ridgecal \xe2\x80\xae test";
@@ -169,7 +168,7 @@ inline std::vector<SurfaceFixture> surface_fixtures() {
       }
     f.options.prefix = "fwt";
     f.options.mode = mode;
-    f.options.output_scale = 10000.0;  // 0.1 mbar
+    f.options.output_scale = 10000.0;   // 0.1 mbar
     f.options.aux_input_scale = 100.0;  // raw aux in 0.01 degC
     out.push_back(f);
   }

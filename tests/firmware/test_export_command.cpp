@@ -1,13 +1,12 @@
 // Tests of `ridgecal export`: parsing (no files) and running (temp directory).
 #define BOOST_TEST_MODULE export_command
 #include <stdlib.h>
+#include <unistd.h>
 
 #include <boost/test/unit_test.hpp>
-
 #include <filesystem>
 #include <fstream>
 #include <sstream>
-#include <unistd.h>
 
 #include "cli_common.hpp"
 #include "export_command.hpp"
@@ -38,9 +37,9 @@ struct TempDir {
     dir = t;
     record = dir / "ntc.json";
     std::ostringstream out, err;
-    const int rc = fit_main({std::string(RIDGECAL_SAMPLES_DIR) + "/ntc-coldstore/ntc-coldstore.csv", "-o",
-                             record.string(), "--sensor", "cold store NTC", "--reading-unit", "counts",
-                             "--reference-unit", "degC", "--timestamp", "none"},
+    const int rc = fit_main({std::string(RIDGECAL_SAMPLES_DIR) + "/ntc-coldstore/ntc-coldstore.csv",
+                             "-o", record.string(), "--sensor", "cold store NTC", "--reading-unit",
+                             "counts", "--reference-unit", "degC", "--timestamp", "none"},
                             out, err);
     BOOST_REQUIRE_MESSAGE(rc == 0, err.str());
   }
@@ -62,9 +61,9 @@ int run(const std::vector<std::string>& args, std::string* err_text = nullptr) {
 }  // namespace
 
 BOOST_AUTO_TEST_CASE(parse_full_command) {
-  const ExportCommand c = parse_export_command({"rec.json", "--prefix", "ntc", "--numeric", "fixed", "-o",
-                                                "ntc.h", "--raw-min", "100", "--raw-max", "4000",
-                                                "--output-scale", "100", "--tolerance", "0.2"});
+  const ExportCommand c = parse_export_command(
+      {"rec.json", "--prefix", "ntc", "--numeric", "fixed", "-o", "ntc.h", "--raw-min", "100",
+       "--raw-max", "4000", "--output-scale", "100", "--tolerance", "0.2"});
   BOOST_TEST(c.record_path == "rec.json");
   BOOST_TEST(c.output_path == "ntc.h");
   BOOST_TEST(c.options.prefix == "ntc");
@@ -80,10 +79,10 @@ BOOST_AUTO_TEST_CASE(parse_full_command) {
 
 BOOST_AUTO_TEST_CASE(parse_errors_are_usage_errors) {
   const std::vector<std::vector<std::string>> bad = {
-      {},                                                       // no record
-      {"r.json", "--prefix", "p"},                              // no output
-      {"r.json", "-o", "p.h"},                                  // no prefix
-      {"r.json", "--prefix", "1p", "-o", "p.h"},                // bad prefix
+      {},                                         // no record
+      {"r.json", "--prefix", "p"},                // no output
+      {"r.json", "-o", "p.h"},                    // no prefix
+      {"r.json", "--prefix", "1p", "-o", "p.h"},  // bad prefix
       {"r.json", "--prefix", "p", "-o", "p.h", "--numeric", "half"},
       {"r.json", "--prefix", "p", "-o", "p.h", "--max-deviation-fraction", "0"},
       {"r.json", "--prefix", "p", "-o", "p.h", "--tolerance", "-1"},
@@ -98,8 +97,8 @@ BOOST_AUTO_TEST_CASE(export_writes_header_exit_0) {
   for (const char* mode : {"float", "double", "fixed"}) {
     const fs::path h = temp().dir / (std::string("ok_") + mode + ".h");
     std::string err;
-    BOOST_TEST(run({temp().record.string(), "--prefix", "ntc", "--numeric", mode, "-o", h.string()}, &err) ==
-                   kExitOk,
+    BOOST_TEST(run({temp().record.string(), "--prefix", "ntc", "--numeric", mode, "-o", h.string()},
+                   &err) == kExitOk,
                err);
     const std::string text = slurp(h);
     BOOST_TEST(text.find("#define NTC_FORMAT_VERSION 1") != std::string::npos);
@@ -115,20 +114,22 @@ BOOST_AUTO_TEST_CASE(refused_export_exit_1_keeps_existing_file) {
   std::ofstream(h) << "previous header\n";
   std::string err;
   // tolerance 1e-6: even binary32 rounding exceeds 0.1 x 1e-6
-  BOOST_TEST(run({temp().record.string(), "--prefix", "ntc", "--numeric", "float", "--tolerance", "1e-6",
-                  "-o", h.string()},
+  BOOST_TEST(run({temp().record.string(), "--prefix", "ntc", "--numeric", "float", "--tolerance",
+                  "1e-6", "-o", h.string()},
                  &err) == kExitOutOfTolerance);
   BOOST_TEST(err.find("refused") != std::string::npos, err);
   BOOST_TEST(slurp(h) == "previous header\n");
   // no temporary files left behind
   int files = 0;
-  for (const auto& e : fs::directory_iterator(temp().dir)) files += e.path().filename().string().rfind("keep", 0) == 0;
+  for (const auto& e : fs::directory_iterator(temp().dir))
+    files += e.path().filename().string().rfind("keep", 0) == 0;
   BOOST_TEST(files == 1);
 }
 
 BOOST_AUTO_TEST_CASE(bad_input_exit_2_writes_nothing) {
   const fs::path h = temp().dir / "never.h";
-  BOOST_TEST(run({(temp().dir / "missing.json").string(), "--prefix", "p", "-o", h.string()}) == kExitBadInput);
+  BOOST_TEST(run({(temp().dir / "missing.json").string(), "--prefix", "p", "-o", h.string()}) ==
+             kExitBadInput);
   BOOST_TEST(run({temp().record.string(), "--prefix", "_P", "-o", h.string()}) == kExitBadInput);
   // a record edited after it was written fails its integrity check
   std::string text = slurp(temp().record);
@@ -156,10 +157,11 @@ BOOST_AUTO_TEST_CASE(record_tolerance_and_decision_are_used) {
   const fs::path rec = temp().dir / "assessed.json";
   {
     std::ostringstream out, err;
-    const int rc = fit_main({std::string(RIDGECAL_SAMPLES_DIR) + "/ntc-coldstore/ntc-coldstore.csv", "-o",
-                             rec.string(), "--reading-unit", "counts", "--reference-unit", "degC", "--timestamp",
-                             "none", "--tol-offset", "0.05", "--tol-proportional", "0.001"},
-                            out, err);
+    const int rc =
+        fit_main({std::string(RIDGECAL_SAMPLES_DIR) + "/ntc-coldstore/ntc-coldstore.csv", "-o",
+                  rec.string(), "--reading-unit", "counts", "--reference-unit", "degC",
+                  "--timestamp", "none", "--tol-offset", "0.05", "--tol-proportional", "0.001"},
+                 out, err);
     BOOST_REQUIRE_MESSAGE(rc == 0, err.str());
   }
   const fs::path h = temp().dir / "assessed.h";
@@ -176,10 +178,11 @@ BOOST_AUTO_TEST_CASE(record_tolerance_and_decision_are_used) {
   BOOST_TEST(used >= 0.05);
   BOOST_TEST(used < 0.06);
   // fixed mode: 1/1000 degC rounding (5e-4) is within 0.1 x 0.05
-  BOOST_TEST(run({rec.string(), "--prefix", "ntc", "--numeric", "fixed", "-o", h.string()}) == kExitOk);
+  BOOST_TEST(run({rec.string(), "--prefix", "ntc", "--numeric", "fixed", "-o", h.string()}) ==
+             kExitOk);
   // an explicit --tolerance wins over the record's
-  BOOST_TEST(run({rec.string(), "--prefix", "ntc", "--numeric", "fixed", "--tolerance", "0.001", "-o",
-                  h.string()}) == kExitOutOfTolerance);
+  BOOST_TEST(run({rec.string(), "--prefix", "ntc", "--numeric", "fixed", "--tolerance", "0.001",
+                  "-o", h.string()}) == kExitOutOfTolerance);
 }
 
 // ---- extended (surface) records -------------------------------------------------
@@ -198,18 +201,38 @@ fs::path fit_extended(const std::string& name, std::vector<std::string> args) {
 
 fs::path pressure_record() {
   static const fs::path rec = fit_extended(
-      "pt7", {std::string(RIDGECAL_SAMPLES_DIR) + "/pressure-tempco/pressure-tempco.csv", "--setpoint", "setpoint",
-              "--aux", "temperature", "--aux-setpoint", "chamber", "--aux-degree", "0..3", "--sensor",
-              "test rig PT-7", "--reading-unit", "counts", "--reference-unit", "bar"});
+      "pt7",
+      {std::string(RIDGECAL_SAMPLES_DIR) + "/pressure-tempco/pressure-tempco.csv", "--setpoint",
+       "setpoint", "--aux", "temperature", "--aux-setpoint", "chamber", "--aux-degree", "0..3",
+       "--sensor", "test rig PT-7", "--reading-unit", "counts", "--reference-unit", "bar"});
   return rec;
 }
 
 fs::path thermistor_record() {
   static const fs::path rec = fit_extended(
-      "ntc-sh", {std::string(RIDGECAL_SAMPLES_DIR) + "/ntc-coldstore/ntc-coldstore.csv", "--setpoint", "setpoint",
-                 "--divider-resistor", "47000", "--divider-full-scale", "4095", "--divider-position", "sensor-low",
-                 "--reading-transform", "ln", "--reference-transform", "reciprocal-kelvin", "--powers", "0,1,3",
-                 "--degree", "3", "--lambda", "0", "--reading-unit", "counts", "--reference-unit", "degC"});
+      "ntc-sh", {std::string(RIDGECAL_SAMPLES_DIR) + "/ntc-coldstore/ntc-coldstore.csv",
+                 "--setpoint",
+                 "setpoint",
+                 "--divider-resistor",
+                 "47000",
+                 "--divider-full-scale",
+                 "4095",
+                 "--divider-position",
+                 "sensor-low",
+                 "--reading-transform",
+                 "ln",
+                 "--reference-transform",
+                 "reciprocal-kelvin",
+                 "--powers",
+                 "0,1,3",
+                 "--degree",
+                 "3",
+                 "--lambda",
+                 "0",
+                 "--reading-unit",
+                 "counts",
+                 "--reference-unit",
+                 "degC"});
   return rec;
 }
 
@@ -220,7 +243,8 @@ BOOST_AUTO_TEST_CASE(pressure_tempco_record_exports_in_every_mode) {
   for (const char* mode : {"float", "double", "fixed"}) {
     const fs::path h = temp().dir / (std::string("pt7_") + mode + ".h");
     std::ostringstream out, err;
-    std::vector<std::string> args = {rec.string(), "--prefix", "pt7", "--numeric", mode, "-o", h.string()};
+    std::vector<std::string> args = {rec.string(), "--prefix", "pt7",     "--numeric",
+                                     mode,         "-o",       h.string()};
     if (std::string(mode) == "fixed")
       args.insert(args.end(), {"--aux-scale", "100", "--output-scale", "100000"});
     BOOST_TEST(export_main(args, out, err) == kExitOk, mode << ": " << err.str());
@@ -233,15 +257,16 @@ BOOST_AUTO_TEST_CASE(pressure_tempco_record_exports_in_every_mode) {
     if (std::string(mode) == "fixed")
       BOOST_TEST(text.find("pt7_eval_fixed(int32_t raw, int32_t raw_aux)") != std::string::npos);
     else
-      BOOST_TEST(text.find(std::string("pt7_eval(") + mode + " x, " + mode + " aux)") != std::string::npos);
+      BOOST_TEST(text.find(std::string("pt7_eval(") + mode + " x, " + mode + " aux)") !=
+                 std::string::npos);
     const std::string digest = record_digest(read_record_json(rec.string()));
     BOOST_TEST(text.find(digest) != std::string::npos);
   }
   // the refusal rule applies as in 1-D: float rounding cannot meet 0.1 x 1e-7
   const fs::path h = temp().dir / "pt7_refused.h";
   std::ostringstream out, err;
-  BOOST_TEST(export_main({rec.string(), "--prefix", "pt7", "--tolerance", "1e-7", "-o", h.string()}, out, err) ==
-             kExitOutOfTolerance);
+  BOOST_TEST(export_main({rec.string(), "--prefix", "pt7", "--tolerance", "1e-7", "-o", h.string()},
+                         out, err) == kExitOutOfTolerance);
   BOOST_TEST(!fs::exists(h));
 }
 
@@ -250,8 +275,8 @@ BOOST_AUTO_TEST_CASE(thermistor_record_exports_float_and_double_refuses_fixed) {
   for (const char* mode : {"float", "double"}) {
     const fs::path h = temp().dir / (std::string("sh_") + mode + ".h");
     std::ostringstream out, err;
-    BOOST_TEST(export_main({rec.string(), "--prefix", "ntc", "--numeric", mode, "-o", h.string()}, out, err) ==
-                   kExitOk,
+    BOOST_TEST(export_main({rec.string(), "--prefix", "ntc", "--numeric", mode, "-o", h.string()},
+                           out, err) == kExitOk,
                err.str());
     const std::string text = slurp(h);
     BOOST_TEST(text.find("#include <math.h>") != std::string::npos);
@@ -260,22 +285,24 @@ BOOST_AUTO_TEST_CASE(thermistor_record_exports_float_and_double_refuses_fixed) {
   }
   const fs::path h = temp().dir / "sh_fixed.h";
   std::ostringstream out, err;
-  BOOST_TEST(export_main({rec.string(), "--prefix", "ntc", "--numeric", "fixed", "-o", h.string()}, out, err) ==
-             kExitBadInput);
-  BOOST_TEST(err.str().find("use --numeric float or --numeric double") != std::string::npos, err.str());
+  BOOST_TEST(export_main({rec.string(), "--prefix", "ntc", "--numeric", "fixed", "-o", h.string()},
+                         out, err) == kExitBadInput);
+  BOOST_TEST(err.str().find("use --numeric float or --numeric double") != std::string::npos,
+             err.str());
   BOOST_TEST(!fs::exists(h));
 }
 
 BOOST_AUTO_TEST_CASE(parse_aux_options) {
-  const ExportCommand c = parse_export_command({"rec.json", "--prefix", "p", "--numeric", "fixed", "-o", "p.h",
-                                                "--aux-scale", "100", "--aux-raw-min", "-2000", "--aux-raw-max",
-                                                "8000"});
+  const ExportCommand c = parse_export_command({"rec.json", "--prefix", "p", "--numeric", "fixed",
+                                                "-o", "p.h", "--aux-scale", "100", "--aux-raw-min",
+                                                "-2000", "--aux-raw-max", "8000"});
   BOOST_TEST(c.options.aux_input_scale == 100.0);
   BOOST_TEST(*c.options.aux_raw_min == -2000);
   BOOST_TEST(*c.options.aux_raw_max == 8000);
-  BOOST_CHECK_THROW(parse_export_command({"rec.json", "--prefix", "p", "-o", "p.h", "--aux-scale", "0"}),
-                    UsageError);
-  BOOST_CHECK_THROW(parse_export_command({"rec.json", "--prefix", "p", "-o", "p.h", "--aux-raw-min", "5",
-                                          "--aux-raw-max", "4"}),
+  BOOST_CHECK_THROW(
+      parse_export_command({"rec.json", "--prefix", "p", "-o", "p.h", "--aux-scale", "0"}),
+      UsageError);
+  BOOST_CHECK_THROW(parse_export_command({"rec.json", "--prefix", "p", "-o", "p.h", "--aux-raw-min",
+                                          "5", "--aux-raw-max", "4"}),
                     UsageError);
 }

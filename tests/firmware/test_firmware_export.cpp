@@ -1,7 +1,6 @@
 // Unit tests of the firmware header generator (ridgecal::firmware_export).
 #define BOOST_TEST_MODULE firmware_export
 #include <boost/test/unit_test.hpp>
-
 #include <cmath>
 #include <cstring>
 #include <limits>
@@ -80,11 +79,12 @@ BOOST_AUTO_TEST_CASE(numeric_mode_spellings) {
 }
 
 BOOST_AUTO_TEST_CASE(prefix_rules) {
-  for (const char* ok : {"calib", "T", "ntc2", "a_b", "ADC_ch0", "x1234567890123456789012345678901234567"})
+  for (const char* ok :
+       {"calib", "T", "ntc2", "a_b", "ADC_ch0", "x1234567890123456789012345678901234567"})
     BOOST_TEST(check_c_prefix(ok).empty(), ok);
   BOOST_TEST(check_c_prefix(std::string(40, 'a')).empty());
-  const char* bad[] = {"", "1abc", "_x", "__x", "_X", "a__b", "a_", "a-b", "a b", "a*/", "a;b",
-                       "\xc3\xa4", "tab\t", "new\nline"};
+  const char* bad[] = {"",    "1abc", "_x",  "__x", "_X",       "a__b",  "a_",
+                       "a-b", "a b",  "a*/", "a;b", "\xc3\xa4", "tab\t", "new\nline"};
   for (const char* b : bad) BOOST_TEST(!check_c_prefix(b).empty(), "accepted '" << b << "'");
   BOOST_TEST(!check_c_prefix(std::string(41, 'a')).empty());
   // the message names the value and the rule
@@ -137,7 +137,9 @@ BOOST_AUTO_TEST_CASE(comment_escaping_hostile_strings) {
       "quotes \" and ' and \\",
       "trailing backslash \\",
       "trigraph ?\?/ and ?\?=",
-      "non-ASCII: 25 \xc2\xb0" "C, \xce\xbc" "m, \xe2\x80\xae",
+      "non-ASCII: 25 \xc2\xb0"
+      "C, \xce\xbc"
+      "m, \xe2\x80\xae",
       std::string("nul\0byte", 8),
       "/* nested */ */ /* ** / *",
       "*//*",
@@ -152,7 +154,8 @@ BOOST_AUTO_TEST_CASE(comment_escaping_hostile_strings) {
     BOOST_TEST(e.size() <= 200 + std::strlen("...[truncated]") + 3);
     BOOST_TEST((e.empty() || e.back() != '\\'));
   }
-  BOOST_TEST(escape_c_comment("25 \xc2\xb0" "C") == "25 \\xC2\\xB0C");
+  BOOST_TEST(escape_c_comment("25 \xc2\xb0"
+                              "C") == "25 \\xC2\\xB0C");
   BOOST_TEST(escape_c_comment("a\nb") == "a\\x0Ab");
   BOOST_TEST(escape_c_comment("plain text 1.5 mV") == "plain text 1.5 mV");
   BOOST_TEST(escape_c_comment(std::string(300, 'a')).find("[truncated]") != std::string::npos);
@@ -183,9 +186,18 @@ BOOST_AUTO_TEST_CASE(comment_escaping_hostile_strings) {
 
 BOOST_AUTO_TEST_CASE(float_literals_round_trip) {
   std::mt19937 rng(12345);
-  std::vector<float> values = {0.0f, -0.0f, 1.0f, -1.0f, 0.1f, 1e-45f, 1.17549435e-38f,
-                               std::numeric_limits<float>::max(), -3.4028235e38f, 16777217.0f,
-                               0.00054054055f, 123456789.0f};
+  std::vector<float> values = {0.0f,
+                               -0.0f,
+                               1.0f,
+                               -1.0f,
+                               0.1f,
+                               1e-45f,
+                               1.17549435e-38f,
+                               std::numeric_limits<float>::max(),
+                               -3.4028235e38f,
+                               16777217.0f,
+                               0.00054054055f,
+                               123456789.0f};
   for (int i = 0; i < 20000; ++i) {
     std::uint32_t u = rng();
     float f;
@@ -204,8 +216,14 @@ BOOST_AUTO_TEST_CASE(float_literals_round_trip) {
 
 BOOST_AUTO_TEST_CASE(double_literals_round_trip) {
   std::mt19937_64 rng(777);
-  std::vector<double> values = {0.0, -0.0, 0.1, 1.0 / 3.0, 5e-324, 2.2250738585072014e-308,
-                                std::numeric_limits<double>::max(), 9007199254740993.0};
+  std::vector<double> values = {0.0,
+                                -0.0,
+                                0.1,
+                                1.0 / 3.0,
+                                5e-324,
+                                2.2250738585072014e-308,
+                                std::numeric_limits<double>::max(),
+                                9007199254740993.0};
   for (int i = 0; i < 20000; ++i) {
     std::uint64_t u = rng();
     double d;
@@ -260,7 +278,8 @@ BOOST_AUTO_TEST_CASE(header_carries_table_crc) {
     if (r.fixed_plan) expect = crc32_bytes(table_bytes(r.fixed_plan->coef));
     BOOST_TEST(r.table_crc32 == expect);
     char text[64];
-    std::snprintf(text, sizeof text, "#define FWT_TABLE_CRC32 0x%08lXUL", static_cast<unsigned long>(expect));
+    std::snprintf(text, sizeof text, "#define FWT_TABLE_CRC32 0x%08lXUL",
+                  static_cast<unsigned long>(expect));
     BOOST_TEST(r.header.find(text) != std::string::npos, text);
   }
 }
@@ -276,14 +295,15 @@ BOOST_AUTO_TEST_CASE(header_contract_elements) {
     BOOST_TEST(full.find("//") == std::string::npos);  // C89: block comments only
     for (const char* must :
          {"GENERATED FILE -- DO NOT EDIT", "#define FWT_FORMAT_VERSION 1", "#include <stdint.h>",
-          "Measured max |error|", "Precision:",
-          "#ifndef FWT_RIDGECAL_CALIBRATION_H", "extern \"C\" {", "static const", "FWT_INLINE",
-          "fwt_check_table(void)", "record SHA-256:", "tool version:", "local codes and certified procedures",
+          "Measured max |error|", "Precision:", "#ifndef FWT_RIDGECAL_CALIBRATION_H",
+          "extern \"C\" {", "static const", "FWT_INLINE", "fwt_check_table(void)",
+          "record SHA-256:", "tool version:", "local codes and certified procedures",
           "-ffp-contract=off", "max deviation:", "_checked("})
       BOOST_TEST(full.find(must) != std::string::npos, to_string(mode) << " lacks " << must);
     // stdint.h is the only include; no allocation, no libm
     std::size_t includes = 0;
-    for (std::size_t p = h.find("#include"); p != std::string::npos; p = h.find("#include", p + 1)) ++includes;
+    for (std::size_t p = h.find("#include"); p != std::string::npos; p = h.find("#include", p + 1))
+      ++includes;
     BOOST_TEST(includes == 1u);
     for (const char* never : {"malloc", "math.h", "sqrt", "pow(", "long long", "LL"})
       BOOST_TEST(h.find(never) == std::string::npos, to_string(mode) << " has " << never);
@@ -339,7 +359,8 @@ BOOST_AUTO_TEST_CASE(scaled_t_chosen_far_from_zero) {
 }
 
 BOOST_AUTO_TEST_CASE(double_mode_is_near_exact) {
-  const ExportResult r = generate_c_header(fwtest::ntc_model(), ntc_meta(), opts(NumericMode::Double));
+  const ExportResult r =
+      generate_c_header(fwtest::ntc_model(), ntc_meta(), opts(NumericMode::Double));
   BOOST_REQUIRE(r.ok());
   // binary64 Horner of degree 5 on values ~100: well below 1e-12
   constexpr double kDoubleBound = 1e-12;
@@ -350,7 +371,8 @@ BOOST_AUTO_TEST_CASE(rshift_round_is_floor_of_half_up) {
   std::mt19937_64 rng(99);
   for (int i = 0; i < 200000; ++i) {
     const int s = 1 + static_cast<int>(rng() % 61);
-    const std::int64_t lim = (static_cast<std::int64_t>(1) << 62) - (static_cast<std::int64_t>(1) << (s - 1));
+    const std::int64_t lim =
+        (static_cast<std::int64_t>(1) << 62) - (static_cast<std::int64_t>(1) << (s - 1));
     std::int64_t v = static_cast<std::int64_t>(rng() >> 1) % lim;
     if (rng() & 1) v = -v;
     const __int128 num = static_cast<__int128>(v) + (static_cast<__int128>(1) << (s - 1));
@@ -401,7 +423,8 @@ BOOST_AUTO_TEST_CASE(fixed_point_bounds_hold_for_every_input) {
 }
 
 BOOST_AUTO_TEST_CASE(fixed_point_accuracy_and_exhaustive_check) {
-  const ExportResult r = generate_c_header(fwtest::ntc_model(), ntc_meta(), opts(NumericMode::Fixed));
+  const ExportResult r =
+      generate_c_header(fwtest::ntc_model(), ntc_meta(), opts(NumericMode::Fixed));
   BOOST_REQUIRE(r.ok());
   // output rounding to 1/1000 degC is 0.0005; arithmetic adds far less
   constexpr double kFixedBound = 0.0005 + 1e-6;
@@ -424,7 +447,8 @@ BOOST_AUTO_TEST_CASE(fixed_point_rejects_unrepresentable_output) {
 
 BOOST_AUTO_TEST_CASE(fixed_point_wide_bipolar_range) {
   const auto f = fwtest::target_fixtures();
-  const auto it = std::find_if(f.begin(), f.end(), [](const auto& x) { return x.name == "bridge_fixed"; });
+  const auto it =
+      std::find_if(f.begin(), f.end(), [](const auto& x) { return x.name == "bridge_fixed"; });
   BOOST_REQUIRE(it != f.end());
   const ExportResult r = generate_c_header(it->model, it->meta, it->options);
   BOOST_REQUIRE(r.ok());

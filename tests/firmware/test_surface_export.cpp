@@ -3,7 +3,6 @@
 // Steinhart-Hart thermistor through a divider (ln, reciprocal-kelvin).
 #define BOOST_TEST_MODULE surface_export
 #include <boost/test/unit_test.hpp>
-
 #include <cmath>
 #include <cstring>
 #include <limits>
@@ -25,10 +24,14 @@ fwtest::SurfaceFixture fixture(const std::string& name) {
   return {};
 }
 
-bool has(const std::string& text, const std::string& what) { return text.find(what) != std::string::npos; }
+bool has(const std::string& text, const std::string& what) {
+  return text.find(what) != std::string::npos;
+}
 
 // Counts in the divider for a resistance (inverse of the sensor-low divider).
-double counts_for(double r) { return 4095.0 * r / (10000.0 + r); }
+double counts_for(double r) {
+  return 4095.0 * r / (10000.0 + r);
+}
 
 }  // namespace
 
@@ -50,11 +53,14 @@ BOOST_AUTO_TEST_CASE(pressure_float_and_double_track_the_model) {
     for (int i = 0; i < 2000; ++i) {
       const double x = ux(rng), a = ua(rng);
       const double ref = f.model.eval(x, a);
-      const double y = r.float_program ? static_cast<double>(eval_program(*r.float_program, static_cast<float>(x),
-                                                                          static_cast<float>(a)))
-                                       : eval_program(*r.double_program, x, a);
-      const double ref_in = r.float_program ? f.model.eval(static_cast<float>(x), static_cast<float>(a)) : ref;
-      BOOST_TEST(std::fabs(y - ref_in) <= 2e-5, "at " << x << ", " << a << ": " << y << " vs " << ref_in);
+      const double y = r.float_program
+                           ? static_cast<double>(eval_program(
+                                 *r.float_program, static_cast<float>(x), static_cast<float>(a)))
+                           : eval_program(*r.double_program, x, a);
+      const double ref_in =
+          r.float_program ? f.model.eval(static_cast<float>(x), static_cast<float>(a)) : ref;
+      BOOST_TEST(std::fabs(y - ref_in) <= 2e-5,
+                 "at " << x << ", " << a << ": " << y << " vs " << ref_in);
     }
   }
 }
@@ -116,14 +122,16 @@ BOOST_AUTO_TEST_CASE(pressure_header_contract) {
   BOOST_TEST(has(h, "for (k = 0U; k < (unsigned)(FWT_N_COEF); ++k)"));
   // CRC of the written table
   char want[32];
-  std::snprintf(want, sizeof want, "0x%08lXUL", static_cast<unsigned long>(crc32_bytes(table_bytes(r.float_program->coef))));
+  std::snprintf(want, sizeof want, "0x%08lXUL",
+                static_cast<unsigned long>(crc32_bytes(table_bytes(r.float_program->coef))));
   BOOST_TEST(has(h, std::string("#define FWT_TABLE_CRC32 ") + want));
   // every float literal carries the f suffix
   const auto pos = h.find("FWT_COEF[FWT_N_COEF] = {");
   const auto end = h.find("};", pos);
   const std::string table = h.substr(pos, end - pos);
   int entries = 0;
-  for (std::size_t i = table.find("f,"); i != std::string::npos; i = table.find("f,", i + 1)) ++entries;
+  for (std::size_t i = table.find("f,"); i != std::string::npos; i = table.find("f,", i + 1))
+    ++entries;
   BOOST_TEST(entries + 1 >= 11);  // 11 with a comma, the last without
 }
 
@@ -210,30 +218,39 @@ BOOST_AUTO_TEST_CASE(steinhart_hart_float_and_double) {
     const auto f = fixture(name);
     const SurfaceExportResult r = generate_surface_header(f.model, f.meta, f.options);
     BOOST_TEST_REQUIRE(r.ok(), r.common.message);
-    BOOST_TEST_MESSAGE(name << ": max deviation " << r.common.max_deviation << " degC, log allowance "
-                            << r.libm_allowance << " degC");
+    BOOST_TEST_MESSAGE(name << ": max deviation " << r.common.max_deviation
+                            << " degC, log allowance " << r.libm_allowance << " degC");
     const bool is_float = r.float_program.has_value();
     BOOST_TEST(r.libm_allowance > 0.0);
     BOOST_TEST(r.common.max_deviation + r.libm_allowance <= 0.01);
-    if (is_float) BOOST_TEST(r.common.max_deviation < 2e-3);
-    else BOOST_TEST(r.common.max_deviation < 1e-9);
+    if (is_float)
+      BOOST_TEST(r.common.max_deviation < 2e-3);
+    else
+      BOOST_TEST(r.common.max_deviation < 1e-9);
     const std::string& h = r.common.header;
     BOOST_TEST(has(h, "#include <math.h>"));
-    BOOST_TEST(has(h, "needs log()/logf() from the C library (libm;\n * newlib and avr-libc provide it"));
+    BOOST_TEST(
+        has(h, "needs log()/logf() from the C library (libm;\n * newlib and avr-libc provide it"));
     BOOST_TEST(has(h, is_float ? "#define FWT_LOG(v) logf(v)" : "#define FWT_LOG(v) log(v)"));
     BOOST_TEST(has(h, "FWT_KELVIN_OFFSET"));
     BOOST_TEST(has(h, "FWT_DIVIDER_R"));
     BOOST_TEST(!has(h, "FWT_HAS_AUX"));
-    BOOST_TEST(has(h, is_float ? "FWT_INLINE float fwt_eval(float x)" : "FWT_INLINE double fwt_eval(double x)"));
+    BOOST_TEST(has(h, is_float ? "FWT_INLINE float fwt_eval(float x)"
+                               : "FWT_INLINE double fwt_eval(double x)"));
     // the Steinhart-Hart law written out independently, through the divider
     for (double ohm : {1500.0, 3602.0, 10000.0, 32650.0, 90000.0}) {
       const double L = std::log(ohm);
-      const double degc = 1.0 / (1.009249522e-3 + 2.378405444e-4 * L + 2.019202697e-7 * L * L * L) - 273.15;
+      const double degc =
+          1.0 / (1.009249522e-3 + 2.378405444e-4 * L + 2.019202697e-7 * L * L * L) - 273.15;
       const double x = counts_for(ohm);
-      const double y = is_float ? static_cast<double>(eval_program(*r.float_program, static_cast<float>(x), 0.0f))
-                                : eval_program(*r.double_program, x, 0.0);
-      BOOST_TEST(std::fabs(y - degc) < (is_float ? 2e-3 : 1e-9), ohm << " ohm: " << y << " vs " << degc << " degC");
-      BOOST_TEST(std::fabs(y - f.model.eval(is_float ? static_cast<float>(x) : x)) < (is_float ? 2e-3 : 1e-9));
+      const double y =
+          is_float
+              ? static_cast<double>(eval_program(*r.float_program, static_cast<float>(x), 0.0f))
+              : eval_program(*r.double_program, x, 0.0);
+      BOOST_TEST(std::fabs(y - degc) < (is_float ? 2e-3 : 1e-9),
+                 ohm << " ohm: " << y << " vs " << degc << " degC");
+      BOOST_TEST(std::fabs(y - f.model.eval(is_float ? static_cast<float>(x) : x)) <
+                 (is_float ? 2e-3 : 1e-9));
     }
   }
 }
@@ -293,7 +310,8 @@ BOOST_AUTO_TEST_CASE(aux_only_surface_declares_before_statements) {
     const SurfaceExportResult r = generate_surface_header(f.model, f.meta, f.options);
     BOOST_TEST_REQUIRE(r.ok(), r.common.message);
     const std::string& h = r.common.header;
-    const std::string decl = mode == NumericMode::Float ? "    float w, v;\n    (void)x;\n" : "    int64_t w, acc;\n    (void)raw;\n";
+    const std::string decl = mode == NumericMode::Float ? "    float w, v;\n    (void)x;\n"
+                                                        : "    int64_t w, acc;\n    (void)raw;\n";
     BOOST_TEST(has(h, decl), h);
     BOOST_TEST(r.common.max_deviation <= (mode == NumericMode::Float ? 1e-6 : 0.5e-4 + 1e-12));
   }

@@ -5,10 +5,10 @@
 #include <cstdio>
 #include <cstdlib>
 
-#define RIDGECAL_FUZZ_CHECK(cond)                                                         \
-  do {                                                                                    \
-    if (!(cond)) {                                                                        \
+#define RIDGECAL_FUZZ_CHECK(cond)                                                               \
+  do {                                                                                          \
+    if (!(cond)) {                                                                              \
       std::fprintf(stderr, "fuzz invariant violated: %s (%s:%d)\n", #cond, __FILE__, __LINE__); \
-      std::abort();                                                                       \
-    }                                                                                     \
+      std::abort();                                                                             \
+    }                                                                                           \
   } while (0)

@@ -47,7 +47,8 @@ extern "C" int LLVMFuzzerTestOneInput(const std::uint8_t* data, std::size_t size
   for (const Observation& ob : ds.rows) {
     for (const double v : {ob.reading, ob.reference}) {
       RIDGECAL_FUZZ_CHECK(std::isfinite(v));
-      RIDGECAL_FUZZ_CHECK(v == 0.0 || (std::fabs(v) <= kMaxMagnitude && std::fabs(v) >= kMinMagnitude));
+      RIDGECAL_FUZZ_CHECK(v == 0.0 ||
+                          (std::fabs(v) <= kMaxMagnitude && std::fabs(v) >= kMinMagnitude));
     }
     RIDGECAL_FUZZ_CHECK(ob.line > last_line);
     RIDGECAL_FUZZ_CHECK(!ob.setpoint.empty());

@@ -21,7 +21,8 @@ inline std::string check_markup(const std::string& s) {
       const std::size_t semi = s.find(';', i);
       if (semi == std::string::npos || semi - i > 10) return err("bare '&'");
       const std::string ref = s.substr(i + 1, semi - i - 1);
-      const bool named = ref == "amp" || ref == "lt" || ref == "gt" || ref == "quot" || ref == "apos";
+      const bool named =
+          ref == "amp" || ref == "lt" || ref == "gt" || ref == "quot" || ref == "apos";
       bool numeric = ref.size() > 1 && ref[0] == '#';
       for (std::size_t k = 1; numeric && k < ref.size(); ++k)
         numeric = std::isdigit(static_cast<unsigned char>(ref[k])) != 0;
@@ -46,7 +47,8 @@ inline std::string check_markup(const std::string& s) {
     const bool closing = i + 1 < s.size() && s[i + 1] == '/';
     std::size_t j = i + (closing ? 2 : 1);
     std::string name;
-    while (j < s.size() && (std::isalnum(static_cast<unsigned char>(s[j])) || s[j] == '-' || s[j] == ':'))
+    while (j < s.size() &&
+           (std::isalnum(static_cast<unsigned char>(s[j])) || s[j] == '-' || s[j] == ':'))
       name += s[j++];
     if (name.empty()) return err("'<' that starts no tag");
     // Scan attributes to the end of the tag, honouring quotes.
@@ -69,7 +71,8 @@ inline std::string check_markup(const std::string& s) {
     if (j >= s.size()) return err("unterminated tag <" + name);
     if (closing) {
       if (stack.empty() || stack.back() != name)
-        return err("</" + name + "> closes <" + (stack.empty() ? std::string("nothing") : stack.back()) + ">");
+        return err("</" + name + "> closes <" +
+                   (stack.empty() ? std::string("nothing") : stack.back()) + ">");
       stack.pop_back();
     } else if (!self_closing) {
       stack.push_back(name);

@@ -6,10 +6,9 @@
 // Used by the golden-file and browser tests (and to refresh the golden file).
 #include <fstream>
 #include <iostream>
+#include <nlohmann/json.hpp>
 #include <sstream>
 #include <string>
-
-#include <nlohmann/json.hpp>
 
 #include "ridgecal/errors.hpp"
 #include "ridgecal/record.hpp"
@@ -31,8 +30,10 @@ int main(int argc, char** argv) {
   ridgecal::report::ReportOptions opt;
   for (int i = 3; i + 1 < argc; i += 2) {
     const std::string k = argv[i];
-    if (k == "--date") opt.date = argv[i + 1];
-    else if (k == "--generator") opt.generator_version = argv[i + 1];
+    if (k == "--date")
+      opt.date = argv[i + 1];
+    else if (k == "--generator")
+      opt.generator_version = argv[i + 1];
     else {
       std::cerr << "unknown option " << k << "\n";
       return 2;
@@ -46,8 +47,8 @@ int main(int argc, char** argv) {
   try {
     // Read as every consumer reads a record: the record module's strict reader.
     const nlohmann::json rec = nlohmann::json::parse(in);
-    const std::string html =
-        ridgecal::report::render_html_report(ridgecal::record_from_json(rec, argv[1]), ridgecal::record_seal(rec), opt);
+    const std::string html = ridgecal::report::render_html_report(
+        ridgecal::record_from_json(rec, argv[1]), ridgecal::record_seal(rec), opt);
     std::ofstream out(argv[2], std::ios::binary);
     out << html;
     if (!out) {

@@ -1,5 +1,4 @@
 #include <boost/test/unit_test.hpp>
-
 #include <cmath>
 
 #include "ridgecal/report/axis_ticks.hpp"

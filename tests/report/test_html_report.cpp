@@ -1,5 +1,4 @@
 #include <boost/test/unit_test.hpp>
-
 #include <fstream>
 #include <regex>
 #include <sstream>
@@ -10,12 +9,12 @@
 #include "ridgecal/report/html_report.hpp"
 
 using namespace ridgecal::report;
+using nlohmann::json;
 using ridgecal::CalibrationRecord;
 using ridgecal::InputError;
 using ridgecal::record_from_json;
 using ridgecal::record_seal;
 using ridgecal::report::test::check_markup;
-using nlohmann::json;
 
 namespace {
 const std::string kDir = RIDGECAL_REPORT_TEST_DIR;
@@ -28,7 +27,9 @@ std::string read_text(const std::string& path) {
   return ss.str();
 }
 
-json fixture(const std::string& name) { return json::parse(read_text(kDir + "/fixtures/record_" + name + ".json")); }
+json fixture(const std::string& name) {
+  return json::parse(read_text(kDir + "/fixtures/record_" + name + ".json"));
+}
 
 /// The report of record JSON, read as every consumer reads it (record_from_json).
 std::string render(const json& j, const ReportOptions& o = {}) {
@@ -58,16 +59,20 @@ void check_self_contained(const std::string& html) {
   // No attribute may point anywhere: no src/href at all, no url() other than
   // in-document fragment references (#id), no @import.
   // (Inside tags only: escaped user text such as "&lt;img src=x&gt;" is text, not markup.)
-  BOOST_TEST(!std::regex_search(html, std::regex(R"(<[^>]*\s(src|href|xlink:href)\s*=[^>]*>)", std::regex::icase)));
-  BOOST_TEST(!std::regex_search(html, std::regex(R"(<[^>]*url\(\s*[^#\s][^>]*>)", std::regex::icase)));
+  BOOST_TEST(!std::regex_search(
+      html, std::regex(R"(<[^>]*\s(src|href|xlink:href)\s*=[^>]*>)", std::regex::icase)));
+  BOOST_TEST(
+      !std::regex_search(html, std::regex(R"(<[^>]*url\(\s*[^#\s][^>]*>)", std::regex::icase)));
   const auto style_end = html.find("</style>");
-  BOOST_TEST(!std::regex_search(html.substr(0, style_end), std::regex(R"(url\(\s*[^#\s])", std::regex::icase)));
+  BOOST_TEST(!std::regex_search(html.substr(0, style_end),
+                                std::regex(R"(url\(\s*[^#\s])", std::regex::icase)));
   BOOST_TEST(html.find("@import") == std::string::npos);
   BOOST_TEST(html.find("<iframe") == std::string::npos);
   BOOST_TEST(html.find("<img") == std::string::npos);
   BOOST_TEST(html.find("<link") == std::string::npos);
   // Never NaN or infinities as text.
-  BOOST_TEST(!std::regex_search(html, std::regex(R"([>\s(=-](nan|inf|infinity)[<\s),])", std::regex::icase)));
+  BOOST_TEST(!std::regex_search(
+      html, std::regex(R"([>\s(=-](nan|inf|infinity)[<\s),])", std::regex::icase)));
 }
 }  // namespace
 
@@ -75,11 +80,20 @@ BOOST_AUTO_TEST_SUITE(html_report)
 
 BOOST_AUTO_TEST_CASE(sections_come_in_reading_order) {
   const std::string html = render(fixture("full"), fixed_options());
-  const std::vector<std::string> order = {
-      "<header id=\"header\"", "id=\"verdict\"",        "id=\"plots\"",    "id=\"fig-fit\"",
-      "id=\"fig-errors\"",     "id=\"fig-validation-cv\"", "id=\"fig-validation-train\"",
-      "id=\"metrics\"",        "id=\"warnings\"",       "id=\"model\"",
-      "id=\"split\"",          "id=\"cautions\"",       "id=\"sign-off\"", "<footer>"};
+  const std::vector<std::string> order = {"<header id=\"header\"",
+                                          "id=\"verdict\"",
+                                          "id=\"plots\"",
+                                          "id=\"fig-fit\"",
+                                          "id=\"fig-errors\"",
+                                          "id=\"fig-validation-cv\"",
+                                          "id=\"fig-validation-train\"",
+                                          "id=\"metrics\"",
+                                          "id=\"warnings\"",
+                                          "id=\"model\"",
+                                          "id=\"split\"",
+                                          "id=\"cautions\"",
+                                          "id=\"sign-off\"",
+                                          "<footer>"};
   const auto pos = positions(html, order);
   for (std::size_t i = 0; i < order.size(); ++i) {
     BOOST_TEST_CONTEXT(order[i]) {
@@ -108,19 +122,22 @@ BOOST_AUTO_TEST_CASE(the_checks_can_fail) {
   BOOST_TEST(check_markup("<p>a < b</p>") != "");
   BOOST_TEST(check_markup("<p>a & b</p>") != "");
   BOOST_TEST(check_markup("<svg><g></svg>") != "");
-  BOOST_TEST(check_markup(read_text(kDir + "/fixtures/broken_report.html")) == "");  // well formed ...
+  BOOST_TEST(check_markup(read_text(kDir + "/fixtures/broken_report.html")) ==
+             "");  // well formed ...
   const std::string broken = read_text(kDir + "/fixtures/broken_report.html");
-  BOOST_TEST(std::regex_search(broken, std::regex(R"(<[^>]*\s(src|href)\s*=[^>]*>)")));  // ... but not self-contained
+  BOOST_TEST(std::regex_search(
+      broken, std::regex(R"(<[^>]*\s(src|href)\s*=[^>]*>)")));  // ... but not self-contained
 }
 
 BOOST_AUTO_TEST_CASE(hostile_strings_are_shown_literally) {
   const json rec = fixture("hostile");
   const std::string html = render(rec, fixed_options());
   BOOST_TEST(html.find("<script>alert") == std::string::npos);
-  BOOST_TEST(html.find("&lt;script&gt;alert(&#39;x&#39;)&lt;/script&gt; &amp; &quot;probe&quot;\u21B5line2 Ω–µ") !=
-             std::string::npos);
+  BOOST_TEST(html.find("&lt;script&gt;alert(&#39;x&#39;)&lt;/script&gt; &amp; "
+                       "&quot;probe&quot;\u21B5line2 Ω–µ") != std::string::npos);
   BOOST_TEST(html.find("C:\\data\\&lt;img src=x onerror=alert(1)&gt;.csv") != std::string::npos);
-  BOOST_TEST(html.find("&lt;iframe src=&quot;https://example.invalid/&quot;&gt;&lt;/iframe&gt;") != std::string::npos);
+  BOOST_TEST(html.find("&lt;iframe src=&quot;https://example.invalid/&quot;&gt;&lt;/iframe&gt;") !=
+             std::string::npos);
   BOOST_TEST(html.find("&lt;/div&gt;&lt;script&gt;x()&lt;/script&gt;") != std::string::npos);
   BOOST_TEST(html.find("sp&lt;/td&gt;") != std::string::npos);
   BOOST_TEST(html.find("a &amp; b &lt; c\u21E5tab") != std::string::npos);
@@ -173,12 +190,14 @@ BOOST_AUTO_TEST_CASE(plots_mark_train_validation_and_test_distinctly) {
   // Without held-out predictions in the record there is no validation series.
   const std::string basic = render(fixture("basic"), fixed_options());
   BOOST_TEST(basic.find(">validation (held-out fold)<") == std::string::npos);
-  BOOST_TEST(basic.find("held-out (validation) predictions are not in the record") != std::string::npos);
+  BOOST_TEST(basic.find("held-out (validation) predictions are not in the record") !=
+             std::string::npos);
 }
 
 BOOST_AUTO_TEST_CASE(date_is_injectable_and_defaults_to_the_record) {
   const json rec = fixture("basic");
-  BOOST_TEST(render(rec, fixed_options()).find("<dd>2026-12-02 09:00 UTC</dd>") != std::string::npos);
+  BOOST_TEST(render(rec, fixed_options()).find("<dd>2026-12-02 09:00 UTC</dd>") !=
+             std::string::npos);
   const std::string dflt = render(rec);
   BOOST_TEST(dflt.find("<dt>Report date</dt><dd>2026-12-01T14:32:05Z</dd>") != std::string::npos);
   json no_date = rec;
@@ -199,7 +218,8 @@ BOOST_AUTO_TEST_CASE(sparse_records_still_render) {
   const std::string html = render(j, fixed_options());
   BOOST_TEST(check_markup(html) == "");
   check_self_contained(html);
-  BOOST_TEST(html.find("No cross-validation grid in the record (selection mode: fixed)") != std::string::npos);
+  BOOST_TEST(html.find("No cross-validation grid in the record (selection mode: fixed)") !=
+             std::string::npos);
   BOOST_TEST(html.find("The record lists no setpoints.") != std::string::npos);
   BOOST_TEST(html.find("The record has no warnings list.") != std::string::npos);
   BOOST_TEST(html.find("id=\"sign-off\"") != std::string::npos);
@@ -233,7 +253,8 @@ BOOST_AUTO_TEST_CASE(cautions_and_sign_off_are_present) {
   BOOST_TEST(cautions.find("local codes and certified procedures") != std::string::npos);
   BOOST_TEST(cautions.find("accredited calibration laboratory") != std::string::npos);
   BOOST_TEST(cautions.find("Readings outside 92.1") != std::string::npos);
-  BOOST_TEST(cautions.find("the local codes and the certified procedures") == std::string::npos);  // no duplicate
+  BOOST_TEST(cautions.find("the local codes and the certified procedures") ==
+             std::string::npos);  // no duplicate
   BOOST_TEST(html.find("<th>Performed by</th>") != std::string::npos);
   BOOST_TEST(html.find("<th>Reviewed by</th>") != std::string::npos);
 
@@ -241,7 +262,8 @@ BOOST_AUTO_TEST_CASE(cautions_and_sign_off_are_present) {
   bare["cautions"] = json::array();
   const std::string own = render(bare, fixed_options());
   BOOST_TEST(own.find("the local codes and the certified procedures") != std::string::npos);
-  BOOST_TEST(own.find("does not replace a calibration certificate from an accredited laboratory") != std::string::npos);
+  BOOST_TEST(own.find("does not replace a calibration certificate from an accredited laboratory") !=
+             std::string::npos);
   BOOST_TEST(own.find("outside it the values are extrapolated") != std::string::npos);
 }
 
@@ -265,8 +287,8 @@ BOOST_AUTO_TEST_CASE(golden_file) {
     int line = 1;
     while (std::getline(a, la) && std::getline(e, le) && la == le) ++line;
     BOOST_ERROR("report differs from golden/report_full.html at line "
-                << line << "; actual written to report_full.actual.html\n  expected: " << le.substr(0, 200)
-                << "\n  actual:   " << la.substr(0, 200));
+                << line << "; actual written to report_full.actual.html\n  expected: "
+                << le.substr(0, 200) << "\n  actual:   " << la.substr(0, 200));
   }
 }
 

@@ -2,7 +2,6 @@
 #include <stdlib.h>
 
 #include <boost/test/unit_test.hpp>
-
 #include <cstdio>
 #include <filesystem>
 #include <fstream>
@@ -43,7 +42,8 @@ std::string slurp(const fs::path& p) {
 BOOST_AUTO_TEST_SUITE(report_cli)
 
 BOOST_AUTO_TEST_CASE(parses_record_output_and_date) {
-  const ReportCommand c = parse_report_command({"rec.json", "-o", "out.html", "--date", "2026-12-02 09:00"});
+  const ReportCommand c =
+      parse_report_command({"rec.json", "-o", "out.html", "--date", "2026-12-02 09:00"});
   BOOST_TEST(c.record_path == "rec.json");
   BOOST_TEST(c.output_path == "out.html");
   BOOST_TEST(c.date.value_or("") == "2026-12-02 09:00");
@@ -66,7 +66,8 @@ BOOST_AUTO_TEST_CASE(writes_the_report) {
   TempDir t;
   const fs::path out = t.path / "report.html";
   std::ostringstream o, e;
-  const int rc = report_main({kDir + "/fixtures/record_full.json", "-o", out.string(), "--date", "D-DAY"}, o, e);
+  const int rc = report_main(
+      {kDir + "/fixtures/record_full.json", "-o", out.string(), "--date", "D-DAY"}, o, e);
   BOOST_TEST(rc == kExitOk);
   BOOST_TEST(e.str() == "");
   const std::string html = slurp(out);
@@ -100,7 +101,8 @@ BOOST_AUTO_TEST_CASE(an_existing_report_survives_bad_input) {
   const fs::path out = t.path / "report.html";
   std::ofstream(out) << "old";
   std::ostringstream o, e;
-  BOOST_TEST(report_main({(t.path / "missing.json").string(), "-o", out.string()}, o, e) == kExitBadInput);
+  BOOST_TEST(report_main({(t.path / "missing.json").string(), "-o", out.string()}, o, e) ==
+             kExitBadInput);
   BOOST_TEST(slurp(out) == "old");
 }
 
@@ -108,11 +110,13 @@ BOOST_AUTO_TEST_CASE(edited_record_is_refused_unless_allowed) {
   TempDir t;
   const fs::path out = t.path / "report.html";
   std::ostringstream o0, e0;
-  BOOST_TEST(report_main({kDir + "/fixtures/record_hostile.json", "-o", out.string()}, o0, e0) == kExitBadInput);
+  BOOST_TEST(report_main({kDir + "/fixtures/record_hostile.json", "-o", out.string()}, o0, e0) ==
+             kExitBadInput);
   BOOST_TEST(!fs::exists(out));
   std::ostringstream o, e;
-  BOOST_TEST(report_main({kDir + "/fixtures/record_hostile.json", "-o", out.string(), "--allow-modified"}, o, e) ==
-             kExitOk);
+  BOOST_TEST(
+      report_main({kDir + "/fixtures/record_hostile.json", "-o", out.string(), "--allow-modified"},
+                  o, e) == kExitOk);
   BOOST_TEST(e.str().find("integrity digest does not match") != std::string::npos);
   BOOST_TEST(slurp(out).find("DOES NOT MATCH") != std::string::npos);
 }

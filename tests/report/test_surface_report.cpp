@@ -30,7 +30,8 @@ json fixture(const std::string& name) {
 
 /// The report of record JSON, read as every consumer reads it (record_from_json).
 std::string render(const json& j, const ReportOptions& o) {
-  return render_html_report(ridgecal::record_from_json(j, "fixture.json"), ridgecal::record_seal(j), o);
+  return render_html_report(ridgecal::record_from_json(j, "fixture.json"), ridgecal::record_seal(j),
+                            o);
 }
 
 ReportOptions fixed_options() {

@@ -1,5 +1,4 @@
 #include <boost/test/unit_test.hpp>
-
 #include <cmath>
 #include <regex>
 #include <set>
@@ -68,14 +67,15 @@ BOOST_AUTO_TEST_CASE(series_use_different_marker_shapes) {
 
 BOOST_AUTO_TEST_CASE(markers_are_distinct) {
   std::set<std::string> seen;
-  for (Marker m : {Marker::circle, Marker::square, Marker::triangle, Marker::triangle_down, Marker::diamond,
-                   Marker::cross, Marker::plus}) {
+  for (Marker m : {Marker::circle, Marker::square, Marker::triangle, Marker::triangle_down,
+                   Marker::diamond, Marker::cross, Marker::plus}) {
     const std::string s = svg_marker(m, 10, 10, 8, "#000", true);
     BOOST_TEST(check_markup(s) == "");
     BOOST_TEST(seen.insert(s).second);
   }
   BOOST_TEST(svg_marker(Marker::none, 0, 0, 8, "#000", true).empty());
-  BOOST_TEST(svg_marker(Marker::circle, 0, 0, 8, "#000", false).find("fill=\"#ffffff\"") != std::string::npos);
+  BOOST_TEST(svg_marker(Marker::circle, 0, 0, 8, "#000", false).find("fill=\"#ffffff\"") !=
+             std::string::npos);
 }
 
 BOOST_AUTO_TEST_CASE(labels_and_names_are_escaped) {
@@ -103,9 +103,11 @@ BOOST_AUTO_TEST_CASE(log_axis_puts_zero_at_a_separate_tick) {
   BOOST_TEST(svg.find(">0</text>") != std::string::npos);
   BOOST_TEST(svg.find(">10\u207B\u2076</text>") != std::string::npos);
   // The zero point is plotted (left of the first decade), not dropped.
-  const std::regex rect(R"~(<rect x="([0-9.]+)" y="[0-9.]+" width="[0-9.]+" height="[0-9.]+" fill="#1f3b73")~");
+  const std::regex rect(
+      R"~(<rect x="([0-9.]+)" y="[0-9.]+" width="[0-9.]+" height="[0-9.]+" fill="#1f3b73")~");
   std::vector<double> xs;
-  for (auto it = std::sregex_iterator(svg.begin(), svg.end(), rect); it != std::sregex_iterator(); ++it)
+  for (auto it = std::sregex_iterator(svg.begin(), svg.end(), rect); it != std::sregex_iterator();
+       ++it)
     xs.push_back(std::stod((*it)[1]));
   BOOST_REQUIRE(xs.size() == 5u);  // 4 points + legend sample
   BOOST_TEST(xs[0] < xs[1]);

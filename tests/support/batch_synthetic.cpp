@@ -1,15 +1,18 @@
 #include "ridgecal/batch_synthetic.hpp"
 
-#include <cmath>
 #include <fmt/format.h>
+
+#include <cmath>
 
 #include "ridgecal/grouped_split.hpp"
 
 namespace ridgecal {
 
 std::string SyntheticUnitOptions::validate() const {
-  if (setpoints < 2 || setpoints > 1000) return fmt::format("setpoints is {}; it must be between 2 and 1000", setpoints);
-  if (repeats < 1 || repeats > 1000) return fmt::format("repeats is {}; it must be between 1 and 1000", repeats);
+  if (setpoints < 2 || setpoints > 1000)
+    return fmt::format("setpoints is {}; it must be between 2 and 1000", setpoints);
+  if (repeats < 1 || repeats > 1000)
+    return fmt::format("repeats is {}; it must be between 1 and 1000", repeats);
   if (!(reading_noise >= 0.0 && std::isfinite(reading_noise)))
     return fmt::format("reading_noise is {}; it must be a finite number >= 0", reading_noise);
   if (!(reference_noise >= 0.0 && std::isfinite(reference_noise)))
@@ -17,11 +20,15 @@ std::string SyntheticUnitOptions::validate() const {
   return {};
 }
 
-std::string synthetic_unit_id(std::uint64_t index) { return fmt::format("U{:06d}", index); }
+std::string synthetic_unit_id(std::uint64_t index) {
+  return fmt::format("U{:06d}", index);
+}
 
 namespace {
 
-double uniform01(SplitRng& rng) { return static_cast<double>(rng.next() >> 11) * 0x1.0p-53; }
+double uniform01(SplitRng& rng) {
+  return static_cast<double>(rng.next() >> 11) * 0x1.0p-53;
+}
 
 // Standard normal by Box-Muller (one value per call; simple and deterministic).
 double normal(SplitRng& rng) {
@@ -40,13 +47,14 @@ void generate(std::uint64_t index, const SyntheticUnitOptions& o, Emit emit) {
   const double wobble = 30.0 * (2.0 * uniform01(rng) - 1.0);
   const double t_lo = -20.0, t_hi = 100.0;
   for (int s = 0; s < o.setpoints; ++s) {
-    const double t_set = t_lo + (t_hi - t_lo) * s / (o.setpoints - 1) + 0.2 * (2.0 * uniform01(rng) - 1.0);
+    const double t_set =
+        t_lo + (t_hi - t_lo) * s / (o.setpoints - 1) + 0.2 * (2.0 * uniform01(rng) - 1.0);
     const std::string sp = fmt::format("S{:02d}", s + 1);
     for (int r = 0; r < o.repeats; ++r) {
       const double t = t_set + o.reference_noise * normal(rng);
       const double u = (t - 40.0) / 60.0;
-      const double counts = offset + gain / (1.0 + std::exp(-(t - mid) / 32.0)) + wobble * u * u * u +
-                            o.reading_noise * normal(rng);
+      const double counts = offset + gain / (1.0 + std::exp(-(t - mid) / 32.0)) +
+                            wobble * u * u * u + o.reading_noise * normal(rng);
       // Readings are integers (ADC counts), references are printed to 1 mK.
       const double reading = std::round(counts);
       const double reference = std::round(t_set * 1000.0) / 1000.0;
@@ -73,13 +81,16 @@ Dataset synthetic_unit(std::uint64_t index, const SyntheticUnitOptions& options)
   return ds;
 }
 
-void append_synthetic_unit_csv(std::string& out, std::uint64_t index, const SyntheticUnitOptions& options) {
+void append_synthetic_unit_csv(std::string& out, std::uint64_t index,
+                               const SyntheticUnitOptions& options) {
   const std::string id = synthetic_unit_id(index);
   generate(index, options, [&](const std::string& sp, double reading, double reference) {
     out += fmt::format("{},{},{},{}\n", id, sp, reading, reference);
   });
 }
 
-const char* synthetic_csv_header() { return "unit,setpoint,reading,reference\n"; }
+const char* synthetic_csv_header() {
+  return "unit,setpoint,reading,reference\n";
+}
 
 }  // namespace ridgecal

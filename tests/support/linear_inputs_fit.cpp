@@ -1,9 +1,10 @@
 // ridgecal tests: the n-input degree-1 design (see linear_inputs_fit.hpp).
 #include "linear_inputs_fit.hpp"
 
+#include <fmt/format.h>
+
 #include <cassert>
 #include <cmath>
-#include <fmt/format.h>
 #include <limits>
 
 #include "ridgecal/ridge_path.hpp"
@@ -16,11 +17,13 @@ constexpr double kNaN = std::numeric_limits<double>::quiet_NaN();
 
 double LinearInputsFit::predict(const Eigen::Ref<const Eigen::RowVectorXd>& x) const {
   long double s = intercept;
-  for (Eigen::Index j = 0; j < x.size(); ++j) s += slopes[static_cast<std::size_t>(j)] * static_cast<long double>(x(j));
+  for (Eigen::Index j = 0; j < x.size(); ++j)
+    s += slopes[static_cast<std::size_t>(j)] * static_cast<long double>(x(j));
   return static_cast<double>(s);
 }
 
-LinearInputsFit fit_linear_inputs(const Eigen::MatrixXd& X, const Eigen::VectorXd& y, double lambda) {
+LinearInputsFit fit_linear_inputs(const Eigen::MatrixXd& X, const Eigen::VectorXd& y,
+                                  double lambda) {
   assert(X.rows() == y.size() && X.rows() > X.cols() && X.cols() >= 1 && lambda >= 0.0);
   LinearInputsFit f;
   const Eigen::Index n = X.rows(), p = X.cols();
@@ -65,7 +68,8 @@ LinearInputsFit fit_linear_inputs(const Eigen::MatrixXd& X, const Eigen::VectorX
   f.slopes.resize(static_cast<std::size_t>(p));
   for (Eigen::Index j = 0; j < p; ++j) {
     const AxisScaling& sc = f.scalings[static_cast<std::size_t>(j)];
-    const long double slope = static_cast<long double>(b(j)) / static_cast<long double>(sc.half_width);
+    const long double slope =
+        static_cast<long double>(b(j)) / static_cast<long double>(sc.half_width);
     f.slopes[static_cast<std::size_t>(j)] = slope;
     ic -= slope * static_cast<long double>(sc.center);
   }
@@ -77,7 +81,8 @@ LinearInputsFit fit_linear_inputs(const Eigen::MatrixXd& X, const Eigen::VectorX
     rss += static_cast<long double>(r(i)) * r(i);
     tss += (y(i) - ym) * (y(i) - ym);
   }
-  f.residual_sd = n > p + 1 ? std::sqrt(static_cast<double>(rss / static_cast<long double>(n - p - 1))) : kNaN;
+  f.residual_sd =
+      n > p + 1 ? std::sqrt(static_cast<double>(rss / static_cast<long double>(n - p - 1))) : kNaN;
   f.r2 = tss > 0 ? static_cast<double>(1.0L - rss / tss) : kNaN;
   return f;
 }

@@ -17,7 +17,7 @@
 namespace ridgecal {
 
 struct LinearInputsFit {
-  Status status;                        ///< failure: an input is constant, or the design is rank deficient
+  Status status;  ///< failure: an input is constant, or the design is rank deficient
   std::vector<AxisScaling> scalings;    ///< one per input column
   Eigen::VectorXd scaled_coefficients;  ///< b on the scaled columns
   double scaled_intercept = 0.0;
@@ -30,6 +30,7 @@ struct LinearInputsFit {
   double predict(const Eigen::Ref<const Eigen::RowVectorXd>& x) const;  ///< in the raw inputs
 };
 /// Preconditions: X.rows() == y.size() > X.cols() >= 1, all finite, lambda >= 0.
-LinearInputsFit fit_linear_inputs(const Eigen::MatrixXd& X, const Eigen::VectorXd& y, double lambda = 0.0);
+LinearInputsFit fit_linear_inputs(const Eigen::MatrixXd& X, const Eigen::VectorXd& y,
+                                  double lambda = 0.0);
 
 }  // namespace ridgecal

@@ -11,7 +11,8 @@ int main(int argc, char** argv) {
   int bad = 0;
   for (int i = 1; i < argc; ++i) {
     try {
-      const ridgecal::GuardedRecord r = ridgecal::load_record_checked(argv[i], /*allow_modified=*/false);
+      const ridgecal::GuardedRecord r =
+          ridgecal::load_record_checked(argv[i], /*allow_modified=*/false);
       std::cout << argv[i] << " ok " << r.record.input.sha256 << "\n";
     } catch (const ridgecal::InputError& e) {
       std::cout << argv[i] << " BAD " << e.what() << "\n";

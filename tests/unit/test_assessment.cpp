@@ -196,8 +196,10 @@ BOOST_AUTO_TEST_CASE(record_round_trips_the_assessment) {
   bad["decision"]["verdict"] = "MAYBE";
   for (int pass = 0; pass < 2; ++pass) {
     try {
-      if (pass == 0) record_from_json(bad, "bad.json");
-      else decision_from_json(bad["decision"], "bad.json");
+      if (pass == 0)
+        record_from_json(bad, "bad.json");
+      else
+        decision_from_json(bad["decision"], "bad.json");
       BOOST_FAIL("no error");
     } catch (const InputError& e) {
       BOOST_TEST(e.message().find("decision.verdict") != std::string::npos);
@@ -299,7 +301,8 @@ BOOST_AUTO_TEST_CASE(near_constant_columns_are_bad_input) {
 
 BOOST_AUTO_TEST_CASE(percent_of_span_on_a_zero_span_throws) {
   Calibration cal = fit_line(0.0);
-  for (SetpointResult& sp : cal.setpoints) sp.mean_reference = 5.0;  // every training reference equal
+  for (SetpointResult& sp : cal.setpoints)
+    sp.mean_reference = 5.0;  // every training reference equal
   ToleranceSpec t;
   t.percent_of_span = 1.0;
   BOOST_CHECK_THROW(resolve_span(t, cal, DiagnosticOptions{}, "d.csv"), InputError);

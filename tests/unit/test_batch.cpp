@@ -1,6 +1,7 @@
 // ridgecal batch: partial failures, determinism across jobs, streaming of
 // many small units, reappearing units, and merging shard summaries.
 #define BOOST_TEST_MODULE batch
+#include <fmt/format.h>
 #include <stdlib.h>
 
 #include <atomic>
@@ -8,9 +9,8 @@
 #include <cstddef>
 #include <cstdlib>
 #include <filesystem>
-#include <new>
-#include <fmt/format.h>
 #include <fstream>
+#include <new>
 #include <string>
 
 #include "ridgecal/atomic_file.hpp"
@@ -54,8 +54,12 @@ std::size_t restart_peak() {
 }
 }  // namespace heap_count
 
-void* operator new(std::size_t n) { return heap_count::allocate(n); }
-void* operator new[](std::size_t n) { return heap_count::allocate(n); }
+void* operator new(std::size_t n) {
+  return heap_count::allocate(n);
+}
+void* operator new[](std::size_t n) {
+  return heap_count::allocate(n);
+}
 void* operator new(std::size_t n, const std::nothrow_t&) noexcept {
   try {
     return heap_count::allocate(n);
@@ -63,13 +67,27 @@ void* operator new(std::size_t n, const std::nothrow_t&) noexcept {
     return nullptr;
   }
 }
-void* operator new[](std::size_t n, const std::nothrow_t& t) noexcept { return operator new(n, t); }
-void operator delete(void* p) noexcept { heap_count::release(p); }
-void operator delete[](void* p) noexcept { heap_count::release(p); }
-void operator delete(void* p, std::size_t) noexcept { heap_count::release(p); }
-void operator delete[](void* p, std::size_t) noexcept { heap_count::release(p); }
-void operator delete(void* p, const std::nothrow_t&) noexcept { heap_count::release(p); }
-void operator delete[](void* p, const std::nothrow_t&) noexcept { heap_count::release(p); }
+void* operator new[](std::size_t n, const std::nothrow_t& t) noexcept {
+  return operator new(n, t);
+}
+void operator delete(void* p) noexcept {
+  heap_count::release(p);
+}
+void operator delete[](void* p) noexcept {
+  heap_count::release(p);
+}
+void operator delete(void* p, std::size_t) noexcept {
+  heap_count::release(p);
+}
+void operator delete[](void* p, std::size_t) noexcept {
+  heap_count::release(p);
+}
+void operator delete(void* p, const std::nothrow_t&) noexcept {
+  heap_count::release(p);
+}
+void operator delete[](void* p, const std::nothrow_t&) noexcept {
+  heap_count::release(p);
+}
 
 namespace {
 
@@ -87,9 +105,12 @@ struct TempDir {
   std::string operator/(const std::string& name) const { return (path / name).string(); }
 };
 
-void write(const std::string& path, const std::string& text) { std::ofstream(path, std::ios::binary) << text; }
+void write(const std::string& path, const std::string& text) {
+  std::ofstream(path, std::ios::binary) << text;
+}
 
-std::string synthetic_file(std::uint64_t first, std::uint64_t count, const SyntheticUnitOptions& so = {}) {
+std::string synthetic_file(std::uint64_t first, std::uint64_t count,
+                           const SyntheticUnitOptions& so = {}) {
   std::string s = synthetic_csv_header();
   for (std::uint64_t i = first; i < first + count; ++i) append_synthetic_unit_csv(s, i, so);
   return s;
@@ -113,7 +134,8 @@ BatchOptions options_for(const std::string& out_dir, int jobs) {
 std::map<std::string, std::string> tree(const std::string& dir) {
   std::map<std::string, std::string> m;
   for (const auto& e : fs::recursive_directory_iterator(dir))
-    if (e.is_regular_file()) m[fs::relative(e.path(), dir).string()] = read_file_bytes(e.path().string());
+    if (e.is_regular_file())
+      m[fs::relative(e.path(), dir).string()] = read_file_bytes(e.path().string());
   return m;
 }
 
@@ -126,10 +148,10 @@ SelectionRule o_rule_other(SelectionRule r) {
 BOOST_AUTO_TEST_CASE(a_bad_unit_is_reported_and_the_others_complete) {
   TempDir tmp;
   std::string csv = synthetic_file(0, 2);
-  csv += "BAD,S01,12,1.0\nBAD,S02,oops,2.0\n";          // a non-numeric reading
-  csv += "FEW,S01,10,1.0\nFEW,S01,11,1.0\n";            // one setpoint only
+  csv += "BAD,S01,12,1.0\nBAD,S02,oops,2.0\n";  // a non-numeric reading
+  csv += "FEW,S01,10,1.0\nFEW,S01,11,1.0\n";    // one setpoint only
   csv += synthetic_file(2, 1).substr(std::string(synthetic_csv_header()).size());
-  csv += "U000000,S01,1,1\n";                          // U000000 again, after other units
+  csv += "U000000,S01,1,1\n";  // U000000 again, after other units
   write(tmp / "in.csv", csv);
   const BatchOptions o = options_for(tmp / "out", 2);
   const BatchResult r = run_batch({tmp / "in.csv"}, o);
@@ -143,7 +165,8 @@ BOOST_AUTO_TEST_CASE(a_bad_unit_is_reported_and_the_others_complete) {
   BOOST_TEST(s.units[2].unit == "BAD");
   BOOST_TEST((s.units[2].status == UnitStatus::Failed));
   BOOST_TEST(s.units[2].error.find("not a number") != std::string::npos, s.units[2].error);
-  // The line number refers to the batch file: header is line 1, BAD's second row is line 2 + 96 + 1.
+  // The line number refers to the batch file: header is line 1, BAD's second row is line 2 + 96
+  // + 1.
   BOOST_TEST(s.units[2].error.find(":99:") != std::string::npos, s.units[2].error);
   BOOST_TEST(s.units[3].unit == "FEW");
   BOOST_TEST((s.units[3].status == UnitStatus::Failed));
@@ -168,8 +191,10 @@ BOOST_AUTO_TEST_CASE(outputs_are_byte_identical_for_any_number_of_jobs) {
     run_batch({tmp / "in.csv"}, options_for(out, jobs));
     const auto t = tree(out);
     BOOST_TEST(t.size() == 62u);  // 60 records + 2 summaries
-    if (jobs == 1) first = t;
-    else BOOST_TEST((t == first), "outputs with " << jobs << " jobs differ from 1 job");
+    if (jobs == 1)
+      first = t;
+    else
+      BOOST_TEST((t == first), "outputs with " << jobs << " jobs differ from 1 job");
   }
 }
 
@@ -210,22 +235,26 @@ BOOST_AUTO_TEST_CASE(memory_stays_flat_with_many_small_units) {
   const std::size_t large_peak = heap_count::peak.load() - base;
   BOOST_TEST(r.units == 150000u);
   BOOST_TEST(r.ok == 150000u);
-  BOOST_TEST_MESSAGE("peak live heap " << small_peak / 1024 << " KiB for 2,000 units, " << large_peak / 1024
-                                       << " KiB for 150,000 units (" << fs::file_size(tmp / "large.csv") / 1024
-                                       << " KiB of input, " << fs::file_size(tmp / "out/summary.json") / 1024
-                                       << " KiB of summary JSON)");
-  const double per_unit = (static_cast<double>(large_peak) - static_cast<double>(small_peak)) / (150000 - 2000);
+  BOOST_TEST_MESSAGE("peak live heap "
+                     << small_peak / 1024 << " KiB for 2,000 units, " << large_peak / 1024
+                     << " KiB for 150,000 units (" << fs::file_size(tmp / "large.csv") / 1024
+                     << " KiB of input, " << fs::file_size(tmp / "out/summary.json") / 1024
+                     << " KiB of summary JSON)");
+  const double per_unit =
+      (static_cast<double>(large_peak) - static_cast<double>(small_peak)) / (150000 - 2000);
   BOOST_TEST_MESSAGE("peak live heap growth " << per_unit << " bytes per unit");
-  BOOST_TEST(per_unit < kPeakGrowthPerUnitBound, "peak live heap grew from " << small_peak << " to " << large_peak
-                                                                             << " bytes: " << per_unit
-                                                                             << " bytes per unit");
+  BOOST_TEST(per_unit < kPeakGrowthPerUnitBound,
+             "peak live heap grew from " << small_peak << " to " << large_peak
+                                         << " bytes: " << per_unit << " bytes per unit");
 }
 
 BOOST_AUTO_TEST_CASE(a_directory_without_unit_column_is_one_unit_per_file) {
   TempDir tmp;
   fs::create_directories(tmp / "in");
   const SyntheticUnitOptions so;
-  for (int i = 0; i < 3; ++i) write(tmp / ("in/dev" + std::to_string(i) + ".csv"), synthetic_file(static_cast<std::uint64_t>(i), 1, so));
+  for (int i = 0; i < 3; ++i)
+    write(tmp / ("in/dev" + std::to_string(i) + ".csv"),
+          synthetic_file(static_cast<std::uint64_t>(i), 1, so));
   write(tmp / "in/notes.txt", "not a csv");
   BatchOptions o = options_for(tmp / "out", 2);
   o.input.unit_column.clear();
@@ -277,7 +306,8 @@ BOOST_AUTO_TEST_CASE(shard_summaries_merge_into_the_whole) {
       const std::size_t nl = csv.find('\n', pos);
       std::string line = csv.substr(pos, nl - pos);
       std::size_t cut = 0;
-      for (int i = 0; i < 9 && cut != std::string::npos; ++i) cut = line.find(',', cut + (i ? 1 : 0));
+      for (int i = 0; i < 9 && cut != std::string::npos; ++i)
+        cut = line.find(',', cut + (i ? 1 : 0));
       out += line.substr(0, cut) + "\n";
       pos = nl == std::string::npos ? csv.size() : nl + 1;
     }
@@ -337,9 +367,11 @@ BOOST_AUTO_TEST_CASE(the_fast_chunk_parser_agrees_with_the_general_parser) {
   synth = synth.substr(synth.find('\n') + 1);
   const Case cases[] = {
       {with_sp, "unit,setpoint,reading,reference", synth},
-      {with_sp, " unit , setpoint ,reading, reference ", "u, S1 , +12.5,1e-3\n# note\n\nu,S2,13,\t2.0e0\n"},
+      {with_sp, " unit , setpoint ,reading, reference ",
+       "u, S1 , +12.5,1e-3\n# note\n\nu,S2,13,\t2.0e0\n"},
       {plain, "unit,reading,reference", "u,1,0.1\nu,2,0.30000000000000004\nu,3,-0\n"},
-      {with_role, "unit,setpoint,reading,reference,role", "u,A,1,1,fit\nu,B,2,2,CHECK\nu,C,3,3,Fit\n"},
+      {with_role, "unit,setpoint,reading,reference,role",
+       "u,A,1,1,fit\nu,B,2,2,CHECK\nu,C,3,3,Fit\n"},
   };
   for (const Case& c : cases) {
     const UnitChunk ch = chunk_of(c.header, c.rows);
@@ -371,18 +403,21 @@ BOOST_AUTO_TEST_CASE(the_fast_chunk_parser_agrees_with_the_general_parser) {
     Dataset fast;
     BOOST_TEST(!parse_unit_chunk_fast(chunk_of(c.header, c.rows), c.opt, fast), c.rows);
   }
-  BOOST_CHECK_THROW(parse_unit_chunk(chunk_of(unusual[2].header, unusual[2].rows), with_sp), InputError);
+  BOOST_CHECK_THROW(parse_unit_chunk(chunk_of(unusual[2].header, unusual[2].rows), with_sp),
+                    InputError);
   // Options only the general parser reads: the fast path declines, and the
   // general parser fills the aux values (which the fast path would drop).
   CsvOptions with_aux = with_sp;
   with_aux.aux_column = "temp";
-  const UnitChunk aux_chunk = chunk_of("unit,setpoint,reading,reference,temp", "u,S1,1,1,20.5\nu,S2,2,2,21.5\n");
+  const UnitChunk aux_chunk =
+      chunk_of("unit,setpoint,reading,reference,temp", "u,S1,1,1,20.5\nu,S2,2,2,21.5\n");
   Dataset fast;
   BOOST_TEST(!parse_unit_chunk_fast(aux_chunk, with_aux, fast));
   BOOST_TEST(parse_unit_chunk(aux_chunk, with_aux).rows.at(1).aux == 21.5);
   CsvOptions with_direction = with_sp;
   with_direction.direction_column = "dir";
-  BOOST_TEST(!parse_unit_chunk_fast(chunk_of("unit,setpoint,reading,reference,dir", "u,S1,1,1,up\n"), with_direction, fast));
+  BOOST_TEST(!parse_unit_chunk_fast(
+      chunk_of("unit,setpoint,reading,reference,dir", "u,S1,1,1,up\n"), with_direction, fast));
 }
 
 BOOST_AUTO_TEST_CASE(a_unit_whose_data_the_fit_rejects_does_not_stop_the_batch) {
@@ -392,8 +427,9 @@ BOOST_AUTO_TEST_CASE(a_unit_whose_data_the_fit_rejects_does_not_stop_the_batch) 
   for (const char* u : {"A", "M", "B"})
     for (int s = 0; s < 8; ++s)
       for (int r = 0; r < 2; ++r)
-        csv += fmt::format("{},S{},{},{},{}\n", u, s, 100 * s + r, 2.0 * s + 0.01 * s * s,
-                           (std::string(u) == "M" && s == 3 && r == 1) ? "check" : (s == 4 ? "check" : "fit"));
+        csv += fmt::format(
+            "{},S{},{},{},{}\n", u, s, 100 * s + r, 2.0 * s + 0.01 * s * s,
+            (std::string(u) == "M" && s == 3 && r == 1) ? "check" : (s == 4 ? "check" : "fit"));
   write(tmp / "in.csv", csv);
   BatchOptions o = options_for(tmp / "out", 2);
   o.input.csv.role_column = "role";
@@ -427,6 +463,7 @@ BOOST_AUTO_TEST_CASE(with_a_tolerance_every_fitted_unit_gets_a_verdict) {
     BOOST_TEST((s.units[4].verdict == UnitVerdict::NotAssessed));
     const auto rec = nlohmann::json::parse(read_file_bytes(out + "/records/U000001.json"));
     BOOST_TEST(rec.contains("decision"));
-    BOOST_TEST(read_file_bytes(out + "/summary.csv").find(tol > 1 ? ",PASS," : ",FAIL,") != std::string::npos);
+    BOOST_TEST(read_file_bytes(out + "/summary.csv").find(tol > 1 ? ",PASS," : ",FAIL,") !=
+               std::string::npos);
   }
 }

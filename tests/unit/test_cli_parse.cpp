@@ -21,10 +21,12 @@ BOOST_AUTO_TEST_CASE(defaults) {
 }
 
 BOOST_AUTO_TEST_CASE(all_options) {
-  const FitCommand c = parse_fit_command({"run.csv", "-o", "r.json", "--reading", "counts", "--reference", "degC",
-                                          "--setpoint", "sp", "--role", "use", "--delimiter", "tab", "--degrees",
-                                          "2..4", "--lambdas", "0,1e-6:1e-2:5", "--rule", "min-cv", "--folds", "4",
-                                          "--test-fraction", "0.25", "--seed", "9"});
+  const FitCommand c = parse_fit_command(
+      {"run.csv", "-o",         "r.json", "--reading",       "counts",        "--reference",
+       "degC",    "--setpoint", "sp",     "--role",          "use",           "--delimiter",
+       "tab",     "--degrees",  "2..4",   "--lambdas",       "0,1e-6:1e-2:5", "--rule",
+       "min-cv",  "--folds",    "4",      "--test-fraction", "0.25",          "--seed",
+       "9"});
   BOOST_TEST(c.output_path == "r.json");
   BOOST_TEST(c.csv.delimiter == '\t');
   BOOST_TEST(c.fit.degrees == std::vector<int>({2, 3, 4}));
@@ -35,7 +37,8 @@ BOOST_AUTO_TEST_CASE(all_options) {
 }
 
 BOOST_AUTO_TEST_CASE(fixed_model) {
-  const FitCommand c = parse_fit_command({"run.csv", "--degree", "10", "--lambda", "0", "--through-origin"});
+  const FitCommand c =
+      parse_fit_command({"run.csv", "--degree", "10", "--lambda", "0", "--through-origin"});
   BOOST_TEST(*c.fit.fixed_degree == 10);
   BOOST_TEST(*c.fit.fixed_lambda == 0.0);
   BOOST_TEST(!c.fit.intercept);
@@ -80,10 +83,11 @@ BOOST_AUTO_TEST_CASE(injected_time) {
 BOOST_AUTO_TEST_CASE(compensation_options) {
   const FitCommand plain = parse_fit_command({"run.csv"});
   BOOST_TEST(!plain.comp.active());
-  const FitCommand c = parse_fit_command({"run.csv", "--aux", "temp", "--aux-setpoint", "chamber", "--aux-degree",
-                                          "0..2", "--reading-transform", "ln", "--reference-transform",
-                                          "reciprocal-kelvin", "--divider-resistor", "10000", "--divider-full-scale",
-                                          "4095", "--divider-position", "sensor-high"});
+  const FitCommand c =
+      parse_fit_command({"run.csv", "--aux", "temp", "--aux-setpoint", "chamber", "--aux-degree",
+                         "0..2", "--reading-transform", "ln", "--reference-transform",
+                         "reciprocal-kelvin", "--divider-resistor", "10000", "--divider-full-scale",
+                         "4095", "--divider-position", "sensor-high"});
   BOOST_TEST(c.comp.active());
   BOOST_TEST(c.comp.aux);
   BOOST_TEST(c.csv.aux_column == "temp");
@@ -94,12 +98,16 @@ BOOST_AUTO_TEST_CASE(compensation_options) {
   BOOST_TEST(c.comp.transforms.divider.enabled);
   BOOST_TEST((c.comp.transforms.divider.position == DividerPosition::SensorHigh));
   BOOST_TEST(c.comp.transforms.divider.full_scale == 4095.0);
-  const FitCommand p = parse_fit_command({"run.csv", "--powers", "0,1,3", "--degree", "3", "--lambda", "0"});
+  const FitCommand p =
+      parse_fit_command({"run.csv", "--powers", "0,1,3", "--degree", "3", "--lambda", "0"});
   BOOST_TEST(p.comp.powers == std::vector<int>({0, 1, 3}));
-  BOOST_CHECK_THROW(parse_fit_command({"run.csv", "--powers", "0,1,3", "--degree", "2", "--lambda", "0"}), UsageError);
+  BOOST_CHECK_THROW(
+      parse_fit_command({"run.csv", "--powers", "0,1,3", "--degree", "2", "--lambda", "0"}),
+      UsageError);
   BOOST_CHECK_THROW(parse_fit_command({"run.csv", "--powers", "x"}), UsageError);
   BOOST_CHECK_THROW(parse_fit_command({"run.csv", "--aux-degree", "1"}), UsageError);
-  BOOST_CHECK_THROW(parse_fit_command({"run.csv", "--divider-position", "sensor-high"}), UsageError);
+  BOOST_CHECK_THROW(parse_fit_command({"run.csv", "--divider-position", "sensor-high"}),
+                    UsageError);
   BOOST_CHECK_THROW(parse_fit_command({"run.csv", "--reference-transform", "kelvin"}), UsageError);
   BOOST_CHECK_THROW(parse_fit_command({"run.csv", "--aux", "reading"}), UsageError);
   BOOST_CHECK_THROW(parse_fit_command({"run.csv", "--aux", "t", "--through-origin"}), UsageError);

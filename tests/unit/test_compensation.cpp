@@ -4,9 +4,10 @@
 // surface are generated here and recovered by the fit; and agreement of the
 // 2-D degree-1 case with the n-input linear design.
 #define BOOST_TEST_MODULE compensation
+#include <fmt/format.h>
+
 #include <boost/test/unit_test.hpp>
 #include <cmath>
-#include <fmt/format.h>
 #include <functional>
 #include <map>
 #include <set>
@@ -52,7 +53,6 @@ double sh_ln_r(double t_c) {
   return static_cast<double>(L);
 }
 
-
 // -20..80 degC every 5 degC, `repeats` rows each; reading = R * (1 + rel_noise * N(0,1)).
 Dataset thermistor_run(int repeats, double rel_noise, std::uint64_t seed, int step = 5) {
   test::Gauss g(seed);
@@ -86,7 +86,8 @@ BOOST_AUTO_TEST_CASE(divider_formulas_invert_the_divider) {
   for (DividerPosition pos : {DividerPosition::SensorLow, DividerPosition::SensorHigh}) {
     Divider d{true, 10000.0, pos, 4095.0};
     for (double r : {500.0, 10000.0, 123456.0}) {
-      const double ratio = pos == DividerPosition::SensorLow ? r / (r + 10000.0) : 10000.0 / (r + 10000.0);
+      const double ratio =
+          pos == DividerPosition::SensorLow ? r / (r + 10000.0) : 10000.0 / (r + 10000.0);
       BOOST_TEST(d.resistance(4095.0 * ratio) == r, boost::test_tools::tolerance(kRoundoff));
     }
     BOOST_TEST(std::isnan(d.resistance(0.0)));
@@ -107,10 +108,12 @@ BOOST_AUTO_TEST_CASE(surface_forms_agree_with_the_basis) {
     SurfaceModel m;
     m.has_aux = true;
     m.basis = b;
-    m.input = b == SurfaceBasis::Chebyshev ? AxisScaling::centered(100.0, 900.0) : AxisScaling::about_zero(100.0, 900.0);
+    m.input = b == SurfaceBasis::Chebyshev ? AxisScaling::centered(100.0, 900.0)
+                                           : AxisScaling::about_zero(100.0, 900.0);
     m.aux = AxisScaling::centered(-10.0, 60.0);
     m.terms = terms_rectangle(3, 2);
-    for (std::size_t q = 0; q < m.terms.size(); ++q) m.coefficients.push_back(1.0 / (1.0 + q) * (q % 2 ? -1 : 1));
+    for (std::size_t q = 0; q < m.terms.size(); ++q)
+      m.coefficients.push_back(1.0 / (1.0 + q) * (q % 2 ? -1 : 1));
     const auto mono = m.monomial_in_scaled();
     const auto pw = m.power_in_raw_ld();
     for (double u : {100.0, 333.0, 900.0})
@@ -119,8 +122,10 @@ BOOST_AUTO_TEST_CASE(surface_forms_agree_with_the_basis) {
         long double vm = 0, vp = 0;
         for (std::size_t k = 0; k < mono.size(); ++k)
           for (std::size_t l = 0; l < mono[k].size(); ++l) {
-            vm += mono[k][l] * std::pow(static_cast<long double>(t), k) * std::pow(static_cast<long double>(s), l);
-            vp += pw[k][l] * std::pow(static_cast<long double>(u), k) * std::pow(static_cast<long double>(a), l);
+            vm += mono[k][l] * std::pow(static_cast<long double>(t), k) *
+                  std::pow(static_cast<long double>(s), l);
+            vp += pw[k][l] * std::pow(static_cast<long double>(u), k) *
+                  std::pow(static_cast<long double>(a), l);
           }
         const double v = m.eval_fitted(u, a);
         BOOST_TEST(static_cast<double>(vm) == v, boost::test_tools::tolerance(kRoundoff));
@@ -142,10 +147,13 @@ BOOST_AUTO_TEST_CASE(steinhart_hart_noise_free_recovers_the_coefficients) {
   const SurfaceModel& m = *out.calibration.surface;
   BOOST_TEST((m.basis == SurfaceBasis::Power));
   const auto a = m.power_in_raw_ld();
-  const double A = static_cast<double>(a[0][0]), B = static_cast<double>(a[1][0]), C = static_cast<double>(a[3][0]);
-  const double worst = std::max({std::fabs(A / kShA - 1), std::fabs(B / kShB - 1), std::fabs(C / kShC - 1)});
-  BOOST_TEST_MESSAGE(fmt::format("Steinhart-Hart noise-free: A {:.12e} B {:.12e} C {:.12e}; largest relative error {:.2e}",
-                                 A, B, C, worst));
+  const double A = static_cast<double>(a[0][0]), B = static_cast<double>(a[1][0]),
+               C = static_cast<double>(a[3][0]);
+  const double worst =
+      std::max({std::fabs(A / kShA - 1), std::fabs(B / kShB - 1), std::fabs(C / kShC - 1)});
+  BOOST_TEST_MESSAGE(fmt::format(
+      "Steinhart-Hart noise-free: A {:.12e} B {:.12e} C {:.12e}; largest relative error {:.2e}", A,
+      B, C, worst));
   BOOST_TEST(worst <= kShRelativeTolerance);
   BOOST_TEST(a[2][0] == 0.0L);  // the excluded power stays out, exactly
   BOOST_TEST(out.calibration.training.max_abs_error <= 1e-9);  // degC, metrics in reference units
@@ -164,7 +172,8 @@ BOOST_AUTO_TEST_CASE(steinhart_hart_noise_free_through_a_divider) {
   const FitOutcome out = fit_compensated(ds, fit, comp);
   BOOST_REQUIRE_MESSAGE(out.status.ok, out.status.message);
   const auto a = out.calibration.surface->power_in_raw_ld();
-  BOOST_TEST(static_cast<double>(a[3][0]) == kShC, boost::test_tools::tolerance(kShRelativeTolerance));
+  BOOST_TEST(static_cast<double>(a[3][0]) == kShC,
+             boost::test_tools::tolerance(kShRelativeTolerance));
   // eval applies divider, ln, polynomial and the inverse reference transform.
   const double counts = 4095.0 * 10000.0 / (std::exp(sh_ln_r(37.0)) + 10000.0);
   BOOST_TEST(out.calibration.surface->eval(counts) == 37.0, boost::test_tools::tolerance(1e-9));
@@ -182,7 +191,8 @@ BOOST_AUTO_TEST_CASE(steinhart_hart_with_noise_stays_within_a_hundredth) {
   // A penalty biases this fit: the default grid's one-SE choice, lambda ~ 2e-7,
   // shifts the curve by about 0.02 degC (see docs/compensation-and-transforms.md).
   for (std::uint64_t seed = 1; seed <= 10; ++seed) {
-    const Dataset ds = thermistor_run(kShNoisyRepeats, kShNoiseRelative, 100 + seed, kShNoisyStepDegC);
+    const Dataset ds =
+        thermistor_run(kShNoisyRepeats, kShNoiseRelative, 100 + seed, kShNoisyStepDegC);
     FitOptions fit;
     fit.split.seed = seed;
     fit.fixed_degree = 3;
@@ -192,18 +202,22 @@ BOOST_AUTO_TEST_CASE(steinhart_hart_with_noise_stays_within_a_hundredth) {
     double worst = 0;
     for (double t = -20.0; t <= 80.0; t += 0.25)
       worst = std::max(worst, std::fabs(out.calibration.surface->eval(std::exp(sh_ln_r(t))) - t));
-    BOOST_TEST_MESSAGE(fmt::format("Steinhart-Hart, R noise 0.1 %, seed {}: lambda {:g}, largest curve error {:.4f} degC, "
-                                   "test RMSE {:.4f} degC",
-                                   seed, out.calibration.lambda, worst, out.calibration.test.rmse));
+    BOOST_TEST_MESSAGE(fmt::format(
+        "Steinhart-Hart, R noise 0.1 %, seed {}: lambda {:g}, largest curve error {:.4f} degC, "
+        "test RMSE {:.4f} degC",
+        seed, out.calibration.lambda, worst, out.calibration.test.rmse));
     BOOST_TEST(worst <= kShNoisyMaxErrorDegC);
   }
 }
 
 namespace {
 // A noise-free surface: total degree 2 in (x, a).
-double bowl(double x, double a) { return 3.0 + 0.02 * x - 1e-5 * x * x + 0.3 * a - 0.002 * a * a + 4e-4 * x * a; }
+double bowl(double x, double a) {
+  return 3.0 + 0.02 * x - 1e-5 * x * x + 0.3 * a - 0.002 * a * a + 4e-4 * x * a;
+}
 
-Dataset grid_run(const std::function<double(double, double)>& f, int nx, int na, double noise, std::uint64_t seed) {
+Dataset grid_run(const std::function<double(double, double)>& f, int nx, int na, double noise,
+                 std::uint64_t seed) {
   test::Gauss g(seed);
   Dataset ds;
   ds.file = "grid.csv";
@@ -236,7 +250,8 @@ BOOST_AUTO_TEST_CASE(aux_total_degree_two_is_exact_on_a_noise_free_surface) {
   BOOST_TEST(out.calibration.surface->terms.size() == 6u);
   for (double x : {150.0, 500.0, 880.0})
     for (double a : {-5.0, 20.0, 55.0})
-      BOOST_TEST(out.calibration.surface->eval(x, a) == bowl(x, a), boost::test_tools::tolerance(kRoundoff));
+      BOOST_TEST(out.calibration.surface->eval(x, a) == bowl(x, a),
+                 boost::test_tools::tolerance(kRoundoff));
   BOOST_TEST(out.calibration.test.n > 0u);
   BOOST_TEST(out.calibration.test.max_abs_error <= 1e-9);
 }
@@ -274,7 +289,9 @@ BOOST_AUTO_TEST_CASE(boundary_groups_stay_in_training) {
   for (const PointResult& p : cal.points) {
     const std::string key = p.setpoint + "|" + fmt::format("{}", std::round(p.aux) + 0.0);
     auto [it, ins] = seen.emplace(key, std::make_pair(p.role, p.fold));
-    if (!ins) BOOST_TEST((it->second.first == p.role && it->second.second == p.fold), "group " << key << " straddles");
+    if (!ins)
+      BOOST_TEST((it->second.first == p.role && it->second.second == p.fold),
+                 "group " << key << " straddles");
   }
   // The chosen model contains the cross term the truth has.
   BOOST_TEST(cal.surface->aux_degree() >= 1);
@@ -304,7 +321,8 @@ BOOST_AUTO_TEST_CASE(aux_degree_one_matches_the_n_input_linear_design) {
   for (Eigen::Index i = 0; i < X.rows(); ++i)
     BOOST_TEST(out.calibration.surface->eval(X(i, 0), X(i, 1)) == lin.predict(X.row(i)),
                boost::test_tools::tolerance(kRoundoff));
-  BOOST_TEST(out.calibration.training.residual_sd == lin.residual_sd, boost::test_tools::tolerance(1e-9));
+  BOOST_TEST(out.calibration.training.residual_sd == lin.residual_sd,
+             boost::test_tools::tolerance(1e-9));
 }
 
 BOOST_AUTO_TEST_CASE(record_round_trip_of_a_surface) {
@@ -329,13 +347,15 @@ BOOST_AUTO_TEST_CASE(record_round_trip_of_a_surface) {
   const CalibrationRecord back = record_from_json(j, "rec.json");
   BOOST_REQUIRE(back.calibration.surface.has_value());
   for (const PointResult& p : out.calibration.points)
-    BOOST_TEST(back.calibration.surface->eval(p.reading, p.aux) == p.predicted, boost::test_tools::tolerance(kRoundoff));
+    BOOST_TEST(back.calibration.surface->eval(p.reading, p.aux) == p.predicted,
+               boost::test_tools::tolerance(kRoundoff));
   // Writing the parsed record again gives the same document.
   BOOST_TEST(record_to_json(back) == j);
 }
 
 BOOST_AUTO_TEST_CASE(one_dimensional_records_carry_no_new_members) {
-  const Dataset ds = test::synthetic_run([](double x) { return 2.0 + 0.5 * x; }, 0.0, 10.0, 12, 2, 0.01, 7);
+  const Dataset ds =
+      test::synthetic_run([](double x) { return 2.0 + 0.5 * x; }, 0.0, 10.0, 12, 2, 0.01, 7);
   const FitOutcome out = fit_calibration(ds, FitOptions{});
   BOOST_REQUIRE(out.status.ok);
   CalibrationRecord rec;
@@ -380,7 +400,8 @@ const double kPtPointNoiseBar =
 
 double pt_counts(double p, double t) {
   const double dt = t - 25.0;
-  return kPtOffset0 + kPtOffsetTc * dt + kPtOffsetTc2 * dt * dt + kPtGain0 * (1.0 + kPtGainTc * dt) * p - kPtBow * p * p;
+  return kPtOffset0 + kPtOffsetTc * dt + kPtOffsetTc2 * dt * dt +
+         kPtGain0 * (1.0 + kPtGainTc * dt) * p - kPtBow * p * p;
 }
 }  // namespace
 
@@ -389,7 +410,8 @@ BOOST_AUTO_TEST_CASE(pressure_demo_recovers_the_true_surface_within_the_noise) {
   csv.setpoint_column = "setpoint";
   csv.aux_column = "temperature";
   csv.aux_setpoint_column = "chamber";
-  const Dataset ds = read_calibration_csv(RIDGECAL_SAMPLES_DIR "/pressure-tempco/pressure-tempco.csv", csv);
+  const Dataset ds =
+      read_calibration_csv(RIDGECAL_SAMPLES_DIR "/pressure-tempco/pressure-tempco.csv", csv);
   // As in the demo's README: separate degree limits, aux degree 0..3 (zero and
   // span drift over 100 degC), everything else default.
   CompensationOptions comp;
@@ -407,10 +429,11 @@ BOOST_AUTO_TEST_CASE(pressure_demo_recovers_the_true_surface_within_the_noise) {
       ss += e * e;
       ++count;
     }
-  BOOST_TEST_MESSAGE(fmt::format("pressure demo: {} terms, lambda {:g}; surface vs truth: RMS {:.5f} bar, max {:.5f} bar; "
-                                 "point noise {:.5f} bar; test RMSE {:.5f} bar",
-                                 m.terms.size(), out.calibration.lambda, std::sqrt(ss / count), worst, kPtPointNoiseBar,
-                                 out.calibration.test.rmse));
+  BOOST_TEST_MESSAGE(fmt::format(
+      "pressure demo: {} terms, lambda {:g}; surface vs truth: RMS {:.5f} bar, max {:.5f} bar; "
+      "point noise {:.5f} bar; test RMSE {:.5f} bar",
+      m.terms.size(), out.calibration.lambda, std::sqrt(ss / count), worst, kPtPointNoiseBar,
+      out.calibration.test.rmse));
   // "Within the noise": the recovered surface stays inside the +-2 SD band of
   // one point everywhere in the calibrated region, and its RMS error is below
   // one point's SD (it averages 162 points).
@@ -443,7 +466,9 @@ BOOST_AUTO_TEST_CASE(identity_extension_reproduces_the_one_dimensional_fit) {
       BOOST_TEST(a.calibration.setpoints[g].fold == b.calibration.setpoints[g].fold);
     }
     for (double x = 0.0; x <= 100.0; x += 5.0)
-      BOOST_TEST(a.calibration.model.eval(x) == b.calibration.surface->eval(x), boost::test_tools::tolerance(1e-10));
-    BOOST_TEST(a.calibration.test.rmse == b.calibration.test.rmse, boost::test_tools::tolerance(1e-9));
+      BOOST_TEST(a.calibration.model.eval(x) == b.calibration.surface->eval(x),
+                 boost::test_tools::tolerance(1e-10));
+    BOOST_TEST(a.calibration.test.rmse == b.calibration.test.rmse,
+               boost::test_tools::tolerance(1e-9));
   }
 }

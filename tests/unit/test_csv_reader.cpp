@@ -10,18 +10,23 @@
 using namespace ridgecal;
 
 namespace {
-Dataset parse(const std::string& text, CsvOptions opt = {}) { return parse_calibration_csv(text, "run.csv", opt); }
+Dataset parse(const std::string& text, CsvOptions opt = {}) {
+  return parse_calibration_csv(text, "run.csv", opt);
+}
 
 // Parses and expects an InputError whose text starts with "run.csv:LINE: " and contains `needle`.
-void expect_error(const std::string& text, std::size_t line, const std::string& needle, CsvOptions opt = {}) {
+void expect_error(const std::string& text, std::size_t line, const std::string& needle,
+                  CsvOptions opt = {}) {
   try {
     parse(text, opt);
     BOOST_ERROR("no error for: " << text);
   } catch (const InputError& e) {
     const std::string msg = e.what();
     const std::string prefix = line ? "run.csv:" + std::to_string(line) + ": " : "run.csv: ";
-    BOOST_TEST(msg.rfind(prefix, 0) == 0u, "message '" << msg << "' should start with '" << prefix << "'");
-    BOOST_TEST(msg.find(needle) != std::string::npos, "message '" << msg << "' should mention '" << needle << "'");
+    BOOST_TEST(msg.rfind(prefix, 0) == 0u,
+               "message '" << msg << "' should start with '" << prefix << "'");
+    BOOST_TEST(msg.find(needle) != std::string::npos,
+               "message '" << msg << "' should mention '" << needle << "'");
     BOOST_TEST(e.line() == line);
   }
 }
@@ -38,8 +43,9 @@ BOOST_AUTO_TEST_CASE(plain_file) {
 }
 
 BOOST_AUTO_TEST_CASE(bom_crlf_comments_blank_lines_quotes) {
-  const Dataset d = parse("\xEF\xBB\xBF# a comment\r\n  # indented comment\r\n\"reading\",reference,note\r\n\r\n"
-                          "1.5,-3e2,\"a, b\"\r\n+2,4,\"say \"\"hi\"\"\"\r\n");
+  const Dataset d = parse(
+      "\xEF\xBB\xBF# a comment\r\n  # indented comment\r\n\"reading\",reference,note\r\n\r\n"
+      "1.5,-3e2,\"a, b\"\r\n+2,4,\"say \"\"hi\"\"\"\r\n");
   BOOST_TEST(d.rows.size() == 2u);
   BOOST_TEST(d.rows[0].reading == 1.5);
   BOOST_TEST(d.rows[0].reference == -300.0);
@@ -128,8 +134,10 @@ BOOST_AUTO_TEST_CASE(aux_and_aux_setpoint_columns) {
   BOOST_TEST(d.rows[1].aux_setpoint == "C-5");
   // Without an aux column the aux value is NaN.
   BOOST_TEST(std::isnan(parse("reading,reference\n1,10\n").rows[0].aux));
-  expect_error("reading,reference,temp,chamber\n1,10,warm,C20\n", 2, "column 'temp' holds 'warm'", opt);
-  expect_error("reading,reference,temp,chamber\n1,10,20,\n", 2, "the aux setpoint column 'chamber' is empty", opt);
+  expect_error("reading,reference,temp,chamber\n1,10,warm,C20\n", 2, "column 'temp' holds 'warm'",
+               opt);
+  expect_error("reading,reference,temp,chamber\n1,10,20,\n", 2,
+               "the aux setpoint column 'chamber' is empty", opt);
   expect_error("reading,reference,chamber\n1,10,C20\n", 1, "no aux column 'temp'", opt);
   CsvOptions same;
   same.aux_column = "reading";

@@ -48,9 +48,12 @@ BOOST_AUTO_TEST_CASE(folds_cover_interior_training_setpoints_once) {
   std::vector<int> per_fold(5, 0);
   int ends = 0;
   for (std::size_t i = 0; i < g.size(); ++i) {
-    if (s.role[i] == SetRole::Test) BOOST_TEST(s.fold[i] == -1);
-    else if (s.fold[i] < 0) ++ends;
-    else ++per_fold[static_cast<std::size_t>(s.fold[i])];
+    if (s.role[i] == SetRole::Test)
+      BOOST_TEST(s.fold[i] == -1);
+    else if (s.fold[i] < 0)
+      ++ends;
+    else
+      ++per_fold[static_cast<std::size_t>(s.fold[i])];
   }
   BOOST_TEST(ends == 2);
   for (int c : per_fold) BOOST_TEST((c >= 4 && c <= 5));
@@ -73,7 +76,8 @@ BOOST_AUTO_TEST_CASE(role_column_names_the_test_set) {
   const auto g = group_by_setpoint(ds);
   const Split s = make_split(g, SplitOptions{}, 2);
   BOOST_TEST(s.user_named_test);
-  for (std::size_t i = 0; i < g.size(); ++i) BOOST_TEST((s.role[i] == SetRole::Test) == (g[i].id == "S03"));
+  for (std::size_t i = 0; i < g.size(); ++i)
+    BOOST_TEST((s.role[i] == SetRole::Test) == (g[i].id == "S03"));
 }
 
 BOOST_AUTO_TEST_CASE(mixed_roles_in_one_setpoint_are_rejected) {
@@ -84,7 +88,8 @@ BOOST_AUTO_TEST_CASE(mixed_roles_in_one_setpoint_are_rejected) {
 }
 
 BOOST_AUTO_TEST_CASE(enum_spellings_round_trip) {
-  for (SetRole r : {SetRole::Train, SetRole::Test}) BOOST_TEST((set_role_from_string(to_string(r)) == r));
+  for (SetRole r : {SetRole::Train, SetRole::Test})
+    BOOST_TEST((set_role_from_string(to_string(r)) == r));
   for (FoldScheme f : {FoldScheme::KFold, FoldScheme::LeaveOneSetpointOut})
     BOOST_TEST((fold_scheme_from_string(to_string(f)) == f));
   BOOST_CHECK_THROW(set_role_from_string("Train"), std::invalid_argument);

@@ -97,11 +97,11 @@ BOOST_AUTO_TEST_CASE(utf8_validation) {
   BOOST_TEST(is_valid_utf8(""));
   BOOST_TEST(is_valid_utf8("plain ASCII"));
   BOOST_TEST(is_valid_utf8("\xc3\xa9 \xe2\x82\xac \xf0\x9f\x8c\xa1"));  // é € 🌡
-  BOOST_TEST(!is_valid_utf8("\xc3"));                                    // truncated
-  BOOST_TEST(!is_valid_utf8("\xc0\xaf"));                                // overlong '/'
-  BOOST_TEST(!is_valid_utf8("\xe0\x80\xaf"));                            // overlong
-  BOOST_TEST(!is_valid_utf8("\xed\xa0\x80"));                            // surrogate
-  BOOST_TEST(!is_valid_utf8("\xf4\x90\x80\x80"));                        // above U+10FFFF
+  BOOST_TEST(!is_valid_utf8("\xc3"));                                   // truncated
+  BOOST_TEST(!is_valid_utf8("\xc0\xaf"));                               // overlong '/'
+  BOOST_TEST(!is_valid_utf8("\xe0\x80\xaf"));                           // overlong
+  BOOST_TEST(!is_valid_utf8("\xed\xa0\x80"));                           // surrogate
+  BOOST_TEST(!is_valid_utf8("\xf4\x90\x80\x80"));                       // above U+10FFFF
   BOOST_TEST(!is_valid_utf8("\xff"));
   BOOST_TEST(name_problem("ok name", 16).empty());
   BOOST_TEST(name_problem("tab\there", 16).find("control character 0x09") != std::string::npos);

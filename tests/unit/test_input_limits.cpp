@@ -23,7 +23,9 @@ std::string error_of(const std::string& text, const CsvOptions& opt) {
   }
   return "(no error)";
 }
-bool has(const std::string& s, const std::string& needle) { return s.find(needle) != std::string::npos; }
+bool has(const std::string& s, const std::string& needle) {
+  return s.find(needle) != std::string::npos;
+}
 }  // namespace
 
 BOOST_AUTO_TEST_CASE(defaults_are_documented_values) {
@@ -38,7 +40,8 @@ BOOST_AUTO_TEST_CASE(defaults_are_documented_values) {
 BOOST_AUTO_TEST_CASE(row_limit) {
   CsvOptions opt;
   opt.limits.max_rows = 3;
-  BOOST_TEST(parse_calibration_csv("reading,reference\n1,1\n2,2\n# c\n3,3\n", "lim.csv", opt).rows.size() == 3u);
+  BOOST_TEST(parse_calibration_csv("reading,reference\n1,1\n2,2\n# c\n3,3\n", "lim.csv", opt)
+                 .rows.size() == 3u);
   const std::string e = error_of("reading,reference\n1,1\n2,2\n3,3\n4,4\n5,5\n", opt);
   BOOST_TEST(has(e, "lim.csv:5: the file has more than 3 data rows"), e);
   BOOST_TEST(has(e, "--max-rows"), e);
@@ -47,7 +50,8 @@ BOOST_AUTO_TEST_CASE(row_limit) {
 BOOST_AUTO_TEST_CASE(field_count_and_length_limits) {
   CsvOptions opt;
   opt.limits.max_fields = 3;
-  BOOST_TEST(parse_calibration_csv("reading,reference,x\n1,1,a\n", "lim.csv", opt).rows.size() == 1u);
+  BOOST_TEST(parse_calibration_csv("reading,reference,x\n1,1,a\n", "lim.csv", opt).rows.size() ==
+             1u);
   std::string e = error_of("reading,reference,x,y\n1,1,a,b\n", opt);
   BOOST_TEST(has(e, "lim.csv:1: the row has more than 3 fields"), e);
   opt = {};
@@ -102,7 +106,8 @@ BOOST_AUTO_TEST_CASE(decimal_comma) {
   CsvOptions opt;
   opt.delimiter = ';';
   opt.decimal_comma = true;
-  const Dataset d = parse_calibration_csv("reading;reference\n1,5;-2,25\n2;3e2\n\"3,5\";4,0\n", "dc.csv", opt);
+  const Dataset d =
+      parse_calibration_csv("reading;reference\n1,5;-2,25\n2;3e2\n\"3,5\";4,0\n", "dc.csv", opt);
   BOOST_TEST(d.rows[0].reading == 1.5);
   BOOST_TEST(d.rows[0].reference == -2.25);
   BOOST_TEST(d.rows[1].reference == 300.0);
@@ -128,7 +133,8 @@ BOOST_AUTO_TEST_CASE(decimal_comma) {
 BOOST_AUTO_TEST_CASE(labels_and_column_names_must_be_utf8) {
   CsvOptions opt;
   opt.setpoint_column = "sp";
-  BOOST_TEST(parse_calibration_csv("sp,reading,reference\nTempérature 20 °C,1,2\n", "u.csv", opt).rows.size() == 1u);
+  BOOST_TEST(parse_calibration_csv("sp,reading,reference\nTempérature 20 °C,1,2\n", "u.csv", opt)
+                 .rows.size() == 1u);
   const std::string e = error_of("sp,reading,reference\nTemp\xe9rature,1,2\n", opt);
   BOOST_TEST(has(e, "lim.csv:2: the setpoint label 'Temp\\xe9rature' is not valid UTF-8"), e);
   opt.reading_column = "bad\xff";

@@ -4,16 +4,17 @@
 // (see its README for the source). Independent cross-check: GSL's
 // gsl_multifit_linear (Debian package libgsl-dev) on the raw columns.
 #define BOOST_TEST_MODULE longley
-#include <boost/test/unit_test.hpp>
-#include <cmath>
 #include <fmt/format.h>
 #include <gsl/gsl_errno.h>
 #include <gsl/gsl_multifit.h>
+
+#include <boost/test/unit_test.hpp>
+#include <cmath>
 #include <nlohmann/json.hpp>
 
+#include "../support/linear_inputs_fit.hpp"
 #include "ridgecal/atomic_file.hpp"
 #include "ridgecal/calibration_csv.hpp"
-#include "../support/linear_inputs_fit.hpp"
 #include "ridgecal/multi_input_fit.hpp"
 
 using namespace ridgecal;
@@ -32,7 +33,8 @@ constexpr double kMeasuredR2Lre = 15.0;
 constexpr double kRequiredCoefLre = kMeasuredCoefLre - kLreMargin;  // 11.8
 constexpr double kRequiredSdLre = kMeasuredSdLre - kLreMargin;      // 13.5
 constexpr double kRequiredR2Lre = kMeasuredR2Lre - kLreMargin;      // 13.5
-static_assert(kRequiredCoefLre >= kRequiredLreFloor && kRequiredSdLre >= kRequiredLreFloor, "floor");
+static_assert(kRequiredCoefLre >= kRequiredLreFloor && kRequiredSdLre >= kRequiredLreFloor,
+              "floor");
 constexpr double kCertifiedDigits = 15.0;
 // GSL is a second opinion, not the reference: its answer must agree with the
 // certified values to at least this LRE (measured: 11.6 with GSL 2.7's SVD
@@ -71,7 +73,8 @@ Longley load() {
   L.y.resize(n);
   for (Eigen::Index i = 0; i < n; ++i) {
     L.y(i) = cols[0].rows[static_cast<std::size_t>(i)].reference;
-    for (int j = 0; j < 6; ++j) L.X(i, j) = cols[static_cast<std::size_t>(j)].rows[static_cast<std::size_t>(i)].reading;
+    for (int j = 0; j < 6; ++j)
+      L.X(i, j) = cols[static_cast<std::size_t>(j)].rows[static_cast<std::size_t>(i)].reading;
   }
   return L;
 }
@@ -85,7 +88,8 @@ std::vector<double> gsl_fit(const Longley& L) {
   gsl_matrix* cov = gsl_matrix_alloc(p, p);
   for (std::size_t i = 0; i < n; ++i) {
     gsl_matrix_set(X, i, 0, 1.0);
-    for (std::size_t j = 1; j < p; ++j) gsl_matrix_set(X, i, j, L.X(static_cast<Eigen::Index>(i), static_cast<Eigen::Index>(j - 1)));
+    for (std::size_t j = 1; j < p; ++j)
+      gsl_matrix_set(X, i, j, L.X(static_cast<Eigen::Index>(i), static_cast<Eigen::Index>(j - 1)));
     gsl_vector_set(y, i, L.y(static_cast<Eigen::Index>(i)));
   }
   gsl_multifit_linear_workspace* w = gsl_multifit_linear_alloc(n, p);
@@ -108,22 +112,27 @@ BOOST_AUTO_TEST_CASE(longley_certified_coefficients) {
   const Longley L = load();
   const LinearInputsFit f = fit_linear_inputs(L.X, L.y);
   BOOST_REQUIRE_MESSAGE(f.status.ok, f.status.message);
-  BOOST_TEST_MESSAGE(fmt::format("Longley: condition number of the centred scaled design {:.3g}", f.condition_number));
+  BOOST_TEST_MESSAGE(fmt::format("Longley: condition number of the centred scaled design {:.3g}",
+                                 f.condition_number));
   double min_lre = kCertifiedDigits;
   for (const auto& p : L.cert["parameters"]) {
     const std::string term = p["term"];
     const double est = term == "1" ? static_cast<double>(f.intercept)
-                                   : static_cast<double>(f.slopes.at(static_cast<std::size_t>(std::stoi(term.substr(1)) - 1)));
+                                   : static_cast<double>(f.slopes.at(
+                                         static_cast<std::size_t>(std::stoi(term.substr(1)) - 1)));
     const double l = lre(est, p["estimate"].get<double>());
-    BOOST_TEST_MESSAGE(fmt::format("Longley {}: estimate {:.15e} certified {} LRE {:.1f}", p["name"].get<std::string>(),
-                                   est, p["estimate_text"].get<std::string>(), l));
-    BOOST_TEST(l >= kRequiredCoefLre, "coefficient " << p["name"].get<std::string>() << " LRE " << l);
+    BOOST_TEST_MESSAGE(fmt::format("Longley {}: estimate {:.15e} certified {} LRE {:.1f}",
+                                   p["name"].get<std::string>(), est,
+                                   p["estimate_text"].get<std::string>(), l));
+    BOOST_TEST(l >= kRequiredCoefLre,
+               "coefficient " << p["name"].get<std::string>() << " LRE " << l);
     min_lre = std::min(min_lre, l);
   }
   const double sd_lre = lre(f.residual_sd, L.cert["residual_std_dev"].get<double>());
   const double r2_lre = lre(f.r2, L.cert["r_squared"].get<double>());
-  BOOST_TEST_MESSAGE(fmt::format("Longley: min coefficient LRE {:.1f}, residual SD LRE {:.1f}, R2 LRE {:.1f}", min_lre,
-                                 sd_lre, r2_lre));
+  BOOST_TEST_MESSAGE(
+      fmt::format("Longley: min coefficient LRE {:.1f}, residual SD LRE {:.1f}, R2 LRE {:.1f}",
+                  min_lre, sd_lre, r2_lre));
   BOOST_TEST(sd_lre >= kRequiredSdLre);
   BOOST_TEST(r2_lre >= kRequiredR2Lre);
 }
@@ -139,17 +148,21 @@ BOOST_AUTO_TEST_CASE(longley_agrees_with_gsl) {
     const double l = lre(g[k++], p["estimate"].get<double>());
     gsl_min_lre = std::min(gsl_min_lre, l);
   }
-  BOOST_TEST_MESSAGE(fmt::format("GSL gsl_multifit_linear on Longley: min coefficient LRE {:.1f}", gsl_min_lre));
+  BOOST_TEST_MESSAGE(
+      fmt::format("GSL gsl_multifit_linear on Longley: min coefficient LRE {:.1f}", gsl_min_lre));
   BOOST_TEST(gsl_min_lre >= kGslMinLre);
   // Fitted values at the data rows: ours against GSL's.
   double worst = 0;
   for (Eigen::Index i = 0; i < L.X.rows(); ++i) {
     long double yg = g[0];
-    for (int j = 0; j < 6; ++j) yg += static_cast<long double>(g[static_cast<std::size_t>(j + 1)]) * L.X(i, j);
+    for (int j = 0; j < 6; ++j)
+      yg += static_cast<long double>(g[static_cast<std::size_t>(j + 1)]) * L.X(i, j);
     const double ours = f.predict(L.X.row(i));
-    worst = std::max(worst, std::fabs(ours - static_cast<double>(yg)) / std::fabs(static_cast<double>(yg)));
+    worst = std::max(
+        worst, std::fabs(ours - static_cast<double>(yg)) / std::fabs(static_cast<double>(yg)));
   }
-  BOOST_TEST_MESSAGE(fmt::format("Longley: largest relative difference of fitted values, ours vs GSL: {:.2e}", worst));
+  BOOST_TEST_MESSAGE(fmt::format(
+      "Longley: largest relative difference of fitted values, ours vs GSL: {:.2e}", worst));
   BOOST_TEST(worst <= kPredictionAgreement);
 }
 

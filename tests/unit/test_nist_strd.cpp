@@ -4,9 +4,10 @@
 // Accuracy is the log relative error LRE = -log10(|est - cert| / |cert|),
 // capped at the 15 certified digits.
 #define BOOST_TEST_MODULE nist_strd
+#include <fmt/format.h>
+
 #include <boost/test/unit_test.hpp>
 #include <cmath>
-#include <fmt/format.h>
 #include <nlohmann/json.hpp>
 
 #include "ridgecal/atomic_file.hpp"
@@ -38,7 +39,9 @@ constexpr MeasuredLre kNoInt1{14.8, 14.9, 15.0};
 constexpr MeasuredLre kNoInt2{15.0, 15.0, 15.0};
 constexpr MeasuredLre kFilip{14.0, 14.8, 15.0};
 
-double required(double measured, double floor) { return std::max(floor, measured - kLreMargin); }
+double required(double measured, double floor) {
+  return std::max(floor, measured - kLreMargin);
+}
 constexpr double kCertifiedDigits = 15.0;
 
 double lre(double est, double cert) {
@@ -76,35 +79,48 @@ NistResult check(const std::string& name) {
     const double est = static_cast<double>(a.at(static_cast<std::size_t>(power)));
     const double l = lre(est, p["estimate"].get<double>());
     BOOST_TEST_MESSAGE(fmt::format("{} {}: estimate {:.15e} certified {} LRE {:.1f}", name,
-                                   p["name"].get<std::string>(), est, p["estimate_text"].get<std::string>(), l));
+                                   p["name"].get<std::string>(), est,
+                                   p["estimate_text"].get<std::string>(), l));
     res.min_coef_lre = std::min(res.min_coef_lre, l);
   }
-  if (!opt.intercept) BOOST_CHECK_SMALL(static_cast<double>(a[0]), 1e-9 * std::fabs(static_cast<double>(a[1])));
+  if (!opt.intercept)
+    BOOST_CHECK_SMALL(static_cast<double>(a[0]), 1e-9 * std::fabs(static_cast<double>(a[1])));
   res.sd_lre = lre(cal.training.residual_sd, cert["residual_std_dev"].get<double>());
   res.r2_lre = lre(cal.training.r2, cert["r_squared"].get<double>());
-  BOOST_TEST_MESSAGE(fmt::format("{}: min coefficient LRE {:.1f}, residual SD LRE {:.1f}, R2 LRE {:.1f}", name,
-                                 res.min_coef_lre, res.sd_lre, res.r2_lre));
+  BOOST_TEST_MESSAGE(
+      fmt::format("{}: min coefficient LRE {:.1f}, residual SD LRE {:.1f}, R2 LRE {:.1f}", name,
+                  res.min_coef_lre, res.sd_lre, res.r2_lre));
   return res;
 }
 
 void require_close_to_measured(const NistResult& r, const MeasuredLre& m, double coef_floor) {
-  BOOST_TEST(r.min_coef_lre >= required(m.coef, coef_floor), "min coefficient LRE " << r.min_coef_lre
-                                                                 << ", measured " << m.coef << " - margin");
-  BOOST_TEST(r.sd_lre >= required(m.sd, kRequiredLreFloor), "residual SD LRE " << r.sd_lre << ", measured " << m.sd
-                                                                               << " - margin");
-  BOOST_TEST(r.r2_lre >= required(m.r2, kRequiredLreFloor), "R^2 LRE " << r.r2_lre << ", measured " << m.r2
-                                                                       << " - margin");
+  BOOST_TEST(r.min_coef_lre >= required(m.coef, coef_floor),
+             "min coefficient LRE " << r.min_coef_lre << ", measured " << m.coef << " - margin");
+  BOOST_TEST(r.sd_lre >= required(m.sd, kRequiredLreFloor),
+             "residual SD LRE " << r.sd_lre << ", measured " << m.sd << " - margin");
+  BOOST_TEST(r.r2_lre >= required(m.r2, kRequiredLreFloor),
+             "R^2 LRE " << r.r2_lre << ", measured " << m.r2 << " - margin");
 }
 
 }  // namespace
 
-BOOST_AUTO_TEST_CASE(norris) { require_close_to_measured(check("norris"), kNorris, kRequiredLreFloor); }
+BOOST_AUTO_TEST_CASE(norris) {
+  require_close_to_measured(check("norris"), kNorris, kRequiredLreFloor);
+}
 
-BOOST_AUTO_TEST_CASE(pontius) { require_close_to_measured(check("pontius"), kPontius, kRequiredLreFloor); }
+BOOST_AUTO_TEST_CASE(pontius) {
+  require_close_to_measured(check("pontius"), kPontius, kRequiredLreFloor);
+}
 
-BOOST_AUTO_TEST_CASE(noint1) { require_close_to_measured(check("noint1"), kNoInt1, kRequiredLreFloor); }
+BOOST_AUTO_TEST_CASE(noint1) {
+  require_close_to_measured(check("noint1"), kNoInt1, kRequiredLreFloor);
+}
 
-BOOST_AUTO_TEST_CASE(noint2) { require_close_to_measured(check("noint2"), kNoInt2, kRequiredLreFloor); }
+BOOST_AUTO_TEST_CASE(noint2) {
+  require_close_to_measured(check("noint2"), kNoInt2, kRequiredLreFloor);
+}
 
 // Filip (degree 10, higher difficulty): coefficients, residual SD and R^2.
-BOOST_AUTO_TEST_CASE(filip) { require_close_to_measured(check("filip"), kFilip, kRequiredLreFloorFilip); }
+BOOST_AUTO_TEST_CASE(filip) {
+  require_close_to_measured(check("filip"), kFilip, kRequiredLreFloorFilip);
+}

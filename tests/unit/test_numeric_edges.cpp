@@ -17,7 +17,8 @@ using namespace ridgecal;
 namespace {
 // A quadratic sensor over 12 setpoints, 3 repeats, small noise.
 Dataset base_run() {
-  return test::synthetic_run([](double x) { return 3.0 + 0.7 * x - 0.02 * x * x; }, 1.0, 20.0, 12, 3, 0.01, 11);
+  return test::synthetic_run([](double x) { return 3.0 + 0.7 * x - 0.02 * x * x; }, 1.0, 20.0, 12,
+                             3, 0.01, 11);
 }
 
 Dataset scaled(Dataset ds, int reading_exp, int reference_exp) {
@@ -66,7 +67,8 @@ BOOST_AUTO_TEST_CASE(huge_and_tiny_magnitudes_fit_like_moderate_ones) {
   const Dataset base = base_run();
   const FitOutcome ref = fit_calibration(base, FitOptions{});
   require_finite(ref);
-  const std::pair<int, int> exps[] = {{0, 990}, {0, -990}, {990, 0}, {-985, 0}, {985, -985}, {-985, 990}};
+  const std::pair<int, int> exps[] = {{0, 990},  {0, -990},   {990, 0},
+                                      {-985, 0}, {985, -985}, {-985, 990}};
   for (const auto& [ex, ey] : exps) {
     const Dataset ds = scaled(base, ex, ey);
     const FitOutcome f = fit_calibration(ds, FitOptions{});
@@ -86,7 +88,8 @@ BOOST_AUTO_TEST_CASE(huge_and_tiny_magnitudes_fit_like_moderate_ones) {
 BOOST_AUTO_TEST_CASE(the_documented_extremes_1e300_and_1e_300_are_accepted) {
   // Decimal 1e300 and 1e-300 themselves (not powers of two): the fit succeeds,
   // and a straight line through exact data is recovered to rounding.
-  Dataset ds = rows({{1e-300, 2e299}, {2e-300, 4e299}, {3e-300, 6e299}, {4e-300, 8e299}, {5e-300, 1e300}});
+  Dataset ds =
+      rows({{1e-300, 2e299}, {2e-300, 4e299}, {3e-300, 6e299}, {4e-300, 8e299}, {5e-300, 1e300}});
   const FitOutcome f = fit_calibration(ds, fixed(1, 0.0));
   require_finite(f);
   for (const PointResult& p : f.calibration.points)
@@ -134,11 +137,13 @@ BOOST_AUTO_TEST_CASE(readings_that_differ_only_in_the_last_digits) {
   }
   const FitOutcome g = fit_calibration(r, fixed(1, 0.0));
   require_finite(g);
-  for (const PointResult& p : g.calibration.points) BOOST_TEST(std::fabs(p.predicted - p.reference) <= 4 * eps);
+  for (const PointResult& p : g.calibration.points)
+    BOOST_TEST(std::fabs(p.predicted - p.reference) <= 4 * eps);
 }
 
 BOOST_AUTO_TEST_CASE(constant_reference_gives_a_flat_curve) {
-  const FitOutcome f = fit_calibration(rows({{1, 5}, {2, 5}, {3, 5}, {4, 5}, {5, 5}, {6, 5}}), FitOptions{});
+  const FitOutcome f =
+      fit_calibration(rows({{1, 5}, {2, 5}, {3, 5}, {4, 5}, {5, 5}, {6, 5}}), FitOptions{});
   require_finite(f);
   for (const PointResult& p : f.calibration.points) BOOST_TEST(p.predicted == 5.0);
   BOOST_TEST(std::isnan(f.calibration.training.r2));  // undefined: written as null, printed as n/a
@@ -164,7 +169,8 @@ BOOST_AUTO_TEST_CASE(duplicated_rows_change_nothing) {
   BOOST_TEST(a.calibration.model.degree() == b.calibration.model.degree());
   BOOST_TEST(a.calibration.lambda == b.calibration.lambda);
   for (double x : {1.0, 5.5, 12.0, 20.0})
-    BOOST_TEST(a.calibration.model.eval(x) == b.calibration.model.eval(x), boost::test_tools::tolerance(1e-9));
+    BOOST_TEST(a.calibration.model.eval(x) == b.calibration.model.eval(x),
+               boost::test_tools::tolerance(1e-9));
 }
 
 BOOST_AUTO_TEST_CASE(a_single_setpoint_fails) {
@@ -172,7 +178,8 @@ BOOST_AUTO_TEST_CASE(a_single_setpoint_fails) {
   for (Observation& ob : ds.rows) ob.setpoint = "A";  // all rows at one setpoint
   const FitOutcome f = fit_calibration(ds, fixed(1, 0.0));
   BOOST_TEST(!f.status.ok);
-  BOOST_TEST(f.status.message.find("only 1 distinct setpoint") != std::string::npos, f.status.message);
+  BOOST_TEST(f.status.message.find("only 1 distinct setpoint") != std::string::npos,
+             f.status.message);
 }
 
 BOOST_AUTO_TEST_CASE(more_coefficients_than_setpoints_fail) {
@@ -211,13 +218,16 @@ BOOST_AUTO_TEST_CASE(through_origin_far_from_zero_fails_instead_of_overflowing) 
 BOOST_AUTO_TEST_CASE(csv_refuses_magnitudes_outside_the_range_with_the_line) {
   for (const char* cell : {"1e301", "-2e305", "1e-301", "4.9e-324", "1e-310"}) {
     try {
-      parse_calibration_csv(std::string("reading,reference\n1,2\n2,") + cell + "\n", "m.csv", CsvOptions{});
+      parse_calibration_csv(std::string("reading,reference\n1,2\n2,") + cell + "\n", "m.csv",
+                            CsvOptions{});
       BOOST_ERROR("accepted " << cell);
     } catch (const InputError& e) {
       BOOST_TEST(e.line() == 3u);
-      BOOST_TEST(std::string(e.what()).find("outside the supported range") != std::string::npos, e.what());
+      BOOST_TEST(std::string(e.what()).find("outside the supported range") != std::string::npos,
+                 e.what());
     }
   }
-  const Dataset ok = parse_calibration_csv("reading,reference\n1e-300,-1e300\n0,0\n", "m.csv", CsvOptions{});
+  const Dataset ok =
+      parse_calibration_csv("reading,reference\n1e-300,-1e300\n0,0\n", "m.csv", CsvOptions{});
   BOOST_TEST(ok.rows.size() == 2u);
 }

@@ -11,7 +11,7 @@ namespace {
 // Conversions run in long double; 1e-12 relative to the function's size is
 // ample for degree <= 7 on these ranges (about 1000x double epsilon).
 constexpr double kConversionRelTol = 1e-12;
-}
+}  // namespace
 
 BOOST_AUTO_TEST_CASE(chebyshev_rows_match_cosine_definition) {
   double row[8];
@@ -35,7 +35,8 @@ BOOST_AUTO_TEST_CASE(all_forms_agree) {
     long double hp = 0;
     for (std::size_t k = power.size(); k-- > 0;) hp = hp * x + power[k];
     BOOST_TEST(std::fabs(h - p) <= kConversionRelTol * 25.0);
-    BOOST_TEST(std::fabs(static_cast<double>(hp) - p) <= 1e-9 * 25.0);  // power form: cancellation, long double
+    BOOST_TEST(std::fabs(static_cast<double>(hp) - p) <=
+               1e-9 * 25.0);  // power form: cancellation, long double
   }
 }
 

@@ -10,8 +10,8 @@ using namespace ridgecal;
 
 namespace {
 CalibrationRecord sample_record() {
-  const Dataset ds = test::synthetic_run([](double x) { return 1.0 + 0.1 * x + 1e-4 * x * x; }, 0.0, 100.0, 12, 3,
-                                         0.01, 5);
+  const Dataset ds = test::synthetic_run([](double x) { return 1.0 + 0.1 * x + 1e-4 * x * x; }, 0.0,
+                                         100.0, 12, 3, 0.01, 5);
   const FitOutcome fit = fit_calibration(ds, FitOptions{});
   BOOST_REQUIRE(fit.status.ok);
   CalibrationRecord rec;
@@ -44,7 +44,8 @@ BOOST_AUTO_TEST_CASE(round_trip_preserves_model_and_metrics) {
 
 BOOST_AUTO_TEST_CASE(any_edit_breaks_integrity) {
   nlohmann::json j = record_to_json(sample_record());
-  j["model"]["chebyshev_coefficients"][1] = j["model"]["chebyshev_coefficients"][1].get<double>() * (1 + 1e-15);
+  j["model"]["chebyshev_coefficients"][1] =
+      j["model"]["chebyshev_coefficients"][1].get<double>() * (1 + 1e-15);
   BOOST_TEST(!record_integrity_ok(j));
   nlohmann::json k = record_to_json(sample_record());
   k.erase("integrity");
@@ -54,7 +55,8 @@ BOOST_AUTO_TEST_CASE(any_edit_breaks_integrity) {
 BOOST_AUTO_TEST_CASE(records_carry_the_cautions) {
   const nlohmann::json j = record_to_json(sample_record());
   bool safety = false;
-  for (const auto& c : j["cautions"]) safety |= c.get<std::string>().find("local codes") != std::string::npos;
+  for (const auto& c : j["cautions"])
+    safety |= c.get<std::string>().find("local codes") != std::string::npos;
   BOOST_TEST(safety);
 }
 
@@ -146,7 +148,8 @@ BOOST_AUTO_TEST_CASE(assessment_members_round_trip_and_are_read_strictly) {
       record_from_json(bad, "bad.json");
       BOOST_ERROR(member << " in another layout was accepted");
     } catch (const InputError& e) {
-      BOOST_TEST(e.message().find(std::string("record member '") + member) != std::string::npos, e.message());
+      BOOST_TEST(e.message().find(std::string("record member '") + member) != std::string::npos,
+                 e.message());
     }
   }
   nlohmann::json bad = j;

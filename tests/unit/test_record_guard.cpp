@@ -16,7 +16,8 @@ using namespace ridgecal;
 
 namespace {
 std::string good_text() {
-  const Dataset ds = test::synthetic_run([](double x) { return 1.0 + 2.0 * x; }, 0.0, 5.0, 8, 2, 0.01, 9);
+  const Dataset ds =
+      test::synthetic_run([](double x) { return 1.0 + 2.0 * x; }, 0.0, 5.0, 8, 2, 0.01, 9);
   FitOptions o;
   o.degrees = {1, 2};
   const FitOutcome fit = fit_calibration(ds, o);
@@ -37,7 +38,9 @@ std::string error_of(const std::string& text, bool allow) {
   }
   return "(no error)";
 }
-bool has(const std::string& s, const std::string& n) { return s.find(n) != std::string::npos; }
+bool has(const std::string& s, const std::string& n) {
+  return s.find(n) != std::string::npos;
+}
 }  // namespace
 
 BOOST_AUTO_TEST_CASE(intact_record_loads_from_a_file) {
@@ -86,17 +89,22 @@ BOOST_AUTO_TEST_CASE(record_without_digest_is_refused) {
 
 BOOST_AUTO_TEST_CASE(hostile_record_files_are_input_errors) {
   BOOST_TEST(has(error_of("{\"a\": [1, 2,\n", true), "rec.json:2: the file is not valid JSON"));
-  BOOST_TEST(has(error_of("[1e99999]", true), "not a usable JSON document"));  // number overflow (fuzz finding)
-  BOOST_TEST(has(error_of(std::string(100000, '[') + std::string(100000, ']'), true), "nests deeper than 32"));
-  BOOST_TEST(has(error_of("\"[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[\"", true), "top level"));  // brackets in a string
-  BOOST_TEST(has(error_of("{\"format\": \"ridgecal-record\", \"format_version\": 18446744073709551615}", true),
-                 "format_version"));
+  BOOST_TEST(has(error_of("[1e99999]", true),
+                 "not a usable JSON document"));  // number overflow (fuzz finding)
+  BOOST_TEST(has(error_of(std::string(100000, '[') + std::string(100000, ']'), true),
+                 "nests deeper than 32"));
+  BOOST_TEST(has(error_of("\"[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[\"", true),
+                 "top level"));  // brackets in a string
+  BOOST_TEST(has(
+      error_of("{\"format\": \"ridgecal-record\", \"format_version\": 18446744073709551615}", true),
+      "format_version"));
   nlohmann::json j = nlohmann::json::parse(good_text());
   j["points"][0]["line"] = -5;
   BOOST_TEST(has(error_of(j.dump(), true), "points[].line' is -5"));
   j = nlohmann::json::parse(good_text());
   j["selection"]["degrees"][0] = "two";
-  BOOST_TEST(has(error_of(j.dump(), true), "selection.degrees' holds a value that is not an integer"));
+  BOOST_TEST(
+      has(error_of(j.dump(), true), "selection.degrees' holds a value that is not an integer"));
   j = nlohmann::json::parse(good_text());
   j["split"]["seed"] = -1;
   BOOST_TEST(has(error_of(j.dump(), true), "split.seed"));

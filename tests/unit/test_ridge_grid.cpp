@@ -30,7 +30,8 @@ Problem make_problem(int n, int D, std::uint64_t seed, bool clustered = false) {
     if (clustered) t = 0.5 + 0.01 * t;
     chebyshev_row(t, D, row.data());
     for (int k = 0; k < D; ++k) p.X(i, k) = row[static_cast<std::size_t>(k) + 1];
-    p.y[static_cast<std::size_t>(i)] = std::exp(t) + 0.01 * (static_cast<double>(rng.below(1001)) / 500.0 - 1.0);
+    p.y[static_cast<std::size_t>(i)] =
+        std::exp(t) + 0.01 * (static_cast<double>(rng.below(1001)) / 500.0 - 1.0);
   }
   return p;
 }
@@ -59,8 +60,10 @@ BOOST_AUTO_TEST_CASE(matches_the_svd_path_for_every_degree_and_lambda) {
     for (int d : degrees) {
       Eigen::MatrixXd Xtr(40, d), Xva(10, d);
       Eigen::VectorXd ytr(40), yva(10);
-      for (int i = 0; i < 40; ++i) Xtr.row(i) = p.X.row(i).head(d), ytr(i) = p.y[static_cast<std::size_t>(i)];
-      for (int i = 0; i < 10; ++i) Xva.row(i) = p.X.row(40 + i).head(d), yva(i) = p.y[static_cast<std::size_t>(40 + i)];
+      for (int i = 0; i < 40; ++i)
+        Xtr.row(i) = p.X.row(i).head(d), ytr(i) = p.y[static_cast<std::size_t>(i)];
+      for (int i = 0; i < 10; ++i)
+        Xva.row(i) = p.X.row(40 + i).head(d), yva(i) = p.y[static_cast<std::size_t>(40 + i)];
       const RidgePath path(Xtr, ytr, intercept);
       const Eigen::MatrixXd Wv = path.project(Xva), Wt = path.project(Xtr);
       Eigen::VectorXd pred;
@@ -69,9 +72,12 @@ BOOST_AUTO_TEST_CASE(matches_the_svd_path_for_every_degree_and_lambda) {
         const double v = (pred - yva).squaredNorm() / 10.0;
         path.predict(Wt, lambdas[static_cast<std::size_t>(q)], pred);
         const double t = (pred - ytr).squaredNorm() / 40.0;
-        const std::size_t at = static_cast<std::size_t>(d - 1) * NestedRidge::kLanes + static_cast<std::size_t>(q);
-        BOOST_TEST(std::fabs(val[at] - v) <= 1e-10 * v, "d " << d << " lambda " << lambdas[static_cast<std::size_t>(q)]);
-        BOOST_TEST(std::fabs(trn[at] - t) <= 1e-10 * t, "d " << d << " lambda " << lambdas[static_cast<std::size_t>(q)]);
+        const std::size_t at =
+            static_cast<std::size_t>(d - 1) * NestedRidge::kLanes + static_cast<std::size_t>(q);
+        BOOST_TEST(std::fabs(val[at] - v) <= 1e-10 * v,
+                   "d " << d << " lambda " << lambdas[static_cast<std::size_t>(q)]);
+        BOOST_TEST(std::fabs(trn[at] - t) <= 1e-10 * t,
+                   "d " << d << " lambda " << lambdas[static_cast<std::size_t>(q)]);
       }
     }
   }
@@ -120,13 +126,15 @@ BOOST_AUTO_TEST_CASE(coefficients_and_condition_number_match_the_svd_path) {
       Eigen::MatrixXd Xd = p.X.leftCols(d);
       const Eigen::VectorXd y = Eigen::Map<const Eigen::VectorXd>(p.y.data(), 40);
       const RidgePath path(Xd, y, intercept);
-      BOOST_TEST(std::fabs(nr.condition_number(d) - path.condition_number()) <= 1e-10 * path.condition_number());
+      BOOST_TEST(std::fabs(nr.condition_number(d) - path.condition_number()) <=
+                 1e-10 * path.condition_number());
       for (double lambda : {0.0, 1e-9, 1e-2}) {
         Eigen::VectorXd b_svd, b_qr(d);
         double b0_svd = 0, b0_qr = 0;
         path.coefficients(lambda, b_svd, b0_svd);
         nr.coefficients(d, lambda, b_qr.data(), b0_qr);
-        BOOST_TEST((b_qr - b_svd).norm() <= 1e-11 * (1.0 + b_svd.norm()), "d " << d << " lambda " << lambda);
+        BOOST_TEST((b_qr - b_svd).norm() <= 1e-11 * (1.0 + b_svd.norm()),
+                   "d " << d << " lambda " << lambda);
         BOOST_TEST(std::fabs(b0_qr - b0_svd) <= 1e-11 * (1.0 + std::fabs(b0_svd)));
       }
     }

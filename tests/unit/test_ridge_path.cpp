@@ -17,8 +17,8 @@ constexpr double kClosedFormRelTol = 1e-9;
 
 // Solves (Xc^T Xc + n*lambda*I) b = Xc^T yc by Gaussian elimination with
 // partial pivoting, all in long double; returns [b0, b1..bp].
-std::vector<long double> closed_form(const std::vector<std::vector<long double>>& X, const std::vector<long double>& y,
-                                     long double lambda) {
+std::vector<long double> closed_form(const std::vector<std::vector<long double>>& X,
+                                     const std::vector<long double>& y, long double lambda) {
   const std::size_t n = X.size(), p = X[0].size();
   std::vector<long double> xm(p, 0), A(p * p, 0), rhs(p, 0);
   long double ym = 0;
@@ -62,8 +62,8 @@ std::vector<long double> closed_form(const std::vector<std::vector<long double>>
 
 BOOST_AUTO_TEST_CASE(ridge_coefficients_match_long_double_normal_equations) {
   // Fixed data set: a sensor-like curve with noise, 9 setpoints x 3 repeats.
-  const Dataset ds = test::synthetic_run([](double x) { return 3.0 + 0.02 * x + 1e-6 * x * x; }, 1000.0, 4000.0, 9,
-                                         3, 0.01, 4242);
+  const Dataset ds = test::synthetic_run([](double x) { return 3.0 + 0.02 * x + 1e-6 * x * x; },
+                                         1000.0, 4000.0, 9, 3, 0.01, 4242);
   for (int degree : {1, 3, 5}) {
     for (double lambda : {1e-6, 1e-3, 0.1}) {
       FitOptions opt;
@@ -87,8 +87,9 @@ BOOST_AUTO_TEST_CASE(ridge_coefficients_match_long_double_normal_equations) {
       for (auto v : want) scale = std::max(scale, std::fabs(v));
       for (std::size_t k = 0; k < want.size(); ++k) {
         const double rel = static_cast<double>(std::fabs(got[k] - want[k]) / scale);
-        BOOST_TEST(rel <= kClosedFormRelTol, "degree " << degree << " lambda " << lambda << " c" << k << ": "
-                                                       << got[k] << " vs " << static_cast<double>(want[k]));
+        BOOST_TEST(rel <= kClosedFormRelTol, "degree " << degree << " lambda " << lambda << " c"
+                                                       << k << ": " << got[k] << " vs "
+                                                       << static_cast<double>(want[k]));
       }
     }
   }

@@ -1,7 +1,8 @@
 // Selection sanity on synthetic data with a known answer.
 #define BOOST_TEST_MODULE selection
-#include <boost/test/unit_test.hpp>
 #include <fmt/format.h>
+
+#include <boost/test/unit_test.hpp>
 #include <map>
 
 #include "ridgecal/calibration.hpp"
@@ -51,8 +52,9 @@ BOOST_AUTO_TEST_CASE(known_cubic_picks_degree_three) {
     BOOST_TEST_MESSAGE("rule " << to_string(rule) << ": degrees chosen" << picks);
     BOOST_TEST(below == 0, "rule " << to_string(rule) << " underfitted the cubic:" << picks);
     const int required = rule == FitOptions{}.rule ? kRequiredHits : kMinCvCubicHits;
-    BOOST_TEST(hits >= required, "rule " << to_string(rule) << " picked degree 3 in " << hits << " of " << kSeeds
-                                         << " seeds (required " << required << "):" << picks);
+    BOOST_TEST(hits >= required, "rule " << to_string(rule) << " picked degree 3 in " << hits
+                                         << " of " << kSeeds << " seeds (required " << required
+                                         << "):" << picks);
   }
 }
 
@@ -62,8 +64,8 @@ BOOST_AUTO_TEST_CASE(noise_around_a_line_picks_degree_one) {
     std::string picks;
     int hits = 0;
     for (int seed = 1; seed <= kSeeds; ++seed) {
-      const Dataset ds =
-          test::synthetic_run([](double x) { return 2.0 + 0.5 * x; }, 0.0, 100.0, 12, 4, 0.5, 2000 + seed);
+      const Dataset ds = test::synthetic_run([](double x) { return 2.0 + 0.5 * x; }, 0.0, 100.0, 12,
+                                             4, 0.5, 2000 + seed);
       FitOptions opt;
       opt.rule = rule;
       opt.split.seed = static_cast<std::uint64_t>(seed);
@@ -74,8 +76,9 @@ BOOST_AUTO_TEST_CASE(noise_around_a_line_picks_degree_one) {
     }
     BOOST_TEST_MESSAGE("rule " << to_string(rule) << ": degrees chosen" << picks);
     const int required = rule == FitOptions{}.rule ? kRequiredHits : kMinCvLineHits;
-    BOOST_TEST(hits >= required, "rule " << to_string(rule) << " picked degree 1 in " << hits << " of " << kSeeds
-                                         << " seeds (required " << required << "):" << picks);
+    BOOST_TEST(hits >= required, "rule " << to_string(rule) << " picked degree 1 in " << hits
+                                         << " of " << kSeeds << " seeds (required " << required
+                                         << "):" << picks);
     hits_of[rule] = hits;
   }
   // The reason one-se is the default: it finds the line far more often.
@@ -110,7 +113,8 @@ BOOST_AUTO_TEST_CASE(one_se_rule_never_picks_a_more_complex_model) {
   BOOST_REQUIRE(a.status.ok && b.status.ok);
   BOOST_TEST(b.calibration.model.degree() <= a.calibration.model.degree());
   const auto& g = b.calibration.selection.grid;
-  const auto& best = a.calibration.selection.grid[static_cast<std::size_t>(a.calibration.selection.chosen)];
+  const auto& best =
+      a.calibration.selection.grid[static_cast<std::size_t>(a.calibration.selection.chosen)];
   const auto& pick = g[static_cast<std::size_t>(b.calibration.selection.chosen)];
   BOOST_TEST(pick.cv_rmse <= best.cv_rmse + best.cv_se);
 }

@@ -16,7 +16,8 @@ using namespace ridgecal;
 namespace {
 
 struct Pin {
-  int pass;  // 0: issue-6 workload, 1: default grid and folds, 2: one-se, 3: through the origin, degrees 1..4
+  int pass;  // 0: issue-6 workload, 1: default grid and folds, 2: one-se, 3: through the origin,
+             // degrees 1..4
   std::uint64_t unit;
   int degree;
   int chosen;
@@ -154,10 +155,12 @@ FitOptions options_for(int pass) {
   return o;
 }
 
-bool close(double a, double b) { return std::fabs(a - b) <= 1e-9 * std::max(std::fabs(a), std::fabs(b)) + 1e-300; }
+bool close(double a, double b) {
+  return std::fabs(a - b) <= 1e-9 * std::max(std::fabs(a), std::fabs(b)) + 1e-300;
+}
 
-void check(const Calibration& c, int degree, int chosen, double lambda, double cv, double val, double test,
-           const std::string& what) {
+void check(const Calibration& c, int degree, int chosen, double lambda, double cv, double val,
+           double test, const std::string& what) {
   BOOST_TEST_CONTEXT(what) {
     BOOST_REQUIRE_GE(c.selection.chosen, 0);
     const GridCell& g = c.selection.grid[static_cast<std::size_t>(c.selection.chosen)];
@@ -187,12 +190,14 @@ BOOST_AUTO_TEST_CASE(samples_choose_the_pinned_cells) {
     CsvOptions csv;
     csv.setpoint_column = "setpoint";
     const std::string name = p.name;
-    const Dataset ds = read_calibration_csv(RIDGECAL_SAMPLES_DIR "/" + name + "/" + name + ".csv", csv);
+    const Dataset ds =
+        read_calibration_csv(RIDGECAL_SAMPLES_DIR "/" + name + "/" + name + ".csv", csv);
     FitOptions o;
     o.rule = SelectionRule::MinCv;
     const FitOutcome f = fit_calibration(ds, o);
     BOOST_REQUIRE_MESSAGE(f.status.ok, f.status.message);
-    check(f.calibration, p.degree, p.chosen, p.lambda, p.cv_rmse, p.validation_rmse, p.test_rmse, name);
+    check(f.calibration, p.degree, p.chosen, p.lambda, p.cv_rmse, p.validation_rmse, p.test_rmse,
+          name);
   }
 }
 
@@ -210,7 +215,8 @@ BOOST_AUTO_TEST_CASE(train_rmse_of_every_cell_matches_a_direct_fit) {
     fixed.fixed_lambda = g.lambda;
     const FitOutcome d = fit_calibration(ds, fixed);
     BOOST_REQUIRE(d.status.ok);
-    BOOST_TEST(std::fabs(d.calibration.training.rmse - g.train_rmse) <= 1e-9 * g.train_rmse,
-               "cell " << i << ": " << g.train_rmse << " vs direct " << d.calibration.training.rmse);
+    BOOST_TEST(
+        std::fabs(d.calibration.training.rmse - g.train_rmse) <= 1e-9 * g.train_rmse,
+        "cell " << i << ": " << g.train_rmse << " vs direct " << d.calibration.training.rmse);
   }
 }

@@ -32,8 +32,8 @@ class Gauss {
 
 /// `setpoints` equally spaced readings over [x0, x1], `repeats` rows each,
 /// reference = f(reading) + noise_sd * N(0,1). Setpoints are labelled S01...
-inline Dataset synthetic_run(const std::function<double(double)>& f, double x0, double x1, int setpoints,
-                             int repeats, double noise_sd, std::uint64_t seed) {
+inline Dataset synthetic_run(const std::function<double(double)>& f, double x0, double x1,
+                             int setpoints, int repeats, double noise_sd, std::uint64_t seed) {
   Gauss g(seed);
   Dataset ds;
   ds.file = "synthetic.csv";

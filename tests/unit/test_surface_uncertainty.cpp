@@ -11,10 +11,9 @@
 #include <cmath>
 #include <functional>
 
+#include "ridgecal/assessment.hpp"
 #include "ridgecal/multi_input_fit.hpp"
 #include "ridgecal/record.hpp"
-#include "ridgecal/assessment.hpp"
-#include "ridgecal/surface_uncertainty.hpp"
 #include "ridgecal/surface_uncertainty.hpp"
 #include "test_support.hpp"
 
@@ -327,8 +326,8 @@ BOOST_AUTO_TEST_CASE(diagnostics_flag_extrapolation_overfit_and_grid_edges) {
   BOOST_REQUIRE_MESSAGE(out.status.ok, out.status.message);
   const SurfaceModel& m = *out.calibration.surface;
   // Outside in the reading only, in aux only, and inside.
-  const auto w = check_extrapolation(m, {1200.0, 500.0, 500.0}, {20.0, 90.0, 20.0},
-                                             {7, 8, 9}, "check points");
+  const auto w =
+      check_extrapolation(m, {1200.0, 500.0, 500.0}, {20.0, 90.0, 20.0}, {7, 8, 9}, "check points");
   BOOST_REQUIRE_EQUAL(w.size(), 1u);
   BOOST_TEST((w[0].code == DiagnosticCode::Extrapolation));
   BOOST_TEST((w[0].lines == std::vector<std::size_t>{7, 8}));
@@ -450,8 +449,9 @@ BOOST_AUTO_TEST_CASE(band_covers_fresh_errors) {
   BOOST_TEST_MESSAGE(fmt::format(
       "surface band coverage of fresh errors: {:.3f} (worst seed {:.2f})", coverage, worst_seed));
   BOOST_TEST(coverage >= kRequiredCoverage);
-  BOOST_TEST(coverage <= kMaxCoverage, "U(x, a) covers " << coverage << " of the fresh errors: more than "
-                                                          << kMaxCoverage << ", the band looks inflated");
+  BOOST_TEST(coverage <= kMaxCoverage, "U(x, a) covers "
+                                           << coverage << " of the fresh errors: more than "
+                                           << kMaxCoverage << ", the band looks inflated");
 }
 
 BOOST_AUTO_TEST_CASE(hysteresis_is_judged_per_setpoint_and_aux_level) {

@@ -188,8 +188,9 @@ BOOST_AUTO_TEST_CASE(pt100_expanded_uncertainty_covers_fresh_points) {
       "over {} seeds (worst seed {:.0f} %)",
       kPt100ReferenceNoiseSd, 100 * coverage, total, kCoverageSeeds, 100 * worst_seed));
   BOOST_TEST(coverage >= kRequiredCoverage);
-  BOOST_TEST(coverage <= kMaxCoverage, "U(x) covers " << coverage << " of the fresh errors: more than "
-                                                       << kMaxCoverage << ", the band looks inflated");
+  BOOST_TEST(coverage <= kMaxCoverage, "U(x) covers "
+                                           << coverage << " of the fresh errors: more than "
+                                           << kMaxCoverage << ", the band looks inflated");
 }
 
 BOOST_AUTO_TEST_CASE(pt100_class_limits_judged_exactly) {

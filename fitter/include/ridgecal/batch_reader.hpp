@@ -44,7 +44,7 @@ struct UnitChunk {
   std::size_t first_line = 0;   ///< line in `file` of the first row of the unit
   std::size_t rows = 0;         ///< data rows (not counting comments and blanks)
   std::string text;             ///< header line, then the unit's lines, '\n'-terminated
-  std::string error;            ///< not empty: the chunk must not be fitted (e.g. the unit reappears)
+  std::string error;  ///< not empty: the chunk must not be fitted (e.g. the unit reappears)
 };
 
 /// Input files of a batch: a regular file is itself; a directory gives its
@@ -73,11 +73,11 @@ class UnitReader {
   BatchInputOptions options_;
   std::size_t file_index_ = 0;
   std::unique_ptr<std::ifstream> in_;
-  std::string header_;       // header line of the current file
+  std::string header_;  // header line of the current file
   std::size_t header_line_ = 0;
   std::size_t lineno_ = 0;
-  int unit_idx_ = -1;        // field index of the unit column
-  std::string pending_;      // a line read ahead (first line of the next unit)
+  int unit_idx_ = -1;    // field index of the unit column
+  std::string pending_;  // a line read ahead (first line of the next unit)
   bool has_pending_ = false;
   std::size_t pending_line_ = 0;
   std::uint64_t next_index_ = 0;

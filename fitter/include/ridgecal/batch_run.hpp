@@ -58,20 +58,21 @@ struct UnitOutput {
 };
 
 struct BatchOptions {
-  BatchInputOptions input;   ///< unit column and the other columns
-  FitOptions fit;            ///< the same fit settings for every unit
+  BatchInputOptions input;  ///< unit column and the other columns
+  FitOptions fit;           ///< the same fit settings for every unit
   /// Second input and transforms (multi_input_fit.hpp), the same for every
   /// unit; when active() every unit is fitted with fit_compensated and its aux
   /// column is input.csv.aux_column.
   CompensationOptions comp;
-  AssessmentOptions assess;  ///< tolerance, decision rule, uncertainty, diagnostics (as `fit`)
-  SensorInfo sensor;         ///< copied into every record (name may be empty)
-  std::string out_dir;       ///< created if missing; required
-  int jobs = 0;              ///< worker threads; 0 = all cores (std::thread::hardware_concurrency)
-  bool write_records = true; ///< false: summaries only
-  bool sync_records = true;  ///< fsync each record before the rename (durable; slower on real disks)
-  std::string created_utc;   ///< creation time written to every record and the summary ("" = omit)
-  int window_per_job = 16;   ///< units in flight per job (bounds memory), >= 1
+  AssessmentOptions assess;   ///< tolerance, decision rule, uncertainty, diagnostics (as `fit`)
+  SensorInfo sensor;          ///< copied into every record (name may be empty)
+  std::string out_dir;        ///< created if missing; required
+  int jobs = 0;               ///< worker threads; 0 = all cores (std::thread::hardware_concurrency)
+  bool write_records = true;  ///< false: summaries only
+  bool sync_records =
+      true;                 ///< fsync each record before the rename (durable; slower on real disks)
+  std::string created_utc;  ///< creation time written to every record and the summary ("" = omit)
+  int window_per_job = 16;  ///< units in flight per job (bounds memory), >= 1
   std::vector<UnitOutput> unit_outputs;  ///< extra per-unit outputs; need write_records
 
   /// Empty when valid, else a message naming the field, the value and the rule.
@@ -91,8 +92,8 @@ struct BatchProgress {
 
 struct BatchResult {
   std::uint64_t units = 0;
-  std::uint64_t ok = 0;              ///< fitted (whatever their verdict)
-  std::uint64_t failed = 0;          ///< not fitted
+  std::uint64_t ok = 0;                ///< fitted (whatever their verdict)
+  std::uint64_t failed = 0;            ///< not fitted
   std::uint64_t out_of_tolerance = 0;  ///< fitted with verdict FAIL
   std::uint64_t outputs_failed = 0;    ///< fitted units with an extra output not written
   double seconds = 0.0;

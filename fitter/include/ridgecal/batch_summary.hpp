@@ -39,16 +39,17 @@ struct UnitSummary {
   std::string unit;
   UnitStatus status = UnitStatus::Failed;
   std::size_t rows = 0;
-  int degree = -1;                ///< -1 when failed
-  double lambda = 0.0;            ///< NaN when failed
-  double validation_rmse = 0.0;   ///< held-out CV RMSE of the chosen cell (NaN: none)
-  double test_rmse = 0.0;         ///< on the test setpoints (NaN: none)
-  double max_abs_error = 0.0;     ///< largest |error| of the final curve over all the unit's points
+  int degree = -1;               ///< -1 when failed
+  double lambda = 0.0;           ///< NaN when failed
+  double validation_rmse = 0.0;  ///< held-out CV RMSE of the chosen cell (NaN: none)
+  double test_rmse = 0.0;        ///< on the test setpoints (NaN: none)
+  double max_abs_error = 0.0;    ///< largest |error| of the final curve over all the unit's points
   UnitVerdict verdict = UnitVerdict::NotAssessed;  ///< PASS/FAIL when a tolerance was given
   std::vector<std::string> warnings;
   std::string error;   ///< why the unit failed
   std::string record;  ///< record file, relative to the output directory ("" if none)
-  int outputs_failed = 0;  ///< extra per-unit outputs not written (batch_run.hpp); not in the summary files
+  int outputs_failed =
+      0;  ///< extra per-unit outputs not written (batch_run.hpp); not in the summary files
 };
 
 /// Header line of the summary CSV.
@@ -90,7 +91,8 @@ struct MergeOptions {
 /// Merges shards: units sorted by label (byte order), inputs concatenated.
 /// Throws InputError when a unit appears in two shards, or (unless allowed)
 /// the settings differ. `names` label the shards in messages.
-BatchSummary merge_batch_summaries(const std::vector<BatchSummary>& shards, const std::vector<std::string>& names,
+BatchSummary merge_batch_summaries(const std::vector<BatchSummary>& shards,
+                                   const std::vector<std::string>& names,
                                    const MergeOptions& options);
 
 /// Writes summary.json and summary.csv of `s` into `dir` atomically.

@@ -84,9 +84,9 @@ struct CalibrateResult {
 /// the hysteresis check of one-input and extended fits alike.
 /// Throws InputError for a constant or near-constant reference or reading
 /// (require_variation), for a %-of-span tolerance on a zero span, and for
-/// problems of the data that only the fit can see (a reading outside a transform's domain, a setpoint with mixed roles, a missing
-/// aux value); returns a failed status for expected numeric outcomes.
-/// Deterministic: the result depends only on `data` and `options`.
+/// problems of the data that only the fit can see (a reading outside a transform's domain, a
+/// setpoint with mixed roles, a missing aux value); returns a failed status for expected numeric
+/// outcomes. Deterministic: the result depends only on `data` and `options`.
 CalibrateResult calibrate(const Dataset& data, const CalibrateOptions& options);
 
 }  // namespace ridgecal

@@ -39,7 +39,7 @@ std::string to_string(SelectionRule r);
 SelectionRule selection_rule_from_string(const std::string& s);  ///< throws std::invalid_argument
 
 enum class SelectionMode { CrossValidation, Fixed };
-std::string to_string(SelectionMode m);                         ///< `cv`, `fixed`
+std::string to_string(SelectionMode m);                          ///< `cv`, `fixed`
 SelectionMode selection_mode_from_string(const std::string& s);  ///< throws std::invalid_argument
 
 /// 0 followed by 30 values log-spaced from 1e-12 to 10 (dimensionless: the
@@ -48,11 +48,12 @@ SelectionMode selection_mode_from_string(const std::string& s);  ///< throws std
 std::vector<double> default_lambda_grid();
 
 struct FitOptions {
-  std::vector<int> degrees{1, 2, 3, 4, 5, 6, 7};  ///< candidate degrees, each 0..20 (0 only without CV)
+  std::vector<int> degrees{1, 2, 3, 4,
+                           5, 6, 7};  ///< candidate degrees, each 0..20 (0 only without CV)
   std::vector<double> lambdas = default_lambda_grid();  ///< candidate penalties, each >= 0
   SelectionRule rule = SelectionRule::OneSe;
-  SplitOptions split;                ///< test hold-out and folds
-  std::optional<int> fixed_degree;   ///< with fixed_lambda: skip the selection
+  SplitOptions split;               ///< test hold-out and folds
+  std::optional<int> fixed_degree;  ///< with fixed_lambda: skip the selection
   std::optional<double> fixed_lambda;
   bool intercept = true;  ///< false: force p(0) = 0 (regression through the origin)
 
@@ -68,7 +69,8 @@ struct GridCell {
   double cv_se = 0.0;       ///< standard error of that mean: sd(fold RMSE) / sqrt(K)
   double train_rmse = 0.0;  ///< RMSE of the same cell fitted on all training points
   int aux_degree = -1;      ///< extended fits with an aux input: its degree limit; -1 otherwise
-  int terms = 0;            ///< number of model terms (1-D: degree + intercept); the complexity the rule compares
+  int terms =
+      0;  ///< number of model terms (1-D: degree + intercept); the complexity the rule compares
 };
 
 /// The selection rule, written once for every fit: the index in `grid` of the
@@ -83,13 +85,15 @@ struct SelectionInfo {
   SelectionRule rule = SelectionRule::OneSe;
   FoldScheme scheme = FoldScheme::KFold;
   int n_folds = 0;
-  std::vector<int> degrees;      ///< the degrees actually scored
-  std::vector<double> lambdas;   ///< sorted ascending
-  std::vector<GridCell> grid;    ///< degree-major, lambda ascending
-  int chosen = -1;               ///< index into grid, -1 in fixed mode without CV
+  std::vector<int> degrees;        ///< the degrees actually scored
+  std::vector<double> lambdas;     ///< sorted ascending
+  std::vector<GridCell> grid;      ///< degree-major, lambda ascending
+  int chosen = -1;                 ///< index into grid, -1 in fixed mode without CV
   std::vector<std::string> notes;  ///< e.g. degrees dropped for lack of setpoints
-  std::vector<int> aux_degrees;    ///< extended fits: the aux degree limits scored (empty: total degree)
-  std::vector<int> powers;         ///< extended fits: the allowed reading powers (empty: all up to the degree)
+  std::vector<int>
+      aux_degrees;  ///< extended fits: the aux degree limits scored (empty: total degree)
+  std::vector<int>
+      powers;  ///< extended fits: the allowed reading powers (empty: all up to the degree)
 };
 
 struct SetpointResult {

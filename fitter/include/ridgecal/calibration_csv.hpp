@@ -29,9 +29,9 @@ inline constexpr double kMinMagnitude = 1e-300;
 /// `ridgecal fit` options (--max-rows, --max-bytes, --max-field-bytes).
 struct CsvLimits {
   std::size_t max_bytes = std::size_t{256} << 20;  ///< size of the file: 256 MiB
-  std::size_t max_rows = 1'000'000;                ///< data rows (comments and blank lines not counted)
-  std::size_t max_fields = 1024;                   ///< fields in one row
-  std::size_t max_field_bytes = 4096;              ///< bytes in one field (after unquoting)
+  std::size_t max_rows = 1'000'000;    ///< data rows (comments and blank lines not counted)
+  std::size_t max_fields = 1024;       ///< fields in one row
+  std::size_t max_field_bytes = 4096;  ///< bytes in one field (after unquoting)
 
   /// Empty when valid (every limit >= 1), else a message naming the field.
   std::string validate() const;
@@ -45,10 +45,12 @@ struct CsvOptions {
   std::string reference_column = "reference";
   std::string setpoint_column;  ///< empty: rows with equal reference values form a group
   std::string role_column;      ///< empty: no user-named check points; values `fit` / `check`
-  std::string direction_column;  ///< empty: no sweep direction; values `up` / `down` (hysteresis check)
-  char delimiter = ',';         ///< one of ',' ';' '\t'
-  std::string aux_column;           ///< empty: no second input; else its column (e.g. sensor temperature)
-  std::string aux_setpoint_column;  ///< empty: aux groups by rounded value (see multi_input_fit.hpp)
+  std::string
+      direction_column;    ///< empty: no sweep direction; values `up` / `down` (hysteresis check)
+  char delimiter = ',';    ///< one of ',' ';' '\t'
+  std::string aux_column;  ///< empty: no second input; else its column (e.g. sensor temperature)
+  std::string
+      aux_setpoint_column;  ///< empty: aux groups by rounded value (see multi_input_fit.hpp)
   /// Numbers use ',' as the decimal point ("12,5"); requires delimiter ';' or
   /// tab, and then a '.' in a number is rejected (no thousands separators).
   bool decimal_comma = false;
@@ -67,7 +69,8 @@ UserRole user_role_from_string(const std::string& s);
 /// Sweep direction of a row, from the direction column (hysteresis check).
 enum class SweepDirection { Unspecified, Up, Down };
 std::string to_string(SweepDirection d);  ///< `unspecified`, `up`, `down`
-/// Accepts `up` and `down` (case-insensitive), and `unspecified`. Throws std::invalid_argument otherwise.
+/// Accepts `up` and `down` (case-insensitive), and `unspecified`. Throws std::invalid_argument
+/// otherwise.
 SweepDirection sweep_direction_from_string(const std::string& s);
 
 struct Observation {
@@ -76,7 +79,8 @@ struct Observation {
   std::string setpoint;    ///< group key: the setpoint cell, or the reference value as text
   UserRole role = UserRole::Unspecified;
   std::size_t line = 0;  ///< 1-based physical line in the file
-  double aux = std::numeric_limits<double>::quiet_NaN();  ///< second input, NaN without an aux column
+  double aux =
+      std::numeric_limits<double>::quiet_NaN();  ///< second input, NaN without an aux column
   std::string aux_setpoint;  ///< aux setpoint label, empty without an aux setpoint column
   SweepDirection direction = SweepDirection::Unspecified;  ///< from the direction column, if any
 };

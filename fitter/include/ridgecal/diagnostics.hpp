@@ -21,19 +21,19 @@ namespace ridgecal {
 
 /// Stable codes (the text form is what records and scripts see).
 enum class DiagnosticCode {
-  TestMuchWorseThanValidation,  ///< `test-much-worse-than-validation`
-  DegreeAtGridEdge,             ///< `degree-at-grid-edge`
-  LambdaAtGridEdge,             ///< `lambda-at-grid-edge`
-  FewSetpointsPerCoefficient,   ///< `few-setpoints-per-coefficient`
-  RangeNotCovered,              ///< `range-not-covered`
-  CoverageGap,                  ///< `coverage-gap`
-  Outlier,                      ///< `outlier`
-  ResidualPattern,              ///< `residual-pattern`
-  NonMonotonic,                 ///< `non-monotonic`
-  Hysteresis,                   ///< `hysteresis`
-  HighConditionNumber,          ///< `high-condition-number`
-  Extrapolation,                ///< `extrapolation`
-  RecordModified,               ///< `record-modified` (verify --allow-modified)
+  TestMuchWorseThanValidation,      ///< `test-much-worse-than-validation`
+  DegreeAtGridEdge,                 ///< `degree-at-grid-edge`
+  LambdaAtGridEdge,                 ///< `lambda-at-grid-edge`
+  FewSetpointsPerCoefficient,       ///< `few-setpoints-per-coefficient`
+  RangeNotCovered,                  ///< `range-not-covered`
+  CoverageGap,                      ///< `coverage-gap`
+  Outlier,                          ///< `outlier`
+  ResidualPattern,                  ///< `residual-pattern`
+  NonMonotonic,                     ///< `non-monotonic`
+  Hysteresis,                       ///< `hysteresis`
+  HighConditionNumber,              ///< `high-condition-number`
+  Extrapolation,                    ///< `extrapolation`
+  RecordModified,                   ///< `record-modified` (verify --allow-modified)
   ValidationMuchWorseThanTraining,  ///< `validation-much-worse-than-training` (extended fits)
 };
 std::string to_string(DiagnosticCode c);
@@ -121,9 +121,11 @@ std::vector<Warning> check_extrapolation(const std::vector<double>& readings,
                                          const Scaling& range, const std::string& what);
 /// The same for an extended model: points whose (transformed) reading or aux
 /// value lies outside the calibrated region.
-std::vector<Warning> check_extrapolation(const SurfaceModel& model, const std::vector<double>& readings,
+std::vector<Warning> check_extrapolation(const SurfaceModel& model,
+                                         const std::vector<double>& readings,
                                          const std::vector<double>& aux,
-                                         const std::vector<std::size_t>& lines, const std::string& what);
+                                         const std::vector<std::size_t>& lines,
+                                         const std::string& what);
 
 /// Wald-Wolfowitz runs test on the signs of a sequence (zeros skipped):
 /// the z statistic of the number of runs (NaN with fewer than 2 of each sign).

@@ -31,7 +31,8 @@ std::vector<SetpointGroup> group_by_setpoint(const Dataset& ds);
 
 enum class SetRole { Train, Test };
 std::string to_string(SetRole r);
-SetRole set_role_from_string(const std::string& s);  ///< `train`, `test`; throws std::invalid_argument
+SetRole set_role_from_string(
+    const std::string& s);  ///< `train`, `test`; throws std::invalid_argument
 
 enum class FoldScheme { KFold, LeaveOneSetpointOut };
 std::string to_string(FoldScheme s);
@@ -41,7 +42,7 @@ struct SplitOptions {
   double test_fraction = 0.2;  ///< share of setpoints held out for the final test, in [0, 0.5]
   std::uint64_t seed = 1;      ///< makes the split reproducible
   int folds = 5;               ///< K for grouped K-fold CV, >= 2
-  int loso_below = 10;         ///< fewer interior training setpoints than this: leave-one-setpoint-out
+  int loso_below = 10;  ///< fewer interior training setpoints than this: leave-one-setpoint-out
   std::string validate() const;
 };
 
@@ -80,8 +81,8 @@ class SplitRng {
 /// Picks `count` of the candidate positions, one from each of `count` equal
 /// strata of the (ordered) candidates, so the picks spread over the range.
 /// Precondition: count <= candidates.size().
-std::vector<std::size_t> stratified_pick(const std::vector<std::size_t>& candidates, std::size_t count,
-                                         SplitRng& rng);
+std::vector<std::size_t> stratified_pick(const std::vector<std::size_t>& candidates,
+                                         std::size_t count, SplitRng& rng);
 
 /// Fills sp.scheme, sp.n_folds and sp.fold[g] for the groups that may
 /// validate (`candidates`, ordered along the range): leave-one-out when there
@@ -89,7 +90,7 @@ std::vector<std::size_t> stratified_pick(const std::vector<std::size_t>& candida
 /// else K-fold, a random permutation of the K labels in each consecutive
 /// block of K candidates, so every fold spans the whole range. The one fold
 /// rule of make_split and of the extended fits (multi_input_fit.hpp).
-void assign_folds(const std::vector<std::size_t>& candidates, const SplitOptions& options, SplitRng& rng,
-                  Split& sp);
+void assign_folds(const std::vector<std::size_t>& candidates, const SplitOptions& options,
+                  SplitRng& rng, Split& sp);
 
 }  // namespace ridgecal

@@ -12,12 +12,12 @@ namespace ridgecal {
 /// points, zero variance, too few degrees of freedom) are NaN, and the record
 /// writes them as null.
 struct Metrics {
-  std::size_t n = 0;   ///< number of points
-  int predictors = 0;  ///< polynomial terms besides the intercept (for adjusted R²)
+  std::size_t n = 0;     ///< number of points
+  int predictors = 0;    ///< polynomial terms besides the intercept (for adjusted R²)
   bool centered = true;  ///< R² about the mean (model with intercept), else uncentred
   double rmse = 0.0;
   double max_abs_error = 0.0;
-  double bias = 0.0;         ///< mean error
+  double bias = 0.0;  ///< mean error
   double r2 = 0.0;
   double adj_r2 = 0.0;
   double residual_sd = 0.0;  ///< sqrt(SSres / (n - predictors - intercept)), the fit's residual SD

@@ -39,13 +39,16 @@ namespace ridgecal {
 
 struct CompensationOptions {
   Transforms transforms;
-  bool aux = false;              ///< the rows carry an aux value (Observation::aux)
-  std::vector<int> aux_degrees;  ///< candidate aux degree limits (separate limits); empty: total degree
-  std::vector<int> powers;       ///< allowed reading powers (power basis); empty: Chebyshev, all powers
-  double aux_step = 1.0;         ///< aux grouping step without an aux setpoint column, > 0
+  bool aux = false;  ///< the rows carry an aux value (Observation::aux)
+  std::vector<int>
+      aux_degrees;          ///< candidate aux degree limits (separate limits); empty: total degree
+  std::vector<int> powers;  ///< allowed reading powers (power basis); empty: Chebyshev, all powers
+  double aux_step = 1.0;    ///< aux grouping step without an aux setpoint column, > 0
 
   /// True when any extension is in use (otherwise fit_calibration applies).
-  bool active() const { return aux || !aux_degrees.empty() || !powers.empty() || !transforms.identity(); }
+  bool active() const {
+    return aux || !aux_degrees.empty() || !powers.empty() || !transforms.identity();
+  }
   /// Empty when valid together with `fit`, else a message naming the field, the value and the rule.
   std::string validate(const FitOptions& fit) const;
 };
@@ -54,7 +57,8 @@ struct CompensationOptions {
 /// and comp.validate(fit) are empty. Throws InputError (with the line) when a
 /// reading or reference is outside the transforms' domain or an aux value is
 /// missing; otherwise fails (status) like fit_calibration.
-FitOutcome fit_compensated(const Dataset& data, const FitOptions& fit, const CompensationOptions& comp);
+FitOutcome fit_compensated(const Dataset& data, const FitOptions& fit,
+                           const CompensationOptions& comp);
 
 /// Lines describing an extended model for Calibration::brief()/full().
 std::string surface_brief(const Calibration& cal);

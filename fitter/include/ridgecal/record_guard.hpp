@@ -24,8 +24,8 @@ namespace ridgecal {
 /// What load_record_checked returns.
 struct GuardedRecord {
   CalibrationRecord record;  ///< parsed content
-  bool modified = false;     ///< true: the integrity digest did not match (only with allow_modified)
-  RecordSeal seal;           ///< the stored and the recomputed digest
+  bool modified = false;  ///< true: the integrity digest did not match (only with allow_modified)
+  RecordSeal seal;        ///< the stored and the recomputed digest
 };
 
 /// Reads, integrity-checks and parses a record file.
@@ -36,7 +36,8 @@ struct GuardedRecord {
 GuardedRecord load_record_checked(const std::string& path, bool allow_modified);
 
 /// The same for record text already in memory (`file` for messages).
-GuardedRecord check_record_text(const std::string& text, const std::string& file, bool allow_modified);
+GuardedRecord check_record_text(const std::string& text, const std::string& file,
+                                bool allow_modified);
 
 /// One line for outputs made from a modified record, e.g.
 /// "NOTE: record.json was modified after ridgecal wrote it (its integrity

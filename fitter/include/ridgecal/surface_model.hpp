@@ -54,8 +54,8 @@ struct SurfaceModel {
   Transforms transforms;
   bool has_aux = false;
   SurfaceBasis basis = SurfaceBasis::Chebyshev;
-  AxisScaling input;  ///< scaling of the transformed reading u
-  AxisScaling aux;    ///< scaling of the aux input (unused without aux)
+  AxisScaling input;                 ///< scaling of the transformed reading u
+  AxisScaling aux;                   ///< scaling of the aux input (unused without aux)
   std::vector<Term> terms;           ///< the model's terms, (0,0) first when present
   std::vector<double> coefficients;  ///< one per term, in the fitted output units (v)
 

@@ -28,16 +28,19 @@
 namespace ridgecal {
 
 enum class ReadingTransform { None, Ln };
-std::string to_string(ReadingTransform t);                       ///< `none`, `ln`
-ReadingTransform reading_transform_from_string(const std::string& s);  ///< throws std::invalid_argument
+std::string to_string(ReadingTransform t);  ///< `none`, `ln`
+ReadingTransform reading_transform_from_string(
+    const std::string& s);  ///< throws std::invalid_argument
 
 enum class ReferenceTransform { None, ReciprocalKelvin };
-std::string to_string(ReferenceTransform t);                         ///< `none`, `reciprocal-kelvin`
-ReferenceTransform reference_transform_from_string(const std::string& s);  ///< throws std::invalid_argument
+std::string to_string(ReferenceTransform t);  ///< `none`, `reciprocal-kelvin`
+ReferenceTransform reference_transform_from_string(
+    const std::string& s);  ///< throws std::invalid_argument
 
 enum class DividerPosition { SensorLow, SensorHigh };
-std::string to_string(DividerPosition p);                      ///< `sensor-low`, `sensor-high`
-DividerPosition divider_position_from_string(const std::string& s);  ///< throws std::invalid_argument
+std::string to_string(DividerPosition p);  ///< `sensor-low`, `sensor-high`
+DividerPosition divider_position_from_string(
+    const std::string& s);  ///< throws std::invalid_argument
 
 /// Conversion of ADC counts of a ratiometric divider to the sensor's resistance.
 struct Divider {
@@ -58,7 +61,8 @@ struct Transforms {
   ReferenceTransform reference = ReferenceTransform::None;
 
   bool identity() const {
-    return !divider.enabled && reading == ReadingTransform::None && reference == ReferenceTransform::None;
+    return !divider.enabled && reading == ReadingTransform::None &&
+           reference == ReferenceTransform::None;
   }
   std::string validate() const;  ///< empty when valid
 

@@ -63,8 +63,8 @@ struct HeaderMeta {
   std::string sensor_name;
   std::string reading_unit;
   std::string reference_unit;
-  int degree = -1;          ///< -1: take it from the model
-  double lambda = kUnset;   ///< ridge penalty
+  int degree = -1;         ///< -1: take it from the model
+  double lambda = kUnset;  ///< ridge penalty
   double validation_rmse = kUnset;
   double validation_max_abs_error = kUnset;
   double test_rmse = kUnset;
@@ -79,8 +79,8 @@ struct HeaderMeta {
   /// The record's verdict, verbatim (the generator never judges), or a text
   /// saying that the record has none.
   std::string pass_fail;
-  std::string record_sha256;  ///< SHA-256 of the calibration record
-  std::string tool_version;   ///< e.g. "ridgecal 0.1.0"
+  std::string record_sha256;                 ///< SHA-256 of the calibration record
+  std::string tool_version;                  ///< e.g. "ridgecal 0.1.0"
   std::vector<double> calibration_readings;  ///< checked in the proof too
   /// Extended models with an aux input: the aux unit and the aux value of each
   /// calibration reading (same order as calibration_readings).
@@ -99,15 +99,15 @@ struct CodeStats {
   std::size_t header_bytes = 0;
   int header_lines = 0;
   int table_entries = 0;
-  int table_bytes = 0;       ///< size of the coefficient table on a target
+  int table_bytes = 0;  ///< size of the coefficient table on a target
   int multiplies_per_eval = 0;
   int additions_per_eval = 0;  ///< additions/subtractions (fixed: incl. rounding adds)
 };
 
 struct ExportResult {
   ExportStatus status = ExportStatus::InvalidInput;
-  std::string message;  ///< why refused/invalid; a one-line summary when ok
-  std::string header;   ///< the header text (also filled when refused, for inspection)
+  std::string message;         ///< why refused/invalid; a one-line summary when ok
+  std::string header;          ///< the header text (also filled when refused, for inspection)
   double max_deviation = 0;    ///< max |header - double model|, reference units
   double deviation_at = 0;     ///< input (reading units) where it occurred
   double deviation_limit = 0;  ///< max_deviation_fraction x tolerance_used

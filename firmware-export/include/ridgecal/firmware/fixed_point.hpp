@@ -60,8 +60,8 @@ struct FixedPlan {
   std::vector<int> sh_in;          ///< row-major [k * L + l], l < L
   std::vector<int> sh_out;         ///< k < K
   // Proved bounds (exact integer interval arithmetic over the raw ranges):
-  std::vector<IntRange> prod;  ///< outer step k < K: acc * t_q
-  std::vector<IntRange> acc;   ///< outer accumulator after step k (k = K: w_K)
+  std::vector<IntRange> prod;       ///< outer step k < K: acc * t_q
+  std::vector<IntRange> acc;        ///< outer accumulator after step k (k = K: w_K)
   long double max_abs_product = 0;  ///< largest |a * s_q| or |acc * t_q|
   long double max_abs_acc = 0;      ///< largest |accumulator| (int32 required)
   IntRange out;
@@ -78,7 +78,8 @@ std::int64_t rshift_round(std::int64_t v, int s);
 /// options, default: the integers inside the calibrated ranges). On failure
 /// returns false and writes the reason to *why. Precondition: the model's
 /// transforms are the identity.
-bool plan_fixed(const FirmwareModel& model, const ExportOptions& options, FixedPlan* plan, std::string* why);
+bool plan_fixed(const FirmwareModel& model, const ExportOptions& options, FixedPlan* plan,
+                std::string* why);
 /// Re-checks the plan's proof from its integers (used by plan_fixed and the tests).
 bool verify_fixed_bounds(FixedPlan* plan, std::string* why);
 /// Same integer operations as PREFIX_eval_fixed(raw[, raw_aux]).
@@ -87,6 +88,7 @@ std::int32_t eval_fixed(const FixedPlan& plan, std::int32_t raw, std::int32_t ra
 /// As PREFIX_eval_fixed_checked(): clamps the inputs into their raw ranges and
 /// reports the status (kInRange .. from float_emulation.hpp, plus the aux bits).
 std::int32_t eval_fixed_checked(const FixedPlan& plan, std::int32_t raw, int* status);
-std::int32_t eval_fixed_checked(const FixedPlan& plan, std::int32_t raw, std::int32_t raw_aux, int* status);
+std::int32_t eval_fixed_checked(const FixedPlan& plan, std::int32_t raw, std::int32_t raw_aux,
+                                int* status);
 
 }  // namespace ridgecal::firmware

@@ -39,9 +39,9 @@ struct FloatingProgram {
   bool reciprocal_kelvin = false;
   T kelvin = 0;  ///< 273.15 rounded to T
   bool has_aux = false;
-  T center = 0;          ///< t = (u - center) * inv_half_width
+  T center = 0;  ///< t = (u - center) * inv_half_width
   T inv_half_width = 1;
-  T aux_center = 0;      ///< s = (aux - aux_center) * aux_inv_half_width
+  T aux_center = 0;  ///< s = (aux - aux_center) * aux_inv_half_width
   T aux_inv_half_width = 1;
   /// coef[k * (aux_degree + 1) + l]: coefficient of t^k s^l (row-major, the
   /// header's table order; one input: ascending powers of t or x)

@@ -17,7 +17,7 @@ namespace ridgecal::firmware {
 
 /// Result of a surface export: the common result plus the surface programs.
 struct SurfaceExportResult {
-  ExportResult common;  ///< status, message, header, deviation, CRC, stats
+  ExportResult common;          ///< status, message, header, deviation, CRC, stats
   double deviation_at_aux = 0;  ///< aux value where the max deviation occurred
   /// Models with ln: the allowance added to the measured deviation for a
   /// target C library whose log/logf differs from the host's by up to

@@ -19,6 +19,7 @@ std::string read_file_bytes(const std::string& path);
 /// Reads a whole file of at most `max_bytes` bytes. A larger file (regular or
 /// not, e.g. a pipe) is refused with an InputError whose hint is `hint`,
 /// without reading more than max_bytes + 1 bytes of it.
-std::string read_file_bytes_limited(const std::string& path, std::size_t max_bytes, const std::string& hint);
+std::string read_file_bytes_limited(const std::string& path, std::size_t max_bytes,
+                                    const std::string& hint);
 
 }  // namespace ridgecal

@@ -41,11 +41,12 @@ class NestedRidge {
   /// Factorises the training rows `rows` of the first `cols` columns of X
   /// (n x >= cols) against y (n values). With `intercept` false nothing is
   /// centred. Preconditions: 1 <= cols <= kMaxColumns, rows not empty.
-  void factor(const Eigen::MatrixXd& X, const double* y, const std::vector<std::size_t>& rows, int cols,
-              bool intercept);
+  void factor(const Eigen::MatrixXd& X, const double* y, const std::vector<std::size_t>& rows,
+              int cols, bool intercept);
 
   /// Sets the rows at which predictions are scored (validation rows).
-  void set_validation(const Eigen::MatrixXd& X, const double* y, const std::vector<std::size_t>& rows);
+  void set_validation(const Eigen::MatrixXd& X, const double* y,
+                      const std::vector<std::size_t>& rows);
 
   int columns() const { return D_; }
   int rows() const { return m_; }
@@ -62,7 +63,8 @@ class NestedRidge {
   /// squared error at the validation rows (val_mse, if not null) and at the
   /// training rows (train_mse, if not null), written to [t * kLanes + q] for
   /// degree t and lambda q.
-  void score(const double* lambdas, int nl, const int* degrees, int count, double* val_mse, double* train_mse);
+  void score(const double* lambdas, int nl, const int* degrees, int count, double* val_mse,
+             double* train_mse);
 
   /// Coefficients of degree d <= usable() for penalty lambda: b[0..d) and the
   /// intercept b0 (as RidgePath::coefficients).
@@ -81,20 +83,21 @@ class NestedRidge {
   int D_ = 0, m_ = 0, nv_ = 0, usable_ = 0;
   bool intercept_ = true;
   double y_mean_ = 0.0;
-  double rperp2_ = 0.0;                  // squared norm of the part of yc outside span(Xc)
-  std::vector<double> A_;                // m x D column-major work matrix (QR in place)
-  std::vector<double> yw_;               // m
-  std::vector<double> W_;                // nv x D row-major: centred validation design
-  std::vector<double> yv_;               // nv
+  double rperp2_ = 0.0;     // squared norm of the part of yc outside span(Xc)
+  std::vector<double> A_;   // m x D column-major work matrix (QR in place)
+  std::vector<double> yw_;  // m
+  std::vector<double> W_;   // nv x D row-major: centred validation design
+  std::vector<double> yv_;  // nv
   std::array<double, kMaxColumns> x_mean_{};
-  std::array<double, kMaxColumns * kMaxColumns> R_{};   // row-major upper triangle
+  std::array<double, kMaxColumns * kMaxColumns> R_{};  // row-major upper triangle
   std::array<double, kMaxColumns> z_{};
   // Per-lane scratch: one lane vector (GCC/Clang vector extension, plain IEEE
   // double arithmetic per lane) per matrix entry.
   // (The alignment is spelled out: without it a vector type is 16-aligned in
   // baseline code but assumed 32-aligned by the AVX2 clones.)
   typedef double Lanes __attribute__((vector_size(sizeof(double) * kLanes)));
-  alignas(32) Lanes Rt_[kMaxColumns * kMaxColumns] = {};  // R with the penalty rotated in, row-major
+  alignas(
+      32) Lanes Rt_[kMaxColumns * kMaxColumns] = {};  // R with the penalty rotated in, row-major
   alignas(32) Lanes zt_[kMaxColumns] = {};
   alignas(32) Lanes b_[kMaxColumns] = {};
 };

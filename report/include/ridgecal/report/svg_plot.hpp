@@ -52,9 +52,9 @@ struct Band {
   std::vector<double> x, lo, hi;
   std::string fill = "#d9d9d9";
   double opacity = 1.0;
-  bool hatched = false;       ///< diagonal hatching instead of a flat fill
-  std::string edge_color;     ///< outline of lo and hi edges; empty = none
-  std::string edge_dash;      ///< dasharray of the edges
+  bool hatched = false;    ///< diagonal hatching instead of a flat fill
+  std::string edge_color;  ///< outline of lo and hi edges; empty = none
+  std::string edge_dash;   ///< dasharray of the edges
 };
 
 /// A horizontal line across the whole plot at y (e.g. zero residual).

@@ -16,11 +16,11 @@
 namespace ridgecal {
 
 struct SyntheticUnitOptions {
-  int setpoints = 12;        ///< distinct bath temperatures per unit, >= 2
-  int repeats = 4;           ///< readings per setpoint, >= 1
-  std::uint64_t seed = 42;   ///< data seed (the unit index is mixed in)
-  double reading_noise = 15.0;    ///< SD of the reading noise, counts, >= 0
-  double reference_noise = 0.003; ///< SD of the reference noise, degC, >= 0
+  int setpoints = 12;              ///< distinct bath temperatures per unit, >= 2
+  int repeats = 4;                 ///< readings per setpoint, >= 1
+  std::uint64_t seed = 42;         ///< data seed (the unit index is mixed in)
+  double reading_noise = 15.0;     ///< SD of the reading noise, counts, >= 0
+  double reference_noise = 0.003;  ///< SD of the reference noise, degC, >= 0
 
   /// Empty when valid, else a message naming the field, the value and the rule.
   std::string validate() const;
@@ -36,7 +36,8 @@ Dataset synthetic_unit(std::uint64_t index, const SyntheticUnitOptions& options)
 
 /// Appends the unit's rows as CSV lines `unit,setpoint,reading,reference`
 /// (no header) to `out`.
-void append_synthetic_unit_csv(std::string& out, std::uint64_t index, const SyntheticUnitOptions& options);
+void append_synthetic_unit_csv(std::string& out, std::uint64_t index,
+                               const SyntheticUnitOptions& options);
 
 /// The header matching append_synthetic_unit_csv: "unit,setpoint,reading,reference\n".
 const char* synthetic_csv_header();
