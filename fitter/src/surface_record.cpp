@@ -44,11 +44,6 @@ double number_or_nan(const json& obj, const std::string& key) {
                                               : std::numeric_limits<double>::quiet_NaN();
 }
 
-std::string text(const json& obj, const std::string& key, const std::string& where,
-                 const std::string& file) {
-  return detail::JsonReader{file}.text(obj, key, where);
-}
-
 AxisScaling read_scaling(const json& obj, const std::string& where, const std::string& file) {
   AxisScaling s;
   s.min = finite(obj, "min", where, file);

@@ -18,6 +18,7 @@
 #include "ridgecal/transforms.hpp"
 
 // Fit: grouped split, selection by cross-validation, the fitted calibration.
+#include "ridgecal/calibrate.hpp"
 #include "ridgecal/calibration.hpp"
 #include "ridgecal/grouped_split.hpp"
 #include "ridgecal/metrics.hpp"
