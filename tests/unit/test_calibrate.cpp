@@ -25,33 +25,11 @@ using namespace ridgecal::cli;
 
 namespace {
 
+using ridgecal::test::call_main;
+using ridgecal::test::slurp;
+using ridgecal::test::TempDir;
+
 const std::string kSamples = RIDGECAL_SAMPLES_DIR;
-
-std::string slurp(const fs::path& p) {
-  std::ifstream in(p, std::ios::binary);
-  std::ostringstream s;
-  s << in.rdbuf();
-  return s.str();
-}
-
-struct TempDir {
-  fs::path dir;
-  TempDir() {
-    std::string tmpl = (fs::temp_directory_path() / "ridgecal-calibrate-XXXXXX").string();
-    BOOST_REQUIRE(::mkdtemp(tmpl.data()) != nullptr);
-    dir = tmpl;
-  }
-  ~TempDir() { fs::remove_all(dir); }
-};
-
-using Main = int (*)(const std::vector<std::string>&, std::ostream&, std::ostream&);
-
-int call(Main m, const std::vector<std::string>& args, std::string* text = nullptr) {
-  std::ostringstream out, err;
-  const int rc = m(args, out, err);
-  if (text) *text = out.str() + err.str();
-  return rc;
-}
 
 // The data rows (comments and header dropped) and the header of a sample.
 struct Csv {
@@ -120,18 +98,18 @@ bool has_code(const nlohmann::json& rec, const std::string& code) {
 // options and compares the records.
 void fit_and_batch_agree(const Csv& c, const std::vector<std::string>& options, int expected_rc) {
   TempDir t;
-  const fs::path single = t.dir / "unit.csv", batch = t.dir / "batch.csv";
+  const fs::path single = t.path() / "unit.csv", batch = t.path() / "batch.csv";
   write_pair(c, single, batch);
-  const fs::path rec = t.dir / "fit.json", out = t.dir / "out";
+  const fs::path rec = t.path() / "fit.json", out = t.path() / "out";
   std::vector<std::string> fit_args = {single.string(), "-o", rec.string(), "--timestamp", "none"};
   fit_args.insert(fit_args.end(), options.begin(), options.end());
   std::string text;
-  BOOST_REQUIRE_MESSAGE(call(fit_main, fit_args, &text) == expected_rc, text);
+  BOOST_REQUIRE_MESSAGE(call_main(fit_main, fit_args, &text) == expected_rc, text);
   std::vector<std::string> batch_args = {batch.string(), "--unit",     "unit", "-o",
                                          out.string(),   "-j",         "1",    "--timestamp",
                                          "none",         "--progress", "none"};
   batch_args.insert(batch_args.end(), options.begin(), options.end());
-  BOOST_REQUIRE_MESSAGE(call(batch_main, batch_args, &text) == expected_rc, text);
+  BOOST_REQUIRE_MESSAGE(call_main(batch_main, batch_args, &text) == expected_rc, text);
   const nlohmann::json a = comparable(rec), b = comparable(out / "records" / "U1.json");
   BOOST_TEST(has_code(a, "hysteresis"));
   BOOST_TEST(a.at("warnings") == b.at("warnings"));
@@ -164,14 +142,14 @@ BOOST_AUTO_TEST_CASE(a_batch_with_a_direction_column_gives_the_warnings_of_fit_t
 BOOST_AUTO_TEST_CASE(calibrate_gives_the_record_that_fit_writes) {
   TempDir t;
   const std::string path = kSamples + "/loadcell-hopper/loadcell-hopper.csv";
-  const fs::path rec = t.dir / "fit.json";
+  const fs::path rec = t.path() / "fit.json";
   std::string text;
-  BOOST_REQUIRE_MESSAGE(
-      call(fit_main,
-           {path, "--setpoint", "setpoint", "--direction", "direction", "--tol-offset", "0.002",
-            "--sensor", "LC-3", "--timestamp", "2026-01-01T00:00:00Z", "-o", rec.string()},
-           &text) == kExitOutOfTolerance,
-      text);
+  BOOST_REQUIRE_MESSAGE(call_main(fit_main,
+                                  {path, "--setpoint", "setpoint", "--direction", "direction",
+                                   "--tol-offset", "0.002", "--sensor", "LC-3", "--timestamp",
+                                   "2026-01-01T00:00:00Z", "-o", rec.string()},
+                                  &text) == kExitOutOfTolerance,
+                        text);
   CsvOptions csv;
   csv.setpoint_column = "setpoint";
   csv.direction_column = "direction";

@@ -17,39 +17,18 @@
 #include "export_command.hpp"
 #include "fit_command.hpp"
 #include "report_command.hpp"
+#include "test_support.hpp"
 
 namespace fs = std::filesystem;
 using namespace ridgecal::cli;
 
 namespace {
 
+using ridgecal::test::call_main;
+using ridgecal::test::slurp;
+using ridgecal::test::TempDir;
+
 const std::string kSamples = RIDGECAL_SAMPLES_DIR;
-
-std::string slurp(const fs::path& p) {
-  std::ifstream in(p, std::ios::binary);
-  std::ostringstream s;
-  s << in.rdbuf();
-  return s.str();
-}
-
-struct TempDir {
-  fs::path dir;
-  TempDir() {
-    std::string tmpl = (fs::temp_directory_path() / "ridgecal-verdict-XXXXXX").string();
-    BOOST_REQUIRE(::mkdtemp(tmpl.data()) != nullptr);
-    dir = tmpl;
-  }
-  ~TempDir() { fs::remove_all(dir); }
-};
-
-using Main = int (*)(const std::vector<std::string>&, std::ostream&, std::ostream&);
-
-int call(Main m, const std::vector<std::string>& args, std::string* err_text = nullptr) {
-  std::ostringstream out, err;
-  const int rc = m(args, out, err);
-  if (err_text) *err_text = out.str() + err.str();
-  return rc;
-}
 
 // The QA block's result line of a generated header.
 std::string result_line(const std::string& header) {
@@ -89,11 +68,11 @@ const std::vector<std::string> kPressureFail = {kSamples + "/pressure-tempco/pre
 
 fs::path fit_record(const TempDir& t, const std::string& name, std::vector<std::string> args,
                     int expected_rc, const fs::path& report = {}) {
-  const fs::path rec = t.dir / (name + ".json");
+  const fs::path rec = t.path() / (name + ".json");
   args.insert(args.end(), {"-o", rec.string()});
   if (!report.empty()) args.insert(args.end(), {"--report", report.string()});
   std::string err;
-  BOOST_REQUIRE_MESSAGE(call(fit_main, args, &err) == expected_rc, err);
+  BOOST_REQUIRE_MESSAGE(call_main(fit_main, args, &err) == expected_rc, err);
   return rec;
 }
 
@@ -131,13 +110,13 @@ BOOST_AUTO_TEST_CASE(a_fail_one_input_record_gives_fail_headers_whatever_the_tol
   int n = 0;
   for (const auto& extra : variants)
     for (const char* mode : {"float", "double", "fixed"}) {
-      const fs::path h = t.dir / ("lc" + std::to_string(n++) + ".h");
+      const fs::path h = t.path() / ("lc" + std::to_string(n++) + ".h");
       std::vector<std::string> args = {rec.string(), "--prefix", "lc",      "--numeric",
                                        mode,         "-o",       h.string()};
       if (std::string(mode) == "fixed") args.insert(args.end(), {"--output-scale", "1000000"});
       args.insert(args.end(), extra.begin(), extra.end());
       std::string err;
-      BOOST_REQUIRE_MESSAGE(call(export_main, args, &err) == kExitOk, err);
+      BOOST_REQUIRE_MESSAGE(call_main(export_main, args, &err) == kExitOk, err);
       check_fail_header(h);
     }
 }
@@ -145,9 +124,9 @@ BOOST_AUTO_TEST_CASE(a_fail_one_input_record_gives_fail_headers_whatever_the_tol
 BOOST_AUTO_TEST_CASE(the_header_states_the_record_verdict_verbatim_and_names_the_tolerance_option) {
   TempDir t;
   const fs::path rec = fit_record(t, "lc", kLoadcellFail, kExitOutOfTolerance);
-  const fs::path h = t.dir / "lc.h";
-  BOOST_REQUIRE(call(export_main, {rec.string(), "--prefix", "lc", "--tolerance", "0.002", "-o",
-                                   h.string()}) == kExitOk);
+  const fs::path h = t.path() / "lc.h";
+  BOOST_REQUIRE(call_main(export_main, {rec.string(), "--prefix", "lc", "--tolerance", "0.002",
+                                        "-o", h.string()}) == kExitOk);
   const std::string text = slurp(h);
   BOOST_TEST(result_line(text) ==
              "FAIL: Simple acceptance: a point conforms when |error| <= tolerance +-(0.002); the "
@@ -162,9 +141,9 @@ BOOST_AUTO_TEST_CASE(a_record_without_a_decision_is_not_judged_by_the_export) {
   std::vector<std::string> args(kLoadcellFail.begin(), kLoadcellFail.end() - 4);  // no --tol-offset
   args.insert(args.end(), {"--timestamp", "none"});
   const fs::path rec = fit_record(t, "lc", args, kExitOk);
-  const fs::path h = t.dir / "lc.h";
-  BOOST_REQUIRE(call(export_main, {rec.string(), "--prefix", "lc", "--tolerance", "1", "-o",
-                                   h.string()}) == kExitOk);
+  const fs::path h = t.path() / "lc.h";
+  BOOST_REQUIRE(call_main(export_main, {rec.string(), "--prefix", "lc", "--tolerance", "1", "-o",
+                                        h.string()}) == kExitOk);
   const std::string text = slurp(h);
   BOOST_TEST(result_line(text) == "not assessed (no tolerance in the record)");
   BOOST_TEST(text.find("PASS") == std::string::npos);
@@ -177,45 +156,46 @@ BOOST_AUTO_TEST_CASE(a_pass_record_gives_a_pass_header) {
   std::vector<std::string> args = kLoadcellFail;
   args[6] = "0.01";  // --tol-offset 0.01 kg: every point conforms
   const fs::path rec = fit_record(t, "lc", args, kExitOk);
-  const fs::path h = t.dir / "lc.h";
-  BOOST_REQUIRE(call(export_main, {rec.string(), "--prefix", "lc", "--tolerance", "0.0001", "-o",
-                                   h.string(), "--numeric", "double"}) == kExitOk);
+  const fs::path h = t.path() / "lc.h";
+  BOOST_REQUIRE(call_main(export_main, {rec.string(), "--prefix", "lc", "--tolerance", "0.0001",
+                                        "-o", h.string(), "--numeric", "double"}) == kExitOk);
   BOOST_TEST(result_line(slurp(h)).rfind("PASS: ", 0) == 0);
 }
 
 BOOST_AUTO_TEST_CASE(a_fail_two_input_record_gives_fail_headers_and_reports) {
   TempDir t;
-  const fs::path fit_html = t.dir / "fit.html";
+  const fs::path fit_html = t.path() / "fit.html";
   const fs::path rec = fit_record(t, "pt", kPressureFail, kExitOutOfTolerance, fit_html);
   check_fail_report(fit_html);
   for (const std::vector<std::string>& extra : {std::vector<std::string>{}, {"--tolerance", "10"}})
     for (const char* mode : {"float", "double"}) {
-      const fs::path h = t.dir / (std::string("pt-") + mode + std::to_string(extra.size()) + ".h");
+      const fs::path h =
+          t.path() / (std::string("pt-") + mode + std::to_string(extra.size()) + ".h");
       std::vector<std::string> args = {rec.string(), "--prefix", "pt",      "--numeric",
                                        mode,         "-o",       h.string()};
       args.insert(args.end(), extra.begin(), extra.end());
       std::string err;
-      BOOST_REQUIRE_MESSAGE(call(export_main, args, &err) == kExitOk, err);
+      BOOST_REQUIRE_MESSAGE(call_main(export_main, args, &err) == kExitOk, err);
       check_fail_header(h);
     }
-  const fs::path html = t.dir / "pt.html";
-  BOOST_REQUIRE(call(report_main, {rec.string(), "-o", html.string()}) == kExitOk);
+  const fs::path html = t.path() / "pt.html";
+  BOOST_REQUIRE(call_main(report_main, {rec.string(), "-o", html.string()}) == kExitOk);
   check_fail_report(html);
 }
 
 BOOST_AUTO_TEST_CASE(a_fail_one_input_record_gives_fail_reports) {
   TempDir t;
-  const fs::path fit_html = t.dir / "fit.html";
+  const fs::path fit_html = t.path() / "fit.html";
   const fs::path rec = fit_record(t, "lc", kLoadcellFail, kExitOutOfTolerance, fit_html);
   check_fail_report(fit_html);
-  const fs::path html = t.dir / "lc.html";
-  BOOST_REQUIRE(call(report_main, {rec.string(), "-o", html.string()}) == kExitOk);
+  const fs::path html = t.path() / "lc.html";
+  BOOST_REQUIRE(call_main(report_main, {rec.string(), "-o", html.string()}) == kExitOk);
   check_fail_report(html);
 }
 
 BOOST_AUTO_TEST_CASE(batch_headers_and_reports_of_fail_units_say_fail) {
   TempDir t;
-  const fs::path csv = t.dir / "batch.csv";
+  const fs::path csv = t.path() / "batch.csv";
   {
     std::ifstream in(kSamples + "/loadcell-hopper/loadcell-hopper.csv");
     std::ofstream out(csv);
@@ -234,14 +214,15 @@ BOOST_AUTO_TEST_CASE(batch_headers_and_reports_of_fail_units_say_fail) {
     for (const char* unit : {"U1", "U2"})
       for (const auto& r : rows) out << unit << "," << r << "\n";
   }
-  const fs::path dir = t.dir / "out";
+  const fs::path dir = t.path() / "out";
   std::string err;
-  BOOST_REQUIRE_MESSAGE(call(batch_main,
-                             {csv.string(), "--unit", "unit", "--setpoint", "setpoint",
-                              "--tol-offset", "0.002", "-o", dir.string(), "-j", "1", "--progress",
-                              "none", "--timestamp", "none", "--reports", "--headers", "lc"},
-                             &err) == kExitOutOfTolerance,
-                        err);
+  BOOST_REQUIRE_MESSAGE(
+      call_main(batch_main,
+                {csv.string(), "--unit", "unit", "--setpoint", "setpoint", "--tol-offset", "0.002",
+                 "-o", dir.string(), "-j", "1", "--progress", "none", "--timestamp", "none",
+                 "--reports", "--headers", "lc"},
+                &err) == kExitOutOfTolerance,
+      err);
   for (const char* unit : {"U1", "U2"}) {
     check_fail_header(dir / "headers" / (std::string(unit) + ".h"));
     check_fail_report(dir / "reports" / (std::string(unit) + ".html"));

@@ -6,10 +6,14 @@
 #include <cmath>
 #include <cstdint>
 #include <filesystem>
+#include <fstream>
 #include <functional>
+#include <iosfwd>
+#include <sstream>
 #include <stdexcept>
 #include <string>
 #include <system_error>
+#include <vector>
 
 #include "ridgecal/calibration_csv.hpp"
 #include "ridgecal/grouped_split.hpp"
@@ -74,5 +78,25 @@ class TempDir {
  private:
   std::filesystem::path path_;
 };
+
+/// The whole content of a file (empty when it cannot be read).
+inline std::string slurp(const std::filesystem::path& p) {
+  std::ifstream in(p, std::ios::binary);
+  std::ostringstream s;
+  s << in.rdbuf();
+  return s.str();
+}
+
+/// A subcommand's entry point (cli/*_command.hpp) called in-process.
+using SubcommandMain = int (*)(const std::vector<std::string>&, std::ostream&, std::ostream&);
+
+/// Runs a subcommand; its stdout and stderr go to *text when given.
+inline int call_main(SubcommandMain m, const std::vector<std::string>& args,
+                     std::string* text = nullptr) {
+  std::ostringstream out, err;
+  const int rc = m(args, out, err);
+  if (text) *text = out.str() + err.str();
+  return rc;
+}
 
 }  // namespace ridgecal::test
