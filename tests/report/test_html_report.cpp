@@ -1,4 +1,7 @@
+#include <stdlib.h>
+
 #include <boost/test/unit_test.hpp>
+#include <filesystem>
 #include <fstream>
 #include <regex>
 #include <sstream>
@@ -281,14 +284,21 @@ BOOST_AUTO_TEST_CASE(golden_file) {
   const std::string actual = render(fixture("full"), fixed_options());
   const std::string expected = read_text(kDir + "/golden/report_full.html");
   if (actual != expected) {
-    std::ofstream("report_full.actual.html", std::ios::binary) << actual;
+    // Kept for inspection in a fresh directory of its own (never the working
+    // directory, so that `ctest -j` stays safe).
+    std::string dir =
+        (std::filesystem::temp_directory_path() / "ridgecal-report-golden-XXXXXX").string();
+    const std::string out =
+        ::mkdtemp(dir.data()) ? dir + "/report_full.actual.html" : std::string();
+    if (!out.empty()) std::ofstream(out, std::ios::binary) << actual;
     std::istringstream a(actual), e(expected);
     std::string la, le;
     int line = 1;
     while (std::getline(a, la) && std::getline(e, le) && la == le) ++line;
     BOOST_ERROR("report differs from golden/report_full.html at line "
-                << line << "; actual written to report_full.actual.html\n  expected: "
-                << le.substr(0, 200) << "\n  actual:   " << la.substr(0, 200));
+                << line << "; actual written to "
+                << (out.empty() ? "(nowhere: mkdtemp failed)" : out)
+                << "\n  expected: " << le.substr(0, 200) << "\n  actual:   " << la.substr(0, 200));
   }
 }
 
