@@ -517,6 +517,19 @@ FitOutcome fit_calibration(const Dataset& data, const FitOptions& options) {
   return out;
 }
 
+bool is_extended(const Calibration& cal) { return cal.surface.has_value(); }
+
+SurfaceModel general_model(const Calibration& cal) {
+  if (cal.surface) return *cal.surface;
+  SurfaceModel m;
+  m.basis = SurfaceBasis::Chebyshev;
+  m.input = AxisScaling{cal.model.scaling.x_min, cal.model.scaling.x_max,
+                        cal.model.scaling.center(), cal.model.scaling.half_width()};
+  m.terms = terms_reading_only(cal.model.degree());
+  m.coefficients = cal.model.cheb;
+  return m;
+}
+
 std::string Calibration::brief() const {
   std::string s;
   if (surface)

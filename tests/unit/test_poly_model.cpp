@@ -3,7 +3,9 @@
 #include <boost/test/unit_test.hpp>
 #include <cmath>
 
+#include "ridgecal/calibration.hpp"
 #include "ridgecal/poly_model.hpp"
+#include "ridgecal/surface_model.hpp"
 
 using namespace ridgecal;
 
@@ -58,4 +60,24 @@ BOOST_AUTO_TEST_CASE(scaling_maps_range_to_unit_interval) {
   BOOST_TEST(s.to_t(5.0) == 0.0);
   BOOST_TEST(s.contains(0.0));
   BOOST_TEST(!s.contains(15.5));
+}
+
+// One model (issue 12): the one-input polynomial is the N = 1 case of the
+// general model. general_model() must evaluate the same curve. Both run
+// Clenshaw on the same coefficients and the same scaling, so they agree to
+// rounding: 1e-13 relative (measured 0 on this range) leaves a wide margin.
+BOOST_AUTO_TEST_CASE(general_model_is_the_same_curve) {
+  Calibration cal;
+  cal.model.scaling = {2500.0, 3900.0};
+  cal.model.cheb = {-5.0, -20.0, 1.5, -0.4, 0.1, -0.02};
+  BOOST_TEST(!is_extended(cal));
+  const SurfaceModel g = general_model(cal);
+  BOOST_TEST(g.terms.size() == cal.model.cheb.size());
+  BOOST_TEST(g.has_intercept());
+  BOOST_TEST(!g.has_aux);
+  BOOST_TEST(g.transforms.identity());
+  for (double x = 2500.0; x <= 3900.0; x += 7.0)
+    BOOST_TEST(std::fabs(g.eval(x) - cal.model.eval(x)) <= 1e-13 * 25.0);
+  cal.surface = g;
+  BOOST_TEST(is_extended(cal));
 }

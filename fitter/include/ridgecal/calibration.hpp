@@ -145,6 +145,17 @@ struct FitOutcome {
   Calibration calibration;
 };
 
+/// True when the fit used an extension (an aux input, transforms or
+/// restricted powers): the record and the header then use their extended
+/// layout. False for the plain one-input polynomial.
+bool is_extended(const Calibration& cal);
+
+/// The fitted model in its general form (surface_model.hpp): the extended
+/// model itself, or the one-input polynomial as the N = 1 case (Chebyshev
+/// basis, terms (0,0)..(d,0), identity transforms, the same scaling, the same
+/// coefficients). Code that works on any model reads this, not the two fields.
+SurfaceModel general_model(const Calibration& cal);
+
 /// Splits, selects and fits. Preconditions: options.validate() is empty.
 /// Fails (status) when: all readings are equal; there are fewer distinct
 /// training setpoints than the smallest candidate model needs; the grid has
