@@ -517,7 +517,9 @@ FitOutcome fit_calibration(const Dataset& data, const FitOptions& options) {
   return out;
 }
 
-bool is_extended(const Calibration& cal) { return cal.surface.has_value(); }
+bool is_extended(const Calibration& cal) {
+  return cal.surface.has_value();
+}
 
 SurfaceModel general_model(const Calibration& cal) {
   if (cal.surface) return *cal.surface;
