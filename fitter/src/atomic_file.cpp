@@ -9,6 +9,7 @@
 #include <cstdint>
 #include <cstdlib>
 #include <cstring>
+#include <filesystem>
 #include <fstream>
 #include <sstream>
 #include <vector>
@@ -49,6 +50,20 @@ void write_file_atomic(const std::string& path, std::string_view content) {
     throw InputError(path, 0, std::string("cannot write the output file: ") + std::strerror(err),
                      "check free disk space and permissions");
   }
+}
+
+bool same_file(const std::string& a, const std::string& b) {
+  struct stat sa {
+  }, sb{};
+  const bool ea = ::stat(a.c_str(), &sa) == 0;
+  const bool eb = ::stat(b.c_str(), &sb) == 0;
+  if (ea && eb) return sa.st_dev == sb.st_dev && sa.st_ino == sb.st_ino;
+  if (ea != eb) return false;  // one exists, the other does not: different files
+  std::error_code ec1, ec2;
+  const auto pa = std::filesystem::weakly_canonical(std::filesystem::absolute(a), ec1);
+  const auto pb = std::filesystem::weakly_canonical(std::filesystem::absolute(b), ec2);
+  if (ec1 || ec2) return std::filesystem::absolute(a) == std::filesystem::absolute(b);
+  return pa == pb;
 }
 
 std::string read_file_bytes(const std::string& path) {

@@ -13,6 +13,12 @@ namespace ridgecal {
 /// rename fails; the temporary file is removed in that case.
 void write_file_atomic(const std::string& path, std::string_view content);
 
+/// True when `a` and `b` name the same file: the same device and inode when
+/// both exist, else the same absolute path after resolving symbolic links of
+/// the part that exists (a file not yet created). Used to refuse an output
+/// that is also an input or another output.
+bool same_file(const std::string& a, const std::string& b);
+
 /// Reads a whole file. Throws InputError when it cannot be opened.
 std::string read_file_bytes(const std::string& path);
 
