@@ -158,6 +158,7 @@ int run_export_command(const ExportCommand& cmd, std::ostream& out, std::ostream
   }
   try {
     // Refuses a record edited by hand unless --allow-modified (record_guard.hpp).
+    refuse_output_clashes({cmd.record_path}, {cmd.output_path}, {"header"});
     const GuardedRecord guarded = load_record_checked(cmd.record_path, cmd.allow_modified);
     const CalibrationRecord& rec = guarded.record;
     const Calibration& cal = rec.calibration;

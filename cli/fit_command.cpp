@@ -155,6 +155,8 @@ int run_fit_command(const FitCommand& cmd, std::ostream& out, std::ostream& err)
     return kExitOk;
   }
   try {
+    refuse_output_clashes({cmd.data_path}, {cmd.output_path, cmd.report_path},
+                          {"record", "report"});
     const Dataset data = read_calibration_csv(cmd.data_path, cmd.csv);
     CalibrateOptions options;
     options.fit = cmd.fit;
@@ -172,8 +174,11 @@ int run_fit_command(const FitCommand& cmd, std::ostream& out, std::ostream& err)
         cmd.report_path.empty()
             ? std::string()
             : report::render_html_report(record_from_json(j, cmd.data_path), record_seal(j));
-    if (!cmd.output_path.empty()) write_file_atomic(cmd.output_path, record_text(j));
-    if (!cmd.report_path.empty()) write_file_atomic(cmd.report_path, report_html);
+    // The record and the report are written together, all or none.
+    std::vector<OutputFile> outputs;
+    if (!cmd.output_path.empty()) outputs.push_back({cmd.output_path, record_text(j)});
+    if (!cmd.report_path.empty()) outputs.push_back({cmd.report_path, report_html});
+    write_outputs_atomic(outputs);
     if (!cmd.sensor.name.empty() || !cmd.sensor.reading_unit.empty() ||
         !cmd.sensor.reference_unit.empty())
       out << fmt::format(

@@ -70,6 +70,7 @@ int run_report_command(const ReportCommand& cmd, std::ostream& out, std::ostream
   try {
     // Validates the layout and the integrity digest: an edited record is refused
     // unless --allow-modified, and then the report itself says so.
+    refuse_output_clashes({cmd.record_path}, {cmd.output_path}, {"report"});
     const GuardedRecord guarded = load_record_checked(cmd.record_path, cmd.allow_modified);
     if (guarded.modified)
       err << "ridgecal report: warning: " << modified_record_note(cmd.record_path)
