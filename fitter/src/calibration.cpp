@@ -62,7 +62,12 @@ std::vector<double> default_lambda_grid() {
 
 namespace {
 constexpr int kMaxDegree = 20;
-}
+// The largest penalty accepted. Lambda is dimensionless (O(1) Chebyshev
+// columns, a mean-square data term): above about 1e3 every coefficient but the
+// intercept is already shrunk to nothing, and far larger values overflow n *
+// lambda. 1e6 leaves three decades of margin.
+constexpr double kMaxLambda = 1e6;
+}  // namespace
 
 std::string FitOptions::validate() const {
   if (fixed_degree.has_value() != fixed_lambda.has_value())
@@ -71,8 +76,11 @@ std::string FitOptions::validate() const {
     if (*fixed_degree < (intercept ? 0 : 1) || *fixed_degree > kMaxDegree)
       return fmt::format("fixed_degree is {}; it must be between {} and {}", *fixed_degree,
                          intercept ? 0 : 1, kMaxDegree);
-    if (!(std::isfinite(*fixed_lambda) && *fixed_lambda >= 0.0))
-      return fmt::format("fixed_lambda is {}; it must be a finite number >= 0", *fixed_lambda);
+    if (!(*fixed_lambda >= 0.0 && *fixed_lambda <= kMaxLambda))
+      return fmt::format(
+          "fixed_lambda is {}; it must be between 0 and {:g} (a penalty above about 1e3 already "
+          "shrinks the curve to a constant)",
+          *fixed_lambda, kMaxLambda);
   } else {
     if (degrees.empty()) return "degrees is empty; give at least one candidate degree";
     for (int d : degrees)
@@ -81,8 +89,11 @@ std::string FitOptions::validate() const {
                            d, kMaxDegree);
     if (lambdas.empty()) return "lambdas is empty; give at least one candidate penalty";
     for (double l : lambdas)
-      if (!(std::isfinite(l) && l >= 0.0))
-        return fmt::format("lambdas contains {}; every penalty must be a finite number >= 0", l);
+      if (!(l >= 0.0 && l <= kMaxLambda))
+        return fmt::format(
+            "lambdas contains {}; every penalty must be between 0 and {:g} (a penalty above about "
+            "1e3 already shrinks the curve to a constant)",
+            l, kMaxLambda);
   }
   return split.validate();
 }

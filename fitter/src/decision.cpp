@@ -99,6 +99,12 @@ Decision judge(const std::vector<PointToJudge>& points, const ToleranceSpec& tol
 }
 
 namespace {
+// A figure for the terminal; a non-finite one (a model evaluated far outside
+// what double can hold) reads "not finite", never "nan" or "inf".
+std::string figure(double v, const char* spec) {
+  return std::isfinite(v) ? fmt::format(fmt::runtime(spec), v) : std::string("not finite");
+}
+
 std::string failing_points(const std::vector<PointJudgement>& points, std::size_t max_shown) {
   std::string s;
   std::size_t shown = 0, failed = 0;
@@ -107,12 +113,22 @@ std::string failing_points(const std::vector<PointJudgement>& points, std::size_
     ++failed;
     if (shown++ < max_shown)
       s += fmt::format(
-          "  out of tolerance: line {} ({}), reference {:g}, error {:+.4g}, acceptance limit "
-          "{:.4g}\n",
-          p.line, p.set, p.reference, p.error, p.acceptance_limit);
+          "  out of tolerance: line {} ({}), reference {:g}, error {}, acceptance limit {}\n",
+          p.line, p.set, p.reference, figure(p.error, "{:+.4g}"),
+          figure(p.acceptance_limit, "{:.4g}"));
   }
   if (failed > max_shown)
     s += fmt::format("  ... and {} more points out of tolerance\n", failed - max_shown);
+  return s;
+}
+
+std::string set_lines(const std::vector<SetJudgement>& sets) {
+  std::string s;
+  for (const SetJudgement& set : sets)
+    s += fmt::format(
+        "  {:<10} {} of {} points within tolerance, max |error| {}, worst {} of the limit{}\n",
+        set.name, set.n - set.failed, set.n, figure(set.max_abs_error, "{:.4g}"),
+        figure(100.0 * set.worst_ratio, "{:.0f}%"), set.counts ? "" : " (informative)");
   return s;
 }
 }  // namespace
@@ -120,12 +136,7 @@ std::string failing_points(const std::vector<PointJudgement>& points, std::size_
 std::string Decision::brief() const {
   std::string s = fmt::format("decision: {} ({} acceptance)\n", to_string(verdict),
                               rule == DecisionRule::SimpleAcceptance ? "simple" : "guarded");
-  for (const SetJudgement& set : sets)
-    s += fmt::format(
-        "  {:<10} {} of {} points within tolerance, max |error| {:.4g}, worst {:.0f}% of the "
-        "limit{}\n",
-        set.name, set.n - set.failed, set.n, set.max_abs_error, 100.0 * set.worst_ratio,
-        set.counts ? "" : " (informative)");
+  s += set_lines(sets);
   return s + failing_points(points, 10);
 }
 
@@ -133,12 +144,7 @@ std::string Decision::full() const {
   std::string s = fmt::format("decision: {} ({} acceptance)\n", to_string(verdict),
                               rule == DecisionRule::SimpleAcceptance ? "simple" : "guarded");
   s += "  " + statement + "\n";
-  for (const SetJudgement& set : sets)
-    s += fmt::format(
-        "  {:<10} {} of {} points within tolerance, max |error| {:.4g}, worst {:.0f}% of the "
-        "limit{}\n",
-        set.name, set.n - set.failed, set.n, set.max_abs_error, 100.0 * set.worst_ratio,
-        set.counts ? "" : " (informative)");
+  s += set_lines(sets);
   return s + failing_points(points, points.size());
 }
 
