@@ -110,8 +110,7 @@ int run_verify_command(const VerifyCommand& cmd, std::ostream& out, std::ostream
     return kExitOk;
   }
   try {
-    refuse_output_clashes({cmd.record_path, cmd.data_path}, {cmd.output_path},
-                          {"as-found result"});
+    refuse_output_clashes({cmd.record_path, cmd.data_path}, {cmd.output_path}, {"as-found result"});
     const CheckedRecord rec = read_checked_record(cmd.record_path, cmd.allow_modified);
     CsvOptions csv;
     csv.reading_column = cmd.reading_column.value_or(rec.record.input.columns.reading_column);
