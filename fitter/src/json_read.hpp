@@ -1,5 +1,5 @@
 // ridgecal internal: the one strict reader of JSON members, used for every
-// part of the record (record.cpp, surface_record.cpp, tolerance, decision,
+// part of the record (record_read.cpp, record_model.cpp, tolerance, decision,
 // uncertainty, warnings) and of the as-found file. Every failure is an
 // InputError naming the member.
 #pragma once

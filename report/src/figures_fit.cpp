@@ -33,7 +33,7 @@ void fit_figure(Builder& b, const ReportData& d) {
     for (int i = 0; i <= n; ++i) {
       const double x = lo + (hi - lo) * i / n;
       curve.x.push_back(x);
-      curve.y.push_back(model_value(d.rec.calibration, x, 0.0));
+      curve.y.push_back(model_value(m, x, 0.0));
     }
     p.series.push_back(curve);
   } else if (std::isfinite(lo) && hi > lo) {
@@ -66,7 +66,7 @@ void fit_figure(Builder& b, const ReportData& d) {
                                 0};
       for (int i = 0; i <= n; ++i) {
         const double x = lo + (hi - lo) * i / n;
-        const double y = model_value(d.rec.calibration, x, levels[k].first);
+        const double y = model_value(m, x, levels[k].first);
         if (!std::isfinite(y)) continue;
         curve.x.push_back(x);
         curve.y.push_back(y);

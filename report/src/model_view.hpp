@@ -1,7 +1,7 @@
 // ridgecal report (internal): everything the report needs from the fitted
-// model, in one place. No other report file touches Calibration::model or
-// Calibration::surface; when the fitter's model representation changes, only
-// model_view.cpp follows.
+// model, in one place, read from general_model(cal) (the one-input polynomial
+// is its N = 1 case); `extended` (is_extended) picks what the page shows. No
+// other report file touches Calibration::model or Calibration::surface.
 #pragma once
 
 #include <string>
@@ -37,17 +37,18 @@ struct ModelView {
   InputRange aux;                 ///< extended with aux
   std::vector<double> chebyshev;  ///< 1-D: Chebyshev coefficients c_k of T_k(t)
   std::vector<double> power;      ///< 1-D: power coefficients a_k of x^k (derived)
-  std::vector<TermView> terms;    ///< extended: the fitted terms
+  std::vector<TermView> terms;    ///< the fitted terms (1-D: (0,0)..(d,0))
   std::string
       term_rule;  ///< extended: which terms were candidates (record's compensation.term_rule)
   std::string aux_grouping;   ///< extended: how aux levels were grouped
   std::string boundary_rule;  ///< extended: which groups always stay in training
+  SurfaceModel model;         ///< general_model(cal): what model_value evaluates
 };
 
 ModelView describe_model(const CalibrationRecord& rec);
 
 /// The calibrated value at a reading (and aux value), in reference units,
 /// through the whole transform chain; NaN outside the transforms' domain.
-double model_value(const Calibration& cal, double reading, double aux);
+double model_value(const ModelView& m, double reading, double aux);
 
 }  // namespace ridgecal::report::detail

@@ -15,7 +15,6 @@
 #include "../support/linear_inputs_fit.hpp"
 #include "ridgecal/multi_input_fit.hpp"
 #include "ridgecal/record.hpp"
-#include "ridgecal/surface_record.hpp"
 #include "test_support.hpp"
 
 using namespace ridgecal;
@@ -351,6 +350,15 @@ BOOST_AUTO_TEST_CASE(record_round_trip_of_a_surface) {
                boost::test_tools::tolerance(kRoundoff));
   // Writing the parsed record again gives the same document.
   BOOST_TEST(record_to_json(back) == j);
+  // The stated total degree must be that of the terms.
+  nlohmann::json bad = j;
+  bad["model"]["degree"] = j["model"]["degree"].get<int>() + 1;
+  try {
+    record_from_json(bad, "bad.json");
+    BOOST_ERROR("a surface record with a wrong model.degree was accepted");
+  } catch (const InputError& e) {
+    BOOST_TEST(e.message().find("record member 'model.degree'") != std::string::npos, e.message());
+  }
 }
 
 BOOST_AUTO_TEST_CASE(one_dimensional_records_carry_no_new_members) {
