@@ -12,7 +12,7 @@
 #include "cli_common.hpp"
 #include "ridgecal/atomic_file.hpp"
 #include "ridgecal/errors.hpp"
-#include "ridgecal/firmware/surface_export.hpp"
+#include "ridgecal/firmware/export.hpp"
 #include "ridgecal/record.hpp"
 #include "ridgecal/record_guard.hpp"
 
@@ -49,37 +49,28 @@ po::options_description export_options() {
 // The record's optional assessment (rec.tolerance, rec.decision; see
 // tolerance.hpp and decision.hpp). The refusal rule needs one absolute number:
 // the strictest tolerance limit over the calibrated range, the minimum of
-// limit(p(x)) on a grid.
+// limit(model) on a grid over the calibrated reading (and aux) range.
 struct RecordAssessment {
   std::optional<double> tolerance_abs;
   std::string tolerance_text;
   std::string verdict;
 };
 
-RecordAssessment record_assessment(const CalibrationRecord& rec) {
+RecordAssessment record_assessment(const CalibrationRecord& rec,
+                                   const firmware::FirmwareModel& fm) {
   RecordAssessment a;
-  const PolyModel& model = rec.calibration.model;
   if (rec.tolerance) {
     double strictest = std::numeric_limits<double>::infinity();
-    constexpr int kGrid = 2001;
-    if (const auto& sm = rec.calibration.surface) {
-      // Extended model: over the calibrated region of both inputs.
-      const auto [lo, hi] = firmware::surface_reading_range(*sm);
-      const int na = sm->has_aux ? 41 : 1;
-      for (int j = 0; j < na; ++j) {
-        const double a =
-            sm->has_aux ? sm->aux.min + (sm->aux.max - sm->aux.min) * j / (na - 1) : 0.0;
-        for (int i = 0; i < 401; ++i) {
-          const double x = lo + (hi - lo) * i / 400;
-          const double y = sm->eval(x, a);
-          if (std::isfinite(y)) strictest = std::min(strictest, rec.tolerance->limit(y));
-        }
-      }
-    } else {
-      for (int i = 0; i < kGrid; ++i) {
-        const double x =
-            model.scaling.x_min + (model.scaling.x_max - model.scaling.x_min) * i / (kGrid - 1);
-        strictest = std::min(strictest, rec.tolerance->limit(model.eval(x)));
+    // grid: 2001 readings for the one-input model, 401 x 41 (reading, aux)
+    // for the extended one (41 only with an aux input)
+    const auto [lo, hi] = firmware::raw_reading_range(fm);
+    const int nx = fm.extended ? 401 : 2001, na = fm.has_aux() ? 41 : 1;
+    for (int j = 0; j < na; ++j) {
+      const double amin = na > 1 ? fm.inputs[1].min : 0.0, amax = na > 1 ? fm.inputs[1].max : 0.0;
+      const double aux = na > 1 ? amin + (amax - amin) * j / (na - 1) : 0.0;
+      for (int i = 0; i < nx; ++i) {
+        const double y = fm.reference(lo + (hi - lo) * i / (nx - 1), aux);
+        if (std::isfinite(y)) strictest = std::min(strictest, rec.tolerance->limit(y));
       }
     }
     if (std::isfinite(strictest) && strictest > 0) a.tolerance_abs = strictest;
@@ -162,11 +153,13 @@ int run_export_command(const ExportCommand& cmd, std::ostream& out, std::ostream
     const GuardedRecord guarded = load_record_checked(cmd.record_path, cmd.allow_modified);
     const CalibrationRecord& rec = guarded.record;
     const Calibration& cal = rec.calibration;
+    // The one adapter: the general model, in the dialect is_extended(cal) picks.
+    const firmware::FirmwareModel fm = firmware::firmware_model(cal);
     firmware::HeaderMeta meta;
     meta.sensor_name = rec.sensor.name;
     meta.reading_unit = rec.sensor.reading_unit;
     meta.reference_unit = rec.sensor.reference_unit;
-    meta.degree = cal.surface ? cal.surface->total_degree() : cal.model.degree();
+    meta.degree = general_model(cal).total_degree();
     meta.lambda = cal.lambda;
     meta.validation_rmse =
         cal.validation.empty() ? firmware::HeaderMeta::kUnset : cal.validation.rmse;
@@ -175,7 +168,7 @@ int run_export_command(const ExportCommand& cmd, std::ostream& out, std::ostream
     meta.test_rmse = cal.test.empty() ? firmware::HeaderMeta::kUnset : cal.test.rmse;
     meta.test_max_abs_error =
         cal.test.empty() ? firmware::HeaderMeta::kUnset : cal.test.max_abs_error;
-    const RecordAssessment assessed = record_assessment(rec);
+    const RecordAssessment assessed = record_assessment(rec, fm);
     // The verdict is the record's, computed once by the assessment when the
     // record was made: the header states it verbatim and never judges again.
     // --tolerance only feeds the refusal rule (header arithmetic vs model).
@@ -204,12 +197,7 @@ int run_export_command(const ExportCommand& cmd, std::ostream& out, std::ostream
     meta.aux_unit = rec.input.columns.aux_column.empty() ? std::string()
                                                          : rec.input.columns.aux_column + " units";
 
-    // Extended records (aux input, transforms, restricted powers) go through the
-    // surface generator (surface_export.hpp); 1-D records are unchanged.
-    std::optional<firmware::SurfaceExportResult> surface;
-    if (cal.surface) surface = firmware::generate_surface_header(*cal.surface, meta, cmd.options);
-    const firmware::ExportResult r =
-        surface ? surface->common : firmware::generate_c_header(cal.model, meta, cmd.options);
+    const firmware::ExportResult r = firmware::generate_header(fm, meta, cmd.options);
     if (r.status == firmware::ExportStatus::InvalidInput)
       throw InputError(cmd.record_path, 0, r.message, "see 'ridgecal export --help'");
     if (r.status == firmware::ExportStatus::Refused) {

@@ -102,7 +102,7 @@ void write_inputs_h(const fs::path& p, const std::vector<std::uint32_t>& v,
 }
 
 bool write_fixture(const fs::path& dir, const fwtest::Fixture& f) {
-  const ExportResult r = generate_c_header(f.model, f.meta, f.options);
+  const ExportResult r = generate_header(firmware_model(f.model), f.meta, f.options);
   if (!r.ok()) {
     std::cerr << f.name << ": " << r.message << "\n";
     return false;
@@ -187,13 +187,13 @@ bool write_fixture(const fs::path& dir, const fwtest::Fixture& f) {
 // and fw_compare then checks |target - host emulation| <= bound instead of bit
 // identity (log/logf differ between C libraries; see docs/firmware-export.md).
 bool write_surface_fixture(const fs::path& dir, const fwtest::SurfaceFixture& f) {
-  const SurfaceExportResult r = generate_surface_header(f.model, f.meta, f.options);
+  const ExportResult r = generate_header(firmware_model(f.model), f.meta, f.options);
   if (!r.ok()) {
-    std::cerr << f.name << ": " << r.common.message << "\n";
+    std::cerr << f.name << ": " << r.message << "\n";
     return false;
   }
   fs::create_directories(dir);
-  std::ofstream(dir / "fwt_calib.h") << r.common.header;
+  std::ofstream(dir / "fwt_calib.h") << r.header;
   Lines L;
   std::vector<std::uint32_t> in, chk, ain, achk;
   const std::string mode = to_string(f.options.mode);
@@ -273,16 +273,15 @@ bool write_surface_fixture(const fs::path& dir, const fwtest::SurfaceFixture& f)
       if (!is_float) {  // a 32-bit double runs the float program's arithmetic
         ExportOptions fo = f.options;
         fo.mode = NumericMode::Float;
-        const SurfaceExportResult rf = generate_surface_header(f.model, f.meta, fo);
-        narrow = rf.common.max_deviation + rf.libm_allowance + r.common.max_deviation;
+        const ExportResult rf = generate_header(firmware_model(f.model), f.meta, fo);
+        narrow = rf.max_deviation + rf.libm_allowance + r.max_deviation;
       }
       char b[128];
-      std::snprintf(b, sizeof b, "# tol %.6e %.6e", 2 * r.common.max_deviation + r.libm_allowance,
-                    narrow);
+      std::snprintf(b, sizeof b, "# tol %.6e %.6e", 2 * r.max_deviation + r.libm_allowance, narrow);
       tol_line = b;
     }
     L.add("I mode=" + mode + " n=" + std::to_string(xs.size()) + " k=" + std::to_string(cx.size()));
-    L.add("C " + hex8(r.common.table_crc32) + " 0");
+    L.add("C " + hex8(r.table_crc32) + " 0");
     const auto ab = [&](float a) { return has_aux ? hex8(fbits(a)) + " " : std::string(); };
     std::ofstream model_txt(dir / "model.txt");  // the double model at each V input (documentation)
     model_txt.precision(17);
@@ -332,7 +331,7 @@ bool write_surface_fixture(const fs::path& dir, const fwtest::SurfaceFixture& f)
         {2147483647, -2147483647 - 1},
         {i32((lo + hi) / 2), i32((alo + ahi) / 2)}};
     L.add("I mode=" + mode + " n=" + std::to_string(xs.size()) + " k=" + std::to_string(cx.size()));
-    L.add("C " + hex8(r.common.table_crc32) + " 0");
+    L.add("C " + hex8(r.table_crc32) + " 0");
     const auto ab = [&](std::int32_t a) {
       return has_aux ? hex8(static_cast<std::uint32_t>(a)) + " " : std::string();
     };
@@ -363,9 +362,9 @@ bool write_surface_fixture(const fs::path& dir, const fwtest::SurfaceFixture& f)
   write_inputs_h(dir / "fwt_inputs.h", in, chk, has_aux ? &ain : nullptr,
                  has_aux ? &achk : nullptr);
   std::ofstream(dir / "export.txt")
-      << r.common.message << "\nmax_deviation " << r.common.max_deviation << "\nlibm_allowance "
-      << r.libm_allowance << "\nformats " << r.common.formats << "\n";
-  std::cout << f.name << ": " << r.common.message << "\n";
+      << r.message << "\nmax_deviation " << r.max_deviation << "\nlibm_allowance "
+      << r.libm_allowance << "\nformats " << r.formats << "\n";
+  std::cout << f.name << ": " << r.message << "\n";
   return true;
 }
 

@@ -7,7 +7,6 @@
 #include <vector>
 
 #include "ridgecal/firmware/export.hpp"
-#include "ridgecal/firmware/surface_export.hpp"
 #include "ridgecal/poly_model.hpp"
 
 namespace fwtest {

@@ -122,7 +122,7 @@ BOOST_AUTO_TEST_CASE(options_validate_names_field_value_rule) {
 BOOST_AUTO_TEST_CASE(invalid_prefix_is_never_written) {
   ExportOptions o = opts(NumericMode::Float);
   o.prefix = "x */ int evil; /*";
-  const ExportResult r = generate_c_header(fwtest::ntc_model(), ntc_meta(), o);
+  const ExportResult r = generate_header(firmware_model(fwtest::ntc_model()), ntc_meta(), o);
   BOOST_TEST((r.status == ExportStatus::InvalidInput));
   BOOST_TEST(r.header.empty());
 }
@@ -170,7 +170,7 @@ BOOST_AUTO_TEST_CASE(comment_escaping_hostile_strings) {
   meta.record_sha256 = hostile[9];
   meta.tool_version = hostile[10];
   for (NumericMode mode : {NumericMode::Float, NumericMode::Double, NumericMode::Fixed}) {
-    const ExportResult r = generate_c_header(fwtest::ntc_model(), meta, opts(mode));
+    const ExportResult r = generate_header(firmware_model(fwtest::ntc_model()), meta, opts(mode));
     BOOST_REQUIRE(r.ok());
     const std::string banner = first_comment(r.header);
     BOOST_TEST(banner.find("Uses <stdint.h> only") != std::string::npos);
@@ -270,7 +270,8 @@ BOOST_AUTO_TEST_CASE(table_byte_order_is_value_defined) {
 
 BOOST_AUTO_TEST_CASE(header_carries_table_crc) {
   for (NumericMode mode : {NumericMode::Float, NumericMode::Double, NumericMode::Fixed}) {
-    const ExportResult r = generate_c_header(fwtest::ntc_model(), ntc_meta(), opts(mode));
+    const ExportResult r =
+        generate_header(firmware_model(fwtest::ntc_model()), ntc_meta(), opts(mode));
     BOOST_REQUIRE(r.ok());
     std::uint32_t expect = 0;
     if (r.float_program) expect = crc32_bytes(table_bytes(r.float_program->coef));
@@ -288,7 +289,8 @@ BOOST_AUTO_TEST_CASE(header_carries_table_crc) {
 
 BOOST_AUTO_TEST_CASE(header_contract_elements) {
   for (NumericMode mode : {NumericMode::Float, NumericMode::Double, NumericMode::Fixed}) {
-    const ExportResult r = generate_c_header(fwtest::ntc_model(), ntc_meta(), opts(mode));
+    const ExportResult r =
+        generate_header(firmware_model(fwtest::ntc_model()), ntc_meta(), opts(mode));
     BOOST_REQUIRE(r.ok());
     const std::string& full = r.header;
     const std::string h = code_only(full);
@@ -328,7 +330,7 @@ BOOST_AUTO_TEST_CASE(header_contract_elements) {
 
 BOOST_AUTO_TEST_CASE(float_emulation_tracks_model) {
   const auto m = fwtest::ntc_model();
-  const ExportResult r = generate_c_header(m, ntc_meta(), opts(NumericMode::Float));
+  const ExportResult r = generate_header(firmware_model(m), ntc_meta(), opts(NumericMode::Float));
   BOOST_REQUIRE(r.ok());
   BOOST_TEST((r.basis == Basis::ScaledT));
   // binary32: a few ulps of max|p| (~101 degC): 2^-24 * 101 * 8 ~ 5e-5
@@ -353,14 +355,14 @@ BOOST_AUTO_TEST_CASE(scaled_t_chosen_far_from_zero) {
   PolyModel m;
   m.scaling = {1.0e6, 1.0e6 + 500.0};
   m.cheb = {10.0, 3.0, -0.5, 0.25};
-  const ExportResult r = generate_c_header(m, ntc_meta(), opts(NumericMode::Float));
+  const ExportResult r = generate_header(firmware_model(m), ntc_meta(), opts(NumericMode::Float));
   BOOST_TEST((r.basis == Basis::ScaledT));
   BOOST_TEST(r.formats.find("scaled t") != std::string::npos);
 }
 
 BOOST_AUTO_TEST_CASE(double_mode_is_near_exact) {
   const ExportResult r =
-      generate_c_header(fwtest::ntc_model(), ntc_meta(), opts(NumericMode::Double));
+      generate_header(firmware_model(fwtest::ntc_model()), ntc_meta(), opts(NumericMode::Double));
   BOOST_REQUIRE(r.ok());
   // binary64 Horner of degree 5 on values ~100: well below 1e-12
   constexpr double kDoubleBound = 1e-12;
@@ -424,7 +426,7 @@ BOOST_AUTO_TEST_CASE(fixed_point_bounds_hold_for_every_input) {
 
 BOOST_AUTO_TEST_CASE(fixed_point_accuracy_and_exhaustive_check) {
   const ExportResult r =
-      generate_c_header(fwtest::ntc_model(), ntc_meta(), opts(NumericMode::Fixed));
+      generate_header(firmware_model(fwtest::ntc_model()), ntc_meta(), opts(NumericMode::Fixed));
   BOOST_REQUIRE(r.ok());
   // output rounding to 1/1000 degC is 0.0005; arithmetic adds far less
   constexpr double kFixedBound = 0.0005 + 1e-6;
@@ -440,7 +442,7 @@ BOOST_AUTO_TEST_CASE(fixed_point_accuracy_and_exhaustive_check) {
 BOOST_AUTO_TEST_CASE(fixed_point_rejects_unrepresentable_output) {
   ExportOptions o = opts(NumericMode::Fixed);
   o.output_scale = 1e9;  // ~1e11 output units: beyond int32
-  const ExportResult r = generate_c_header(fwtest::ntc_model(), ntc_meta(), o);
+  const ExportResult r = generate_header(firmware_model(fwtest::ntc_model()), ntc_meta(), o);
   BOOST_TEST((r.status == ExportStatus::InvalidInput));
   BOOST_TEST(r.message.find("31 bits") != std::string::npos, r.message);
 }
@@ -450,7 +452,7 @@ BOOST_AUTO_TEST_CASE(fixed_point_wide_bipolar_range) {
   const auto it =
       std::find_if(f.begin(), f.end(), [](const auto& x) { return x.name == "bridge_fixed"; });
   BOOST_REQUIRE(it != f.end());
-  const ExportResult r = generate_c_header(it->model, it->meta, it->options);
+  const ExportResult r = generate_header(firmware_model(it->model), it->meta, it->options);
   BOOST_REQUIRE(r.ok());
   BOOST_TEST(r.fixed_plan->t.raw_min == -30000);
   BOOST_TEST(r.points_checked == 60001u);
@@ -461,44 +463,46 @@ BOOST_AUTO_TEST_CASE(fixed_point_wide_bipolar_range) {
 BOOST_AUTO_TEST_CASE(refusal_at_the_limit) {
   const auto m = fwtest::ntc_model();
   HeaderMeta meta = ntc_meta();
-  const ExportResult base = generate_c_header(m, meta, opts(NumericMode::Float));
+  const ExportResult base = generate_header(firmware_model(m), meta, opts(NumericMode::Float));
   BOOST_REQUIRE(base.ok());
   const double dev = base.max_deviation;
   // limit = 0.1 x tolerance: just above the deviation passes, just below refuses
   meta.tolerance_abs = dev / 0.1 * 1.01;
-  BOOST_TEST(generate_c_header(m, meta, opts(NumericMode::Float)).ok());
+  BOOST_TEST(generate_header(firmware_model(m), meta, opts(NumericMode::Float)).ok());
   meta.tolerance_abs = dev / 0.1 * 0.99;
-  const ExportResult refused = generate_c_header(m, meta, opts(NumericMode::Float));
+  const ExportResult refused = generate_header(firmware_model(m), meta, opts(NumericMode::Float));
   BOOST_TEST((refused.status == ExportStatus::Refused));
   BOOST_TEST(refused.message.find("refused") != std::string::npos);
   BOOST_TEST(refused.max_deviation == dev);
   // a larger fraction lets the same header through
   ExportOptions o = opts(NumericMode::Float);
   o.max_deviation_fraction = 0.2;
-  BOOST_TEST(generate_c_header(m, meta, o).ok());
+  BOOST_TEST(generate_header(firmware_model(m), meta, o).ok());
 }
 
 BOOST_AUTO_TEST_CASE(fixed_refused_when_output_rounding_is_too_coarse) {
   HeaderMeta meta = ntc_meta();
   meta.tolerance_abs = 0.001;  // limit 1e-4 < output rounding 5e-4 at milli-units
-  const ExportResult r = generate_c_header(fwtest::ntc_model(), meta, opts(NumericMode::Fixed));
+  const ExportResult r =
+      generate_header(firmware_model(fwtest::ntc_model()), meta, opts(NumericMode::Fixed));
   BOOST_TEST((r.status == ExportStatus::Refused));
   ExportOptions o = opts(NumericMode::Fixed);
   o.output_scale = 100000.0;  // 1e-5 degC units
-  BOOST_TEST(generate_c_header(fwtest::ntc_model(), meta, o).ok());
+  BOOST_TEST(generate_header(firmware_model(fwtest::ntc_model()), meta, o).ok());
 }
 
 BOOST_AUTO_TEST_CASE(tolerance_fallback) {
   HeaderMeta meta = ntc_meta();
   meta.tolerance_abs.reset();
   meta.validation_rmse = 0.02;
-  ExportResult r = generate_c_header(fwtest::ntc_model(), meta, opts(NumericMode::Float));
+  ExportResult r =
+      generate_header(firmware_model(fwtest::ntc_model()), meta, opts(NumericMode::Float));
   BOOST_TEST(r.ok());
   BOOST_TEST(r.tolerance_used == 0.02);
   BOOST_TEST(r.tolerance_source.find("validation RMSE") != std::string::npos);
   BOOST_TEST(r.header.find("validation RMSE, fallback") != std::string::npos);
   meta.validation_rmse = HeaderMeta::kUnset;
-  r = generate_c_header(fwtest::ntc_model(), meta, opts(NumericMode::Float));
+  r = generate_header(firmware_model(fwtest::ntc_model()), meta, opts(NumericMode::Float));
   BOOST_TEST((r.status == ExportStatus::InvalidInput));
 }
 
@@ -507,40 +511,81 @@ BOOST_AUTO_TEST_CASE(degenerate_models) {
   constant.scaling = {0.0, 10.0};
   constant.cheb = {4.25};
   for (NumericMode mode : {NumericMode::Float, NumericMode::Double, NumericMode::Fixed}) {
-    const ExportResult r = generate_c_header(constant, ntc_meta(), opts(mode));
+    const ExportResult r = generate_header(firmware_model(constant), ntc_meta(), opts(mode));
     BOOST_TEST(r.ok(), to_string(mode) << ": " << r.message);
     BOOST_TEST(r.max_deviation == 0.0);
   }
   PolyModel empty;
-  BOOST_TEST((generate_c_header(empty, ntc_meta(), opts(NumericMode::Float)).status ==
+  BOOST_TEST((generate_header(firmware_model(empty), ntc_meta(), opts(NumericMode::Float)).status ==
               ExportStatus::InvalidInput));
   PolyModel flat = fwtest::ntc_model();
   flat.scaling = {5.0, 5.0};
-  BOOST_TEST((generate_c_header(flat, ntc_meta(), opts(NumericMode::Float)).status ==
+  BOOST_TEST((generate_header(firmware_model(flat), ntc_meta(), opts(NumericMode::Float)).status ==
               ExportStatus::InvalidInput));
   PolyModel nan = fwtest::ntc_model();
   nan.cheb[2] = std::nan("");
-  BOOST_TEST((generate_c_header(nan, ntc_meta(), opts(NumericMode::Fixed)).status ==
+  BOOST_TEST((generate_header(firmware_model(nan), ntc_meta(), opts(NumericMode::Fixed)).status ==
               ExportStatus::InvalidInput));
 }
 
 BOOST_AUTO_TEST_CASE(fixed_raw_range_beyond_calibration_is_flagged) {
   ExportOptions o = opts(NumericMode::Fixed);
-  BOOST_TEST(generate_c_header(fwtest::ntc_model(), ntc_meta(), o).header.find("extrapolations") ==
-             std::string::npos);
+  BOOST_TEST(generate_header(firmware_model(fwtest::ntc_model()), ntc_meta(), o)
+                 .header.find("extrapolations") == std::string::npos);
   o.raw_min = 0;
   o.raw_max = 4095;  // the whole 12-bit ADC, wider than the calibrated 200..3900
-  const ExportResult r = generate_c_header(fwtest::ntc_model(), ntc_meta(), o);
+  const ExportResult r = generate_header(firmware_model(fwtest::ntc_model()), ntc_meta(), o);
   BOOST_REQUIRE(r.ok());
   BOOST_TEST(r.header.find("beyond the calibrated range") != std::string::npos);
   // readings 0.2..0.8 with input_scale 1: no integer input at all
   PolyModel volts;
   volts.scaling = {0.2, 0.8};
   volts.cheb = {1.0, 2.0};
-  const ExportResult v = generate_c_header(volts, ntc_meta(), opts(NumericMode::Fixed));
+  const ExportResult v =
+      generate_header(firmware_model(volts), ntc_meta(), opts(NumericMode::Fixed));
   BOOST_TEST((v.status == ExportStatus::InvalidInput));
   BOOST_TEST(v.message.find("input_scale") != std::string::npos, v.message);
   o = opts(NumericMode::Fixed);
   o.input_scale = 1000.0;  // millivolts
-  BOOST_TEST(generate_c_header(volts, ntc_meta(), o).ok());
+  BOOST_TEST(generate_header(firmware_model(volts), ntc_meta(), o).ok());
+}
+
+// ---- one writer for every model ------------------------------------------------------
+
+BOOST_AUTO_TEST_CASE(calibration_adapter_picks_the_dialect) {
+  // A one-input calibration reaches the writer as general_model(cal), the
+  // N = 1 case, and must give exactly the header of its polynomial; an
+  // extended calibration that of its model, in the extended dialect.
+  Calibration one;
+  one.model = fwtest::ntc_model();
+  for (NumericMode mode : {NumericMode::Float, NumericMode::Double, NumericMode::Fixed}) {
+    const ExportResult a = generate_header(firmware_model(one), ntc_meta(), opts(mode));
+    const ExportResult b =
+        generate_header(firmware_model(fwtest::ntc_model()), ntc_meta(), opts(mode));
+    BOOST_TEST_REQUIRE(a.ok(), to_string(mode) << ": " << a.message);
+    BOOST_TEST(a.header == b.header, to_string(mode));
+    BOOST_TEST(a.header.find("#define FWT_DEGREE 5\n") != std::string::npos);
+    BOOST_TEST(a.header.find("_EXTENDED_MODEL") == std::string::npos);
+  }
+  Calibration ext;
+  ext.surface = fwtest::pressure_surface_model();
+  const HeaderMeta meta = fwtest::base_meta("PT-7", "counts", "bar", 0.01);
+  const ExportResult e = generate_header(firmware_model(ext), meta, opts(NumericMode::Float));
+  BOOST_TEST_REQUIRE(e.ok(), e.message);
+  BOOST_TEST(e.header == generate_header(firmware_model(fwtest::pressure_surface_model()), meta,
+                                         opts(NumericMode::Float))
+                             .header);
+  BOOST_TEST(e.header.find("#define FWT_EXTENDED_MODEL 1") != std::string::npos);
+  BOOST_TEST(e.header.find("FWT_INLINE float fwt_eval(float x, float aux)") != std::string::npos);
+}
+
+BOOST_AUTO_TEST_CASE(model_without_reference_is_invalid_input) {
+  // The proof needs the double-precision model: a FirmwareModel not made by
+  // firmware_model() is refused as bad input, and nothing is written.
+  FirmwareModel m = firmware_model(fwtest::ntc_model());
+  m.reference = nullptr;
+  const ExportResult r = generate_header(m, ntc_meta(), opts(NumericMode::Float));
+  BOOST_TEST((r.status == ExportStatus::InvalidInput));
+  BOOST_TEST(r.message.find("no reference model") != std::string::npos, r.message);
+  BOOST_TEST(r.header.empty());
 }

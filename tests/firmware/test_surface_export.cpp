@@ -1,4 +1,4 @@
-// Unit tests of the header generator for extended models (surface_export.hpp):
+// Unit tests of the header generator (export.hpp) for extended models:
 // 2-D polynomial with an aux input (float, double, fixed) and the
 // Steinhart-Hart thermistor through a divider (ln, reciprocal-kelvin).
 #define BOOST_TEST_MODULE surface_export
@@ -10,7 +10,7 @@
 
 #include "fixture_models.hpp"
 #include "ridgecal/firmware/crc_table.hpp"
-#include "ridgecal/firmware/surface_export.hpp"
+#include "ridgecal/firmware/export.hpp"
 
 using namespace ridgecal;
 using namespace ridgecal::firmware;
@@ -38,15 +38,15 @@ double counts_for(double r) {
 BOOST_AUTO_TEST_CASE(pressure_float_and_double_track_the_model) {
   for (const char* name : {"ptc2d_float", "ptc2d_double"}) {
     const auto f = fixture(name);
-    const SurfaceExportResult r = generate_surface_header(f.model, f.meta, f.options);
-    BOOST_TEST_REQUIRE(r.ok(), r.common.message);
-    BOOST_TEST_MESSAGE(name << ": max deviation " << r.common.max_deviation << " bar over "
-                            << r.common.points_checked << " points");
-    BOOST_TEST(r.common.max_deviation <= 0.1 * 0.01);
-    BOOST_TEST(r.common.points_checked > 50000u);
-    BOOST_TEST(r.common.readings_checked == 54u);
+    const ExportResult r = generate_header(firmware_model(f.model), f.meta, f.options);
+    BOOST_TEST_REQUIRE(r.ok(), r.message);
+    BOOST_TEST_MESSAGE(name << ": max deviation " << r.max_deviation << " bar over "
+                            << r.points_checked << " points");
+    BOOST_TEST(r.max_deviation <= 0.1 * 0.01);
+    BOOST_TEST(r.points_checked > 50000u);
+    BOOST_TEST(r.readings_checked == 54u);
     BOOST_TEST(r.libm_allowance == 0.0);
-    if (r.double_program) BOOST_TEST(r.common.max_deviation < 1e-11);
+    if (r.double_program) BOOST_TEST(r.max_deviation < 1e-11);
     // an independent check of the emulation at random points
     std::mt19937 rng(7);
     std::uniform_real_distribution<double> ux(5861.0, 59787.5), ua(-20.53, 79.87);
@@ -69,7 +69,7 @@ BOOST_AUTO_TEST_CASE(float_emulation_is_the_stated_nested_horner) {
   // v = sum_k t^k (sum_l m[k][l] s^l), one rounding per operation, written
   // out by hand for the 3 x 4 table: must match the emulation bit for bit.
   const auto f = fixture("ptc2d_float");
-  const SurfaceExportResult r = generate_surface_header(f.model, f.meta, f.options);
+  const ExportResult r = generate_header(firmware_model(f.model), f.meta, f.options);
   BOOST_TEST_REQUIRE(r.ok());
   const FloatProgram& p = *r.float_program;
   BOOST_TEST_REQUIRE(p.reading_degree == 2);
@@ -100,9 +100,9 @@ BOOST_AUTO_TEST_CASE(float_emulation_is_the_stated_nested_horner) {
 
 BOOST_AUTO_TEST_CASE(pressure_header_contract) {
   const auto f = fixture("ptc2d_float");
-  const SurfaceExportResult r = generate_surface_header(f.model, f.meta, f.options);
+  const ExportResult r = generate_header(firmware_model(f.model), f.meta, f.options);
   BOOST_TEST_REQUIRE(r.ok());
-  const std::string& h = r.common.header;
+  const std::string& h = r.header;
   BOOST_TEST(has(h, "GENERATED FILE -- DO NOT EDIT."));
   BOOST_TEST(has(h, "#define FWT_FORMAT_VERSION 1"));
   BOOST_TEST(has(h, "#define FWT_HAS_AUX 1"));
@@ -137,7 +137,7 @@ BOOST_AUTO_TEST_CASE(pressure_header_contract) {
 
 BOOST_AUTO_TEST_CASE(checked_variant_reports_both_inputs) {
   const auto f = fixture("ptc2d_float");
-  const SurfaceExportResult r = generate_surface_header(f.model, f.meta, f.options);
+  const ExportResult r = generate_header(firmware_model(f.model), f.meta, f.options);
   const FloatProgram& p = *r.float_program;
   int st = -1;
   eval_program_checked(p, 30000.0f, 20.0f, &st);
@@ -153,17 +153,17 @@ BOOST_AUTO_TEST_CASE(checked_variant_reports_both_inputs) {
 
 BOOST_AUTO_TEST_CASE(pressure_fixed_point_proof_and_accuracy) {
   const auto f = fixture("ptc2d_fixed");
-  const SurfaceExportResult r = generate_surface_header(f.model, f.meta, f.options);
-  BOOST_TEST_REQUIRE(r.ok(), r.common.message);
+  const ExportResult r = generate_header(firmware_model(f.model), f.meta, f.options);
+  BOOST_TEST_REQUIRE(r.ok(), r.message);
   const FixedPlan& p = *r.fixed_plan;
-  BOOST_TEST_MESSAGE("fixed: max deviation " << r.common.max_deviation << " bar");
+  BOOST_TEST_MESSAGE("fixed: max deviation " << r.max_deviation << " bar");
   BOOST_TEST(p.t.raw_min == 5861);
   BOOST_TEST(p.t.raw_max == 59787);
   BOOST_TEST(p.s.raw_min == -2053);
   BOOST_TEST(p.s.raw_max == 7987);
   // output rounding (0.5e-4 bar) plus a little arithmetic
-  BOOST_TEST(r.common.max_deviation < 0.6e-4);
-  BOOST_TEST(r.common.max_deviation >= 0.4e-4);  // the rounding itself must show
+  BOOST_TEST(r.max_deviation < 0.6e-4);
+  BOOST_TEST(r.max_deviation >= 0.4e-4);  // the rounding itself must show
   // every intermediate of random evaluations lies inside the proved bounds
   std::mt19937 rng(3);
   std::uniform_int_distribution<std::int32_t> ur(5861, 59787), ua(-2053, 7987);
@@ -176,7 +176,7 @@ BOOST_AUTO_TEST_CASE(pressure_fixed_point_proof_and_accuracy) {
   }
   BOOST_TEST(p.max_abs_product < 4.611686018427387904e18L);  // 2^62
   BOOST_TEST(p.max_abs_acc <= 2147483647.0L);
-  const std::string& h = r.common.header;
+  const std::string& h = r.header;
   BOOST_TEST(has(h, "FWT_INLINE int32_t fwt_eval_fixed(int32_t raw, int32_t raw_aux)"));
   BOOST_TEST(has(h, "static const int32_t FWT_COEF[FWT_N_COEF]"));
   BOOST_TEST(has(h, "Overflow proof"));
@@ -189,7 +189,7 @@ BOOST_AUTO_TEST_CASE(fixed_point_proof_can_fail) {
   // The proof is re-checked from the plan's integers: a coefficient pushed to
   // the int32 edge, or a shift that is too small, must be caught.
   const auto f = fixture("ptc2d_fixed");
-  const SurfaceExportResult r = generate_surface_header(f.model, f.meta, f.options);
+  const ExportResult r = generate_header(firmware_model(f.model), f.meta, f.options);
   BOOST_TEST_REQUIRE(r.ok());
   FixedPlan p = *r.fixed_plan;
   std::string why;
@@ -207,27 +207,27 @@ BOOST_AUTO_TEST_CASE(fixed_point_proof_can_fail) {
 BOOST_AUTO_TEST_CASE(fixed_with_transforms_is_refused_as_bad_input) {
   auto f = fixture("shntc_float");
   f.options.mode = NumericMode::Fixed;
-  const SurfaceExportResult r = generate_surface_header(f.model, f.meta, f.options);
-  BOOST_TEST((r.common.status == ExportStatus::InvalidInput));
-  BOOST_TEST(has(r.common.message, "use --numeric float or --numeric double"), r.common.message);
-  BOOST_TEST(r.common.header.empty());
+  const ExportResult r = generate_header(firmware_model(f.model), f.meta, f.options);
+  BOOST_TEST((r.status == ExportStatus::InvalidInput));
+  BOOST_TEST(has(r.message, "use --numeric float or --numeric double"), r.message);
+  BOOST_TEST(r.header.empty());
 }
 
 BOOST_AUTO_TEST_CASE(steinhart_hart_float_and_double) {
   for (const char* name : {"shntc_float", "shntc_double"}) {
     const auto f = fixture(name);
-    const SurfaceExportResult r = generate_surface_header(f.model, f.meta, f.options);
-    BOOST_TEST_REQUIRE(r.ok(), r.common.message);
-    BOOST_TEST_MESSAGE(name << ": max deviation " << r.common.max_deviation
-                            << " degC, log allowance " << r.libm_allowance << " degC");
+    const ExportResult r = generate_header(firmware_model(f.model), f.meta, f.options);
+    BOOST_TEST_REQUIRE(r.ok(), r.message);
+    BOOST_TEST_MESSAGE(name << ": max deviation " << r.max_deviation << " degC, log allowance "
+                            << r.libm_allowance << " degC");
     const bool is_float = r.float_program.has_value();
     BOOST_TEST(r.libm_allowance > 0.0);
-    BOOST_TEST(r.common.max_deviation + r.libm_allowance <= 0.01);
+    BOOST_TEST(r.max_deviation + r.libm_allowance <= 0.01);
     if (is_float)
-      BOOST_TEST(r.common.max_deviation < 2e-3);
+      BOOST_TEST(r.max_deviation < 2e-3);
     else
-      BOOST_TEST(r.common.max_deviation < 1e-9);
-    const std::string& h = r.common.header;
+      BOOST_TEST(r.max_deviation < 1e-9);
+    const std::string& h = r.header;
     BOOST_TEST(has(h, "#include <math.h>"));
     BOOST_TEST(
         has(h, "needs log()/logf() from the C library (libm;\n * newlib and avr-libc provide it"));
@@ -257,44 +257,44 @@ BOOST_AUTO_TEST_CASE(steinhart_hart_float_and_double) {
 
 BOOST_AUTO_TEST_CASE(log_models_report_the_allowance_and_refuse_beyond_it) {
   auto f = fixture("shntc_float");
-  const SurfaceExportResult ok = generate_surface_header(f.model, f.meta, f.options);
+  const ExportResult ok = generate_header(firmware_model(f.model), f.meta, f.options);
   BOOST_TEST_REQUIRE(ok.ok());
-  BOOST_TEST(has(ok.common.header, "log() allowance:"));
+  BOOST_TEST(has(ok.header, "log() allowance:"));
   // a tolerance whose 10 % lies between the measured deviation and
   // deviation + allowance: refused because of the allowance
-  const double mid = ok.common.max_deviation + 0.5 * ok.libm_allowance;
+  const double mid = ok.max_deviation + 0.5 * ok.libm_allowance;
   f.meta.tolerance_abs = mid / 0.1;
-  const SurfaceExportResult r = generate_surface_header(f.model, f.meta, f.options);
-  BOOST_TEST((r.common.status == ExportStatus::Refused), r.common.message);
-  BOOST_TEST(has(r.common.message, "log() allowance"));
+  const ExportResult r = generate_header(firmware_model(f.model), f.meta, f.options);
+  BOOST_TEST((r.status == ExportStatus::Refused), r.message);
+  BOOST_TEST(has(r.message, "log() allowance"));
 }
 
 BOOST_AUTO_TEST_CASE(refused_when_float_rounding_exceeds_the_limit) {
   auto f = fixture("ptc2d_float");
   f.meta.tolerance_abs = 1e-6;
-  const SurfaceExportResult r = generate_surface_header(f.model, f.meta, f.options);
-  BOOST_TEST((r.common.status == ExportStatus::Refused));
-  BOOST_TEST(!r.common.header.empty());
+  const ExportResult r = generate_header(firmware_model(f.model), f.meta, f.options);
+  BOOST_TEST((r.status == ExportStatus::Refused));
+  BOOST_TEST(!r.header.empty());
   f.options.mode = NumericMode::Double;
-  BOOST_TEST(generate_surface_header(f.model, f.meta, f.options).ok());
+  BOOST_TEST(generate_header(firmware_model(f.model), f.meta, f.options).ok());
 }
 
 BOOST_AUTO_TEST_CASE(reading_range_through_the_transforms) {
   const auto m = fwtest::steinhart_hart_model();
-  const auto [lo, hi] = surface_reading_range(m);
+  const auto [lo, hi] = raw_reading_range(firmware_model(m));
   BOOST_TEST(lo == counts_for(1000.0), boost::test_tools::tolerance(1e-12));
   BOOST_TEST(hi == counts_for(100000.0), boost::test_tools::tolerance(1e-12));
   auto high = m;
   high.transforms.divider.position = DividerPosition::SensorHigh;
-  const auto [lo2, hi2] = surface_reading_range(high);
+  const auto [lo2, hi2] = raw_reading_range(firmware_model(high));
   BOOST_TEST(lo2 == 4095.0 * 10000.0 / 110000.0, boost::test_tools::tolerance(1e-12));
   BOOST_TEST(hi2 == 4095.0 * 10000.0 / 11000.0, boost::test_tools::tolerance(1e-12));
   // the sensor-high divider exports and evaluates through the same chain
   auto f = fixture("shntc_double");
   f.model = high;
-  const SurfaceExportResult r = generate_surface_header(f.model, f.meta, f.options);
-  BOOST_TEST_REQUIRE(r.ok(), r.common.message);
-  BOOST_TEST(has(r.common.header, "(FWT_DIVIDER_FULL_SCALE - x)) / x"));
+  const ExportResult r = generate_header(firmware_model(f.model), f.meta, f.options);
+  BOOST_TEST_REQUIRE(r.ok(), r.message);
+  BOOST_TEST(has(r.header, "(FWT_DIVIDER_FULL_SCALE - x)) / x"));
   const double x = 0.5 * (lo2 + hi2);
   BOOST_TEST(std::fabs(eval_program(*r.double_program, x, 0.0) - high.eval(x)) < 1e-9);
 }
@@ -307,12 +307,12 @@ BOOST_AUTO_TEST_CASE(aux_only_surface_declares_before_statements) {
   f.model.coefficients = {2.0, 0.5};
   for (NumericMode mode : {NumericMode::Float, NumericMode::Fixed}) {
     f.options.mode = mode;
-    const SurfaceExportResult r = generate_surface_header(f.model, f.meta, f.options);
-    BOOST_TEST_REQUIRE(r.ok(), r.common.message);
-    const std::string& h = r.common.header;
+    const ExportResult r = generate_header(firmware_model(f.model), f.meta, f.options);
+    BOOST_TEST_REQUIRE(r.ok(), r.message);
+    const std::string& h = r.header;
     const std::string decl = mode == NumericMode::Float ? "    float w, v;\n    (void)x;\n"
                                                         : "    int64_t w, acc;\n    (void)raw;\n";
     BOOST_TEST(has(h, decl), h);
-    BOOST_TEST(r.common.max_deviation <= (mode == NumericMode::Float ? 1e-6 : 0.5e-4 + 1e-12));
+    BOOST_TEST(r.max_deviation <= (mode == NumericMode::Float ? 1e-6 : 0.5e-4 + 1e-12));
   }
 }

@@ -1,6 +1,6 @@
 // ridgecal: the public C++ API of the C header generator (target
-// ridgecal::firmware_export), in one include: one-input models
-// (generate_c_header) and extended reading + aux models. Headers under
+// ridgecal::firmware_export), in one include: generate_header() for every
+// model, through the firmware_model() adapter. Headers under
 // firmware-export/src/include/ are internal and are not installed.
 #pragma once
 
@@ -9,4 +9,3 @@
 #include "ridgecal/firmware/fixed_point.hpp"
 #include "ridgecal/firmware/float_emulation.hpp"
 #include "ridgecal/firmware/numeric_mode.hpp"
-#include "ridgecal/firmware/surface_export.hpp"

@@ -24,8 +24,8 @@ int main() {
   ridgecal::firmware::ExportOptions options;
   options.prefix = "pt7";
   options.mode = ridgecal::firmware::NumericMode::Float;
-  const ridgecal::firmware::ExportResult header =
-      ridgecal::firmware::generate_c_header(outcome.calibration.model, meta, options);
+  const ridgecal::firmware::ExportResult header = ridgecal::firmware::generate_header(
+      ridgecal::firmware::firmware_model(outcome.calibration), meta, options);
   const bool has_eval = header.header.find("pt7_eval") != std::string::npos;
   std::printf("export_consumer: %s, %zu bytes, max deviation %.2e kPa, pt7_eval %s\n",
               ridgecal::firmware::to_string(header.status), header.header.size(),

@@ -1,5 +1,9 @@
 // ridgecal firmware export: generate a freestanding C header from a fitted
-// calibration polynomial, with an export-time proof of its accuracy.
+// calibration model, with an export-time proof of its accuracy. One entry
+// point for every model (generate_header on a FirmwareModel): the one-input
+// polynomial gets the one-input header, an extended model (transforms, an
+// aux input; FirmwareModel::extended) the extended header, whose additions
+// docs/firmware-export.md lists under "Extended models".
 #pragma once
 
 #include <cstddef>
@@ -9,16 +13,20 @@
 #include <string>
 #include <vector>
 
+#include "ridgecal/firmware/firmware_model.hpp"
 #include "ridgecal/firmware/fixed_point.hpp"
 #include "ridgecal/firmware/float_emulation.hpp"
 #include "ridgecal/firmware/numeric_mode.hpp"
-#include "ridgecal/poly_model.hpp"
 
 namespace ridgecal::firmware {
 
 /// Version of the generated header's contract (PREFIX_FORMAT_VERSION). Bump
 /// when names, signatures or semantics of the generated symbols change.
 inline constexpr int kHeaderFormatVersion = 1;
+
+/// ulps of log/logf result assumed for a target C library (glibc, newlib and
+/// avr-libc; see docs/firmware-export.md for what was measured).
+inline constexpr double kLogUlps = 4.0;
 
 struct ExportOptions {
   /// Prefix of every generated symbol: functions "prefix_eval", macros
@@ -106,16 +114,21 @@ struct CodeStats {
 
 struct ExportResult {
   ExportStatus status = ExportStatus::InvalidInput;
-  std::string message;         ///< why refused/invalid; a one-line summary when ok
-  std::string header;          ///< the header text (also filled when refused, for inspection)
-  double max_deviation = 0;    ///< max |header - double model|, reference units
-  double deviation_at = 0;     ///< input (reading units) where it occurred
+  std::string message;          ///< why refused/invalid; a one-line summary when ok
+  std::string header;           ///< the header text (also filled when refused, for inspection)
+  double max_deviation = 0;     ///< max |header - double model|, reference units
+  double deviation_at = 0;      ///< input (reading units) where it occurred
+  double deviation_at_aux = 0;  ///< aux value there (0 without an aux input)
+  /// Models with ln: the allowance added to the measured deviation for a
+  /// target C library whose log/logf differs from the host's by up to
+  /// kLogUlps ulps of its result, propagated to the output (reference units).
+  double libm_allowance = 0;
   double deviation_limit = 0;  ///< max_deviation_fraction x tolerance_used
   double tolerance_used = 0;
   std::string tolerance_source;  ///< "record tolerance" or "validation RMSE (fallback)"
   std::size_t points_checked = 0;
   std::size_t readings_checked = 0;
-  Basis basis = Basis::ScaledT;  ///< float/double: variable of the Horner scheme
+  Basis basis = Basis::ScaledT;  ///< float/double: variable of the Horner scheme (one input)
   std::string formats;           ///< human-readable description of the number formats
   std::uint32_t table_crc32 = 0;
   CodeStats stats;
@@ -127,8 +140,12 @@ struct ExportResult {
   bool ok() const { return status == ExportStatus::Ok; }
 };
 
-/// Generates the header. Never throws for bad input: reports it in the result.
-ExportResult generate_c_header(const PolyModel& model, const HeaderMeta& meta,
-                               const ExportOptions& options);
+/// Generates the header of any model; make `model` with firmware_model()
+/// (firmware_model.hpp) from a Calibration, a PolyModel or a SurfaceModel.
+/// Never throws for bad input: reports it in the result. Fixed mode with a
+/// transform (divider, ln, reciprocal-kelvin) is InvalidInput (use float or
+/// double).
+ExportResult generate_header(const FirmwareModel& model, const HeaderMeta& meta,
+                             const ExportOptions& options);
 
 }  // namespace ridgecal::firmware

@@ -1,14 +1,19 @@
 // ridgecal firmware export: the firmware-side description of a fitted model,
 // produced from the fitter's model by one adapter (firmware_model()). Every
-// generator stage (emulation, fixed-point plan, header text) reads this, so a
-// change of the fitter's model type only changes the adapter.
+// generator stage (emulation, fixed-point plan, export proof, header text)
+// reads this, so a change of the fitter's model type only changes the adapter.
+// It also carries the fitter's double-precision evaluation, which the export
+// proof compares the header's arithmetic with.
 #pragma once
 
 #include <array>
 #include <cstddef>
+#include <functional>
+#include <string>
 #include <utility>
 #include <vector>
 
+#include "ridgecal/calibration.hpp"
 #include "ridgecal/poly_model.hpp"
 #include "ridgecal/surface_model.hpp"
 #include "ridgecal/transforms.hpp"
@@ -39,6 +44,21 @@ struct FirmwareModel {
   /// (its alternative raw-x Horner basis); empty when that basis is not offered.
   std::vector<long double> raw_power;
 
+  /// Why the model cannot be exported ("" when it can): no coefficients, a
+  /// non-finite one, a degree above 30, an empty range, invalid transforms.
+  /// Worded by the adapter, which knows the fitter's model.
+  std::string problem;
+  /// The QA block of the extended header: the fitted model's own number of
+  /// terms and its basis ("chebyshev", "power").
+  std::size_t fitted_terms = 0;
+  std::string fitted_basis;
+  /// The double-precision model the export proof compares the header with:
+  /// the fitter's own evaluation at (reading, aux), and the fitted
+  /// polynomial v at (transformed reading u, aux) before the inverse
+  /// reference transform (for the log() allowance).
+  std::function<double(double reading, double aux)> reference;
+  std::function<double(double u, double aux)> reference_fitted;
+
   bool has_aux() const { return inputs.size() > 1; }
   std::size_t term_count() const { return monomial.size(); }
   /// Multi-index (power of t, power of s) of table entry i.
@@ -52,6 +72,9 @@ struct FirmwareModel {
 /// one-input case, an extended model keeps its transforms and aux input).
 FirmwareModel firmware_model(const PolyModel& model);
 FirmwareModel firmware_model(const SurfaceModel& model);
+/// A calibration's model: general_model(cal), in the header dialect that
+/// is_extended(cal) picks (the one-input header for the N = 1 case).
+FirmwareModel firmware_model(const Calibration& cal);
 
 /// The valid raw-reading range: the calibrated range of the transformed
 /// reading mapped back through the transforms (sorted).
