@@ -18,6 +18,11 @@ unit_rows() {
   awk -v u="$label" -v sp="$sp" 'BEGIN { for (s = 0; s < 8; s++) for (r = 0; r < 3; r++) {
     x = 100 + 50 * s + r * 0.01; printf "%s,%s%02d,%.4f,%.6f\n", u, sp, s, x, 0.5 * x + 1e-4 * x * x + 0.001 * r } }'
 }
+# many_units PREFIX N: units PREFIX1..PREFIXN as unit_rows writes them (one awk).
+many_units() {
+  awk -v p="$1" -v n="$2" 'BEGIN { for (u = 1; u <= n; u++) for (s = 0; s < 8; s++) for (r = 0; r < 3; r++) {
+    x = 100 + 50 * s + r * 0.01; printf "%s%d,S%02d,%.4f,%.6f\n", p, u, s, x, 0.5 * x + 1e-4 * x * x + 0.001 * r } }'
+}
 HDR="unit,setpoint,reading,reference"
 B=(--unit unit --setpoint setpoint --timestamp none --progress none -j 1)
 
@@ -76,7 +81,7 @@ rec=$(grep '^SN 001,ok,' "$TMP/del/summary.csv" | awk -F, '{ print $NF }')
 [ -n "$rec" ] && [ -s "$TMP/del/$rec" ] || fail "the record of 'SN 001' is gone after '$hashed' failed"
 
 # --- item 4: a second batch into the same directory refuses ---
-{ echo "$HDR"; for i in $(seq 1 400); do unit_rows "L$i"; done; } >"$TMP/long.csv"
+{ echo "$HDR"; many_units L 400; } >"$TMP/long.csv"
 "$RIDGECAL" batch "$TMP/long.csv" "${B[@]}" -o "$TMP/locked" >/dev/null 2>"$TMP/err1" &
 pid=$!
 for _ in $(seq 1 200); do [ -e "$TMP/locked/records" ] && break; sleep 0.02; done
@@ -185,7 +190,7 @@ grep -q 'qnl.csv:26: the unit label .*control character' "$s" || fail "quoted ne
 grep -q '^Q3,ok,' "$s" || fail "the unit after a quoted newline: $(head -c 800 "$s")"
 
 # --- item 7: SIGINT and SIGTERM stop cleanly with a partial summary ---
-{ echo "$HDR"; for i in $(seq 1 3000); do unit_rows "K$i"; done; } >"$TMP/sig.csv"
+{ echo "$HDR"; many_units K 3000; } >"$TMP/sig.csv"
 for sig in INT TERM; do
   want=$([ $sig = INT ] && echo 130 || echo 143)
   "$RIDGECAL" batch "$TMP/sig.csv" --unit unit --setpoint setpoint --timestamp none --progress none -j 2 \
