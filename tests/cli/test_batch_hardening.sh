@@ -130,6 +130,13 @@ grep -q '^R2,failed,.*rows.csv:[0-9]*: .*more than 30 data rows' "$TMP/rows/summ
 grep -q '^F2,failed,.*field.csv:26: .*longer than 100 bytes' "$TMP/field/summary.csv" ||
   fail "a field over --max-field-bytes: $(head -c 800 "$TMP/field/summary.csv")"
 grep -q '^F3,ok,' "$TMP/field/summary.csv" || fail "the unit after a long line is lost"
+# A data line over max-fields x (max-field-bytes + 3) bytes (here 4 x 33): its
+# unit fails at that line, the rest of the line is read past, not kept.
+{ echo "$HDR"; unit_rows H1; printf 'H2,S00,1,%s\n' "$(head -c 5000000 /dev/zero | tr '\0' 1)"; unit_rows H3; } >"$TMP/line.csv"
+"$RIDGECAL" batch "$TMP/line.csv" "${B[@]}" --max-fields 4 --max-field-bytes 30 -o "$TMP/line" >/dev/null 2>&1
+grep -q '^H2,failed,.*line.csv:26: the line is longer than 132 bytes' "$TMP/line/summary.csv" ||
+  fail "a line over the limit: $(head -c 800 "$TMP/line/summary.csv")"
+grep -q '^H3,ok,' "$TMP/line/summary.csv" || fail "the unit after an over-long line is lost"
 "$RIDGECAL" batch "$TMP/field.csv" "${B[@]}" --max-bytes -1 -o "$TMP/x" >/dev/null 2>"$TMP/err"; rc=$?
 # --- item 8: negative values of unsigned options ---
 [ $rc -eq 2 ] || fail "--max-bytes -1 gave exit $rc"
