@@ -3,7 +3,9 @@
 #include <fmt/format.h>
 #include <unistd.h>
 
+#include <atomic>
 #include <boost/program_options.hpp>
+#include <csignal>
 #include <iostream>
 #include <ostream>
 #include <sstream>
@@ -55,6 +57,41 @@ std::string one_line(const std::string& text) {
   return s.empty() ? std::string("failed without a message") : s;
 }
 
+// The signal that asks the running batch to stop (0: none). Set by the
+// handler, polled by run_batch (BatchOptions::stop).
+std::atomic<int> g_stop_signal{0};
+static_assert(std::atomic<int>::is_always_lock_free, "the signal handler needs a lock-free atomic");
+
+extern "C" void on_stop_signal(int sig) {
+  g_stop_signal.store(sig);
+}
+
+// SIGINT and SIGTERM handled while the object lives: the first one stops the
+// batch cleanly; SA_RESETHAND restores the default action, so a second one
+// kills at once.
+class StopSignals {
+ public:
+  StopSignals() {
+    g_stop_signal.store(0);
+    struct sigaction sa {};
+    sa.sa_handler = on_stop_signal;
+    sigemptyset(&sa.sa_mask);
+    sa.sa_flags = SA_RESETHAND | SA_RESTART;
+    ::sigaction(SIGINT, &sa, &old_int_);
+    ::sigaction(SIGTERM, &sa, &old_term_);
+  }
+  ~StopSignals() {
+    ::sigaction(SIGINT, &old_int_, nullptr);
+    ::sigaction(SIGTERM, &old_term_, nullptr);
+  }
+  StopSignals(const StopSignals&) = delete;
+  StopSignals& operator=(const StopSignals&) = delete;
+
+ private:
+  struct sigaction old_int_ {
+  }, old_term_{};
+};
+
 po::options_description batch_options() {
   po::options_description d("ridgecal batch DATA.csv|DIR --unit COL --out-dir DIR [options]");
   // clang-format off
@@ -76,6 +113,10 @@ po::options_description batch_options() {
     ("setpoint", po::value<std::string>(), "column naming the setpoint of repeated readings (default: equal reference values form a setpoint)")
     ("role", po::value<std::string>(), "column with 'fit' or 'check' per row: the check setpoints become the test set")
     ("delimiter", po::value<std::string>()->default_value(","), "field delimiter: ',', ';' or 'tab'")
+    ("max-rows", po::value<std::size_t>()->default_value(CsvLimits{}.max_rows), "a unit with more data rows than this fails (as 'ridgecal fit' refuses such a file)")
+    ("max-bytes", po::value<std::size_t>()->default_value(CsvLimits{}.max_bytes), "a unit whose rows take more bytes than this fails")
+    ("max-fields", po::value<std::size_t>()->default_value(CsvLimits{}.max_fields), "refuse rows with more fields than this; a line may hold max-fields x (max-field-bytes + 3) bytes")
+    ("max-field-bytes", po::value<std::size_t>()->default_value(CsvLimits{}.max_field_bytes), "refuse fields (cells, column names, labels) longer than this many bytes")
     ("direction", po::value<std::string>(), "column with 'up' or 'down' per row: the sweep direction (hysteresis check, as in 'ridgecal fit')")
     ("degrees", po::value<std::string>()->default_value("1..7"), "candidate degrees, e.g. 1..7 or 1,2,3")
     ("lambdas", po::value<std::string>()->default_value("default"), "candidate penalties: 'default' (0 and 30 values from 1e-12 to 10), or a list like 0,1e-9:1e-1:20")
@@ -109,10 +150,21 @@ std::string batch_usage() {
        "the\n"
        "export proof refuses) gets a warning in the summary, and no stale file of an earlier run "
        "is left.\n"
+       "Only one batch (or merge) writes into an output directory at a time (a lock file "
+       ".ridgecal.lock\n"
+       "inside it); an input that is also an output (e.g. an input named summary.csv in DIR "
+       "with -o DIR)\n"
+       "is refused before anything is written.\n"
+       "SIGINT or SIGTERM stops the batch cleanly: units in flight are finished, no temporary "
+       "file is left,\n"
+       "and the summaries list the units completed, marked partial. A second signal kills at "
+       "once.\n"
        "Exit codes: 0 every unit fitted (and PASS, with a tolerance, and every report/header "
        "written),\n"
        "1 at least one unit failed, is out of tolerance or lacks a requested report/header,\n"
-       "2 bad usage or unusable input (no summary written).\n";
+       "2 bad usage or unusable input (no summary written), 130 / 143 stopped by SIGINT / "
+       "SIGTERM\n"
+       "(partial summary written).\n";
   return s.str();
 }
 
@@ -141,6 +193,10 @@ BatchCommand parse_batch_command(const std::vector<std::string>& args) {
   if (vm.count("role")) b.input.csv.role_column = vm["role"].as<std::string>();
   if (vm.count("direction")) b.input.csv.direction_column = vm["direction"].as<std::string>();
   b.input.csv.delimiter = parse_delimiter(vm["delimiter"].as<std::string>());
+  b.input.csv.limits.max_rows = vm["max-rows"].as<std::size_t>();
+  b.input.csv.limits.max_bytes = vm["max-bytes"].as<std::size_t>();
+  b.input.csv.limits.max_fields = vm["max-fields"].as<std::size_t>();
+  b.input.csv.limits.max_field_bytes = vm["max-field-bytes"].as<std::size_t>();
   b.jobs = vm["jobs"].as<int>();
   b.write_records = !vm["no-records"].as<bool>();
   b.sync_records = !vm["no-sync"].as<bool>();
@@ -280,7 +336,19 @@ int run_batch_command(const BatchCommand& cmd, std::ostream& out, std::ostream& 
   }
   try {
     const std::vector<std::string> inputs = batch_input_files(cmd.data_path);
+    const StopSignals stop_signals;
+    opt.stop = &g_stop_signal;
     const BatchResult r = run_batch(inputs, opt, cb, interval);
+    if (r.interrupted_by != 0) {
+      err << "\nridgecal batch: interrupted by "
+          << (r.interrupted_by == SIGINT    ? "SIGINT"
+              : r.interrupted_by == SIGTERM ? "SIGTERM"
+                                            : "a signal")
+          << ": " << r.units << " units completed (" << r.ok << " ok, " << r.failed
+          << " failed); the units after them were not processed. The summary is partial: "
+          << opt.out_dir << "/summary.csv, " << opt.out_dir << "/summary.json\n";
+      return 128 + r.interrupted_by;
+    }
     out << fmt::format("{} units: {} ok, {} failed", r.units, r.ok, r.failed);
     if (opt.assess.tolerance) out << fmt::format(", {} out of tolerance", r.out_of_tolerance);
     if (!opt.unit_outputs.empty())

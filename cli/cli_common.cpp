@@ -120,6 +120,32 @@ std::string creation_time(const std::string& injected) {
   return buf;
 }
 
+namespace {
+// Boost reads "-1" into an unsigned option as its wrap-around (e.g. --seed -1
+// as 18446744073709551615, --max-bytes -1 as no limit): refuse a negative
+// value of every unsigned option, naming it.
+template <class T>
+bool is_typed(const boost::program_options::option_description& d) {
+  return dynamic_cast<const boost::program_options::typed_value<T>*>(d.semantic().get()) != nullptr;
+}
+
+void refuse_negative_unsigned(const boost::program_options::parsed_options& parsed) {
+  for (const auto& opt : parsed.options) {
+    if (opt.position_key >= 0 || opt.string_key.empty()) continue;
+    const auto* d = parsed.description->find_nothrow(opt.string_key, false);
+    if (d == nullptr || !(is_typed<unsigned long>(*d) || is_typed<unsigned long long>(*d) ||
+                          is_typed<unsigned int>(*d) || is_typed<unsigned short>(*d)))
+      continue;
+    for (const std::string& v : opt.value) {
+      const auto b = v.find_first_not_of(" \t");
+      if (b != std::string::npos && v[b] == '-')
+        throw UsageError(
+            fmt::format("--{}: '{}' is negative; give a whole number >= 0", opt.string_key, v));
+    }
+  }
+}
+}  // namespace
+
 boost::program_options::variables_map parse_arguments(
     const std::vector<std::string>& args,
     const boost::program_options::options_description& options, const std::string& positional) {
@@ -130,7 +156,10 @@ boost::program_options::variables_map parse_arguments(
   pos.add(positional.c_str(), -1);
   po::variables_map vm;
   try {
-    po::store(po::command_line_parser(args).options(all).positional(pos).run(), vm);
+    const po::parsed_options parsed =
+        po::command_line_parser(args).options(all).positional(pos).run();
+    refuse_negative_unsigned(parsed);
+    po::store(parsed, vm);
     po::notify(vm);
   } catch (const po::error& e) {
     throw UsageError(e.what());

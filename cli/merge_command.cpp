@@ -8,6 +8,8 @@
 #include <sstream>
 
 #include "cli_common.hpp"
+#include "ridgecal/atomic_file.hpp"
+#include "ridgecal/batch_run.hpp"
 #include "ridgecal/errors.hpp"
 
 namespace po = boost::program_options;
@@ -66,6 +68,14 @@ int run_merge_command(const MergeCommand& cmd, std::ostream& out, std::ostream& 
     for (const std::string& in : cmd.inputs) {
       std::string path = in;
       if (std::filesystem::is_directory(path)) path += "/summary.json";
+      // An output that is an input: refused before anything is written.
+      for (const char* out_name : {"summary.json", "summary.csv"})
+        if (same_file(path, cmd.out_dir + "/" + out_name))
+          throw InputError(path, 0,
+                           fmt::format("this input is also an output of the merge ({} in the "
+                                       "output directory), which would overwrite it",
+                                       out_name),
+                           "give another --out-dir");
       shards.push_back(read_batch_summary(path));
       names.push_back(path);
     }
@@ -75,7 +85,10 @@ int run_merge_command(const MergeCommand& cmd, std::ostream& out, std::ostream& 
     if (ec)
       throw InputError(cmd.out_dir, 0, "cannot create the output directory: " + ec.message(),
                        "check the path");
-    write_batch_summary(merged, cmd.out_dir);
+    {
+      const OutputDirLock lock(cmd.out_dir);  // no batch writes there meanwhile
+      write_batch_summary(merged, cmd.out_dir);
+    }
     std::size_t failed = 0, oot = 0;
     for (const auto& u : merged.units) {
       failed += u.status == UnitStatus::Failed;

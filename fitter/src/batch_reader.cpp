@@ -1,16 +1,22 @@
 #include "ridgecal/batch_reader.hpp"
 
+#include <fcntl.h>
 #include <fmt/format.h>
 #include <sys/stat.h>
+#include <unistd.h>
 
 #include <algorithm>
+#include <cerrno>
 #include <charconv>
 #include <cmath>
+#include <cstdint>
+#include <cstring>
 #include <filesystem>
 #include <string_view>
 
 #include "ridgecal/batch_fast_parse.hpp"
 #include "ridgecal/errors.hpp"
+#include "ridgecal/text_check.hpp"
 
 namespace ridgecal {
 
@@ -66,14 +72,25 @@ std::string trim(const std::string& s) {
   return s.substr(b, e - b);
 }
 
-// Field `want` of a CSV line (quotes as in calibration_csv.cpp); false when
-// the line has fewer fields or an unterminated quote (the parser reports it).
-bool field_at(const std::string& line, char delim, int want, std::string& out) {
+// The fields of a CSV line, quotes as in calibration_csv.cpp, in one pass.
+enum class Split { Ok, OpenQuote, TooManyFields, FieldTooLong };
+
+// Splits `line` into `out`, stopping after field `last` (all fields when
+// last < 0). Refuses more than `max_fields` fields or a field over
+// `max_field_bytes` (0: no limits).
+Split split_fields(std::string_view line, char delim, int last, std::size_t max_fields,
+                   std::size_t max_field_bytes, std::vector<std::string>& out) {
+  out.clear();
   std::string cur;
   bool in_quotes = false, was_quoted = false;
-  int idx = 0;
+  auto finish = [&] {
+    out.push_back(was_quoted ? cur : trim(cur));
+    cur.clear();
+    was_quoted = false;
+  };
   for (std::size_t i = 0; i < line.size(); ++i) {
     const char c = line[i];
+    if (max_field_bytes > 0 && cur.size() >= max_field_bytes) return Split::FieldTooLong;
     if (in_quotes) {
       if (c == '"') {
         if (i + 1 < line.size() && line[i + 1] == '"') {
@@ -89,27 +106,26 @@ bool field_at(const std::string& line, char delim, int want, std::string& out) {
       in_quotes = was_quoted = true;
       cur.clear();
     } else if (c == delim) {
-      if (idx == want) {
-        out = was_quoted ? cur : trim(cur);
-        return true;
-      }
-      ++idx;
-      cur.clear();
-      was_quoted = false;
+      if (max_fields > 0 && out.size() + 1 >= max_fields) return Split::TooManyFields;
+      finish();
+      if (last >= 0 && out.size() > static_cast<std::size_t>(last)) return Split::Ok;
     } else {
       cur += c;
     }
   }
-  if (in_quotes || idx != want) return false;
-  out = was_quoted ? cur : trim(cur);
-  return true;
+  if (in_quotes) return Split::OpenQuote;
+  finish();
+  return Split::Ok;
 }
 
-std::vector<std::string> all_fields(const std::string& line, char delim) {
-  std::vector<std::string> v;
-  std::string f;
-  for (int i = 0; field_at(line, delim, i, f); ++i) v.push_back(f);
-  return v;
+// The unit label of a record: Ok and `out` set, Ok with `found` false when the
+// record has too few fields, or OpenQuote.
+Split unit_field(std::string_view line, char delim, int idx, std::string& out, bool& found) {
+  std::vector<std::string> f;
+  const Split r = split_fields(line, delim, idx, 0, 0, f);
+  found = r == Split::Ok && f.size() > static_cast<std::size_t>(idx);
+  if (found) out = f[static_cast<std::size_t>(idx)];
+  return r;
 }
 
 bool is_skipped(const std::string& line) {
@@ -124,21 +140,100 @@ std::string stem_of(const std::string& path) {
   return fs::path(path).stem().string();
 }
 
+std::size_t line_limit_of(const CsvLimits& l) {
+  // every field at its longest, quoted, plus its delimiter; saturating
+  const std::size_t per = l.max_field_bytes > SIZE_MAX - 3 ? SIZE_MAX : l.max_field_bytes + 3;
+  return l.max_fields > SIZE_MAX / per ? SIZE_MAX : l.max_fields * per;
+}
+
 }  // namespace
+
+bool HashSet64::insert(std::uint64_t h) {
+  if (std::binary_search(sorted_.begin(), sorted_.end(), h)) return false;
+  if (std::find(tail_.begin(), tail_.end(), h) != tail_.end()) return false;
+  tail_.push_back(h);
+  if (tail_.size() >= 1024) {
+    std::sort(tail_.begin(), tail_.end());
+    const std::size_t mid = sorted_.size();
+    sorted_.insert(sorted_.end(), tail_.begin(), tail_.end());
+    std::inplace_merge(sorted_.begin(), sorted_.begin() + static_cast<std::ptrdiff_t>(mid),
+                       sorted_.end());
+    tail_.clear();
+  }
+  return true;
+}
 
 UnitReader::UnitReader(std::vector<std::string> files, BatchInputOptions options)
     : files_(std::move(files)), options_(std::move(options)) {
+  line_limit_ = line_limit_of(options_.csv.limits);
   for (const auto& f : files_) {
     struct stat st {};
-    if (::stat(f.c_str(), &st) == 0) bytes_total_ += static_cast<std::uint64_t>(st.st_size);
+    if (::stat(f.c_str(), &st) == 0 && S_ISREG(st.st_mode))
+      bytes_total_ += static_cast<std::uint64_t>(st.st_size);
   }
 }
 
-UnitReader::~UnitReader() = default;
+UnitReader::~UnitReader() {
+  if (fd_ >= 0) ::close(fd_);
+}
 
-bool UnitReader::read_line(std::string& line) {
-  if (!std::getline(*in_, line)) return false;
-  bytes_read_ += line.size() + 1;
+bool UnitReader::fill() {
+  if (eof_) return false;
+  if (buf_pos_ > 0) {
+    buf_.erase(0, buf_pos_);
+    buf_pos_ = 0;
+  }
+  const std::size_t old = buf_.size();
+  buf_.resize(old + (1u << 16));
+  ssize_t n;
+  do {
+    n = ::read(fd_, &buf_[old], 1u << 16);
+  } while (n < 0 && errno == EINTR);
+  if (n < 0) {
+    const int err = errno;
+    buf_.resize(old);
+    throw InputError(files_[file_index_ - 1], lineno_ + 1,
+                     std::string("cannot read the file: ") + std::strerror(err),
+                     "check the file and the device");
+  }
+  buf_.resize(old + static_cast<std::size_t>(n));
+  if (n == 0) eof_ = true;
+  return n > 0;
+}
+
+bool UnitReader::read_line(std::string& line, bool& too_long) {
+  line.clear();
+  too_long = false;
+  std::uint64_t length = 0;
+  bool any = false;
+  for (;;) {
+    if (buf_pos_ >= buf_.size() && !fill()) break;
+    const char* b = buf_.data() + buf_pos_;
+    const std::size_t avail = buf_.size() - buf_pos_;
+    const void* nl = std::memchr(b, '\n', avail);
+    const std::size_t take =
+        nl ? static_cast<std::size_t>(static_cast<const char*>(nl) - b) : avail;
+    any = true;
+    length += take;
+    if (line.size() < line_limit_) line.append(b, std::min(take, line_limit_ - line.size()));
+    buf_pos_ += take + (nl ? 1 : 0);
+    bytes_read_ += take + (nl ? 1 : 0);
+    if (length > line_limit_) {
+      too_long = true;
+      // A header (or a whole file) without an end of line: refuse at once.
+      if (header_.empty() || length > options_.csv.limits.max_bytes)
+        throw InputError(files_[file_index_ - 1], lineno_ + 1,
+                         fmt::format("the line is longer than {} bytes (--max-fields x "
+                                     "(--max-field-bytes + 3))",
+                                     line_limit_),
+                         "is this a text CSV file? (raise the limits with --max-fields and "
+                         "--max-field-bytes if this is intended)");
+    }
+    if (nl) break;
+    buf_.clear();
+    buf_pos_ = 0;
+  }
+  if (!any) return false;
   ++lineno_;
   if (lineno_ == 1 && line.compare(0, 3, "\xEF\xBB\xBF") == 0) line.erase(0, 3);
   if (!line.empty() && line.back() == '\r') line.pop_back();
@@ -148,14 +243,20 @@ bool UnitReader::read_line(std::string& line) {
 bool UnitReader::open_next_file() {
   if (file_index_ >= files_.size()) return false;
   const std::string& file = files_[file_index_++];
-  in_ = std::make_unique<std::ifstream>(file, std::ios::binary);
-  if (!*in_)
-    throw InputError(file, 0, "cannot open the file", "check the path and the permissions");
+  if (fd_ >= 0) ::close(fd_);
+  fd_ = ::open(file.c_str(), O_RDONLY | O_CLOEXEC);
+  if (fd_ < 0)
+    throw InputError(file, 0, std::string("cannot open the file: ") + std::strerror(errno),
+                     "check the path and the permissions");
+  eof_ = false;
+  buf_.clear();
+  buf_pos_ = 0;
   lineno_ = 0;
   has_pending_ = false;
   header_.clear();
   std::string line;
-  while (read_line(line)) {
+  bool too_long = false;
+  while (read_line(line, too_long)) {
     if (is_skipped(line)) continue;
     header_ = line;
     header_line_ = lineno_;
@@ -163,7 +264,24 @@ bool UnitReader::open_next_file() {
   }
   if (header_.empty())
     throw InputError(file, 0, "the file is empty", "a batch CSV needs a header row and data rows");
-  const std::vector<std::string> names = all_fields(header_, options_.csv.delimiter);
+  const CsvLimits& lim = options_.csv.limits;
+  std::vector<std::string> names;
+  switch (split_fields(header_, options_.csv.delimiter, -1, lim.max_fields, lim.max_field_bytes,
+                       names)) {
+    case Split::TooManyFields:
+      throw InputError(file, header_line_,
+                       fmt::format("the header has more than {} fields", lim.max_fields),
+                       "raise the limit with --max-fields if this is intended");
+    case Split::FieldTooLong:
+      throw InputError(file, header_line_,
+                       fmt::format("a column name is longer than {} bytes", lim.max_field_bytes),
+                       "raise the limit with --max-field-bytes if this is intended");
+    case Split::OpenQuote:
+      throw InputError(file, header_line_, "unterminated quoted field in the header",
+                       "close the quote, or write a literal quote as two quotes (\"\")");
+    case Split::Ok:
+      break;
+  }
   auto require = [&](const std::string& name, const char* what) {
     const auto it = std::find(names.begin(), names.end(), name);
     if (it == names.end())
@@ -181,9 +299,11 @@ bool UnitReader::open_next_file() {
 }
 
 bool UnitReader::next(UnitChunk& out) {
+  const CsvLimits& lim = options_.csv.limits;
   std::string line;
+  bool too_long = false;
   for (;;) {
-    if (!in_ || (!has_pending_ && in_->eof())) {
+    if (fd_ < 0 || (!has_pending_ && eof_ && buf_pos_ >= buf_.size())) {
       if (!open_next_file()) return false;
     }
     out = UnitChunk{};
@@ -193,50 +313,90 @@ bool UnitReader::next(UnitChunk& out) {
     out.text = header_;
     out.text += '\n';
     bool have_unit = false;
-    auto take = [&](const std::string& l, std::size_t ln) {
+    std::string limit_error;  // the first limit the unit broke
+    auto take = [&](const std::string& l, std::size_t ln, bool l_too_long) {
       if (!have_unit) {
         out.first_line = ln;
         have_unit = true;
       }
-      out.text += l;
-      out.text += '\n';
-      if (!is_skipped(l)) ++out.rows;
+      const bool data = !is_skipped(l);
+      if (limit_error.empty()) {
+        if (l_too_long)
+          limit_error = fmt::format(
+              "{}:{}: the line is longer than {} bytes (--max-fields x (--max-field-bytes + 3))",
+              out.file, ln, line_limit_);
+        else if (data && out.rows >= lim.max_rows)
+          limit_error =
+              fmt::format("{}:{}: the unit has more than {} data rows", out.file, ln, lim.max_rows);
+        else if (out.text.size() + l.size() + 1 > lim.max_bytes)
+          limit_error = fmt::format("{}:{}: the unit's rows are longer than {} bytes", out.file, ln,
+                                    lim.max_bytes);
+      }
+      if (limit_error.empty()) {
+        out.text += l;
+        out.text += '\n';
+      }
+      if (data) ++out.rows;
+    };
+    // Reads the physical lines that complete a record whose unit label is
+    // in an open quote (a newline inside the quotes), within the line limit.
+    auto complete_record = [&](std::string& rec, bool& rec_too_long) {
+      std::string more;
+      bool more_too_long = false;
+      std::string u;
+      bool found = false;
+      while (unit_field(rec, options_.csv.delimiter, unit_idx_, u, found) == Split::OpenQuote &&
+             !rec_too_long && read_line(more, more_too_long)) {
+        if (rec.size() + 1 + more.size() > line_limit_ || more_too_long) {
+          rec_too_long = true;
+          break;
+        }
+        rec += '\n';
+        rec += more;
+      }
     };
     if (has_pending_) {
       has_pending_ = false;
       std::string u;
-      if (unit_idx_ >= 0) field_at(pending_, options_.csv.delimiter, unit_idx_, u);
+      bool found = false;
+      if (unit_idx_ >= 0) unit_field(pending_, options_.csv.delimiter, unit_idx_, u, found);
       out.unit = u;
-      take(pending_, pending_line_);
+      take(pending_, pending_line_, pending_too_long_);
     }
-    while (read_line(line)) {
+    while (read_line(line, too_long)) {
+      const std::size_t ln = lineno_;
       if (is_skipped(line)) {
-        if (have_unit) take(line, lineno_);
+        if (have_unit) take(line, ln, too_long);
         continue;
       }
       if (unit_idx_ < 0) {
         if (!have_unit) out.unit = stem_of(out.file);
-        take(line, lineno_);
+        take(line, ln, too_long);
         continue;
       }
+      complete_record(line, too_long);
       std::string u;
-      const bool found = field_at(line, options_.csv.delimiter, unit_idx_, u);
+      bool found = false;
+      unit_field(line, options_.csv.delimiter, unit_idx_, u, found);
       if (!have_unit) {
         out.unit = found ? u : std::string();
-        take(line, lineno_);
+        take(line, ln, too_long);
         continue;
       }
       if (!found || u == out.unit) {  // a ragged row stays with its unit; the parser reports it
-        take(line, lineno_);
+        take(line, ln, too_long);
         continue;
       }
       pending_ = line;
-      pending_line_ = lineno_;
+      pending_line_ = ln;
+      pending_too_long_ = too_long;
       has_pending_ = true;
       break;
     }
     if (!have_unit) {
-      in_->setstate(std::ios::eofbit);
+      eof_ = true;
+      buf_.clear();
+      buf_pos_ = 0;
       continue;  // file ended without further rows: next file
     }
     if (unit_idx_ < 0 && out.unit.empty()) out.unit = stem_of(out.file);
@@ -244,29 +404,19 @@ bool UnitReader::next(UnitChunk& out) {
     if (out.unit.empty()) {
       out.error = fmt::format("{}:{}: the unit column '{}' is empty", out.file, out.first_line,
                               options_.unit_column);
-    } else if (seen_before(fnv1a(out.unit))) {
+    } else if (const std::string why = name_problem(out.unit, kMaxRecordNameBytes); !why.empty()) {
+      out.error = fmt::format("{}:{}: the unit label '{}' {}", out.file, out.first_line,
+                              shown_text(out.unit), why);
+    } else if (!seen_.insert(fnv1a(out.unit))) {
       out.error = fmt::format(
           "{}:{}: unit '{}' appears again after other units; the rows of a unit must be contiguous "
           "(sort the file by the unit column)",
           out.file, out.first_line, out.unit);
+    } else if (!limit_error.empty()) {
+      out.error = limit_error;
     }
     return true;
   }
-}
-
-bool UnitReader::seen_before(std::uint64_t h) {
-  if (std::binary_search(seen_sorted_.begin(), seen_sorted_.end(), h)) return true;
-  if (std::find(seen_tail_.begin(), seen_tail_.end(), h) != seen_tail_.end()) return true;
-  seen_tail_.push_back(h);
-  if (seen_tail_.size() >= 1024) {
-    std::sort(seen_tail_.begin(), seen_tail_.end());
-    const std::size_t mid = seen_sorted_.size();
-    seen_sorted_.insert(seen_sorted_.end(), seen_tail_.begin(), seen_tail_.end());
-    std::inplace_merge(seen_sorted_.begin(),
-                       seen_sorted_.begin() + static_cast<std::ptrdiff_t>(mid), seen_sorted_.end());
-    seen_tail_.clear();
-  }
-  return false;
 }
 
 Dataset parse_unit_chunk(const UnitChunk& chunk, const CsvOptions& options) {
@@ -291,112 +441,38 @@ Dataset parse_unit_chunk(const UnitChunk& chunk, const CsvOptions& options) {
 
 namespace {
 
-std::string_view trim_view(std::string_view s) {
-  std::size_t b = 0, e = s.size();
-  while (b < e && (s[b] == ' ' || s[b] == '\t')) ++b;
-  while (e > b && (s[e - 1] == ' ' || s[e - 1] == '\t')) --e;
-  return s.substr(b, e - b);
+std::string lower_ascii(std::string s) {
+  for (char& c : s)
+    if (c >= 'A' && c <= 'Z') c = static_cast<char>(c - 'A' + 'a');
+  return s;
 }
 
-// Splits on the delimiter and trims each field (no quotes: checked by the caller).
-void split_plain(std::string_view line, char delim, std::vector<std::string_view>& out) {
-  out.clear();
-  std::size_t start = 0;
-  for (;;) {
-    const std::size_t p = line.find(delim, start);
-    out.push_back(trim_view(
-        line.substr(start, p == std::string_view::npos ? std::string_view::npos : p - start)));
-    if (p == std::string_view::npos) return;
-    start = p + 1;
-  }
+// Windows device names: CON, PRN, AUX, NUL, COM0-9, LPT0-9, alone or before
+// the first '.', in any case (common practice of portable archivers).
+bool reserved_on_windows(const std::string& name) {
+  const std::string base = lower_ascii(name.substr(0, name.find('.')));
+  if (base == "con" || base == "prn" || base == "aux" || base == "nul") return true;
+  return base.size() == 4 && (base.compare(0, 3, "com") == 0 || base.compare(0, 3, "lpt") == 0) &&
+         base[3] >= '0' && base[3] <= '9';
 }
 
-// As calibration_csv.cpp's parse_number accepts: optional '+', the whole cell, finite.
-bool plain_number(std::string_view cell, double& v) {
-  const char* b = cell.data();
-  const char* e = b + cell.size();
-  if (b != e && *b == '+') ++b;
-  if (cell.empty()) return false;
-  const auto r = std::from_chars(b, e, v, std::chars_format::general);
-  return r.ec == std::errc() && r.ptr == e && std::isfinite(v);
+// Ends in '-' and 8 lowercase hex digits: the form of a hashed name.
+bool has_hash_suffix(const std::string& s) {
+  if (s.size() < 9 || s[s.size() - 9] != '-') return false;
+  for (std::size_t i = s.size() - 8; i < s.size(); ++i)
+    if (!((s[i] >= '0' && s[i] <= '9') || (s[i] >= 'a' && s[i] <= 'f'))) return false;
+  return true;
+}
+
+std::string hash_suffix(const std::string& unit) {
+  return fmt::format("-{:08x}", static_cast<std::uint32_t>(fnv1a(unit) >> 32));
 }
 
 }  // namespace
 
-bool parse_unit_chunk_fast(const UnitChunk& chunk, const CsvOptions& options, Dataset& out) {
-  // Columns and number formats only the general parser reads.
-  if (!options.aux_column.empty() || !options.aux_setpoint_column.empty() ||
-      !options.direction_column.empty() || options.decimal_comma)
-    return false;
-  const std::string_view text(chunk.text);
-  if (text.find('"') != std::string_view::npos || text.find('\0') != std::string_view::npos)
-    return false;
-  out.file = chunk.file;
-  out.sha256.clear();
-  out.columns = options;
-  out.rows.clear();
-  std::vector<std::string_view> fields;
-  fields.reserve(16);
-  std::size_t ncols = 0;
-  int reading_idx = -1, reference_idx = -1, setpoint_idx = -1, role_idx = -1;
-  bool have_header = false;
-  std::size_t k = 0;  // line in chunk.text
-  for (std::size_t pos = 0; pos < text.size();) {
-    const std::size_t nl = text.find('\n', pos);
-    const std::string_view line =
-        text.substr(pos, nl == std::string_view::npos ? std::string_view::npos : nl - pos);
-    pos = nl == std::string_view::npos ? text.size() : nl + 1;
-    ++k;
-    const std::string_view t = trim_view(line);
-    if (t.empty() || t[0] == '#') continue;
-    split_plain(line, options.delimiter, fields);
-    if (!have_header) {
-      have_header = true;
-      ncols = fields.size();
-      for (std::size_t i = 0; i < ncols; ++i) {
-        for (std::size_t j = 0; j < i; ++j)
-          if (fields[i] == fields[j] && !fields[i].empty()) return false;
-        if (fields[i] == options.reading_column) reading_idx = static_cast<int>(i);
-        if (fields[i] == options.reference_column) reference_idx = static_cast<int>(i);
-        if (!options.setpoint_column.empty() && fields[i] == options.setpoint_column)
-          setpoint_idx = static_cast<int>(i);
-        if (!options.role_column.empty() && fields[i] == options.role_column)
-          role_idx = static_cast<int>(i);
-      }
-      if (reading_idx < 0 || reference_idx < 0 ||
-          (!options.setpoint_column.empty() && setpoint_idx < 0) ||
-          (!options.role_column.empty() && role_idx < 0))
-        return false;
-      continue;
-    }
-    if (fields.size() != ncols) return false;
-    Observation ob;
-    ob.line = chunk.first_line + k - 2;
-    if (!plain_number(fields[static_cast<std::size_t>(reading_idx)], ob.reading) ||
-        !plain_number(fields[static_cast<std::size_t>(reference_idx)], ob.reference))
-      return false;
-    if (setpoint_idx >= 0) {
-      ob.setpoint = std::string(fields[static_cast<std::size_t>(setpoint_idx)]);
-      if (ob.setpoint.empty()) return false;
-    } else {
-      ob.setpoint = fmt::format("{}", ob.reference);  // as the parser: shortest round-trip text
-    }
-    if (role_idx >= 0) {
-      try {
-        ob.role = user_role_from_string(std::string(fields[static_cast<std::size_t>(role_idx)]));
-      } catch (const std::invalid_argument&) {
-        return false;
-      }
-      if (ob.role == UserRole::Unspecified) return false;
-    }
-    out.rows.push_back(std::move(ob));
-  }
-  return have_header && !out.rows.empty();
-}
-
 std::string unit_file_stem(const std::string& unit) {
   std::string s;
-  bool changed = unit.empty() || unit == "." || unit == ".." || unit.size() > 100;
+  bool changed = unit.empty() || unit.size() > 100;
   for (char c : unit.substr(0, 100)) {
     const bool ok = (c >= 'A' && c <= 'Z') || (c >= 'a' && c <= 'z') || (c >= '0' && c <= '9') ||
                     c == '.' || c == '_' || c == '-';
@@ -407,8 +483,21 @@ std::string unit_file_stem(const std::string& unit) {
     s[0] = '_';
     changed = true;
   }
-  if (changed) s += fmt::format("-{:08x}", static_cast<std::uint32_t>(fnv1a(unit) >> 32));
+  if (reserved_on_windows(s)) {
+    s.insert(s.begin(), '_');
+    changed = true;
+  }
+  if (changed || has_hash_suffix(s)) s += hash_suffix(unit);
   return s;
+}
+
+std::string UnitFileNames::assign(const std::string& unit) {
+  std::string s = unit_file_stem(unit);
+  if (used_.insert(fnv1a(lower_ascii(s)))) return s;
+  if (has_hash_suffix(s)) return {};  // a hashed name taken (improbable): no name
+  s += hash_suffix(unit);             // a plain label that differs from an earlier one in case
+  if (used_.insert(fnv1a(lower_ascii(s)))) return s;
+  return {};
 }
 
 }  // namespace ridgecal

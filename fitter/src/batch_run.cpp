@@ -2,6 +2,7 @@
 
 #include <fcntl.h>
 #include <fmt/format.h>
+#include <sys/file.h>
 #include <sys/stat.h>
 #include <unistd.h>
 
@@ -10,6 +11,7 @@
 #include <chrono>
 #include <cmath>
 #include <condition_variable>
+#include <csignal>
 #include <cstring>
 #include <deque>
 #include <exception>
@@ -19,10 +21,12 @@
 #include <mutex>
 #include <thread>
 
+#include "ridgecal/atomic_file.hpp"
 #include "ridgecal/batch_fast_parse.hpp"
 #include "ridgecal/calibrate.hpp"
 #include "ridgecal/errors.hpp"
 #include "ridgecal/sha256.hpp"
+#include "ridgecal/text_check.hpp"
 
 namespace ridgecal {
 
@@ -183,11 +187,15 @@ std::string records_dir(const BatchOptions& o) {
 
 UnitSummary process_unit(const UnitChunk& chunk, const BatchOptions& options) {
   UnitSummary u;
-  u.unit = chunk.unit;
+  // A label refused by the reader (control characters, invalid UTF-8) is
+  // shown escaped, so that two such labels stay distinct in the summaries.
+  u.unit = name_problem(chunk.unit, kMaxRecordNameBytes).empty()
+               ? chunk.unit
+               : shown_text(chunk.unit, 4 * kMaxRecordNameBytes);
   u.rows = chunk.rows;
   u.lambda = u.validation_rmse = u.test_rmse = u.max_abs_error =
       std::numeric_limits<double>::quiet_NaN();
-  const std::string stem = unit_file_stem(chunk.unit);
+  const std::string stem = chunk.stem.empty() ? unit_file_stem(chunk.unit) : chunk.stem;
   const std::string rel = "records/" + stem + ".json";
   auto output_path = [&](const UnitOutput& o) {
     return options.out_dir + "/" + o.directory + "/" + stem + o.extension;
@@ -281,15 +289,96 @@ UnitSummary process_unit(const UnitChunk& chunk, const BatchOptions& options) {
   return u;
 }
 
+namespace {
+constexpr const char* kLockName = ".ridgecal.lock";
+
+std::string signal_name(int sig) {
+  switch (sig) {
+    case SIGINT:
+      return "SIGINT";
+    case SIGTERM:
+      return "SIGTERM";
+    default:
+      return fmt::format("signal {}", sig);
+  }
+}
+}  // namespace
+
+OutputDirLock::OutputDirLock(const std::string& dir) : path_(dir + "/" + kLockName) {
+  for (int attempt = 0;; ++attempt) {
+    fd_ = ::open(path_.c_str(), O_RDWR | O_CREAT | O_CLOEXEC, 0666);
+    if (fd_ < 0)
+      throw InputError(path_, 0,
+                       std::string("cannot create the lock file: ") + std::strerror(errno),
+                       "check the permissions of the output directory");
+    if (::flock(fd_, LOCK_EX | LOCK_NB) != 0) {
+      const int err = errno;
+      ::close(fd_);
+      fd_ = -1;
+      if (err == EWOULDBLOCK)
+        throw InputError(dir, 0,
+                         fmt::format("another ridgecal batch or merge is writing into this "
+                                     "directory (it holds {})",
+                                     kLockName),
+                         "wait for it to finish, or give another --out-dir");
+      throw InputError(path_, 0, std::string("cannot lock the file: ") + std::strerror(err),
+                       "use an output directory on a local file system");
+    }
+    // The holder before us may have removed the file after we opened it: the
+    // lock counts only on the file the name still refers to.
+    struct stat a {
+    }, b{};
+    if (::fstat(fd_, &a) == 0 && ::stat(path_.c_str(), &b) == 0 && a.st_dev == b.st_dev &&
+        a.st_ino == b.st_ino)
+      return;
+    ::close(fd_);
+    fd_ = -1;
+    if (attempt >= 100)
+      throw InputError(path_, 0, "the lock file keeps changing", "is another batch starting?");
+  }
+}
+
+OutputDirLock::~OutputDirLock() {
+  if (fd_ < 0) return;
+  ::unlink(path_.c_str());  // while still locked: see the constructor
+  ::close(fd_);
+}
+
+void refuse_inputs_as_outputs(const std::vector<std::string>& inputs, const BatchOptions& options) {
+  const std::string& o = options.out_dir;
+  std::vector<std::string> dirs;
+  if (options.write_records) dirs.push_back(records_dir(options));
+  for (const UnitOutput& u : options.unit_outputs) dirs.push_back(o + "/" + u.directory);
+  for (const std::string& in : inputs) {
+    for (const char* name : {"summary.csv", "summary.json", kLockName})
+      if (same_file(in, o + "/" + name))
+        throw InputError(in, 0,
+                         fmt::format("this input is also an output of the batch ({} in the "
+                                     "output directory), which would overwrite it",
+                                     name),
+                         "give another --out-dir, or move the input out of it");
+    const std::string parent = fs::path(in).parent_path().string();
+    for (const std::string& d : dirs)
+      if (same_file(parent.empty() ? "." : parent, d))
+        throw InputError(in, 0,
+                         fmt::format("this input lies in {}, where the batch writes a file for "
+                                     "every unit and could overwrite it",
+                                     d),
+                         "give another --out-dir, or move the input out of it");
+  }
+}
+
 BatchResult run_batch(const std::vector<std::string>& inputs, const BatchOptions& options,
                       const ProgressCallback& progress, double progress_interval_s) {
   using Clock = std::chrono::steady_clock;
   const auto t0 = Clock::now();
+  refuse_inputs_as_outputs(inputs, options);
   std::error_code ec;
   fs::create_directories(options.out_dir, ec);
   if (ec)
     throw InputError(options.out_dir, 0, "cannot create the output directory: " + ec.message(),
                      "check the path and permissions");
+  const OutputDirLock lock(options.out_dir);
   if (options.write_records) {
     fs::create_directories(records_dir(options), ec);
     if (ec)
@@ -313,7 +402,9 @@ BatchResult run_batch(const std::vector<std::string>& inputs, const BatchOptions
   BatchProgress prog;
   auto last_report = Clock::now();
   auto seconds = [&] { return std::chrono::duration<double>(Clock::now() - t0).count(); };
+  std::string last_unit;                   // of the last row written
   auto emit = [&](const UnitSummary& u) {  // main thread only, in input order
+    last_unit = u.unit;
     csv.append(summary_csv_row(u));
     js.append(summary_json_unit(u, res.units == 0));
     ++res.units;
@@ -330,12 +421,39 @@ BatchResult run_batch(const std::vector<std::string>& inputs, const BatchOptions
   };
 
   const int jobs = options.effective_jobs();
+  auto stopping = [&] { return options.stop != nullptr && options.stop->load() != 0; };
+  // Reads the next unit and gives it its file name (in input order, so names
+  // do not depend on the number of jobs).
+  UnitFileNames names;
+  auto next_unit = [&](UnitChunk& c) {
+    if (!reader.next(c)) return false;
+    if (c.error.empty() && options.write_records) {  // (no files, no names without records)
+      c.stem = names.assign(c.unit);
+      if (c.stem.empty())
+        c.error = fmt::format(
+            "{}:{}: the file name of unit '{}' ({}) is taken by an earlier unit of this batch "
+            "(ignoring case)",
+            c.file, c.first_line, c.unit, unit_file_stem(c.unit));
+    }
+    return true;
+  };
   UnitChunk chunk;
+  bool input_done = false;      // every unit of the input was read
+  std::uint64_t abandoned = 0;  // units read but not started because of a stop
   if (jobs == 1) {
-    while (reader.next(chunk)) emit(process_unit(chunk, options));
+    while (!stopping()) {
+      if (!next_unit(chunk)) {
+        input_done = true;
+        break;
+      }
+      emit(process_unit(chunk, options));
+    }
   } else {
     // Main thread: reads, and writes the summary rows in input order.
     // Workers: fit and write records. At most `window` units are in flight.
+    // Workers take units in input order, so the units started are always the
+    // first ones read: on a stop, those still queued are dropped and the
+    // summary lists every unit started.
     const std::uint64_t window =
         static_cast<std::uint64_t>(jobs) * static_cast<std::uint64_t>(options.window_per_job);
     std::mutex mu;
@@ -370,7 +488,7 @@ BatchResult run_batch(const std::vector<std::string>& inputs, const BatchOptions
         }
       });
     std::uint64_t read = 0;
-    // Emits finished units in order; waits while `pred` holds and nothing can be emitted.
+    // Emits finished units in order.
     auto drain = [&](std::unique_lock<std::mutex>& lk) {
       for (auto it = done.find(res.units); it != done.end(); it = done.find(res.units)) {
         UnitSummary s = std::move(it->second);
@@ -380,16 +498,19 @@ BatchResult run_batch(const std::vector<std::string>& inputs, const BatchOptions
         lk.lock();
       }
     };
+    const auto tick = std::chrono::milliseconds(50);  // how often a wait looks at `stop`
     try {
       for (;;) {
-        const bool got = reader.next(chunk);
+        if (stopping()) break;
+        const bool got = next_unit(chunk);
         std::unique_lock<std::mutex> lk(mu);
         for (;;) {
           drain(lk);
-          if (abort || read - res.units < window) break;
-          done_cv.wait(lk, [&] { return abort || done.count(res.units) > 0; });
+          if (abort || stopping() || read - res.units < window) break;
+          done_cv.wait_for(lk, tick, [&] { return abort || done.count(res.units) > 0; });
         }
-        if (abort || !got) break;
+        if (!got) input_done = true;
+        if (abort || !got || stopping()) break;
         queue.push_back(std::move(chunk));
         ++read;
         work_cv.notify_one();
@@ -398,8 +519,14 @@ BatchResult run_batch(const std::vector<std::string>& inputs, const BatchOptions
       closed = true;
       work_cv.notify_all();
       while (!abort && res.units < read) {
+        if (stopping()) {  // abandon the units not started
+          abandoned += queue.size();
+          read -= queue.size();
+          queue.clear();
+        }
         drain(lk);
-        if (res.units < read) done_cv.wait(lk, [&] { return abort || done.count(res.units) > 0; });
+        if (res.units < read)
+          done_cv.wait_for(lk, tick, [&] { return abort || done.count(res.units) > 0; });
       }
     } catch (...) {
       std::lock_guard<std::mutex> lk(mu);
@@ -416,7 +543,22 @@ BatchResult run_batch(const std::vector<std::string>& inputs, const BatchOptions
     if (error) std::rethrow_exception(error);
   }
 
-  js.append(summary_json_tail(res.units, res.ok, res.failed, res.out_of_tolerance));
+  std::string partial;
+  if (stopping() && (!input_done || abandoned > 0)) {  // (a stop after the last unit cuts nothing)
+    res.interrupted_by = options.stop->load();
+    const std::string sig = signal_name(res.interrupted_by);
+    partial = fmt::format(
+        "{{\"signal\": {}, \"units_completed\": {}, \"last_unit\": {}, \"note\": {}}}",
+        json(sig).dump(), res.units,
+        res.units ? json(last_unit).dump(-1, ' ', false, json::error_handler_t::replace)
+                  : std::string("null"),
+        json("the batch was interrupted: the units after last_unit were not processed").dump());
+    csv.append(fmt::format(
+        "# partial: interrupted by {} after {} units; the units after the last row were not "
+        "processed\n",
+        sig, res.units));
+  }
+  js.append(summary_json_tail(res.units, res.ok, res.failed, res.out_of_tolerance, partial));
   csv.commit(true);
   js.commit(true);
   res.seconds = seconds();

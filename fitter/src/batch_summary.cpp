@@ -3,6 +3,7 @@
 #include <fmt/format.h>
 
 #include <algorithm>
+#include <charconv>
 #include <cmath>
 #include <limits>
 #include <map>
@@ -61,6 +62,17 @@ std::string csv_field(const std::string& s) {
   return q + '"';
 }
 
+// The whole cell is a plain finite number (an optional sign, as
+// calibration_csv.cpp reads numbers).
+bool plain_number(const std::string& s) {
+  const char* b = s.data();
+  const char* e = b + s.size();
+  if (b != e && *b == '+') ++b;
+  double v = 0;
+  const auto r = std::from_chars(b, e, v, std::chars_format::general);
+  return b != e && r.ec == std::errc() && r.ptr == e && std::isfinite(v);
+}
+
 std::string joined(const std::vector<std::string>& v) {
   std::string s;
   for (const auto& w : v) s += (s.empty() ? "" : "; ") + w;
@@ -88,17 +100,26 @@ std::string text(const json& j, const char* key, const std::string& file) {
 
 }  // namespace
 
+std::string csv_text_cell(const std::string& s) {
+  if (s.empty()) return s;
+  const char c = s[0];
+  const bool formula = c == '=' || c == '@' || c == '\t' || c == '\r' ||
+                       ((c == '+' || c == '-') && !plain_number(s));
+  return csv_field(formula ? "'" + s : s);
+}
+
 std::string summary_csv_header() {
   return "unit,status,rows,degree,lambda,validation_rmse,test_rmse,max_abs_error,verdict,warnings,"
          "error,record\n";
 }
 
 std::string summary_csv_row(const UnitSummary& u) {
-  return fmt::format(
-      "{},{},{},{},{},{},{},{},{},{},{},{}\n", csv_field(u.unit), to_string(u.status), u.rows,
-      u.degree >= 0 ? std::to_string(u.degree) : std::string(), csv_num(u.lambda),
-      csv_num(u.validation_rmse), csv_num(u.test_rmse), csv_num(u.max_abs_error),
-      to_string(u.verdict), csv_field(joined(u.warnings)), csv_field(u.error), csv_field(u.record));
+  return fmt::format("{},{},{},{},{},{},{},{},{},{},{},{}\n", csv_text_cell(u.unit),
+                     to_string(u.status), u.rows,
+                     u.degree >= 0 ? std::to_string(u.degree) : std::string(), csv_num(u.lambda),
+                     csv_num(u.validation_rmse), csv_num(u.test_rmse), csv_num(u.max_abs_error),
+                     to_string(u.verdict), csv_text_cell(joined(u.warnings)),
+                     csv_text_cell(u.error), csv_text_cell(u.record));
 }
 
 json unit_summary_to_json(const UnitSummary& u) {
@@ -189,11 +210,12 @@ std::string summary_json_unit(const UnitSummary& u, bool first) {
 }
 
 std::string summary_json_tail(std::uint64_t units, std::uint64_t ok, std::uint64_t failed,
-                              std::uint64_t out_of_tolerance) {
+                              std::uint64_t out_of_tolerance, const std::string& partial) {
   return fmt::format(
       "\n  ],\n  \"totals\": {{\"units\": {}, \"ok\": {}, \"failed\": {}, \"out_of_tolerance\": "
-      "{}}}\n}}\n",
-      units, ok, failed, out_of_tolerance);
+      "{}}}{}\n}}\n",
+      units, ok, failed, out_of_tolerance,
+      partial.empty() ? std::string() : ",\n  \"partial\": " + partial);
 }
 
 BatchSummary read_batch_summary(const std::string& path) {
@@ -205,6 +227,16 @@ BatchSummary read_batch_summary(const std::string& path) {
                      "give summary.json files written by 'ridgecal batch'");
   }
   if (!j.is_object()) bad(path, "the top level is not an object");
+  if (const auto p = j.find("partial"); p != j.end()) {
+    std::string what = "it was interrupted";
+    if (p->is_object() && p->contains("signal") && (*p)["signal"].is_string() &&
+        p->contains("units_completed") && (*p)["units_completed"].is_number_unsigned())
+      what =
+          fmt::format("it was interrupted by {} after {} units", (*p)["signal"].get<std::string>(),
+                      (*p)["units_completed"].get<std::uint64_t>());
+    throw InputError(path, 0, "the summary of an unfinished batch is partial: " + what,
+                     "run the batch of this shard again to the end, then merge");
+  }
   if (text(j, "format", path) != kBatchSummaryFormat)
     bad(path, "'format' is not ridgecal-batch-summary");
   const auto v = j.find("format_version");
@@ -248,7 +280,8 @@ BatchSummary merge_batch_summaries(const std::vector<BatchSummary>& shards,
     out.inputs.insert(out.inputs.end(), s.inputs.begin(), s.inputs.end());
     for (const UnitSummary& u : s.units) {
       const auto [it, fresh] = where.emplace(u.unit, i);
-      if (!fresh)
+      // (within one shard the batch itself reported a unit that appears again)
+      if (!fresh && it->second != i)
         throw InputError(
             name, 0,
             fmt::format("unit '{}' is also in {}", u.unit,

@@ -8,7 +8,8 @@
 # must be byte-identical to its complete a-version or its complete b-version:
 # never truncated, never mixed, never missing. Left-over temporary files
 # (*.tmp-*) show that a kill hit a write; there must be some, else the timing
-# proves nothing.
+# proves nothing. Then batches are stopped with SIGINT and SIGTERM, which must
+# stop them cleanly with a partial summary (see the section below).
 # usage: test_atomic_kill_batch.sh RIDGECAL_BINARY [ROUNDS]
 set -u
 bin=$1 rounds=${2:-${RIDGECAL_KILL_ROUNDS:-12}}
@@ -86,11 +87,60 @@ for ((i = 1; i <= rounds; i++)); do
     [[ $tmp == */records/* || $tmp == */reports/* || $tmp == */headers/* ]] && killed_in_write=$((killed_in_write + 1))
     rm -f "$tmp"
   done < <(find "$work/out" -name '*.tmp-*')
-  extra=$(cd "$work/out" && find . -type f | LC_ALL=C sort | comm -13 "$work/files" -)
+  # (a SIGKILL leaves the lock file .ridgecal.lock: harmless, the lock dies with the process)
+  extra=$(cd "$work/out" && find . -type f ! -name .ridgecal.lock | LC_ALL=C sort | comm -13 "$work/files" -)
   [[ -z $extra ]] || bad "round $i: unexpected files: $extra"
 done
 echo "atomic_kill_batch: $mixed rounds were cut with outputs of both runs; $killed_in_write temporary records, reports or headers were left by kills inside their write"
 if ((killed_in_write > 0)); then ok; else bad "no kill hit a write; the timing is off"; fi
 if ((mixed > 0)); then ok; else bad "no kill cut a batch in the middle; the timing is off"; fi
+
+# SIGINT and SIGTERM (issue 15 item 7): a clean stop. Exit 130 / 143 (or 0
+# when the batch ended first), no temporary file left, summaries marked
+# partial that list exactly the units completed: each listed unit's record,
+# report and header is the complete version of this run; every other file is
+# the complete version of one of the runs.
+stopped=0
+for ((i = 1; i <= rounds; i++)); do
+  v=$([[ $((i % 2)) -eq 0 ]] && echo b || echo a)
+  sig=$([[ $((i % 2)) -eq 0 ]] && echo TERM || echo INT)
+  want=$([[ $sig == INT ]] && echo 130 || echo 143)
+  (run "$v") &
+  pid=$!
+  delay=$(( ms / 10 + RANDOM % (ms + 1) ))
+  sleep "$(printf '%d.%03d' $((delay / 1000)) $((delay % 1000)))"
+  kill -$sig "$pid" 2>/dev/null
+  wait "$pid"; rc=$?
+  round_bad=0
+  if [[ $rc -ne $want && $rc -ne 0 ]]; then bad "SIG$sig round $i: exit $rc, not $want"; round_bad=1; fi
+  tmps=$(find "$work/out" -name '*.tmp-*' | wc -l)
+  if [[ $tmps -ne 0 ]]; then bad "SIG$sig round $i: $tmps temporary files left"; round_bad=1; fi
+  find "$work/out" -name '*.tmp-*' -delete
+  if [[ $rc -eq $want ]]; then
+    stopped=$((stopped + 1))
+    grep -q "\"partial\": {\"signal\": \"SIG$sig\"" "$work/out/summary.json" ||
+      { bad "SIG$sig round $i: summary.json is not marked partial"; round_bad=1; }
+    listed=$(grep -v '^#' "$work/out/summary.csv" | tail -n +2 | cut -d, -f1)
+    n=$(echo "$listed" | grep -c .)
+    grep -q "^# partial: interrupted by SIG$sig after $n units" "$work/out/summary.csv" ||
+      { bad "SIG$sig round $i: summary.csv does not say it is partial after $n units"; round_bad=1; }
+    for u in $listed; do
+      for f in records/$u.json reports/$u.html headers/$u.h; do
+        cmp -s "$work/out/$f" "$work/ref-$v/$f" || { bad "SIG$sig round $i: listed $f is not this run's"; round_bad=1; }
+      done
+    done
+  fi
+  while read -r f; do
+    [[ $f == ./summary.* && $rc -eq $want ]] && continue
+    if [[ ! -e $work/out/$f ]]; then
+      bad "SIG$sig round $i: $f is missing"; round_bad=1
+    elif ! cmp -s "$work/out/$f" "$work/ref-a/$f" && ! cmp -s "$work/out/$f" "$work/ref-b/$f"; then
+      bad "SIG$sig round $i: $f is neither complete version"; round_bad=1
+    fi
+  done <"$work/files"
+  ((round_bad)) || ok
+done
+echo "atomic_kill_batch: $stopped of $rounds SIGINT/SIGTERM rounds stopped a batch in the middle"
+if ((stopped > 0)); then ok; else bad "no SIGINT/SIGTERM hit a running batch; the timing is off"; fi
 echo "atomic_kill_batch: $passes passed, $fails failed"
 [[ $fails -eq 0 ]]

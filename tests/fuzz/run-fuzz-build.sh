@@ -16,5 +16,5 @@ seconds=${RIDGECAL_FUZZ_SECONDS:-60}
 cmake -S . -B "$build" -G Ninja -DCMAKE_BUILD_TYPE=Debug -DCMAKE_CXX_FLAGS_DEBUG="-O1 -g" -DCMAKE_C_FLAGS_DEBUG="-O1 -g" \
   -DCMAKE_CXX_COMPILER="${CXX_FUZZ:-clang++}" -DCMAKE_C_COMPILER="${CC_FUZZ:-clang}" \
   -DRIDGECAL_FUZZ=ON -DRIDGECAL_BUILD_TESTS=ON -DRIDGECAL_FUZZ_SECONDS="$seconds" >/dev/null
-cmake --build "$build" -j "$jobs" --target fuzz_csv_reader fuzz_record
+cmake --build "$build" -j "$jobs" --target fuzz_csv_reader fuzz_record fuzz_batch_fast
 bash tests/run-suite.sh "$build" -L fuzz --output-on-failure -j "$jobs"

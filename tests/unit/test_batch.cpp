@@ -467,3 +467,104 @@ BOOST_AUTO_TEST_CASE(with_a_tolerance_every_fitted_unit_gets_a_verdict) {
                std::string::npos);
   }
 }
+
+// Issue 15 item 3: the naming rule (docs/batch.md) keeps plain names and
+// hashed names apart, and avoids names Windows reserves.
+BOOST_AUTO_TEST_CASE(file_names_of_units_never_collide) {
+  const std::string hashed = unit_file_stem("SN 001");
+  BOOST_TEST(hashed.rfind("SN_001-", 0) == 0u);
+  // A label that is literally another unit's hashed name is hashed itself.
+  BOOST_TEST(unit_file_stem(hashed) != hashed);
+  BOOST_TEST(unit_file_stem(hashed).rfind(hashed + "-", 0) == 0u);
+  for (const char* r : {"CON", "con", "Nul", "AUX", "PRN", "COM1", "lpt9", "nul.txt", "CON.a.b"}) {
+    const std::string s = unit_file_stem(r);
+    BOOST_TEST(s.front() == '_', r << " -> " << s);
+  }
+  BOOST_TEST(unit_file_stem("CONSOLE") == "CONSOLE");
+  BOOST_TEST(unit_file_stem("COM10") == "COM10");
+  // Within a batch: names differing only in case, and a taken hashed name.
+  UnitFileNames names;
+  BOOST_TEST(names.assign("AB1") == "AB1");
+  const std::string second = names.assign("ab1");
+  BOOST_TEST(second.rfind("ab1-", 0) == 0u);
+  BOOST_TEST(second.size() == 12u);
+  BOOST_TEST(names.assign("SN 001") == hashed);
+  BOOST_TEST(names.assign("SN 001") == "");  // (a reappearing label fails before this)
+}
+
+// Issue 15 item 10: formula-like cells of summary.csv get a leading apostrophe.
+BOOST_AUTO_TEST_CASE(summary_csv_neutralises_formulas_but_keeps_numbers) {
+  BOOST_TEST(csv_text_cell("=1+2") == "'=1+2");
+  BOOST_TEST(csv_text_cell("+SUM(A1)") == "'+SUM(A1)");
+  BOOST_TEST(csv_text_cell("-2+3") == "'-2+3");
+  BOOST_TEST(csv_text_cell("@cmd") == "'@cmd");
+  BOOST_TEST(csv_text_cell("\tx") == "'\tx");
+  BOOST_TEST(csv_text_cell("\rx") == "\"'\rx\"");
+  BOOST_TEST(csv_text_cell("=a,b") == "\"'=a,b\"");
+  BOOST_TEST(csv_text_cell("-0.25") == "-0.25");
+  BOOST_TEST(csv_text_cell("+1e3") == "+1e3");
+  BOOST_TEST(csv_text_cell("U1") == "U1");
+  BOOST_TEST(csv_text_cell("") == "");
+}
+
+// Issue 15 item 9: the fast parser declines what the general parser refuses
+// (control characters in a setpoint label, magnitudes out of range, fields
+// at the length limit), so the batch reports it as `fit` does.
+BOOST_AUTO_TEST_CASE(the_fast_parser_declines_what_fit_refuses) {
+  CsvOptions sp;
+  sp.setpoint_column = "setpoint";
+  Dataset ds;
+  BOOST_TEST(
+      parse_unit_chunk_fast(chunk_of("setpoint,reading,reference", "S1,1,2\nS2,3,4\n"), sp, ds));
+  BOOST_TEST(!parse_unit_chunk_fast(chunk_of("setpoint,reading,reference", "S\x07,1,2\n"), sp, ds));
+  BOOST_TEST(!parse_unit_chunk_fast(chunk_of("setpoint,reading,reference", "S\xe9,1,2\n"), sp, ds));
+  BOOST_TEST(
+      !parse_unit_chunk_fast(chunk_of("setpoint,reading,reference", "S1,1e301,2\n"), sp, ds));
+  BOOST_TEST(
+      !parse_unit_chunk_fast(chunk_of("setpoint,reading,reference", "S1,1e-301,2\n"), sp, ds));
+  CsvOptions small = sp;
+  small.limits.max_field_bytes = 4;
+  BOOST_TEST(
+      !parse_unit_chunk_fast(chunk_of("setpoint,reading,reference", "S123,1,2\n"), small, ds));
+  BOOST_CHECK_THROW(parse_unit_chunk(chunk_of("setpoint,reading,reference", "S123,1,2\n"), small),
+                    InputError);
+  BOOST_CHECK_THROW(parse_unit_chunk(chunk_of("setpoint,reading,reference", "S\x07,1,2\n"), sp),
+                    InputError);
+}
+
+// Issue 15 items 6, 9, 11: the reader's limits, labels and quoted newlines.
+BOOST_AUTO_TEST_CASE(the_reader_applies_limits_and_label_checks) {
+  TempDir tmp;
+  write(tmp / "in.csv",
+        "unit,reading,reference\n"
+        "A,1,2\nA,2,3\nA,3,4\n"
+        "B,1,2\nB,2,3\nB,3,4\nB,4,5\n"
+        "\"C\n1\",1,2\n"
+        "D\x1b,1,2\n"
+        "E,1,2\n");
+  BatchInputOptions in;
+  in.unit_column = "unit";
+  in.csv.limits.max_rows = 3;
+  UnitReader r({tmp / "in.csv"}, in);
+  UnitChunk c;
+  BOOST_TEST_REQUIRE(r.next(c));
+  BOOST_TEST(c.unit == "A");
+  BOOST_TEST(c.error == "");
+  BOOST_TEST_REQUIRE(r.next(c));
+  BOOST_TEST(c.unit == "B");
+  BOOST_TEST(c.error.find(":8: the unit has more than 3 data rows") != std::string::npos, c.error);
+  BOOST_TEST(c.text.find("B,4,5") == std::string::npos);  // not kept
+  BOOST_TEST_REQUIRE(r.next(c));
+  BOOST_TEST(c.unit == "C\n1");
+  BOOST_TEST(c.first_line == 9u);
+  BOOST_TEST(c.error.find(":9: the unit label") != std::string::npos, c.error);
+  BOOST_TEST_REQUIRE(r.next(c));
+  BOOST_TEST(c.error.find(":11: the unit label 'D\\x1b' contains the control character") !=
+                 std::string::npos,
+             c.error);
+  BOOST_TEST_REQUIRE(r.next(c));
+  BOOST_TEST(c.unit == "E");
+  BOOST_TEST(c.first_line == 12u);
+  BOOST_TEST(c.error == "");
+  BOOST_TEST(!r.next(c));
+}

@@ -15,6 +15,20 @@
 //
 // A directory of CSV files is read as its *.csv files in name order. Without
 // a unit column every file is one unit, named after the file (without .csv).
+//
+// Limits (the CsvLimits of `fit`, csv.limits): a line may hold at most
+// max_fields * (max_field_bytes + 3) bytes (every field at its longest,
+// quoted, plus the delimiter); a header over the limit, with more than
+// max_fields fields or a field over max_field_bytes makes the file unusable
+// (InputError), so `batch /dev/zero` is refused after reading one line's
+// worth. A unit with more than max_rows data rows or more than max_bytes bytes
+// of rows, or with a data line over the line limit, fails with that error
+// (its rows beyond the limit are read past, not kept). The unit label must be
+// a name `fit` accepts (name_problem in text_check.hpp: valid UTF-8, no
+// control characters, at most kMaxRecordNameBytes bytes); a label that is
+// not fails its unit at the label's line. A quoted unit label that spans
+// lines (a newline inside the quotes) is read as one record, whose label then
+// holds a newline: its unit fails at the line where the label starts.
 #pragma once
 
 #include <cstdint>
@@ -45,6 +59,9 @@ struct UnitChunk {
   std::size_t rows = 0;         ///< data rows (not counting comments and blanks)
   std::string text;             ///< header line, then the unit's lines, '\n'-terminated
   std::string error;  ///< not empty: the chunk must not be fitted (e.g. the unit reappears)
+  /// File stem of the unit's outputs (records/<stem>.json), given by the
+  /// batch (UnitFileNames); empty: unit_file_stem(unit).
+  std::string stem;
 };
 
 /// Input files of a batch: a regular file is itself; a directory gives its
@@ -52,11 +69,24 @@ struct UnitChunk {
 /// not exist or a directory holds no CSV file.
 std::vector<std::string> batch_input_files(const std::string& path);
 
+/// A set of 64-bit hashes, 8 bytes per member: a sorted run plus a small
+/// unsorted tail merged into it when full.
+class HashSet64 {
+ public:
+  /// Adds `h`; false when it was already there.
+  bool insert(std::uint64_t h);
+
+ private:
+  std::vector<std::uint64_t> sorted_, tail_;
+};
+
 class UnitReader {
  public:
   /// Precondition: options.validate() is empty, files not empty.
   UnitReader(std::vector<std::string> files, BatchInputOptions options);
   ~UnitReader();
+  UnitReader(const UnitReader&) = delete;
+  UnitReader& operator=(const UnitReader&) = delete;
 
   /// The next unit, false at the end of the input. Throws InputError on
   /// problems of a file as a whole: unreadable, no header, a missing column.
@@ -67,12 +97,20 @@ class UnitReader {
 
  private:
   bool open_next_file();
-  bool read_line(std::string& line);
+  // One physical line without its '\n' (and '\r'), at most line_limit_ bytes
+  // kept; `too_long` when the line was longer (the rest is read past, up to
+  // csv.limits.max_bytes, beyond which the file is refused).
+  bool read_line(std::string& line, bool& too_long);
+  bool fill();
 
   std::vector<std::string> files_;
   BatchInputOptions options_;
   std::size_t file_index_ = 0;
-  std::unique_ptr<std::ifstream> in_;
+  int fd_ = -1;      // the current file
+  bool eof_ = true;  // no more bytes in the current file
+  std::string buf_;  // bytes read from fd_ and not consumed yet, from buf_pos_
+  std::size_t buf_pos_ = 0;
+  std::size_t line_limit_ = 0;
   std::string header_;  // header line of the current file
   std::size_t header_line_ = 0;
   std::size_t lineno_ = 0;
@@ -82,20 +120,42 @@ class UnitReader {
   std::size_t pending_line_ = 0;
   std::uint64_t next_index_ = 0;
   std::uint64_t bytes_read_ = 0, bytes_total_ = 0;
-  // 64-bit hashes of the unit labels met so far, 8 bytes per unit: a sorted
-  // run plus a small unsorted tail merged into it when full.
-  bool seen_before(std::uint64_t h);
-  std::vector<std::uint64_t> seen_sorted_, seen_tail_;
+  bool pending_too_long_ = false;
+  // 64-bit hashes of the unit labels met so far, 8 bytes per unit.
+  HashSet64 seen_;
 };
 
 /// Parses a chunk; observation lines and error lines refer to the original file.
 /// Throws InputError like parse_calibration_csv. `sha256` is the digest of chunk.text.
 Dataset parse_unit_chunk(const UnitChunk& chunk, const CsvOptions& options);
 
-/// A file name for a unit label: the label itself when it is made of
-/// [A-Za-z0-9._-] only (and is not "." or ".."), otherwise the safe
-/// characters with '_' for the others, plus '-' and 8 hex digits of the
-/// label's hash, so distinct labels never share a file.
+/// A file name for a unit label (the naming rule, docs/batch.md): the label
+/// itself when it is "plain": 1 to 100 characters of [A-Za-z0-9._-], not
+/// starting with '.', not ending in '-' and 8 lowercase hex digits (the form
+/// of the names below), and not a name reserved on Windows (CON, PRN, AUX,
+/// NUL, COM0-9, LPT0-9, in any case, alone or before a '.'). Otherwise the
+/// first 100 characters with '_' for each other byte, a leading '.' made '_',
+/// a '_' in front when the result is reserved, then '-' and 8 hex digits of
+/// the label's 64-bit FNV-1a hash. Plain names and hashed names never coincide,
+/// and no name is reserved on Windows. Two labels can still map to names that
+/// differ only in case, or (improbably) to one hashed name: UnitFileNames
+/// resolves that within a batch.
 std::string unit_file_stem(const std::string& unit);
+
+/// The file names of one batch's units, handed out in input order, so that
+/// no two units of the batch share a file, even on a file system that ignores
+/// case. assign() gives unit_file_stem(unit) unless a name equal to it ignoring
+/// ASCII case was given before; then the stem with '-' and the 8 hex digits of
+/// the label's hash appended (a plain label that differs from an earlier one
+/// only in case); if that is taken too, "" (the unit must fail: no name).
+/// Memory: 8 bytes per unit (hashes of the lower-cased names; a hash
+/// collision can only make a unit fail, never two units share a file).
+class UnitFileNames {
+ public:
+  std::string assign(const std::string& unit);
+
+ private:
+  HashSet64 used_;
+};
 
 }  // namespace ridgecal

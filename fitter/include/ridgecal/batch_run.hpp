@@ -27,6 +27,7 @@
 // fit, and its summary has no diagnostic warnings.
 #pragma once
 
+#include <atomic>
 #include <cstdint>
 #include <functional>
 #include <string>
@@ -74,6 +75,13 @@ struct BatchOptions {
   std::string created_utc;  ///< creation time written to every record and the summary ("" = omit)
   int window_per_job = 16;  ///< units in flight per job (bounds memory), >= 1
   std::vector<UnitOutput> unit_outputs;  ///< extra per-unit outputs; need write_records
+  /// Not null: polled by the batch; when it holds a nonzero signal number
+  /// (e.g. set by a SIGINT handler) the batch stops cleanly: it reads no
+  /// further unit, abandons the units not yet started, finishes those in
+  /// flight, and writes summaries marked partial ("partial" in summary.json,
+  /// a closing "# partial: ..." line in summary.csv) listing the units
+  /// completed. BatchResult::interrupted_by is then that number.
+  const std::atomic<int>* stop = nullptr;
 
   /// Empty when valid, else a message naming the field, the value and the rule.
   std::string validate() const;
@@ -96,6 +104,7 @@ struct BatchResult {
   std::uint64_t failed = 0;            ///< not fitted
   std::uint64_t out_of_tolerance = 0;  ///< fitted with verdict FAIL
   std::uint64_t outputs_failed = 0;    ///< fitted units with an extra output not written
+  int interrupted_by = 0;              ///< the signal that stopped the batch (options.stop), or 0
   double seconds = 0.0;
 };
 
@@ -103,10 +112,35 @@ struct BatchResult {
 /// seconds and once at the end (finished = true).
 using ProgressCallback = std::function<void(const BatchProgress&)>;
 
+/// An exclusive lock on an output directory, held while the object lives:
+/// flock() on the file `.ridgecal.lock` inside it, created if missing and
+/// removed on release (a waiter that opened the removed file notices and
+/// retries). Throws InputError (exit 2) when another process holds it:
+/// two batches (or a batch and a merge) never write into one directory at once.
+class OutputDirLock {
+ public:
+  explicit OutputDirLock(const std::string& dir);
+  ~OutputDirLock();
+  OutputDirLock(const OutputDirLock&) = delete;
+  OutputDirLock& operator=(const OutputDirLock&) = delete;
+
+ private:
+  std::string path_;
+  int fd_ = -1;
+};
+
+/// Throws InputError naming the input when an input of the batch is also one
+/// of its outputs (summary.csv, summary.json, the lock file, or a file in a
+/// directory of per-unit outputs), compared with same_file(); nothing is
+/// written before.
+void refuse_inputs_as_outputs(const std::vector<std::string>& inputs, const BatchOptions& options);
+
 /// Runs the batch. Preconditions: options.validate() is empty.
-/// Throws InputError when the input as a whole is unusable (missing file or
-/// column, no header) or an output cannot be written; the summaries are then
-/// not written (records already written stay).
+/// Throws InputError when an input is also an output (refuse_inputs_as_outputs,
+/// before anything is written), another batch holds the output directory's
+/// lock (OutputDirLock), the input as a whole is unusable (missing file or
+/// column, no header, a line over the limits) or an output cannot be written; the summaries are
+/// then not written (records already written stay).
 BatchResult run_batch(const std::vector<std::string>& inputs, const BatchOptions& options,
                       const ProgressCallback& progress = {}, double progress_interval_s = 0.5);
 

@@ -9,8 +9,15 @@
 //   units[{unit, status, rows, degree, lambda, validation_rmse, test_rmse,
 //          max_abs_error, verdict, warnings[], error, record}],
 //   totals{units, ok, failed, out_of_tolerance}
+//   partial{signal, units_completed, last_unit, note}  only in the summary of
+//                  a batch stopped by a signal (merge_batch_summaries refuses it)
 // Non-finite or absent numbers are null. The summary CSV has the same unit
-// fields, one row per unit, warnings joined by "; ".
+// fields, one row per unit, warnings joined by "; "; a batch stopped by a
+// signal ends it with a line "# partial: interrupted by SIGINT after N units; ...".
+// Text cells of the CSV that a spreadsheet would run as a formula (starting
+// with '=', '+', '-', '@', tab or carriage return) get a leading apostrophe,
+// as spreadsheet-export practice does; a cell that is a plain number (e.g.
+// -0.25) is left as it is (csv_text_cell). summary.json keeps the text as given.
 #pragma once
 
 #include <cstdint>
@@ -56,6 +63,9 @@ struct UnitSummary {
 std::string summary_csv_header();
 /// One CSV line (with '\n'); fields quoted when they hold ',', '"', CR or LF.
 std::string summary_csv_row(const UnitSummary& u);
+/// A text cell of summary.csv: neutralised against formula injection (see
+/// above), then quoted when it holds a delimiter, quote or line break.
+std::string csv_text_cell(const std::string& s);
 
 nlohmann::json unit_summary_to_json(const UnitSummary& u);
 /// Throws InputError (naming `file`) on a malformed unit entry.
@@ -68,8 +78,9 @@ std::string summary_json_head(const std::string& created_utc, const nlohmann::js
 /// One unit entry; `first` says whether it is the first (no leading comma).
 std::string summary_json_unit(const UnitSummary& u, bool first);
 /// Closes the units array and writes the totals.
+/// `partial`: empty, or the JSON object of the "partial" member.
 std::string summary_json_tail(std::uint64_t units, std::uint64_t ok, std::uint64_t failed,
-                              std::uint64_t out_of_tolerance);
+                              std::uint64_t out_of_tolerance, const std::string& partial = {});
 
 /// A parsed summary JSON file.
 struct BatchSummary {
