@@ -6,6 +6,8 @@
 #include <charconv>
 #include <cmath>
 #include <stdexcept>
+#include <string_view>
+#include <unordered_set>
 
 #include "ridgecal/atomic_file.hpp"
 #include "ridgecal/errors.hpp"
@@ -249,13 +251,14 @@ Dataset parse_calibration_csv(const std::string& text, const std::string& file,
     if (header.empty()) {
       header = std::move(fields);
       header_line = lineno;
-      for (std::size_t i = 0; i < header.size(); ++i)
-        for (std::size_t j = 0; j < i; ++j)
-          if (header[i] == header[j] && !header[i].empty())
-            throw InputError(
-                file, lineno,
-                fmt::format("column '{}' appears twice in the header", shown(header[i])),
-                "give every column a distinct name");
+      // Linear in the number of columns (a hostile header can have 100,000).
+      std::unordered_set<std::string_view> seen;
+      seen.reserve(header.size());
+      for (const std::string& name : header)
+        if (!name.empty() && !seen.insert(name).second)
+          throw InputError(file, lineno,
+                           fmt::format("column '{}' appears twice in the header", shown(name)),
+                           "give every column a distinct name");
       auto find = [&](const std::string& name, const char* what) {
         const auto it = std::find(header.begin(), header.end(), name);
         if (it == header.end()) {
