@@ -84,6 +84,7 @@ void read_assessment_members(const json& j, CalibrationRecord& rec, const std::s
   if (j.contains("decision")) rec.decision = decision_from_json(j["decision"], file);
   if (j.contains("uncertainty")) rec.uncertainty = uncertainty_from_json(j["uncertainty"], file);
   if (j.contains("warnings")) rec.warnings = warnings_from_json(j["warnings"], file);
+  if (j.contains("lack_of_fit")) rec.lack_of_fit = lack_of_fit_from_json(j["lack_of_fit"], file);
 }
 
 }  // namespace
@@ -177,6 +178,7 @@ json record_to_json(const CalibrationRecord& rec) {
   if (rec.decision) j["decision"] = to_json(*rec.decision);
   if (rec.uncertainty) j["uncertainty"] = to_json(*rec.uncertainty);
   if (rec.uncertainty || !rec.warnings.empty()) j["warnings"] = to_json(rec.warnings);
+  if (rec.lack_of_fit) j["lack_of_fit"] = to_json(*rec.lack_of_fit);
   j["integrity"] = {{"algorithm", "sha256"}, {"sha256", record_digest(j)}};
   return j;
 }
