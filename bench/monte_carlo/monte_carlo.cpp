@@ -3,6 +3,7 @@
 // docs/monte-carlo.md). Prints markdown tables on stdout.
 //
 //   ridgecal_monte_carlo [--runs N] [--fresh M] [--line-units N] [--seed S] [--check]
+//                        [--least-squares]
 //
 // --check (the smoke test): also verifies that the harness works and that its
 // numbers are sane; exit 1 when not.
@@ -29,6 +30,10 @@ struct Settings {
   int line_units = 2000;
   std::uint64_t seed = 20261202;
   bool check = false;
+  /// Every scenario fitted with lambda = 0 only (CV over the degrees): a
+  /// stand-in for a penalty that does not bias the curve (issue 13 item 1),
+  /// to tell the warnings' own false alarms from the bias they rightly see.
+  bool least_squares = false;
 };
 
 std::string pct(double x) {
@@ -112,8 +117,28 @@ CleanStats run_clean(const Scenario& s, const Settings& st, std::uint64_t seed) 
 
 struct FaultStats {
   int runs = 0, refused = 0, any = 0, fail = 0;
+  int detected = 0;  ///< runs on which one of the fault's own codes fired
   std::map<std::string, int> code_runs;
 };
+
+/// The warnings meant to catch each fault (docs/monte-carlo.md, AFTER): a
+/// stuck reading or a wrong reference lands in training (lack of fit) or in
+/// the test set (test much worse than validation).
+std::vector<std::string> fault_codes(Fault f) {
+  switch (f) {
+    case Fault::Spike:
+      return {"outlier"};
+    case Fault::Stuck:
+    case Fault::WrongLabel:
+      return {"lack-of-fit", "test-much-worse-than-validation"};
+    case Fault::Underfit:
+      return {"lack-of-fit", "residual-pattern"};
+    case Fault::Drift:
+      return {"drift-between-repeats"};
+    default:
+      return {};
+  }
+}
 
 FaultStats run_fault(const Scenario& base, Fault f, const Settings& st, std::uint64_t seed) {
   const Scenario s = with_fault(base, f);
@@ -132,6 +157,10 @@ FaultStats run_fault(const Scenario& base, Fault f, const Settings& st, std::uin
     codes.erase(std::unique(codes.begin(), codes.end()), codes.end());
     for (const std::string& c : codes) ++r.code_runs[c];
     r.any += !codes.empty();
+    const std::vector<std::string> own = fault_codes(f);
+    r.detected += std::any_of(codes.begin(), codes.end(), [&](const std::string& c) {
+      return std::find(own.begin(), own.end(), c) != own.end();
+    });
     r.fail += fit.has_verdict && !fit.pass;
   }
   return r;
@@ -155,7 +184,9 @@ std::string top_codes(const std::map<std::string, int>& m, int runs, int n,
 }
 
 int run(const Settings& st) {
-  const std::vector<Scenario> scenarios = all_scenarios();
+  std::vector<Scenario> scenarios = all_scenarios();
+  if (st.least_squares)
+    for (Scenario& s : scenarios) s.options.fit.lambdas = {0.0};
   std::ostringstream o;
   int problems = 0;
   auto sane = [&](bool ok, const std::string& what) {
@@ -165,7 +196,7 @@ int run(const Settings& st) {
     }
   };
   o << "runs per scenario: " << st.runs << ", fresh points per run: " << st.fresh
-    << ", seed: " << st.seed << "\n\n";
+    << ", seed: " << st.seed << (st.least_squares ? ", least squares (lambda = 0)" : "") << "\n\n";
   o << "### Clean runs: end bias and coverage of +-U(k=2)\n\n"
     << "| scenario | family follows truth | refused | mean error at low end (sigma) | at high end "
        "(sigma) | coverage overall | low third | middle third | high third |\n"
@@ -210,17 +241,45 @@ int run(const Settings& st) {
     o << " " << pct(clean[s.name].any_warning / double(clean[s.name].runs - clean[s.name].refused))
       << " |";
   o << "\n\n";
+  o << "ntc-counts: the family cannot follow the truth, so a warning about the model there "
+       "(lack-of-fit, degree-at-grid-edge, non-monotonic, test-much-worse-than-validation) "
+       "is a true alarm, not a false one.\n\n";
+
+  // Every fault in every scenario: detection by the fault's own warnings.
+  std::map<std::pair<std::string, int>, FaultStats> faults;
+  for (std::size_t i = 0; i < scenarios.size(); ++i)
+    for (Fault f : all_faults())
+      faults[{scenarios[i].name, static_cast<int>(f)}] =
+          run_fault(scenarios[i], f, st,
+                    st.seed + 31ULL * static_cast<int>(f) + 17 + (i ? 1000003ULL * i : 0ULL));
+  o << "### Seeded faults: share of runs on which the fault's own warning fires (target >= 90 "
+       "%)\n\n| fault | its warnings |";
+  for (const Scenario& s : scenarios) o << " " << s.name << " |";
+  o << "\n|---|---|";
+  for (std::size_t i = 0; i < scenarios.size(); ++i) o << "---|";
+  o << "\n";
+  for (Fault f : all_faults()) {
+    std::string own;
+    for (const std::string& c : fault_codes(f)) own += (own.empty() ? "" : " or ") + c;
+    o << "| " << to_string(f) << " | " << own << " |";
+    for (const Scenario& s : scenarios) {
+      const FaultStats& r = faults[{s.name, static_cast<int>(f)}];
+      o << " " << pct(r.detected / double(std::max(1, r.runs - r.refused))) << " |";
+    }
+    o << "\n";
+  }
+  o << "\n";
 
   o << "### Seeded faults: detection (target: the fault's warning in >= 90 % of runs)\n\n"
     << "| scenario | fault | refused | verdict FAIL | any warning (clean) | most frequent codes "
        "(their rate on clean runs) |\n"
     << "|---|---|---|---|---|---|\n";
-  for (const char* name : {"pt100", "rh"}) {
-    const auto it = std::find_if(scenarios.begin(), scenarios.end(),
-                                 [&](const Scenario& s) { return s.name == name; });
+  for (const Scenario& sc : scenarios) {
+    const std::string& name = sc.name;
+    const Scenario* it = &sc;
     const CleanStats& c = clean[name];
     for (Fault f : all_faults()) {
-      const FaultStats r = run_fault(*it, f, st, st.seed + 31ULL * static_cast<int>(f) + 17);
+      const FaultStats& r = faults[{name, static_cast<int>(f)}];
       const int fitted = r.runs - r.refused;
       o << "| " << name << " | " << to_string(f) << " | " << r.refused << "/" << r.runs << " | "
         << (it->options.assess.tolerance ? pct(r.fail / double(std::max(1, fitted)))
@@ -258,6 +317,20 @@ int run(const Settings& st) {
     // The known-bad family (NTC on counts) must show worse coverage than the Pt100.
     const CleanStats& n = clean["ntc-counts"];
     sane(n.covered / n.fresh < cov, "ntc-counts coverage not below pt100's");
+    // The calibrated warnings (issue 13): quiet on clean Pt100 runs, and each
+    // catches its seeded fault there (wide windows: 60 runs in the smoke test;
+    // the full run measured 0-3 % and 97-100 %).
+    // lack-of-fit gets 30 %: it rightly sees the gain tilt of the current
+    // penalty (8.5 % in the full run, 10 of 60 here; 1.5 % with lambda = 0);
+    // tighten to 15 % once the penalty no longer tilts the curve.
+    for (const auto& [code, k] : p.code_runs)
+      sane(k <= (code == "lack-of-fit" ? 0.30 : 0.15) * p.runs,
+           "pt100 clean runs: " + code + " fires on " + pct(k / double(p.runs)));
+    for (Fault f : {Fault::Spike, Fault::Underfit, Fault::Drift, Fault::Stuck}) {
+      const FaultStats& r = faults[{"pt100", static_cast<int>(f)}];
+      sane(r.detected >= 0.8 * r.runs,
+           "pt100 " + to_string(f) + " detected in only " + pct(r.detected / double(r.runs)));
+    }
     for (const LineRow& r : line.rows) {
       if (r.kind == "good") sane(r.rejected < 0.2 * r.units, "line false rejects above 20 %");
       if (r.kind == "open-circuit")
@@ -301,9 +374,11 @@ int main(int argc, char** argv) {
         st.seed = std::stoull(value());
       else if (a == "--check")
         st.check = true;
+      else if (a == "--least-squares")
+        st.least_squares = true;
       else {
         std::cerr << "usage: ridgecal_monte_carlo [--runs N] [--fresh M] [--line-units N] "
-                     "[--seed S] [--check]\n";
+                     "[--seed S] [--check] [--least-squares]\n";
         return 2;
       }
     } catch (const std::exception&) {

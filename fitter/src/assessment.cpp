@@ -82,6 +82,7 @@ Assessment assess_calibration(const Dataset& data, const Calibration& cal,
   }
   a.warnings = diagnose_fit(data, cal, a.uncertainty, a.tolerance ? &*a.tolerance : nullptr,
                             options.diagnostics);
+  a.lack_of_fit = lack_of_fit_test(data, cal, options.diagnostics.lack_of_fit_alpha);
   return a;
 }
 

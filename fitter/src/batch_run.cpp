@@ -254,15 +254,9 @@ UnitSummary process_unit(const UnitChunk& chunk, const BatchOptions& options) {
   double maxe = 0.0;
   for (const PointResult& p : cal.points) maxe = std::max(maxe, std::fabs(p.error));
   u.max_abs_error = maxe;
-  u.warnings = cal.selection.notes;
-  const SelectionInfo& sel = cal.selection;
-  if (sel.mode == SelectionMode::CrossValidation && sel.chosen >= 0) {
-    if (sel.degrees.size() > 1 && u.degree == sel.degrees.back())
-      u.warnings.push_back(fmt::format("the chosen degree {} is the largest candidate", u.degree));
-    if (sel.lambdas.size() > 1 && cal.lambda == sel.lambdas.back())
-      u.warnings.push_back(
-          fmt::format("the chosen lambda {} is the largest candidate", cal.lambda));
-  }
+  // Issue 13: the selection notes (e.g. degrees dropped for lack of setpoints)
+  // stay in the record's selection; a unit's warnings are the record's warnings
+  // only (their grid-edge checks replace the former unit-level ones).
   // The verdict is the record's, computed once by the assessment.
   if (const auto v = result.verdict())
     u.verdict = *v == Verdict::Pass ? UnitVerdict::Pass : UnitVerdict::Fail;

@@ -52,6 +52,7 @@ CalibrateResult calibrate(const Dataset& data, const CalibrateOptions& options) 
   rec.decision = std::move(a.decision);
   rec.uncertainty = std::move(a.uncertainty);
   rec.warnings = std::move(a.warnings);
+  rec.lack_of_fit = std::move(a.lack_of_fit);
   return result;
 }
 

@@ -8,6 +8,7 @@
 #include <stdexcept>
 
 #include "json_read.hpp"
+#include "ridgecal/lack_of_fit.hpp"
 #include "ridgecal/surface_uncertainty.hpp"
 
 namespace ridgecal {
@@ -34,6 +35,8 @@ constexpr CodeName kCodes[] = {
     {DiagnosticCode::Extrapolation, "extrapolation"},
     {DiagnosticCode::RecordModified, "record-modified"},
     {DiagnosticCode::ValidationMuchWorseThanTraining, "validation-much-worse-than-training"},
+    {DiagnosticCode::LackOfFit, "lack-of-fit"},
+    {DiagnosticCode::DriftBetweenRepeats, "drift-between-repeats"},
 };
 
 std::string line_list(const std::vector<std::size_t>& lines, std::size_t max_shown = 8) {
@@ -100,6 +103,16 @@ std::string DiagnosticOptions::validate() const {
     return fmt::format("runs_min_setpoints is {}; it must be >= 4", runs_min_setpoints);
   if (!(condition_limit > 1.0))
     return fmt::format("condition_limit is {}; it must be > 1", condition_limit);
+  for (const auto& [name, v] :
+       {std::pair<const char*, double>{"lack_of_fit_alpha", lack_of_fit_alpha},
+        {"outlier_alpha", outlier_alpha},
+        {"drift_alpha", drift_alpha},
+        {"test_alpha", test_alpha}})
+    if (!(v > 0.0 && v < 1.0))
+      return fmt::format("{} is {}; it must be between 0 and 1 (exclusive)", name, v);
+  if (!(std::isfinite(min_spare_setpoints) && min_spare_setpoints >= 0.0))
+    return fmt::format("min_spare_setpoints is {}; it must be a finite number >= 0",
+                       min_spare_setpoints);
   if (std::isnan(span_low) != std::isnan(span_high))
     return "span_low and span_high go together; give both or neither";
   if (has_span() && !(span_high > span_low))
@@ -581,12 +594,17 @@ std::vector<Warning> diagnose_fit(const Dataset& data, const Calibration& cal,
                                   const ToleranceSpec* tolerance,
                                   const DiagnosticOptions& options) {
   std::vector<Warning> out;
+  // Issue 13: the calibrated checks of lack_of_fit.hpp replace the fixed-limit
+  // test-vs-validation, grid-edge, setpoints-per-coefficient and outlier checks.
+  const LackOfFit lof = lack_of_fit_test(data, cal, options.lack_of_fit_alpha);
   if (cal.surface) {
-    append(out, check_test_vs_validation(cal, options));
+    append(out, check_test_vs_validation_f(cal, options));
     append(out, check_cv_vs_training(cal, options));
-    append(out, check_grid_edges(cal));
-    append(out, check_setpoints_per_coefficient(cal, options));
-    append(out, check_outliers(cal, options));
+    append(out, check_grid_edges_feasible(cal, &lof));
+    append(out, check_spare_setpoints(cal, options));
+    append(out, check_outliers_bonferroni(data, cal, options));
+    append(out, check_lack_of_fit(lof));
+    append(out, check_repeat_drift(data, cal, options));
     append(out, check_condition(cal, options));
     std::vector<double> xs, as;
     std::vector<std::size_t> ls;
@@ -600,11 +618,13 @@ std::vector<Warning> diagnose_fit(const Dataset& data, const Calibration& cal,
     append(out, check_hysteresis(data, cal, uncertainty, tolerance));
     return out;
   }
-  append(out, check_test_vs_validation(cal, options));
-  append(out, check_grid_edges(cal));
-  append(out, check_setpoints_per_coefficient(cal, options));
+  append(out, check_test_vs_validation_f(cal, options));
+  append(out, check_grid_edges_feasible(cal, &lof));
+  append(out, check_spare_setpoints(cal, options));
   append(out, check_coverage(cal, options));
-  append(out, check_outliers(cal, options));
+  append(out, check_outliers_bonferroni(data, cal, options));
+  append(out, check_lack_of_fit(lof));
+  append(out, check_repeat_drift(data, cal, options));
   append(out, check_residual_runs(cal, options));
   append(out, check_monotonic(cal.model));
   append(out, check_hysteresis(data, cal, uncertainty, tolerance));

@@ -104,6 +104,7 @@ void read_assessment_members(const json& j, CalibrationRecord& rec, const std::s
   if (j.contains("decision")) rec.decision = decision_from_json(j["decision"], file);
   if (j.contains("uncertainty")) rec.uncertainty = uncertainty_from_json(j["uncertainty"], file);
   if (j.contains("warnings")) rec.warnings = warnings_from_json(j["warnings"], file);
+  if (j.contains("lack_of_fit")) rec.lack_of_fit = lack_of_fit_from_json(j["lack_of_fit"], file);
 }
 
 }  // namespace

@@ -152,6 +152,7 @@ json record_to_json(const CalibrationRecord& rec) {
   if (rec.decision) j["decision"] = to_json(*rec.decision);
   if (rec.uncertainty) j["uncertainty"] = to_json(*rec.uncertainty);
   if (rec.uncertainty || !rec.warnings.empty()) j["warnings"] = to_json(rec.warnings);
+  if (rec.lack_of_fit) j["lack_of_fit"] = to_json(*rec.lack_of_fit);
   j["integrity"] = {{"algorithm", "sha256"}, {"sha256", record_digest(j)}};
   return j;
 }

@@ -10,6 +10,7 @@
 #include "ridgecal/calibration_csv.hpp"
 #include "ridgecal/decision.hpp"
 #include "ridgecal/diagnostics.hpp"
+#include "ridgecal/lack_of_fit.hpp"
 #include "ridgecal/tolerance.hpp"
 #include "ridgecal/uncertainty.hpp"
 
@@ -33,6 +34,8 @@ struct Assessment {
   std::optional<Decision> decision;        ///< present when a tolerance was given
   UncertaintyBudget uncertainty;
   std::vector<Warning> warnings;
+  std::optional<LackOfFit>
+      lack_of_fit;  ///< the lack-of-fit test (lack_of_fit.hpp); set by assess_calibration
 };
 
 /// The span a %-of-span tolerance uses when none is given: the declared span,

@@ -35,6 +35,8 @@ enum class DiagnosticCode {
   Extrapolation,                    ///< `extrapolation`
   RecordModified,                   ///< `record-modified` (verify --allow-modified)
   ValidationMuchWorseThanTraining,  ///< `validation-much-worse-than-training` (extended fits)
+  LackOfFit,                        ///< `lack-of-fit` (lack_of_fit.hpp)
+  DriftBetweenRepeats,              ///< `drift-between-repeats` (lack_of_fit.hpp)
 };
 std::string to_string(DiagnosticCode c);
 DiagnosticCode diagnostic_code_from_string(const std::string& s);  ///< throws std::invalid_argument
@@ -64,6 +66,15 @@ struct DiagnosticOptions {
   std::size_t runs_min_setpoints =
       10;                        ///< run the runs test only with this many training setpoints; >= 4
   double condition_limit = 1e6;  ///< warn when the design's condition number exceeds this; > 1
+  // The calibrated checks of lack_of_fit.hpp (issue 13): each threshold is a
+  // false-alarm probability on clean data, 0 < alpha < 1; their choice and the
+  // measured rates are in docs/monte-carlo.md.
+  double lack_of_fit_alpha = 0.01;  ///< `lack-of-fit` when the F test's p is below this
+  double outlier_alpha = 0.01;      ///< family-wise (Bonferroni) rate of `outlier` per fit
+  double drift_alpha = 0.01;        ///< `drift-between-repeats` when the t test's p is below this
+  double test_alpha = 0.01;  ///< `test-much-worse-than-validation` when the F test's p is below
+  /// `few-setpoints-per-coefficient` when training setpoints - coefficients is below this; >= 0
+  double min_spare_setpoints = 1.0;
   /// Declared span of the instrument in reference units (NaN: not declared).
   double span_low = std::numeric_limits<double>::quiet_NaN();
   double span_high = std::numeric_limits<double>::quiet_NaN();

@@ -32,6 +32,7 @@
 #include "ridgecal/calibration.hpp"
 #include "ridgecal/decision.hpp"
 #include "ridgecal/diagnostics.hpp"
+#include "ridgecal/lack_of_fit.hpp"
 #include "ridgecal/tolerance.hpp"
 #include "ridgecal/uncertainty.hpp"
 
@@ -71,6 +72,7 @@ struct CalibrationRecord {
   std::optional<Decision> decision;
   std::optional<UncertaintyBudget> uncertainty;
   std::vector<Warning> warnings;  ///< written when not empty or when `uncertainty` is present
+  std::optional<LackOfFit> lack_of_fit;  ///< the lack-of-fit test (lack_of_fit.hpp), when assessed
 };
 
 /// Serialises to JSON with the integrity member filled in.

@@ -17,7 +17,7 @@
  *   tolerance:           none in the record
  *   tolerance used:      0.5 (not given) (--tolerance, for the refusal rule only)
  *   result:              not assessed (no tolerance in the record)
- *   record SHA-256:      4640c2f188aa5fe087bb178289e8f0106378e593322b020bf81543adae7582b2
+ *   record SHA-256:      7fc133853f16629f538f8a68184155d4bcaa8e98155813b90d5bf9758b820353
  *   tool version:        ridgecal 0.1.0
  *
  * Export proof (evaluated at export time by an exact host emulation of the

@@ -17,7 +17,7 @@
  *   tolerance:           none in the record
  *   tolerance used:      0.848826 (not given) (validation RMSE, fallback: no absolute tolerance given)
  *   result:              not assessed (no tolerance in the record)
- *   record SHA-256:      c49b77f90ab1321898521be378ad28ff3ae23a8613009ee9347bee5392b8bce4
+ *   record SHA-256:      babf005226584174675f84151dd8ef551deb26bb73240582f8800fb65691e7bb
  *   tool version:        ridgecal 0.1.0
  *
  * Export proof (evaluated at export time by an exact host emulation of the

@@ -17,7 +17,7 @@
  *   tolerance:           none in the record
  *   tolerance used:      0.000218386 (not given) (validation RMSE, fallback: no absolute tolerance given)
  *   result:              not assessed (no tolerance in the record)
- *   record SHA-256:      ef54d0dc79a96a6f302d46f801de01072b29772677807094c9178445278ae583
+ *   record SHA-256:      7718125f227e93978bd1c41b9a7fbfe57b44c704a0a1a43f2d4fe63db1463f26
  *   tool version:        ridgecal 0.1.0
  *
  * Export proof (evaluated at export time by an exact host emulation of the

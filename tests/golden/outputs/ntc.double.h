@@ -17,7 +17,7 @@
  *   tolerance:           none in the record
  *   tolerance used:      0.0123587 degC (validation RMSE, fallback: no absolute tolerance given)
  *   result:              not assessed (no tolerance in the record)
- *   record SHA-256:      f4961c03945e25a5a023ace3001e3b30a2c5ce16258318b9565cda3c4726cc12
+ *   record SHA-256:      bcde0ccd00b383d4dcc42b6ea505e2622c3a2b58a16ca96eba726797857eb3bb
  *   tool version:        ridgecal 0.1.0
  *
  * Export proof (evaluated at export time by an exact host emulation of the

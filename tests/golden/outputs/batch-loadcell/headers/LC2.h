@@ -17,7 +17,7 @@
  *   tolerance:           +-(0.002) (user); strictest over the range 0.002
  *   tolerance used:      0.002 (not given) (record tolerance)
  *   result:              FAIL: Simple acceptance: a point conforms when |error| <= tolerance +-(0.002); the measurement uncertainty is reported but not subtracted. FAIL: 42 of 44 judged points conform.
- *   record SHA-256:      b6f50d75696dbc35af824f76795729d0d07d3ae3dbe69f5bf9010ca0f1838825
+ *   record SHA-256:      4529235faf63fd32a7d37a17243b202ac10423c633435ba4709f7d15bc57c6c3
  *   tool version:        ridgecal 0.1.0
  *
  * Export proof (evaluated at export time by an exact host emulation of the
