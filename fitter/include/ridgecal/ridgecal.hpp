@@ -29,7 +29,6 @@
 #include "ridgecal/assessment.hpp"
 #include "ridgecal/decision.hpp"
 #include "ridgecal/diagnostics.hpp"
-#include "ridgecal/surface_uncertainty.hpp"
 #include "ridgecal/tolerance.hpp"
 #include "ridgecal/uncertainty.hpp"
 
