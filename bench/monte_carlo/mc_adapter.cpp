@@ -4,7 +4,7 @@
 
 #include "ridgecal/calibrate.hpp"
 #include "ridgecal/errors.hpp"
-#include "ridgecal/surface_uncertainty.hpp"
+#include "ridgecal/uncertainty.hpp"
 
 namespace ridgecal::mc {
 
@@ -35,20 +35,16 @@ McFit calibrate_adapter(const Dataset& data, const McOptions& options) {
   r.has_verdict = a.decision.has_value();
   r.pass = a.decision && a.decision->pass();
   for (const Warning& w : a.warnings) r.warning_codes.push_back(to_string(w.code));
-  r.degree = cal->surface ? cal->surface->total_degree() : cal->model.degree();
+  r.degree = general_model(*cal).total_degree();
   r.lambda = cal->lambda;
   r.training_rmse = cal->training.rmse;
   r.validation_rmse = cal->validation.rmse;
   r.test_rmse = cal->test.rmse;
-  if (cal->surface) {
-    auto unc = std::make_shared<const SurfaceUncertainty>(*cal, options.assess.uncertainty);
-    r.predict = [cal](double x, double aux) { return cal->surface->eval(x, aux); };
-    r.expanded = [unc](double x, double aux) { return unc->expanded_at(x, aux); };
-  } else {
-    auto budget = std::make_shared<const UncertaintyBudget>(std::move(a.uncertainty));
-    r.predict = [cal](double x, double) { return cal->model.eval(x); };
-    r.expanded = [budget](double x, double) { return budget->expanded_at(x); };
-  }
+  // One model and one budget for every fit: the general model (N = 1 for one input).
+  auto model = std::make_shared<const SurfaceModel>(general_model(*cal));
+  auto unc = std::make_shared<const UncertaintyEvaluator>(*cal, options.assess.uncertainty);
+  r.predict = [model](double x, double aux) { return model->eval(x, aux); };
+  r.expanded = [unc](double x, double aux) { return unc->expanded_at(x, aux); };
   return r;
 }
 

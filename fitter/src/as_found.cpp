@@ -48,8 +48,6 @@ AsFoundResult evaluate_as_found(const CheckedRecord& rec, const Dataset& data,
   r.record_digest = rec.digest;
   r.integrity_ok = rec.integrity_ok;
   r.modified_allowed = rec.modified_allowed;
-  r.degree = cal.model.degree();
-  r.range = cal.model.scaling;
   r.data_file = data.file;
   r.data_sha256 = data.sha256;
   r.rows = data.rows.size();
@@ -64,7 +62,9 @@ AsFoundResult evaluate_as_found(const CheckedRecord& rec, const Dataset& data,
     r.warnings.push_back(w);
   }
 
-  std::vector<double> refs, preds, xs;
+  // One model for every record: the general model (N = 1 for one input).
+  const SurfaceModel m = general_model(cal);
+  std::vector<double> refs, preds, xs, as;
   std::vector<std::size_t> lines;
   for (const Observation& ob : data.rows) {
     AsFoundPoint p;
@@ -72,56 +72,29 @@ AsFoundResult evaluate_as_found(const CheckedRecord& rec, const Dataset& data,
     p.setpoint = ob.setpoint;
     p.reading = ob.reading;
     p.reference = ob.reference;
-    p.predicted = cal.model.eval(ob.reading);
+    const double u = m.transforms.input(ob.reading);
+    if (!std::isfinite(u))
+      throw InputError(
+          data.file, ob.line,
+          fmt::format(
+              "the reading {} is outside the domain of the record's reading transforms ({})",
+              ob.reading, m.transforms.describe()),
+          "check the reading column and the record");
+    p.predicted = m.eval(ob.reading, ob.aux);
     p.error = p.predicted - p.reference;
-    p.in_range = cal.model.scaling.contains(ob.reading);
-    if (cal.surface) {  // extended model: transforms and aux (surface_model.hpp)
-      p.predicted = cal.surface->eval(ob.reading, ob.aux);
-      p.error = p.predicted - p.reference;
-      const double u = cal.surface->transforms.input(ob.reading);
-      if (!std::isfinite(u))
-        throw InputError(
-            data.file, ob.line,
-            fmt::format(
-                "the reading {} is outside the domain of the record's reading transforms ({})",
-                ob.reading, cal.surface->transforms.describe()),
-            "check the reading column and the record");
-      p.in_range = cal.surface->input.contains(u) &&
-                   (!cal.surface->has_aux || cal.surface->aux.contains(ob.aux));
-    }
+    p.in_range = m.input.contains(u) && (!m.has_aux || m.aux.contains(ob.aux));
     refs.push_back(p.reference);
     preds.push_back(p.predicted);
     xs.push_back(p.reading);
+    as.push_back(ob.aux);
     lines.push_back(p.line);
     r.points.push_back(p);
   }
-  if (cal.surface) {
-    r.degree = cal.surface->total_degree();
-    r.range =
-        Scaling{cal.surface->input.min, cal.surface->input.max};  // of the transformed reading
-    r.metrics = compute_metrics(
-        refs, preds, static_cast<int>(cal.surface->terms.size()) - (cal.intercept ? 1 : 0),
-        cal.intercept);
-    std::vector<double> us, as;
-    for (const Observation& ob : data.rows) {
-      us.push_back(cal.surface->transforms.input(ob.reading));
-      as.push_back(ob.aux);
-    }
-    for (Warning& w : check_extrapolation(us, lines, r.range,
-                                          cal.surface->transforms.identity()
-                                              ? "as-found readings"
-                                              : "as-found readings (transformed)"))
-      r.warnings.push_back(w);
-    if (cal.surface->has_aux)
-      for (Warning& w :
-           check_extrapolation(as, lines, Scaling{cal.surface->aux.min, cal.surface->aux.max},
-                               "as-found aux values"))
-        r.warnings.push_back(w);
-  } else {
-    r.metrics = compute_metrics(refs, preds, cal.model.degree(), cal.intercept);
-    for (Warning& w : check_extrapolation(xs, lines, cal.model.scaling, "as-found readings"))
-      r.warnings.push_back(w);
-  }
+  r.degree = m.total_degree();
+  r.range = Scaling{m.input.min, m.input.max};  // of the transformed reading
+  r.metrics = compute_metrics(refs, preds, static_cast<int>(m.terms.size()) - 1, cal.intercept);
+  for (Warning& w : check_extrapolation(m, xs, as, lines, "as-found readings"))
+    r.warnings.push_back(w);
 
   if (options.tolerance) {
     r.tolerance = options.tolerance;

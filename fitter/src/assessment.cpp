@@ -8,7 +8,6 @@
 #include <optional>
 
 #include "ridgecal/errors.hpp"
-#include "ridgecal/surface_uncertainty.hpp"
 
 namespace ridgecal {
 
@@ -54,18 +53,10 @@ Assessment assess_calibration(const Dataset& data, const Calibration& cal,
                               const AssessmentOptions& options) {
   assert(options.validate().empty());
   Assessment a;
-  // The budget; extended fits evaluate U at each point's own (reading, aux).
-  std::optional<SurfaceUncertainty> extended;
-  if (cal.surface) {
-    extended.emplace(cal, options.uncertainty);
-    a.uncertainty = extended->budget();
-  } else {
-    a.uncertainty = evaluate_uncertainty(cal, options.uncertainty);
-  }
-  const auto expanded_at = [&](const PointResult& p) {
-    return extended ? extended->expanded_at(p.reading, p.aux)
-                    : a.uncertainty.expanded_at(p.reading);
-  };
+  // The budget, one for every model; U at each point from UncertaintyEvaluator::expanded_at.
+  const UncertaintyEvaluator unc(cal, options.uncertainty);
+  a.uncertainty = unc.budget();
+  const auto expanded_at = [&](const PointResult& p) { return unc.expanded_at(p.reading, p.aux); };
   if (options.tolerance) {
     ToleranceSpec tol = *options.tolerance;
     resolve_span(tol, cal, options.diagnostics, data.file);

@@ -246,7 +246,7 @@ UnitSummary process_unit(const UnitChunk& chunk, const BatchOptions& options) {
   const CalibrationRecord& rec = result.record;
   const Calibration& cal = rec.calibration;
   u.status = UnitStatus::Ok;
-  u.degree = cal.surface ? cal.surface->total_degree() : cal.model.degree();
+  u.degree = general_model(cal).total_degree();
   u.lambda = cal.lambda;
   u.validation_rmse =
       cal.validation.n ? cal.validation.rmse : std::numeric_limits<double>::quiet_NaN();

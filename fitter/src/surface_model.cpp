@@ -121,6 +121,14 @@ void SurfaceModel::basis_row(double t, double s, double* out) const {
 double SurfaceModel::eval_fitted(double u, double aux_value) const {
   assert(terms.size() == coefficients.size());
   const double t = input.to_scaled(u);
+  if (basis == SurfaceBasis::Chebyshev && !has_aux) {
+    // A Chebyshev series in the reading alone (the one-input polynomial is
+    // this case): Clenshaw's recurrence, exactly as PolyModel::eval.
+    std::vector<double> c(static_cast<std::size_t>(reading_degree()) + 1, 0.0);
+    for (std::size_t q = 0; q < terms.size(); ++q)
+      c[static_cast<std::size_t>(terms[q].i)] += coefficients[q];
+    return chebyshev_eval(c, t);
+  }
   const double s = has_aux ? aux.to_scaled(aux_value) : 0.0;
   std::vector<double> row(terms.size());
   basis_row(t, s, row.data());

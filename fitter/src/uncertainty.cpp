@@ -3,6 +3,7 @@
 #include <fmt/format.h>
 
 #include <algorithm>
+#include <cassert>
 #include <cmath>
 #include <limits>
 #include <stdexcept>
@@ -52,75 +53,90 @@ Distribution distribution_from_string(const std::string& s) {
 
 // ---- FitCovariance ----
 
-namespace {
-// Design row: columns 1..D, T_k(t), or T_k(t) - T_k(t(0)) through the origin (as in the fit).
-void design_row(double x, const Scaling& sc, int D, bool intercept, double* out) {
-  std::vector<double> row(static_cast<std::size_t>(D) + 1), row0(static_cast<std::size_t>(D) + 1);
-  chebyshev_row(sc.to_t(x), D, row.data());
-  if (!intercept) chebyshev_row(sc.to_t(0.0), D, row0.data());
-  for (int k = 1; k <= D; ++k)
-    out[k - 1] = intercept ? row[static_cast<std::size_t>(k)]
-                           : row[static_cast<std::size_t>(k)] - row0[static_cast<std::size_t>(k)];
-}
-}  // namespace
-
 FitCovariance::FitCovariance(const Calibration& cal)
-    : intercept_(cal.intercept),
-      lambda_(cal.lambda),
-      degree_(cal.model.degree()),
-      scaling_(cal.model.scaling) {
+    : model_(general_model(cal)), intercept_(cal.intercept), lambda_(cal.lambda) {
   std::vector<const PointResult*> tr;
   for (const PointResult& p : cal.points)
     if (p.role == SetRole::Train) tr.push_back(&p);
   n_ = tr.size();
-  if (n_ == 0 || degree_ < 1) {
-    df_ = intercept_ ? 1.0 : 0.0;
-    double rss = 0;
-    for (const PointResult* p : tr) rss += p->error * p->error;
-    sigma_ =
-        static_cast<double>(n_) > df_ ? std::sqrt(rss / (static_cast<double>(n_) - df_)) : kNaN;
-    return;
+  columns_ = model_;
+  columns_.terms.clear();
+  for (const Term& t : model_.terms)
+    if (!(t == Term{0, 0})) columns_.terms.push_back(t);
+  columns_.coefficients.assign(columns_.terms.size(), 0.0);
+  const std::size_t p = columns_.terms.size();
+  if (!intercept_ && p > 0) {
+    // Through the origin the columns are B(t) - B(t0), t0 the scaled reading 0.
+    origin_.assign(p, 0.0);
+    columns_.basis_row(model_.input.to_scaled(model_.transforms.input(0.0)), 0.0, origin_.data());
   }
-  const int D = degree_;
-  Eigen::MatrixXd X(static_cast<Eigen::Index>(n_), D);
-  std::vector<double> row(static_cast<std::size_t>(D));
-  double rss = 0;
-  for (std::size_t i = 0; i < n_; ++i) {
-    design_row(tr[i]->reading, scaling_, D, intercept_, row.data());
-    for (int k = 0; k < D; ++k)
-      X(static_cast<Eigen::Index>(i), k) = row[static_cast<std::size_t>(k)];
-    rss += tr[i]->error * tr[i]->error;
+  // Residuals in reference units (the reported errors) and in the fitted output v.
+  double rss_ref = 0.0, rss_v = 0.0;
+  for (const PointResult* q : tr) {
+    rss_ref += q->error * q->error;
+    const double rv = fitted_residual(*q);
+    rss_v += rv * rv;
   }
-  mean_ = intercept_ ? Eigen::RowVectorXd(X.colwise().mean()) : Eigen::RowVectorXd::Zero(D);
-  const Eigen::MatrixXd Xc = X.rowwise() - mean_;
-  Eigen::JacobiSVD<Eigen::MatrixXd> svd(Xc, Eigen::ComputeThinV);
-  V_ = svd.matrixV();
-  s_ = svd.singularValues();
-  const double smax = s_.size() ? s_(0) : 0.0;
-  const double tol = smax * std::numeric_limits<double>::epsilon() *
-                     static_cast<double>(std::max<std::size_t>(n_, static_cast<std::size_t>(D)));
   df_ = intercept_ ? 1.0 : 0.0;
-  const double nl = static_cast<double>(n_) * lambda_;
-  for (Eigen::Index j = 0; j < s_.size(); ++j) {
-    if (s_(j) > tol) ++rank_;
-    if (s_(j) > tol || lambda_ > 0.0) df_ += s_(j) * s_(j) / (s_(j) * s_(j) + nl);
+  if (n_ > 0 && p > 0) {
+    Eigen::MatrixXd X(static_cast<Eigen::Index>(n_), static_cast<Eigen::Index>(p));
+    std::vector<double> row(p);
+    for (std::size_t i = 0; i < n_; ++i) {
+      design_row(tr[i]->reading, tr[i]->aux, row.data());
+      for (std::size_t q = 0; q < p; ++q)
+        X(static_cast<Eigen::Index>(i), static_cast<Eigen::Index>(q)) = row[q];
+    }
+    mean_ = intercept_ ? Eigen::RowVectorXd(X.colwise().mean())
+                       : Eigen::RowVectorXd::Zero(static_cast<Eigen::Index>(p));
+    const Eigen::MatrixXd Xc = X.rowwise() - mean_;
+    Eigen::JacobiSVD<Eigen::MatrixXd> svd(Xc, Eigen::ComputeThinV);
+    V_ = svd.matrixV();
+    s_ = svd.singularValues();
+    const double smax = s_.size() ? s_(0) : 0.0;
+    const double tol =
+        smax * std::numeric_limits<double>::epsilon() * static_cast<double>(std::max(n_, p));
+    const double nl = static_cast<double>(n_) * lambda_;
+    for (Eigen::Index j = 0; j < s_.size(); ++j) {
+      if (s_(j) > tol) ++rank_;
+      if (s_(j) > tol || lambda_ > 0.0) df_ += s_(j) * s_(j) / (s_(j) * s_(j) + nl);
+    }
+    ok_ = true;
   }
-  sigma_ = static_cast<double>(n_) > df_ + 1e-9 ? std::sqrt(rss / (static_cast<double>(n_) - df_))
-                                                : kNaN;
-  ok_ = true;
+  const double nd = static_cast<double>(n_);
+  sigma_ref_ = nd > df_ + 1e-9 ? std::sqrt(rss_ref / (nd - df_)) : kNaN;
+  sigma_v_ = nd > df_ + 1e-9 ? std::sqrt(rss_v / (nd - df_)) : kNaN;
 }
 
-Eigen::VectorXd FitCovariance::projected(double reading) const {
-  std::vector<double> row(static_cast<std::size_t>(degree_));
-  design_row(reading, scaling_, degree_, intercept_, row.data());
-  const Eigen::Map<const Eigen::RowVectorXd> r(row.data(), degree_);
-  return ((r - mean_) * V_).transpose();
+double FitCovariance::fitted_residual(const PointResult& p) const {
+  // Without a reference transform v is the reference itself: the error, as reported.
+  if (model_.transforms.reference == ReferenceTransform::None) return p.error;
+  return model_.eval_fitted(model_.transforms.input(p.reading), p.aux) -
+         model_.transforms.output(p.reference);
 }
 
-double FitCovariance::variance_factor(double reading) const {
+bool FitCovariance::design_row(double reading, double aux, double* out) const {
+  const double u = model_.transforms.input(reading);
+  if (!std::isfinite(u)) return false;
+  columns_.basis_row(model_.input.to_scaled(u), model_.has_aux ? model_.aux.to_scaled(aux) : 0.0,
+                     out);
+  for (std::size_t q = 0; q < origin_.size(); ++q) out[q] = out[q] - origin_[q];
+  return true;
+}
+
+bool FitCovariance::projected(double reading, double aux, Eigen::VectorXd& w) const {
+  std::vector<double> row(columns_.terms.size());
+  if (!design_row(reading, aux, row.data())) return false;
+  const Eigen::Map<const Eigen::RowVectorXd> r(row.data(), static_cast<Eigen::Index>(row.size()));
+  w = ((r - mean_) * V_).transpose();
+  return true;
+}
+
+double FitCovariance::variance_factor(double reading, double aux) const {
+  if (!std::isfinite(model_.transforms.input(reading))) return kNaN;
   double v = intercept_ && n_ > 0 ? 1.0 / static_cast<double>(n_) : 0.0;
   if (!ok_) return v;
-  const Eigen::VectorXd w = projected(reading);
+  Eigen::VectorXd w;
+  if (!projected(reading, aux, w)) return kNaN;
   const double nl = static_cast<double>(n_) * lambda_;
   for (Eigen::Index j = 0; j < s_.size(); ++j) {
     if (j >= rank_ && lambda_ == 0.0) continue;
@@ -130,16 +146,32 @@ double FitCovariance::variance_factor(double reading) const {
   return v;
 }
 
-double FitCovariance::leverage(double reading) const {
+double FitCovariance::leverage(double reading, double aux) const {
+  if (!std::isfinite(model_.transforms.input(reading))) return kNaN;
   double h = intercept_ && n_ > 0 ? 1.0 / static_cast<double>(n_) : 0.0;
   if (!ok_) return h;
-  const Eigen::VectorXd w = projected(reading);
+  Eigen::VectorXd w;
+  if (!projected(reading, aux, w)) return kNaN;
   const double nl = static_cast<double>(n_) * lambda_;
   for (Eigen::Index j = 0; j < s_.size(); ++j) {
     if (j >= rank_ && lambda_ == 0.0) continue;
     h += w(j) * w(j) / (s_(j) * s_(j) + nl);
   }
   return h;
+}
+
+double FitCovariance::output_sensitivity(double reading, double aux) const {
+  if (model_.transforms.reference == ReferenceTransform::None) return 1.0;
+  const double u = model_.transforms.input(reading);
+  if (!std::isfinite(u)) return kNaN;
+  // reciprocal-kelvin: y = 1/v - offset, dy/dv = -1/v^2.
+  const double v = model_.eval_fitted(u, aux);
+  return 1.0 / (v * v);
+}
+
+double FitCovariance::u_fit(double reading, double aux) const {
+  const double s = std::isfinite(sigma_v_) ? sigma_v_ : 0.0;
+  return output_sensitivity(reading, aux) * s * std::sqrt(variance_factor(reading, aux));
 }
 
 // ---- budget ----
@@ -183,74 +215,182 @@ std::string UncertaintyBudget::full(const std::string& unit) const {
   return s;
 }
 
-UncertaintyBudget evaluate_uncertainty(const Calibration& cal, const UncertaintyOptions& options) {
-  UncertaintyBudget b;
-  b.k = options.coverage_k;
-  const FitCovariance cov(cal);
-  const double s = cov.residual_sd();
-  b.residual_sd = s;
-  b.degrees_of_freedom = cov.dof();
-  const double s_used = std::isfinite(s) ? s : 0.0;
-  const double u_ref = options.reference_uncertainty / options.reference_k;
-  const double res_div = 2.0 * std::sqrt(3.0);
+// ---- UncertaintyEvaluator ----
 
-  const Scaling& sc = cal.model.scaling;
-  const int m = options.band_points;
-  double max_ufit = 0.0, max_slope = 0.0;
-  for (int i = 0; i < m; ++i) {
-    BandPoint bp;
-    bp.reading = sc.x_min + (sc.x_max - sc.x_min) * i / (m - 1);
-    if (i == m - 1) bp.reading = sc.x_max;
-    bp.predicted = cal.model.eval(bp.reading);
-    bp.u_fit = s_used * std::sqrt(cov.variance_factor(bp.reading));
-    const double slope = std::fabs(cal.model.derivative(bp.reading));
-    const double u_res = options.resolution > 0.0 ? slope * options.resolution / res_div : 0.0;
-    bp.combined = std::sqrt(s_used * s_used + bp.u_fit * bp.u_fit + u_ref * u_ref + u_res * u_res);
-    bp.expanded = b.k * bp.combined;
-    max_ufit = std::max(max_ufit, bp.u_fit);
-    max_slope = std::max(max_slope, slope);
-    b.band.push_back(bp);
+double UncertaintyEvaluator::reading_sensitivity(double reading, double aux) const {
+  const SurfaceModel& m = cov_.model();
+  if (m.transforms.identity() && !m.has_aux) {
+    // A polynomial in the reading alone: its exact derivative,
+    // d/dx sum m_k t^k = (1/h) sum k m_k t^(k-1) (as PolyModel::derivative).
+    const double t = m.input.to_scaled(reading);
+    double d = 0.0;
+    for (std::size_t k = monomial_.size(); k-- > 1;)
+      d = d * t + static_cast<double>(k) * monomial_[k][0];
+    return std::fabs(d / m.input.half_width);
   }
-  // The slope can peak between band points: refine on a finer grid.
-  for (int i = 0; i <= 1000; ++i)
-    max_slope = std::max(
-        max_slope, std::fabs(cal.model.derivative(sc.x_min + (sc.x_max - sc.x_min) * i / 1000.0)));
+  // Transforms or an aux input: a central difference through the whole chain.
+  // Step: a small fraction of the magnitude (at least of 1 reading unit), so
+  // counts, ohms and volts alike get a central difference well inside the domain.
+  const double h = 1e-6 * std::max(1.0, std::fabs(reading));
+  const double hi = m.eval(reading + h, aux), lo = m.eval(reading - h, aux);
+  if (std::isfinite(hi) && std::isfinite(lo)) return std::fabs(hi - lo) / (2.0 * h);
+  const double c = m.eval(reading, aux);
+  if (std::isfinite(hi) && std::isfinite(c)) return std::fabs(hi - c) / h;
+  if (std::isfinite(lo) && std::isfinite(c)) return std::fabs(c - lo) / h;
+  return kNaN;
+}
 
-  b.components.push_back(
-      {"fit-residual", EvaluationType::A, Distribution::Normal, s_used, 1.0, 1.0, s_used,
-       fmt::format("residual standard deviation of the {} training points, {:.3g} degrees of "
-                   "freedom (n minus effective parameters)",
-                   cov.n(), cov.dof())});
-  b.components.push_back(
-      {"fit-coefficients", EvaluationType::A, Distribution::Normal, max_ufit, 1.0, 1.0, max_ufit,
-       cal.lambda > 0.0 ? "largest standard deviation of the fitted curve over the range, from the "
-                          "ridge sandwich covariance (shrinkage bias not included)"
-                        : "largest standard deviation of the fitted curve over the range, from the "
-                          "least-squares covariance"});
+double UncertaintyEvaluator::combined_at(double reading, double aux) const {
+  const double uf = cov_.u_fit(reading, aux);
+  const double ures = options_.resolution > 0.0 ? reading_sensitivity(reading, aux) *
+                                                      options_.resolution / (2.0 * std::sqrt(3.0))
+                                                : 0.0;
+  return std::sqrt(s_ * s_ + uf * uf + u_ref_ * u_ref_ + ures * ures);
+}
+
+double UncertaintyEvaluator::expanded_at(double reading, double aux) const {
+  if (!cov_.model().has_aux) return budget_.expanded_at(reading);
+  return options_.coverage_k * combined_at(reading, aux);
+}
+
+UncertaintyEvaluator::UncertaintyEvaluator(const Calibration& cal,
+                                           const UncertaintyOptions& options, int aux_points)
+    : options_(options), cov_(cal) {
+  assert(options.validate().empty() && aux_points >= 2);
+  const SurfaceModel& m = cov_.model();
+  monomial_ = m.monomial_in_scaled();
+  const double s = cov_.residual_sd();
+  s_ = std::isfinite(s) ? s : 0.0;
+  u_ref_ = options.reference_uncertainty / options.reference_k;
+  const double res_div = 2.0 * std::sqrt(3.0);
+  UncertaintyBudget& b = budget_;
+  b.k = options.coverage_k;
+  b.residual_sd = s;
+  b.degrees_of_freedom = cov_.dof();
+
+  // The calibrated region in raw readings: the training readings' range (the
+  // model's input scaling is over the transformed reading u); a model without
+  // training points (built by hand) falls back to its input range when the
+  // transforms are the identity.
+  double x_min = kNaN, x_max = kNaN;
+  for (const PointResult& p : cal.points)
+    if (p.role == SetRole::Train && std::isfinite(p.reading)) {
+      x_min = std::isfinite(x_min) ? std::min(x_min, p.reading) : p.reading;
+      x_max = std::isfinite(x_max) ? std::max(x_max, p.reading) : p.reading;
+    }
+  if (!std::isfinite(x_min) && m.transforms.identity()) {
+    x_min = m.input.min;
+    x_max = m.input.max;
+  }
+  const int na = m.has_aux ? aux_points : 1;
+  auto aux_at = [&](int j) {
+    if (!m.has_aux) return 0.0;
+    return j == na - 1 ? m.aux.max : m.aux.min + (m.aux.max - m.aux.min) * j / (na - 1);
+  };
+  const double aux_mid = m.has_aux ? 0.5 * (m.aux.min + m.aux.max) : 0.0;
+  double max_ufit = 0.0, max_slope = 0.0;
+  if (std::isfinite(x_min)) {
+    const int nb = options.band_points;
+    for (int i = 0; i < nb; ++i) {
+      BandPoint bp;
+      bp.reading = i == nb - 1 ? x_max : x_min + (x_max - x_min) * i / (nb - 1);
+      bp.predicted = m.eval(bp.reading, aux_mid);
+      // Largest over the aux range at this reading (the reading itself without aux).
+      for (int j = 0; j < na; ++j) {
+        const double a = aux_at(j);
+        const double uf = cov_.u_fit(bp.reading, a);
+        const double slope = reading_sensitivity(bp.reading, a);
+        if (std::isfinite(uf)) max_ufit = std::max(max_ufit, uf);
+        if (std::isfinite(slope)) max_slope = std::max(max_slope, slope);
+        const double comb = combined_at(bp.reading, a);
+        if (std::isfinite(comb) && comb >= bp.combined) {
+          bp.combined = comb;
+          bp.u_fit = uf;
+        }
+      }
+      bp.expanded = b.k * bp.combined;
+      if (b.band.empty() || bp.reading > b.band.back().reading) b.band.push_back(bp);
+    }
+    // The slope can peak between band points: refine on a finer grid.
+    for (int i = 0; i <= 1000; ++i)
+      for (int j = 0; j < na; ++j) {
+        const double slope = reading_sensitivity(x_min + (x_max - x_min) * i / 1000.0, aux_at(j));
+        if (std::isfinite(slope)) max_slope = std::max(max_slope, slope);
+      }
+  }
+  // The wording of the notes: the one-input polynomial keeps its own (the
+  // record's text for that layout); extended fits name terms and transforms.
+  const bool extended = is_extended(cal);
+  const std::string where =
+      m.has_aux ? "over the calibrated (reading, aux) region" : "over the calibrated range";
+  b.components.push_back({"fit-residual", EvaluationType::A, Distribution::Normal, s_, 1.0, 1.0, s_,
+                          fmt::format("residual standard deviation of the {} training points, "
+                                      "{:.3g} degrees of freedom (n minus "
+                                      "effective parameters)",
+                                      cov_.n(), cov_.dof())});
+  const std::string coef_note =
+      !extended
+          ? (cal.lambda > 0.0
+                 ? "largest standard deviation of the fitted curve over the range, from the "
+                   "ridge sandwich covariance (shrinkage bias not included)"
+                 : "largest standard deviation of the fitted curve over the range, from the "
+                   "least-squares covariance")
+          : fmt::format(
+                "largest standard deviation of the fitted model {}, from the {} covariance of "
+                "the design rows of its {} terms{}",
+                where, cal.lambda > 0.0 ? "ridge sandwich" : "least-squares", m.terms.size(),
+                cal.lambda > 0.0 ? " (shrinkage bias not included)" : "");
+  b.components.push_back({"fit-coefficients", EvaluationType::A, Distribution::Normal, max_ufit,
+                          1.0, 1.0, max_ufit, coef_note});
   b.components.push_back(
       {"reference-standard", EvaluationType::B, Distribution::Normal, options.reference_uncertainty,
-       options.reference_k, 1.0, u_ref,
+       options.reference_k, 1.0, u_ref_,
        options.reference_k == 1.0
            ? "standard uncertainty of the reference as stated by the user"
            : fmt::format("expanded uncertainty of the reference as stated by the user, k = {:g}",
                          options.reference_k)});
-  b.components.push_back({"reading-resolution", EvaluationType::B, Distribution::Rectangular,
-                          options.resolution, res_div, max_slope,
-                          options.resolution > 0.0 ? max_slope * options.resolution / res_div : 0.0,
-                          "one digit step of the reading, rectangular, through the largest slope "
-                          "dp/dx over the range"});
-  double sum = 0;
+  b.components.push_back(
+      {"reading-resolution", EvaluationType::B, Distribution::Rectangular, options.resolution,
+       res_div, max_slope,
+       options.resolution > 0.0 ? max_slope * options.resolution / res_div : 0.0,
+       !extended ? std::string("one digit step of the reading, rectangular, through the largest "
+                               "slope dp/dx over the range")
+                 : "one digit step of the reading, rectangular, through the largest slope d "
+                   "reference / d reading (whole transform chain) " +
+                       where});
+  double sum = 0.0;
   for (const UncertaintyComponent& c : b.components) sum += c.standard * c.standard;
   b.combined = std::sqrt(sum);
   b.expanded = b.k * b.combined;
-  b.band_method =
-      cal.lambda > 0.0
-          ? "U(x) = k*sqrt(s^2 + u_fit(x)^2 + u_ref^2 + u_res(x)^2); u_fit from the ridge sandwich "
-            "covariance s^2 V diag(s_j^2/(s_j^2+n*lambda)^2) V' of the centred Chebyshev design "
-            "(approximation: ignores the shrinkage bias)"
-          : "U(x) = k*sqrt(s^2 + u_fit(x)^2 + u_ref^2 + u_res(x)^2); u_fit from the least-squares "
-            "covariance s^2 (Xc'Xc)^-1 of the centred Chebyshev design";
-  return b;
+  if (!extended) {
+    b.band_method =
+        cal.lambda > 0.0
+            ? "U(x) = k*sqrt(s^2 + u_fit(x)^2 + u_ref^2 + u_res(x)^2); u_fit from the ridge "
+              "sandwich covariance s^2 V diag(s_j^2/(s_j^2+n*lambda)^2) V' of the centred "
+              "Chebyshev design (approximation: ignores the shrinkage bias)"
+            : "U(x) = k*sqrt(s^2 + u_fit(x)^2 + u_ref^2 + u_res(x)^2); u_fit from the "
+              "least-squares covariance s^2 (Xc'Xc)^-1 of the centred Chebyshev design";
+    return;
+  }
+  b.band_method = fmt::format(
+      "U(x, a) = k*sqrt(s^2 + u_fit(x, a)^2 + u_ref^2 + u_res(x, a)^2); u_fit from the {} "
+      "covariance of the centred "
+      "design rows (SurfaceModel::basis_row of the terms other than (0,0)) in the fitted output, "
+      "times |d reference / "
+      "d v|{}. {}",
+      cal.lambda > 0.0 ? "ridge sandwich s_v^2 V diag(s_j^2/(s_j^2+n*lambda)^2) V'"
+                       : "least-squares s_v^2 (Xc'Xc)^-1",
+      cal.lambda > 0.0 ? " (approximation: ignores the shrinkage bias)" : "",
+      m.has_aux ? fmt::format(
+                      "Band: at each reading the largest U over {} aux values from {:g} to {:g}; "
+                      "predicted "
+                      "at aux {:g}. Guarded acceptance uses U at each point's own (reading, aux).",
+                      na, m.aux.min, m.aux.max, aux_mid)
+                : std::string("Band over the calibrated readings."));
+}
+
+UncertaintyBudget evaluate_uncertainty(const Calibration& cal, const UncertaintyOptions& options) {
+  return UncertaintyEvaluator(cal, options).budget();
 }
 
 nlohmann::json to_json(const UncertaintyBudget& u) {

@@ -114,6 +114,42 @@ BOOST_AUTO_TEST_CASE(least_squares_band_matches_the_textbook_formula) {
   BOOST_TEST(ridge.variance_factor(10.0) < cov.variance_factor(10.0));
 }
 
+BOOST_AUTO_TEST_CASE(through_the_origin_band_matches_the_textbook_formula) {
+  // One budget for every model (uncertainty.hpp): a one-input line forced
+  // through the origin has the design column x alone, not centred, so
+  // Var(p(x0)) = s^2 x0^2 / sum x_i^2 and s^2 = RSS / (n - 1). Computed here
+  // from the raw readings; the general path builds T_1(t) - T_1(t0), the same
+  // column up to a scale. 1e-9 relative: the two differ by rounding only, a
+  // wide margin. At reading 0 the variance is 0 (the origin is fixed); a
+  // centred design (the intercept case) would give s^2/n there instead.
+  const Dataset ds = test::synthetic_run([](double x) { return 2.0 * x; }, 1, 10, 10, 2, 0.05, 3);
+  FitOptions o;
+  o.fixed_degree = 1;
+  o.fixed_lambda = 0.0;
+  o.intercept = false;
+  o.split.test_fraction = 0.0;
+  const FitOutcome f = fit_calibration(ds, o);
+  BOOST_REQUIRE(f.status.ok);
+  const Calibration& cal = f.calibration;
+  const FitCovariance cov(cal);
+  long double sxx = 0, rss = 0;
+  std::size_t n = 0;
+  for (const auto& p : cal.points) {
+    sxx += static_cast<long double>(p.reading) * p.reading;
+    rss += static_cast<long double>(p.error) * p.error;
+    ++n;
+  }
+  const double s = static_cast<double>(std::sqrt(rss / (n - 1)));
+  BOOST_TEST(cov.effective_parameters() == 1.0, boost::test_tools::tolerance(1e-12));
+  BOOST_TEST(cov.residual_sd() == s, boost::test_tools::tolerance(1e-10));
+  for (double x0 : {0.5, 3.0, 10.0}) {
+    const double expected = static_cast<double>(x0 * x0 / sxx);
+    BOOST_TEST(cov.variance_factor(x0) == expected, boost::test_tools::tolerance(1e-9));
+    BOOST_TEST(cov.leverage(x0) == expected, boost::test_tools::tolerance(1e-9));
+  }
+  BOOST_TEST(cov.variance_factor(0.0) < 1e-20);  // the origin is fixed: no variance there
+}
+
 BOOST_AUTO_TEST_CASE(budget_components) {
   const Calibration cal = fit_line(0.05);
   UncertaintyOptions o;

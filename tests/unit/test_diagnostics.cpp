@@ -157,12 +157,12 @@ BOOST_AUTO_TEST_CASE(residual_pattern_by_runs_test) {
 }
 
 BOOST_AUTO_TEST_CASE(non_monotonic) {
-  PolyModel m;
-  m.scaling = {-1.0, 1.0};
-  m.cheb = {0.0, 1.0, 0.0, 0.5};  // t + 0.5 T3 = 2t^3 - 0.5t: slope < 0 near 0
-  BOOST_TEST(has(check_monotonic(m), DiagnosticCode::NonMonotonic));
-  m.cheb = {0.0, 1.0, 0.0, 0.1};  // slope 0.7 + 1.2t^2 > 0
-  BOOST_TEST(check_monotonic(m).empty());
+  Calibration cal;
+  cal.model.scaling = {-1.0, 1.0};
+  cal.model.cheb = {0.0, 1.0, 0.0, 0.5};  // t + 0.5 T3 = 2t^3 - 0.5t: slope < 0 near 0
+  BOOST_TEST(has(check_monotonic(cal), DiagnosticCode::NonMonotonic));
+  cal.model.cheb = {0.0, 1.0, 0.0, 0.1};  // slope 0.7 + 1.2t^2 > 0
+  BOOST_TEST(check_monotonic(cal).empty());
 }
 
 BOOST_AUTO_TEST_CASE(hysteresis_with_direction_column) {
@@ -202,12 +202,19 @@ BOOST_AUTO_TEST_CASE(high_condition_number) {
 }
 
 BOOST_AUTO_TEST_CASE(extrapolation_outside_range) {
-  const Scaling range{10.0, 20.0};
-  const auto w = check_extrapolation({9.0, 15.0, 21.0}, {3, 4, 5}, range, "as-found readings");
+  Calibration cal;  // a one-input line over readings 10..20 (the N = 1 general model)
+  cal.model.scaling = {10.0, 20.0};
+  cal.model.cheb = {0.0, 1.0};
+  const SurfaceModel m = general_model(cal);
+  const auto w = check_extrapolation(m, {9.0, 15.0, 21.0}, {}, {3, 4, 5}, "as-found readings");
   BOOST_REQUIRE_EQUAL(w.size(), 1u);
   BOOST_TEST(w[0].lines == (std::vector<std::size_t>{3, 5}));
+  // Reading units beyond the range (21 vs 20), through the scaled reading:
+  // (6/5 - 1) * 5 rounds to 1 - 2e-16 (measured); 1e-12 is a wide margin.
+  BOOST_TEST(w[0].value == 1.0, boost::test_tools::tolerance(1e-12));
+  BOOST_TEST(w[0].message.find("reading range 10..20") != std::string::npos);
   BOOST_TEST(
-      check_extrapolation({10.0, 15.0, 20.0}, {3, 4, 5}, range, "as-found readings").empty());
+      check_extrapolation(m, {10.0, 15.0, 20.0}, {}, {3, 4, 5}, "as-found readings").empty());
 }
 
 BOOST_AUTO_TEST_CASE(clean_fits_rarely_warn) {

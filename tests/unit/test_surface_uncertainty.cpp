@@ -1,5 +1,5 @@
 // Uncertainty budget, guarded acceptance and diagnostics of extended fits
-// (surface_uncertainty.hpp, assessment.hpp, diagnostics.hpp). The known answers are
+// (uncertainty.hpp, assessment.hpp, diagnostics.hpp). The known answers are
 // computed here independently of the fitter: least squares through the normal
 // equations of the raw columns [1, x, a] in long double (the model's standard
 // error does not depend on how the inputs are scaled), and the ridge sandwich
@@ -14,7 +14,7 @@
 #include "ridgecal/assessment.hpp"
 #include "ridgecal/multi_input_fit.hpp"
 #include "ridgecal/record.hpp"
-#include "ridgecal/surface_uncertainty.hpp"
+#include "ridgecal/uncertainty.hpp"
 #include "test_support.hpp"
 
 using namespace ridgecal;
@@ -122,7 +122,7 @@ BOOST_AUTO_TEST_CASE(degree_one_standard_error_matches_the_normal_equations) {
   const Calibration& cal = out.calibration;
   BOOST_REQUIRE_EQUAL(cal.surface->terms.size(), 3u);
   const Normal3 ne = normal_equations(cal);
-  const SurfaceCovariance cov(cal);
+  const FitCovariance cov(cal);
   BOOST_TEST(cov.n() == ne.n);
   BOOST_TEST(cov.effective_parameters() == 3.0, boost::test_tools::tolerance(1e-12));
   BOOST_TEST(close(cov.residual_sd(), ne.sigma, kAgree));
@@ -148,7 +148,7 @@ BOOST_AUTO_TEST_CASE(degree_one_budget_has_the_known_components) {
   uo.reference_uncertainty = 0.01;  // expanded, k = 2: u_ref = 0.005
   uo.reference_k = 2.0;
   uo.resolution = 0.5;  // reading units; slope 0.013 -> u_res = 0.013 * 0.5 / (2 sqrt 3)
-  const SurfaceUncertainty su(cal, uo);
+  const UncertaintyEvaluator su(cal, uo);
   const UncertaintyBudget& b = su.budget();
   BOOST_REQUIRE_EQUAL(b.components.size(), 4u);
   // The plane's standard error is largest at a corner of the calibrated region.
@@ -222,7 +222,7 @@ BOOST_AUTO_TEST_CASE(ridge_variance_is_the_sandwich_form) {
   const Eigen::Matrix2d C = Ainv * G * Ainv;   // Cov(b) / sigma^2
   const Eigen::Matrix2d H = Ainv;              // leverage form
   const double df = 1.0 + (G * Ainv).trace();  // effective parameters
-  const SurfaceCovariance cov(cal);
+  const FitCovariance cov(cal);
   BOOST_TEST(cov.effective_parameters() == df, boost::test_tools::tolerance(1e-10));
   for (double x : {100.0, 500.0, 900.0})
     for (double a : {-10.0, 25.0, 60.0}) {
@@ -252,7 +252,7 @@ BOOST_AUTO_TEST_CASE(guarded_acceptance_uses_u_at_each_point) {
   const Assessment guarded = assess_calibration(cal, ao);
   BOOST_REQUIRE(guarded.decision);
   BOOST_TEST(!guarded.decision->pass());
-  const SurfaceUncertainty su(cal, ao.uncertainty);
+  const UncertaintyEvaluator su(cal, ao.uncertainty);
   BOOST_TEST(guarded.uncertainty.expanded == su.budget().expanded);
   std::size_t judged = 0;
   for (const PointJudgement& pj : guarded.decision->points) {
@@ -294,7 +294,7 @@ BOOST_AUTO_TEST_CASE(reciprocal_kelvin_budget_goes_through_the_inverse_transform
   const FitOutcome out = fit_compensated(ds, fit, comp);
   BOOST_REQUIRE_MESSAGE(out.status.ok, out.status.message);
   const Calibration& cal = out.calibration;
-  const SurfaceCovariance cov(cal);
+  const FitCovariance cov(cal);
   // Independent simple regression of v on ln R (long double).
   long double sx = 0, sy = 0, sxx = 0, sxy = 0, n = 0;
   for (const PointResult& p : cal.points) {
@@ -432,7 +432,7 @@ BOOST_AUTO_TEST_CASE(band_covers_fresh_errors) {
     comp.aux_step = 5.0;
     const FitOutcome out = fit_compensated(ds, fit, comp);
     BOOST_REQUIRE_MESSAGE(out.status.ok, out.status.message);
-    const SurfaceUncertainty su(out.calibration, UncertaintyOptions{});
+    const UncertaintyEvaluator su(out.calibration, UncertaintyOptions{});
     const SurfaceModel& m = *out.calibration.surface;
     std::size_t in_seed = 0;
     for (int k = 0; k < kFresh; ++k) {

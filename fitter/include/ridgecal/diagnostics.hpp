@@ -34,7 +34,7 @@ enum class DiagnosticCode {
   HighConditionNumber,              ///< `high-condition-number`
   Extrapolation,                    ///< `extrapolation`
   RecordModified,                   ///< `record-modified` (verify --allow-modified)
-  ValidationMuchWorseThanTraining,  ///< `validation-much-worse-than-training` (extended fits)
+  ValidationMuchWorseThanTraining,  ///< `validation-much-worse-than-training`
   LackOfFit,                        ///< `lack-of-fit` (lack_of_fit.hpp)
   DriftBetweenRepeats,              ///< `drift-between-repeats` (lack_of_fit.hpp)
 };
@@ -53,7 +53,7 @@ struct Warning {
 
 struct DiagnosticOptions {
   double test_validation_ratio = 2.0;  ///< warn when test RMSE > ratio * validation RMSE; > 1
-  /// Extended fits: warn when validation (CV) RMSE > ratio * training RMSE (overfit); > 1.
+  /// Warn when validation (CV) RMSE > ratio * training RMSE (overfit); > 1.
   double cv_training_ratio = 2.0;
   double min_setpoints_per_coefficient =
       3.0;  ///< warn below this many training setpoints per coefficient; >= 0
@@ -84,59 +84,67 @@ struct DiagnosticOptions {
   std::string validate() const;
 };
 
-/// All fit diagnostics, for every model. `data` must be the data set the
+/// All fit diagnostics, for every model (general_model(cal); the one-input
+/// polynomial is the N = 1 case). `data` must be the data set the
 /// calibration was fitted on (rows match cal.points by index; its direction
 /// column drives the hysteresis check), or empty (no hysteresis check).
 /// `tolerance` may be null (hysteresis is then not judged: the issue's
 /// criterion is "differ beyond tolerance").
 ///
-/// One-input polynomials: every check below. Extended fits (cal.surface:
-/// transforms, an aux input, restricted powers): test vs validation, CV vs
-/// training, grid edges (with the aux degree), setpoint groups per term,
-/// outliers (studentized with the extended leverage), condition number,
-/// points outside the calibrated region of either input, and hysteresis per
-/// (setpoint, aux level). The coverage, residual-run and monotonicity checks
-/// are defined along one input and are not applied to extended fits.
+/// The checks live in fitter/src/diag_*.cpp by family (selection, range,
+/// residuals, curve shape); this function (diagnostics.cpp) is the one place
+/// that runs them all, in a fixed order. The coverage, residual-run and
+/// monotonicity checks are defined along one input and return nothing for a
+/// model with an aux input; hysteresis is then judged per (setpoint, aux level).
 std::vector<Warning> diagnose_fit(const Dataset& data, const Calibration& cal,
                                   const UncertaintyBudget& uncertainty,
                                   const ToleranceSpec* tolerance, const DiagnosticOptions& options);
 
 // The individual checks (each returns the warnings it raises).
+// diag_selection.cpp: the model choice.
 std::vector<Warning> check_test_vs_validation(const Calibration& cal, const DiagnosticOptions& o);
 /// Validation (CV) RMSE more than o.cv_training_ratio times the training RMSE: overfit.
 std::vector<Warning> check_cv_vs_training(const Calibration& cal, const DiagnosticOptions& o);
-/// Degree, aux degree (extended fits) or lambda chosen at the edge of its candidate grid.
+/// Degree, aux degree (fits with an aux input) or lambda chosen at the edge of its candidate grid.
 std::vector<Warning> check_grid_edges(const Calibration& cal);
 /// Fewer than o.min_setpoints_per_coefficient training setpoints (groups) per
-/// coefficient (term).
+/// free coefficient (the model's terms, less the (0,0) term of a fit through the origin).
 std::vector<Warning> check_setpoints_per_coefficient(const Calibration& cal,
                                                      const DiagnosticOptions& o);
-std::vector<Warning> check_coverage(const Calibration& cal, const DiagnosticOptions& o);
-/// Externally studentized residuals of the training points (extended fits: in
-/// the fitted output v, with the extended leverage).
-std::vector<Warning> check_outliers(const Calibration& cal, const DiagnosticOptions& o);
-std::vector<Warning> check_residual_runs(const Calibration& cal, const DiagnosticOptions& o);
-std::vector<Warning> check_monotonic(const PolyModel& model);
-/// Mean error of the up rows minus that of the down rows, per setpoint measured
-/// in both directions, against the tolerance at that setpoint (null: no check).
-/// Extended fits with an aux input: per (setpoint, aux level), the level being
-/// the aux setpoint label, else the aux value rounded to cal.aux_step.
-std::vector<Warning> check_hysteresis(const Dataset& data, const Calibration& cal,
-                                      const UncertaintyBudget& uncertainty,
-                                      const ToleranceSpec* tolerance);
 std::vector<Warning> check_condition(const Calibration& cal, const DiagnosticOptions& o);
-/// Readings outside the calibrated range [x_min, x_max]; `what` names them ("check points",
-/// "as-found readings").
-std::vector<Warning> check_extrapolation(const std::vector<double>& readings,
-                                         const std::vector<std::size_t>& lines,
-                                         const Scaling& range, const std::string& what);
-/// The same for an extended model: points whose (transformed) reading or aux
-/// value lies outside the calibrated region.
+
+// diag_range.cpp: the calibrated range.
+/// Declared span not reached, gaps between setpoints (one input only).
+std::vector<Warning> check_coverage(const Calibration& cal, const DiagnosticOptions& o);
+/// Points whose (transformed) reading or aux value lies outside the model's
+/// calibrated region; `what` names them ("check points", "as-found readings").
+/// The warning's value is the largest distance beyond the range in reading
+/// units (of the transformed reading when there are transforms), or in aux
+/// units when only aux values are outside.
 std::vector<Warning> check_extrapolation(const SurfaceModel& model,
                                          const std::vector<double>& readings,
                                          const std::vector<double>& aux,
                                          const std::vector<std::size_t>& lines,
                                          const std::string& what);
+
+// diag_residuals.cpp: the residuals.
+/// Externally studentized residuals of the training points, in the fitted
+/// output v (the errors without a reference transform), with the leverage of
+/// the general model (FitCovariance).
+std::vector<Warning> check_outliers(const Calibration& cal, const DiagnosticOptions& o);
+/// Runs test on the signs of the mean residual per training setpoint (one input only).
+std::vector<Warning> check_residual_runs(const Calibration& cal, const DiagnosticOptions& o);
+
+// diag_curve_shape.cpp: the shape of the curve along the reading.
+/// The slope changes sign over the calibrated range (one input only).
+std::vector<Warning> check_monotonic(const Calibration& cal);
+/// Mean error of the up rows minus that of the down rows, per setpoint measured
+/// in both directions, against the tolerance at that setpoint (null: no check).
+/// With an aux input: per (setpoint, aux level), the level being the aux
+/// setpoint label, else the aux value rounded to cal.aux_step.
+std::vector<Warning> check_hysteresis(const Dataset& data, const Calibration& cal,
+                                      const UncertaintyBudget& uncertainty,
+                                      const ToleranceSpec* tolerance);
 
 /// Wald-Wolfowitz runs test on the signs of a sequence (zeros skipped):
 /// the z statistic of the number of runs (NaN with fewer than 2 of each sign).

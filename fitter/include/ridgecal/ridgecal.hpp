@@ -30,7 +30,6 @@
 #include "ridgecal/decision.hpp"
 #include "ridgecal/diagnostics.hpp"
 #include "ridgecal/lack_of_fit.hpp"
-#include "ridgecal/surface_uncertainty.hpp"
 #include "ridgecal/tolerance.hpp"
 #include "ridgecal/uncertainty.hpp"
 

@@ -65,6 +65,9 @@ struct SurfaceModel {
   bool has_intercept() const;  ///< a (0,0) term is present
 
   /// v at the transformed input u and aux value (no transforms applied).
+  /// A Chebyshev series without aux is evaluated by Clenshaw's recurrence (as
+  /// PolyModel::eval, so the one-input polynomial gives the same bits in both
+  /// forms); every other model by the sum of its terms.
   double eval_fitted(double u, double aux_value = 0.0) const;
   /// The calibrated reference value for a raw reading (and aux): applies the
   /// reading transforms, the polynomial and the inverse reference transform.

@@ -1,21 +1,39 @@
-// ridgecal: measurement uncertainty of the calibrated value (GUM method).
+// ridgecal: measurement uncertainty of the calibrated value (GUM method), for
+// every model: the one-input polynomial (the N = 1 case of the general model,
+// general_model() in calibration.hpp) and the extended fits (transforms, an aux
+// input, restricted powers; multi_input_fit.hpp) alike.
 //
 // Components, all in reference units (standard uncertainties, added in
 // quadrature; see docs/decision-and-uncertainty.md):
 //  * fit residual: the residual standard deviation s of the training points,
 //    s^2 = RSS / (n - df), df the effective number of parameters (Type A);
-//  * fit coefficients: u_fit(x), the standard deviation of the fitted curve
-//    at reading x from the coefficients' covariance (Type A). For ridge
-//    (lambda > 0) the covariance is the sandwich form
-//      Cov(b) = s^2 (Xc'Xc + n lambda I)^-1 Xc'Xc (Xc'Xc + n lambda I)^-1
-//             = s^2 V diag(s_j^2 / (s_j^2 + n lambda)^2) V',
-//    which ignores the shrinkage bias (an approximation; the bias shows up in s);
+//  * fit coefficients: u_fit(x, a), the standard deviation of the fitted model
+//    at reading x (and aux value a) from the coefficients' covariance (Type A).
+//    The design row is SurfaceModel::basis_row of the terms other than (0,0)
+//    at the scaled inputs (t, s), centred on the training means when there is
+//    an intercept; through the origin (cal.intercept false) it is
+//    row(t) - row(t0), t0 the scaled reading 0, not centred: exactly the fit's
+//    design. With w = V'(row - mean) from the SVD Xc = U S V',
+//      Var(v(x, a)) = sigma_v^2 (1/n + w' diag(g_j^2) w),  g_j = s_j / (s_j^2 + n lambda)
+//    (the ridge sandwich form s_v^2 (Xc'Xc + n lambda I)^-1 Xc'Xc (Xc'Xc + n lambda I)^-1,
+//    least squares at lambda = 0; it ignores the shrinkage bias, which shows
+//    up in s; the 1/n term only with an intercept), sigma_v the residual SD
+//    of the fitted output v (the transformed reference; v = reference without
+//    a reference transform), and u_fit = |d reference / d v| sqrt(Var(v))
+//    through the inverse reference transform;
 //  * reference standard: U_ref / k_ref as stated by the user (Type B, normal);
 //  * reading resolution: a digit step r of the reading, rectangular,
-//    u = |dp/dx| * r / (2 sqrt 3) (Type B, sensitivity dp/dx).
-// combined(x) = sqrt(s^2 + u_fit(x)^2 + u_ref^2 + u_res(x)^2), U(x) = k combined(x).
-// The headline `expanded` uses the largest value of each component over the
-// calibrated range, so it bounds U(x) everywhere in that range.
+//    u = |d reference / d reading| * r / (2 sqrt 3) (Type B). The slope is the
+//    exact derivative of the polynomial for a model in the reading alone
+//    without transforms, else a central difference through the whole
+//    transform chain (transforms or an aux input).
+// combined(x, a) = sqrt(s^2 + u_fit^2 + u_ref^2 + u_res^2), U(x, a) = k combined(x, a).
+// The headline `expanded` takes the largest value of each component over a
+// grid of the calibrated region (band_points readings over the training
+// readings' range x aux_points aux values, ends included), so it bounds U
+// there. The record's `band` holds, at each of band_points readings, U at that
+// reading (with an aux input: the largest U over the calibrated aux range, and
+// `predicted` at the middle of that range).
 #pragma once
 
 #include <Eigen/Dense>
@@ -24,6 +42,7 @@
 #include <vector>
 
 #include "ridgecal/calibration.hpp"
+#include "ridgecal/surface_model.hpp"
 
 namespace ridgecal {
 
@@ -88,36 +107,78 @@ struct UncertaintyBudget {
   std::string full(const std::string& unit) const;   ///< brief() plus the notes and the band
 };
 
-/// Leverages and curve variances of a fitted calibration, rebuilt from its
-/// training points (same design as the fit: Chebyshev columns of the scaled
-/// reading, centred when there is an intercept; ridge filter factors).
+/// Leverages and model variances of a fitted calibration, any model, rebuilt
+/// from its training points and general_model(cal) (the same design as the
+/// fit; see the top of this file). The aux value is ignored by models without
+/// an aux input.
 class FitCovariance {
  public:
   explicit FitCovariance(const Calibration& cal);
-  bool ok() const { return ok_; }       ///< false without training points or for degree 0
+  bool ok() const { return ok_; }  ///< false without training points or without terms beyond (0,0)
   std::size_t n() const { return n_; }  ///< training points
   double effective_parameters() const {
     return df_;
-  }                                              ///< intercept + sum of s_j^2/(s_j^2 + n lambda)
-  double residual_sd() const { return sigma_; }  ///< sqrt(RSS / (n - df)); NaN when n <= df
+  }  ///< intercept + sum of s_j^2/(s_j^2 + n lambda)
   double dof() const { return static_cast<double>(n_) - df_; }
-  /// Var(p(x)) / sigma^2.
-  double variance_factor(double reading) const;
-  /// Leverage h of a training point at this reading: (hat matrix diagonal).
-  double leverage(double reading) const;
+  double residual_sd() const { return sigma_ref_; }  ///< reference units; NaN when n <= df
+  double residual_sd_fitted() const {
+    return sigma_v_;
+  }  ///< in the fitted output v (= residual_sd() without a reference transform); NaN when n <= df
+  /// Residual of a training point in the fitted output v (its error when
+  /// there is no reference transform).
+  double fitted_residual(const PointResult& p) const;
+  /// Var(v(x, a)) / sigma_v^2 (NaN outside the transforms' domain).
+  double variance_factor(double reading, double aux = 0.0) const;
+  /// Leverage of a training point at (reading, aux): the hat-matrix diagonal.
+  double leverage(double reading, double aux = 0.0) const;
+  /// |d reference / d v| at (reading, aux): 1 without a reference transform.
+  double output_sensitivity(double reading, double aux = 0.0) const;
+  /// Standard deviation of the fitted model at (reading, aux), reference units.
+  double u_fit(double reading, double aux = 0.0) const;
+  const SurfaceModel& model() const { return model_; }
 
  private:
-  Eigen::VectorXd projected(double reading) const;
+  bool projected(double reading, double aux, Eigen::VectorXd& w) const;
+  bool design_row(double reading, double aux, double* out) const;
+  SurfaceModel model_;
+  SurfaceModel columns_;  ///< model_ with the terms other than (0,0): the design columns
   bool ok_ = false;
   bool intercept_ = true;
   std::size_t n_ = 0;
-  double lambda_ = 0.0, df_ = 0.0, sigma_ = 0.0;
-  int degree_ = 0;
-  Scaling scaling_;
+  double lambda_ = 0.0, df_ = 0.0, sigma_ref_ = 0.0, sigma_v_ = 0.0;
+  std::vector<double> origin_;  ///< design row at reading 0 (through the origin only)
   Eigen::RowVectorXd mean_;
   Eigen::MatrixXd V_;
   Eigen::VectorXd s_;
   int rank_ = 0;
+};
+
+/// The budget of a fitted calibration, any model, evaluated anywhere in
+/// (reading, aux).
+class UncertaintyEvaluator {
+ public:
+  /// Preconditions: options.validate() is empty; aux_points >= 2.
+  UncertaintyEvaluator(const Calibration& cal, const UncertaintyOptions& options,
+                       int aux_points = 11);
+  const FitCovariance& covariance() const { return cov_; }
+  /// |d reference / d reading| at (reading, aux): the polynomial's exact
+  /// derivative for a model in the reading alone without transforms, else a
+  /// central difference through the transform chain.
+  double reading_sensitivity(double reading, double aux = 0.0) const;
+  double combined_at(double reading, double aux = 0.0) const;  ///< combined standard uncertainty
+  /// U at (reading, aux) for guarded acceptance. Without an aux input the band
+  /// is U(x) itself and this interpolates in it (UncertaintyBudget::expanded_at,
+  /// so a reader of the record gets the same figure); with an aux input the
+  /// band is an envelope and U is evaluated at the point itself.
+  double expanded_at(double reading, double aux = 0.0) const;
+  const UncertaintyBudget& budget() const { return budget_; }
+
+ private:
+  UncertaintyOptions options_;
+  FitCovariance cov_;
+  std::vector<std::vector<double>> monomial_;  ///< model in powers of (t, s), for the slope
+  double s_ = 0.0, u_ref_ = 0.0;
+  UncertaintyBudget budget_;
 };
 
 /// The floors of the variation check (calibration_csv.hpp) these options
@@ -126,7 +187,8 @@ class FitCovariance {
 /// apart).
 VariationFloors variation_floors(const UncertaintyOptions& options);
 
-/// Evaluates the budget. Preconditions: options.validate() is empty.
+/// Evaluates the budget: UncertaintyEvaluator(cal, options).budget().
+/// Preconditions: options.validate() is empty.
 UncertaintyBudget evaluate_uncertainty(const Calibration& cal, const UncertaintyOptions& options);
 
 nlohmann::json to_json(const UncertaintyBudget& u);
