@@ -20,7 +20,7 @@
  *   tolerance:           none in the record
  *   tolerance used:      0.0117743 degC (validation RMSE, fallback: no absolute tolerance given)
  *   result:              not assessed (no tolerance in the record)
- *   record SHA-256:      59d25fa91fc073baa1f71d9ce05d6d2fdad94f64e353b2d4834a72bc0ed45bc8
+ *   record SHA-256:      8605c9259feee805a04cf38e640dc23ea55a951d9b83853c9308324c3f5dad00
  *   tool version:        ridgecal 0.1.0
  *
  * Export proof (evaluated at export time by a host emulation of the

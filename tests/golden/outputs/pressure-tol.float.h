@@ -21,7 +21,7 @@
  *   tolerance:           +-(0.01) (user); strictest over the range 0.01
  *   tolerance used:      0.01 bar (record tolerance)
  *   result:              PASS: Guarded acceptance: a point conforms when |error| <= tolerance +-(0.01) minus the expanded uncertainty U at that point. PASS: 162 of 162 judged points conform.
- *   record SHA-256:      78071e163b8a047e97e9a864272bc92e7f4e6f49b6daff409f354b8aaea5a4d8
+ *   record SHA-256:      7b97abf5544cf37825d875ca1304715f13b6804e555b176bce1a4fa69786d07f
  *   tool version:        ridgecal 0.1.0
  *
  * Export proof (evaluated at export time by a host emulation of the

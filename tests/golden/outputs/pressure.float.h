@@ -21,7 +21,7 @@
  *   tolerance:           none in the record
  *   tolerance used:      0.00114136 bar (validation RMSE, fallback: no absolute tolerance given)
  *   result:              not assessed (no tolerance in the record)
- *   record SHA-256:      5d82484891de9a8b0a1d4d11d7168be593a0b15d9ab946f971e61845c415d550
+ *   record SHA-256:      0174ed69ef4df79f17393655b6da9546a8012f1785292a35c9e93b23c97b8846
  *   tool version:        ridgecal 0.1.0
  *
  * Export proof (evaluated at export time by a host emulation of the
