@@ -56,14 +56,70 @@ std::uint64_t SplitRng::below(std::uint64_t n) {
   return v % n;
 }
 
-std::vector<SetpointGroup> group_by_setpoint(const Dataset& ds) {
+namespace {
+
+// The key of a row's aux level: the aux setpoint label, or the aux value
+// rounded to the nearest multiple of the step.
+std::string aux_key(const Observation& ob, double step) {
+  if (!ob.aux_setpoint.empty()) return ob.aux_setpoint;
+  const double v = std::round(ob.aux / step) * step + 0.0;  // + 0.0: no "-0"
+  return fmt::format("{}", v);
+}
+
+// Ranks the aux levels of the groups by their mean aux value (over rows).
+void rank_levels(std::vector<SetpointGroup>& groups) {
+  std::map<std::string, std::pair<long double, std::size_t>> level_sum;
+  for (const SetpointGroup& g : groups) {
+    auto& ls = level_sum[g.aux_level];
+    ls.first += static_cast<long double>(g.mean_aux) * static_cast<long double>(g.rows.size());
+    ls.second += g.rows.size();
+  }
+  std::vector<std::pair<double, std::string>> levels;
+  for (const auto& [name, s] : level_sum)
+    levels.emplace_back(static_cast<double>(s.first / static_cast<long double>(s.second)), name);
+  std::sort(levels.begin(), levels.end());
+  std::map<std::string, int> rank;
+  for (std::size_t i = 0; i < levels.size(); ++i) rank[levels[i].second] = static_cast<int>(i);
+  for (SetpointGroup& g : groups) g.level = rank[g.aux_level];
+}
+
+// Which of `members` (indices into groups, in group order) lie on the
+// boundary of the range they span (see grouped_split.hpp).
+std::vector<bool> on_boundary(const std::vector<SetpointGroup>& groups,
+                              const std::vector<std::size_t>& members) {
+  std::vector<bool> edge(groups.size(), false);
+  if (members.empty()) return edge;
+  int lo = groups[members.front()].level, hi = lo;
+  for (std::size_t g : members) {
+    lo = std::min(lo, groups[g].level);
+    hi = std::max(hi, groups[g].level);
+  }
+  const bool levels = lo >= 0;  // an aux input: its lowest and highest levels are edge
+  for (std::size_t m = 0; m < members.size(); ++m) {
+    const int lv = groups[members[m]].level;
+    const bool first = m == 0 || groups[members[m - 1]].level != lv;
+    const bool last = m + 1 == members.size() || groups[members[m + 1]].level != lv;
+    edge[members[m]] = first || last || (levels && (lv == lo || lv == hi));
+  }
+  return edge;
+}
+
+}  // namespace
+
+std::vector<SetpointGroup> group_by_setpoint(const Dataset& ds, const AuxGrouping& aux) {
   std::map<std::string, std::size_t> index;
   std::vector<SetpointGroup> groups;
   for (std::size_t i = 0; i < ds.rows.size(); ++i) {
     const Observation& ob = ds.rows[i];
-    auto [it, inserted] = index.emplace(ob.setpoint, groups.size());
+    const std::string level = aux.aux ? aux_key(ob, aux.aux_step) : std::string();
+    const std::string id = aux.aux ? ob.setpoint + "|" + level : ob.setpoint;
+    auto [it, inserted] = index.emplace(id, groups.size());
     if (inserted) {
-      groups.push_back(SetpointGroup{ob.setpoint, {}, 0.0, 0.0, ob.role});
+      SetpointGroup g;
+      g.id = id;
+      g.user_role = ob.role;
+      g.aux_level = level;
+      groups.push_back(std::move(g));
     }
     SetpointGroup& g = groups[it->second];
     if (g.user_role != ob.role)
@@ -76,15 +132,20 @@ std::vector<SetpointGroup> group_by_setpoint(const Dataset& ds) {
     g.rows.push_back(i);
   }
   for (SetpointGroup& g : groups) {
-    double sr = 0.0, sf = 0.0;
+    double sr = 0.0, sf = 0.0, sa = 0.0;
     for (std::size_t i : g.rows) {
       sr += ds.rows[i].reading;
       sf += ds.rows[i].reference;
+      if (aux.aux) sa += ds.rows[i].aux;
     }
-    g.mean_reading = sr / static_cast<double>(g.rows.size());
-    g.mean_reference = sf / static_cast<double>(g.rows.size());
+    const double n = static_cast<double>(g.rows.size());
+    g.mean_reading = sr / n;
+    g.mean_reference = sf / n;
+    if (aux.aux) g.mean_aux = sa / n;
   }
+  if (aux.aux) rank_levels(groups);
   std::sort(groups.begin(), groups.end(), [](const SetpointGroup& a, const SetpointGroup& b) {
+    if (a.level != b.level) return a.level < b.level;
     if (a.mean_reading != b.mean_reading) return a.mean_reading < b.mean_reading;
     return a.id < b.id;
   });
@@ -135,6 +196,8 @@ Split make_split(const std::vector<SetpointGroup>& groups, const SplitOptions& o
   sp.fold.assign(n, -1);
   SplitRng rng(options.seed);
 
+  std::vector<std::size_t> all(n);
+  for (std::size_t g = 0; g < n; ++g) all[g] = g;
   const bool user_roles = std::any_of(groups.begin(), groups.end(), [](const SetpointGroup& g) {
     return g.user_role != UserRole::Unspecified;
   });
@@ -142,23 +205,28 @@ Split make_split(const std::vector<SetpointGroup>& groups, const SplitOptions& o
     sp.user_named_test = true;
     for (std::size_t g = 0; g < n; ++g)
       if (groups[g].user_role == UserRole::Check) sp.role[g] = SetRole::Test;
-  } else if (n >= 3) {
+  } else {
+    const std::vector<bool> edge = on_boundary(groups, all);
+    std::vector<std::size_t> interior;
+    for (std::size_t g = 0; g < n; ++g)
+      if (!edge[g]) interior.push_back(g);
     std::size_t want =
         static_cast<std::size_t>(std::llround(options.test_fraction * static_cast<double>(n)));
     const std::size_t room = n > min_train_groups ? n - min_train_groups : 0;
-    want = std::min({want, room, n - 2});
-    std::vector<std::size_t> interior;
-    for (std::size_t g = 1; g + 1 < n; ++g) interior.push_back(g);
+    want = std::min({want, room, interior.size()});
     for (std::size_t g : stratified_pick(interior, want, rng)) sp.role[g] = SetRole::Test;
   }
 
-  // Folds: among training groups, the first and last (by reading) never validate.
+  // Folds: training groups off the boundary of the training groups validate.
   std::vector<std::size_t> train;
   for (std::size_t g = 0; g < n; ++g)
     if (sp.role[g] == SetRole::Train) train.push_back(g);
-  if (train.size() < 3) return sp;  // no interior training setpoints: no CV possible
-  const std::vector<std::size_t> interior(train.begin() + 1, train.end() - 1);
-  assign_folds(interior, options, rng, sp);
+  const std::vector<bool> edge = on_boundary(groups, train);
+  std::vector<std::size_t> candidates;
+  for (std::size_t g : train)
+    if (!edge[g]) candidates.push_back(g);
+  if (candidates.empty()) return sp;  // no interior training groups: no CV possible
+  assign_folds(candidates, options, rng, sp);
   return sp;
 }
 

@@ -235,6 +235,30 @@ RIDGECAL_LANE_CLONES void NestedRidge::score(const double* lambdas, int nl, cons
   }
 }
 
+RIDGECAL_LANE_CLONES void NestedRidge::predict_lanes(const double* lambdas, int nl,
+                                                     const int* degrees, int count, double* pred) {
+  assert(nl >= 1 && nl <= L);
+  double mu[L];
+  for (int q = 0; q < L; ++q) mu[q] = std::sqrt(static_cast<double>(m_) * lambdas[q < nl ? q : 0]);
+  rotate_in_penalty(mu);
+  const std::size_t D = static_cast<std::size_t>(D_);
+  for (int t = 0; t < count; ++t) {
+    const int d = degrees[t];
+    assert(d >= 1 && d <= usable_);
+    solve(d);
+    for (int i = 0; i < nv_; ++i) {
+      const double* w = W_.data() + static_cast<std::size_t>(i) * D;
+      Lanes p = Lanes{} + y_mean_;
+      for (int k = 0; k < d; ++k) p += w[k] * b_[static_cast<std::size_t>(k)];
+      for (int q = 0; q < L; ++q)
+        pred[(static_cast<std::size_t>(t) * static_cast<std::size_t>(nv_) +
+              static_cast<std::size_t>(i)) *
+                 L +
+             static_cast<std::size_t>(q)] = p[q];
+    }
+  }
+}
+
 void NestedRidge::predict_validation(int d, double lambda, double* out) {
   assert(d >= 1 && d <= usable_);
   double mu[L];

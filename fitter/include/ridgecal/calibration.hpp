@@ -8,6 +8,12 @@
 // Selection: every (degree, lambda) of the grid is scored by grouped
 // cross-validation on the training setpoints (see grouped_split.hpp); the test
 // setpoints are used for nothing but the final test metrics.
+//
+// One fit: fit_calibration and fit_compensated (multi_input_fit.hpp) are two
+// entry points into one implementation (fitter/src/fit_model.cpp). This
+// polynomial is its case "reading-only Chebyshev terms, identity transforms,
+// no aux", written to Calibration::model; extended fits are written to
+// Calibration::surface. Code that works on any model reads general_model().
 #pragma once
 
 #include <limits>
@@ -156,7 +162,8 @@ bool is_extended(const Calibration& cal);
 /// coefficients). Code that works on any model reads this, not the two fields.
 SurfaceModel general_model(const Calibration& cal);
 
-/// Splits, selects and fits. Preconditions: options.validate() is empty.
+/// Splits, selects and fits the one-input polynomial (the same as
+/// fit_compensated with no extension). Preconditions: options.validate() is empty.
 /// Fails (status) when: all readings are equal; there are fewer distinct
 /// training setpoints than the smallest candidate model needs; the grid has
 /// several cells but too few setpoints to cross-validate.

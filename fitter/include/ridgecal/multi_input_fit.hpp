@@ -15,16 +15,17 @@
 //
 // Groups (never split): rows sharing a setpoint label (or reference value) and,
 // with aux, an aux level: the aux setpoint label (CsvOptions::aux_setpoint_column)
-// or else the aux value rounded to the nearest multiple of aux_step.
+// or else the aux value rounded to the nearest multiple of aux_step. The
+// boundary rule (which groups always stay in training) is that of
+// grouped_split.hpp: the 1-D end rule is its case without aux.
 //
-// Boundary rule (the 1-D end rule in two inputs): these groups always stay in
-// training and are never validated nor tested:
-//   * without aux: the groups with the smallest and largest mean reading;
-//   * with aux: every group of the lowest and of the highest aux level (by the
-//     level's mean aux value), and in every aux level the groups with the
-//     smallest and the largest mean reading of that level.
-// On a rectangular setpoint x aux-level grid these are the cells on its edge,
-// so the training data span the calibrated (reading, aux) range.
+// One fit: fit_compensated and fit_calibration are entry points into one
+// implementation (fitter/src/fit_model.cpp); with no extension active
+// (CompensationOptions{}) fit_compensated is the plain polynomial, written to
+// Calibration::model, else the model goes to Calibration::surface. Candidates
+// whose term lists are nested (no aux; aux with total degree) share the nested
+// fast path (one QR per fold); separate limits and powers use one SVD per
+// candidate and fold.
 #pragma once
 
 #include <Eigen/Dense>
@@ -45,7 +46,7 @@ struct CompensationOptions {
   std::vector<int> powers;  ///< allowed reading powers (power basis); empty: Chebyshev, all powers
   double aux_step = 1.0;    ///< aux grouping step without an aux setpoint column, > 0
 
-  /// True when any extension is in use (otherwise fit_calibration applies).
+  /// True when any extension is in use (otherwise the fit is the plain polynomial).
   bool active() const {
     return aux || !aux_degrees.empty() || !powers.empty() || !transforms.identity();
   }
@@ -53,7 +54,8 @@ struct CompensationOptions {
   std::string validate(const FitOptions& fit) const;
 };
 
-/// Splits, selects and fits an extended model. Preconditions: fit.validate()
+/// Splits, selects and fits a model with the extensions of `comp` (none: the
+/// plain polynomial, as fit_calibration). Preconditions: fit.validate()
 /// and comp.validate(fit) are empty. Throws InputError (with the line) when a
 /// reading or reference is outside the transforms' domain or an aux value is
 /// missing; otherwise fails (status) like fit_calibration.

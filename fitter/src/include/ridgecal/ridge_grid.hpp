@@ -5,17 +5,19 @@
 // columns X_d of a design, minimise (1/m)||y - b0 - X_d b||^2 + lambda ||b||^2,
 // intercept unpenalised (X and y centred on the training means).
 //
-// Nested bases: the Chebyshev design of degree d is the first d columns of the
-// design of the largest degree D. One Householder QR of the centred m x D
-// training design, Xc = Q R, serves every degree: R's leading d x d block is
-// the R factor of degree d. For a penalty lambda the ridge problem of degree d
-// is the least-squares problem [R_d; sqrt(m lambda) I] b = [z_d; 0] (z = Q^T yc),
-// solved by Givens rotations that fold the penalty rows into R. Those rotations
-// proceed column by column, so the leading d x d block of the rotated matrix is
-// again exactly the factor of degree d: one O(D^3) update per lambda serves all
-// degrees, and each degree then costs one triangular solve (d^2/2).
-// This is as accurate as the SVD path (orthogonal transformations only; the
-// normal equations are never formed).
+// Nested bases: the design of each candidate is the first d columns of the
+// design of the largest candidate (D columns); e.g. the Chebyshev degrees of
+// one input, or total degrees with an aux input (fit_grid.hpp). One
+// Householder QR of the centred m x D training design, Xc = Q R, serves every
+// degree: R's leading d x d block is the R factor of degree d. For a penalty
+// lambda the ridge problem of degree d is the least-squares problem
+// [R_d; sqrt(m lambda) I] b = [z_d; 0] (z = Q^T yc), solved by Givens
+// rotations that fold the penalty rows into R. Those rotations proceed column
+// by column, so the leading d x d block of the rotated matrix is again exactly
+// the factor of degree d: one O(D^3) update per lambda serves all degrees, and
+// each degree then costs one triangular solve (d^2/2). This is as accurate as
+// the SVD path (orthogonal transformations only; the normal equations are
+// never formed).
 //
 // Rank: when a leading diagonal entry of R is tiny relative to the largest
 // (below kRankTolerance), the degrees from there on are reported as not
@@ -65,6 +67,12 @@ class NestedRidge {
   /// degree t and lambda q.
   void score(const double* lambdas, int nl, const int* degrees, int count, double* val_mse,
              double* train_mse);
+
+  /// As score(), but writes the predictions at the validation rows instead of
+  /// their mean squared error: pred[(t * validation_rows() + i) * kLanes + q]
+  /// for degree t, row i and lambda q (for errors measured after a transform).
+  void predict_lanes(const double* lambdas, int nl, const int* degrees, int count, double* pred);
+  int validation_rows() const { return nv_; }
 
   /// Coefficients of degree d <= usable() for penalty lambda: b[0..d) and the
   /// intercept b0 (as RidgePath::coefficients).
