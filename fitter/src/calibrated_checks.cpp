@@ -10,7 +10,6 @@
 
 #include "ridgecal/lack_of_fit.hpp"
 #include "ridgecal/repeat_groups.hpp"
-#include "ridgecal/surface_uncertainty.hpp"
 #include "ridgecal/uncertainty.hpp"
 
 namespace ridgecal {
@@ -57,22 +56,15 @@ std::vector<Warning> check_outliers_bonferroni(const Dataset& data, const Calibr
   double s_fit = std::numeric_limits<double>::quiet_NaN(), dof_fit = 0.0;
   std::function<double(const PointResult&)> leverage;
   std::shared_ptr<FitCovariance> fc;
-  std::shared_ptr<SurfaceCovariance> sc;
   if (!single.empty()) {
-    if (cal.surface) {
-      sc = std::make_shared<SurfaceCovariance>(cal);
-      if (sc->ok()) {
-        s_fit = sc->residual_sd_fitted();
-        dof_fit = sc->dof();
-        leverage = [sc](const PointResult& p) { return sc->leverage(p.reading, p.aux); };
-      }
-    } else {
-      fc = std::make_shared<FitCovariance>(cal);
-      if (fc->ok()) {
-        s_fit = fc->residual_sd();
-        dof_fit = fc->dof();
-        leverage = [fc](const PointResult& p) { return fc->leverage(p.reading); };
-      }
+    fc = std::make_shared<FitCovariance>(cal);
+    if (fc->ok()) {
+      const bool aux = fc->model().has_aux;
+      s_fit = fc->residual_sd_fitted();  // the residual SD itself without a reference transform
+      dof_fit = fc->dof();
+      leverage = [fc, aux](const PointResult& p) {
+        return fc->leverage(p.reading, aux ? p.aux : 0.0);
+      };
     }
     if (std::isfinite(s_fit) && s_fit > 0.0 && dof_fit >= 3.0) n_tested += single.size();
   }
@@ -218,8 +210,7 @@ std::vector<Warning> check_spare_setpoints(const Calibration& cal, const Diagnos
   for (const SetpointResult& sp : cal.setpoints)
     if (sp.role == SetRole::Train) ++ntr;
   const std::size_t terms =
-      cal.surface ? cal.surface->terms.size()
-                  : static_cast<std::size_t>(cal.model.degree() + (cal.intercept ? 1 : 0));
+      general_model(cal).terms.size() - (is_extended(cal) || cal.intercept ? 0 : 1);
   if (terms == 0) return {};
   const double spare = static_cast<double>(ntr) - static_cast<double>(terms);
   if (!(spare < o.min_spare_setpoints)) return {};

@@ -12,7 +12,6 @@
 
 #include "json_read.hpp"
 #include "ridgecal/repeat_groups.hpp"
-#include "ridgecal/surface_uncertainty.hpp"
 #include "ridgecal/uncertainty.hpp"
 
 namespace ridgecal {
@@ -112,10 +111,6 @@ std::vector<RepeatGroup> training_groups(const Dataset& data, const Calibration&
 }
 
 double effective_parameters(const Calibration& cal) {
-  if (cal.surface) {
-    const SurfaceCovariance cov(cal);
-    return cov.ok() ? cov.effective_parameters() : (cal.intercept ? 1.0 : 0.0);
-  }
   const FitCovariance cov(cal);
   return cov.ok() ? cov.effective_parameters() : (cal.intercept ? 1.0 : 0.0);
 }

@@ -17,7 +17,7 @@
  *   tolerance:           +-(0.002) (user); strictest over the range 0.002
  *   tolerance used:      0.002 kg (record tolerance)
  *   result:              FAIL: Simple acceptance: a point conforms when |error| <= tolerance +-(0.002); the measurement uncertainty is reported but not subtracted. FAIL: 42 of 44 judged points conform.
- *   record SHA-256:      5b6098a86dd93bcb48432119bcf02511b6fc297f7f40bd7f84c62df7eb90eb58
+ *   record SHA-256:      a626d9c1ecd4bb33a169bb7641d532d58b382a97ea120d3c71b37d562655b0b3
  *   tool version:        ridgecal 0.1.0
  *
  * Export proof (evaluated at export time by an exact host emulation of the

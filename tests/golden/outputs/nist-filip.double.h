@@ -17,7 +17,7 @@
  *   tolerance:           none in the record
  *   tolerance used:      0.00337435 (not given) (validation RMSE, fallback: no absolute tolerance given)
  *   result:              not assessed (no tolerance in the record)
- *   record SHA-256:      a3e75fa463042245b9a5df142e0561df77edf807222b17558809140ce91a4dd9
+ *   record SHA-256:      d0170d6d5c31290bd2f6f5f6be9fe5a78ff7e99c18ed0a749436b581717fb1c7
  *   tool version:        ridgecal 0.1.0
  *
  * Export proof (evaluated at export time by an exact host emulation of the

@@ -17,7 +17,7 @@
  *   tolerance:           none in the record
  *   tolerance used:      0.0123587 degC (validation RMSE, fallback: no absolute tolerance given)
  *   result:              not assessed (no tolerance in the record)
- *   record SHA-256:      bcde0ccd00b383d4dcc42b6ea505e2622c3a2b58a16ca96eba726797857eb3bb
+ *   record SHA-256:      f229eff621bb4c4e71f019cb64339ceb9b1f4b3d0aee557bb685afd445c7d22b
  *   tool version:        ridgecal 0.1.0
  *
  * Export proof (evaluated at export time by an exact host emulation of the

@@ -21,7 +21,7 @@
  *   tolerance:           none in the record
  *   tolerance used:      0.00114136 bar (validation RMSE, fallback: no absolute tolerance given)
  *   result:              not assessed (no tolerance in the record)
- *   record SHA-256:      ce81f75ea6abc06b9b14ab8d3ec3f56dc22ca5733c50973625d9c6570eebb079
+ *   record SHA-256:      e615c95d117856cae2e6dff606ad90bb9cdf2577470020190b2aebfc07c0c48c
  *   tool version:        ridgecal 0.1.0
  *
  * Export proof (evaluated at export time by a host emulation of the

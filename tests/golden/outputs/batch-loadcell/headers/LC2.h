@@ -17,7 +17,7 @@
  *   tolerance:           +-(0.002) (user); strictest over the range 0.002
  *   tolerance used:      0.002 (not given) (record tolerance)
  *   result:              FAIL: Simple acceptance: a point conforms when |error| <= tolerance +-(0.002); the measurement uncertainty is reported but not subtracted. FAIL: 42 of 44 judged points conform.
- *   record SHA-256:      4529235faf63fd32a7d37a17243b202ac10423c633435ba4709f7d15bc57c6c3
+ *   record SHA-256:      472b2bd33318a10562aee451168952cbc3faa271661fa46a139ccc3ab88192dd
  *   tool version:        ridgecal 0.1.0
  *
  * Export proof (evaluated at export time by an exact host emulation of the
