@@ -8,6 +8,7 @@
 #include <memory>
 #include <sstream>
 
+#include "diag_common.hpp"
 #include "ridgecal/lack_of_fit.hpp"
 #include "ridgecal/repeat_groups.hpp"
 #include "ridgecal/uncertainty.hpp"
@@ -25,15 +26,7 @@ namespace {
 // grows 4.4-fold over the range, in docs/monte-carlo.md).
 constexpr double kOutlierPoolDf = 12.0;
 
-Warning make_warning(DiagnosticCode c, std::string msg, std::vector<std::size_t> lines,
-                     double value) {
-  Warning w;
-  w.code = c;
-  w.message = std::move(msg);
-  w.lines = std::move(lines);
-  w.value = value;
-  return w;
-}
+using detail::make_warning;
 
 }  // namespace
 
