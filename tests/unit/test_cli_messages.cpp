@@ -1,6 +1,8 @@
 // Clear messages (issue 15, item 13): an absurd penalty is a usage error
 // naming the rule, not "the data are too extreme"; a record whose model
-// overflows on the as-found readings prints "not finite", never nan or inf.
+// overflows on the as-found readings prints "not finite", never nan or inf;
+// export, report and verify refuse a record's negative or null tolerance with
+// one message (one validation, in the record reader).
 #define BOOST_TEST_MODULE cli_messages
 #include <boost/test/unit_test.hpp>
 #include <filesystem>
@@ -9,7 +11,9 @@
 #include <string>
 
 #include "cli_common.hpp"
+#include "export_command.hpp"
 #include "fit_command.hpp"
+#include "report_command.hpp"
 #include "test_support.hpp"
 #include "verify_command.hpp"
 
@@ -52,4 +56,36 @@ BOOST_AUTO_TEST_CASE(an_overflowing_model_prints_not_finite_never_nan_or_inf) {
   BOOST_TEST(text.find("not finite") != std::string::npos, text);
   for (const char* bad : {"nan", "inf%", " inf"})
     BOOST_TEST(text.find(bad) == std::string::npos, bad);
+}
+
+BOOST_AUTO_TEST_CASE(export_report_and_verify_refuse_a_bad_record_tolerance_alike) {
+  TempDir t;
+  const std::string rec = t / "lc.json";
+  std::string text;
+  BOOST_REQUIRE(call_main(fit_main,
+                          {kSample, "--setpoint", "setpoint", "--tol-offset", "0.01", "--timestamp",
+                           "none", "-o", rec},
+                          &text) == kExitOk);
+  const nlohmann::json good = nlohmann::json::parse(slurp(rec));
+  const std::pair<const char*, nlohmann::json> cases[] = {
+      {"offset is -0.01; it must be a finite number >= 0", -0.01},
+      {"record member 'tolerance.offset' is not a finite number", nullptr}};
+  for (const auto& [expected, value] : cases) {
+    nlohmann::json j = good;
+    j["tolerance"]["offset"] = value;
+    const std::string bad = t / "bad.json";
+    std::ofstream(bad) << j.dump(2);
+    const std::string header = t / "h.h", report = t / "r.html";
+    const std::vector<std::pair<SubcommandMain, std::vector<std::string>>> runs = {
+        {export_main,
+         {bad, "--prefix", "lc", "--numeric", "float", "--allow-modified", "-o", header}},
+        {report_main, {bad, "--allow-modified", "-o", report}},
+        {verify_main, {bad, kSample, "--setpoint", "setpoint", "--allow-modified"}}};
+    for (const auto& [m, args] : runs) {
+      BOOST_TEST(call_main(m, args, &text) == kExitBadInput, text);
+      BOOST_TEST(text.find(expected) != std::string::npos, text);
+    }
+    BOOST_TEST(!fs::exists(header));
+    BOOST_TEST(!fs::exists(report));
+  }
 }
