@@ -96,7 +96,11 @@ ls -a "$TMP/locked" | grep -q lock && fail "the lock file is left behind: $(ls -
 
 # --- item 6: fit's input limits ---
 t0=$(date +%s%N)
-(ulimit -v 1500000; "$RIDGECAL" batch /dev/zero "${B[@]}" -o "$TMP/zero" >/dev/null 2>"$TMP/err"); rc=$?
+# The memory cap shows the reader does not grow; a sanitizer build reserves
+# terabytes of shadow address space, so there the cap is left to the normal build.
+cap=1500000
+if ldd "$RIDGECAL" 2>/dev/null | grep -q 'libasan'; then cap=unlimited; fi
+(ulimit -v "$cap"; "$RIDGECAL" batch /dev/zero "${B[@]}" -o "$TMP/zero" >/dev/null 2>"$TMP/err"); rc=$?
 ms=$((($(date +%s%N) - t0) / 1000000))
 [ $rc -eq 2 ] || fail "batch /dev/zero gave exit $rc: $(head -c 300 "$TMP/err")"
 [ $ms -lt 5000 ] || fail "batch /dev/zero took $ms ms"
