@@ -334,9 +334,11 @@ int run_batch_command(const BatchCommand& cmd, std::ostream& out, std::ostream& 
       if (p.finished) err << "ridgecal batch: " << progress_text(p) << "\n";
     };
   }
+  // Installed before the inputs are listed and kept until the command returns,
+  // so that a signal during the set-up or the closing message is a clean stop too.
+  const StopSignals stop_signals;
   try {
     const std::vector<std::string> inputs = batch_input_files(cmd.data_path);
-    const StopSignals stop_signals;
     opt.stop = &g_stop_signal;
     const BatchResult r = run_batch(inputs, opt, cb, interval);
     if (r.interrupted_by != 0) {
