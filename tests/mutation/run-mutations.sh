@@ -43,11 +43,11 @@ TESTS='^(fitter\.poly_model|fitter\.ridge_path|fitter\.ridge_grid|fitter\.nist_s
 
 # name | file | exact text | replacement | what the fault is
 MUTATIONS=$(cat <<'LIST'
-cheb-coef|fitter/src/poly_model.cpp|    const double b0 = c[k] + 2.0 * t * b1 - b2;|    const double b0 = (k == 1 ? c[k] * (1.0 + 1e-6) : c[k]) + 2.0 * t * b1 - b2;|evaluation uses c_1 (1 + 1e-6) instead of c_1
-tolerance-abs|fitter/src/tolerance.cpp|  return offset + proportional * std::fabs(reference) + percent_of_span / 100.0 * span();|  return offset + proportional * reference + percent_of_span / 100.0 * span();|tolerance limit a + b*r instead of a + b*abs(r)
-cv-fold-stride|fitter/src/grouped_split.cpp|  for (std::size_t start = 0; start < candidates.size(); start += K) {|  for (std::size_t start = 0; start < candidates.size(); start += K - 1) {|K-fold blocks of K-1 setpoints (labels overwritten, folds uneven)
-coverage-k|fitter/src/uncertainty.cpp|  b.k = options.coverage_k;|  b.k = options.coverage_k * 1.25;|coverage factor k = 2.5 where 2 is asked for
-digest-ascii|fitter/src/record_write.cpp|  return sha256_hex(copy.dump(-1, ' ', false, json::error_handler_t::replace));|  return sha256_hex(copy.dump(-1, ' ', true, json::error_handler_t::replace));|digest over ASCII-escaped JSON (differs from the documented form for non-ASCII text)
+cheb-coef|fitter/src/model/poly_model.cpp|    const double b0 = c[k] + 2.0 * t * b1 - b2;|    const double b0 = (k == 1 ? c[k] * (1.0 + 1e-6) : c[k]) + 2.0 * t * b1 - b2;|evaluation uses c_1 (1 + 1e-6) instead of c_1
+tolerance-abs|fitter/src/assess/tolerance.cpp|  return offset + proportional * std::fabs(reference) + percent_of_span / 100.0 * span();|  return offset + proportional * reference + percent_of_span / 100.0 * span();|tolerance limit a + b*r instead of a + b*abs(r)
+cv-fold-stride|fitter/src/fit/grouped_split.cpp|  for (std::size_t start = 0; start < candidates.size(); start += K) {|  for (std::size_t start = 0; start < candidates.size(); start += K - 1) {|K-fold blocks of K-1 setpoints (labels overwritten, folds uneven)
+coverage-k|fitter/src/assess/uncertainty.cpp|  b.k = options.coverage_k;|  b.k = options.coverage_k * 1.25;|coverage factor k = 2.5 where 2 is asked for
+digest-ascii|fitter/src/record/record_write.cpp|  return sha256_hex(copy.dump(-1, ' ', false, json::error_handler_t::replace));|  return sha256_hex(copy.dump(-1, ' ', true, json::error_handler_t::replace));|digest over ASCII-escaped JSON (differs from the documented form for non-ASCII text)
 header-literal|firmware-export/src/c_literals.cpp|  for (int digits = 6; digits <= 9; ++digits) {|  for (int digits = 6; digits <= 7; ++digits) {|float literals with at most 7 digits (do not round-trip)
 LIST
 )

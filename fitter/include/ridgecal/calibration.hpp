@@ -10,7 +10,7 @@
 // setpoints are used for nothing but the final test metrics.
 //
 // One fit: fit_calibration and fit_compensated (multi_input_fit.hpp) are two
-// entry points into one implementation (fitter/src/fit_model.cpp). This
+// entry points into one implementation (fitter/src/fit/fit_model.cpp). This
 // polynomial is its case "reading-only Chebyshev terms, identity transforms,
 // no aux", written to Calibration::model; extended fits are written to
 // Calibration::surface. Code that works on any model reads general_model().

@@ -20,7 +20,7 @@
 // grouped_split.hpp: the 1-D end rule is its case without aux.
 //
 // One fit: fit_compensated and fit_calibration are entry points into one
-// implementation (fitter/src/fit_model.cpp); with no extension active
+// implementation (fitter/src/fit/fit_model.cpp); with no extension active
 // (CompensationOptions{}) fit_compensated is the plain polynomial, written to
 // Calibration::model, else the model goes to Calibration::surface. Candidates
 // whose term lists are nested (no aux; aux with total degree) share the nested

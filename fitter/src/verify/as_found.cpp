@@ -5,7 +5,7 @@
 #include <cassert>
 #include <cmath>
 
-#include "json_read.hpp"
+#include "ridgecal/json_read.hpp"
 
 namespace ridgecal {
 

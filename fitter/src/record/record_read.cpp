@@ -7,9 +7,9 @@
 #include <cstdint>
 #include <limits>
 
-#include "json_read.hpp"
 #include "ridgecal/atomic_file.hpp"
 #include "ridgecal/errors.hpp"
+#include "ridgecal/json_read.hpp"
 #include "ridgecal/record.hpp"
 #include "ridgecal/record_model.hpp"
 

@@ -7,8 +7,8 @@
 #include <cmath>
 #include <stdexcept>
 
-#include "json_read.hpp"
 #include "ridgecal/errors.hpp"
+#include "ridgecal/json_read.hpp"
 
 namespace ridgecal {
 

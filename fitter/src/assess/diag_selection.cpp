@@ -6,7 +6,7 @@
 #include <algorithm>
 #include <cmath>
 
-#include "diag_common.hpp"
+#include "ridgecal/diag_common.hpp"
 #include "ridgecal/diagnostics.hpp"
 
 namespace ridgecal {

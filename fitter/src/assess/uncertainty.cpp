@@ -8,7 +8,7 @@
 #include <limits>
 #include <stdexcept>
 
-#include "json_read.hpp"
+#include "ridgecal/json_read.hpp"
 
 namespace ridgecal {
 

@@ -3,7 +3,7 @@
 // members, and the integrity seal.
 #include <cmath>
 
-#include "json_read.hpp"
+#include "ridgecal/json_read.hpp"
 #include "ridgecal/record.hpp"
 #include "ridgecal/record_model.hpp"
 #include "ridgecal/sha256.hpp"

@@ -7,7 +7,7 @@
 #include <limits>
 #include <utility>
 
-#include "json_read.hpp"
+#include "ridgecal/json_read.hpp"
 
 namespace ridgecal {
 

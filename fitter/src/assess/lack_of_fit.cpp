@@ -10,7 +10,7 @@
 #include <cmath>
 #include <map>
 
-#include "json_read.hpp"
+#include "ridgecal/json_read.hpp"
 #include "ridgecal/repeat_groups.hpp"
 #include "ridgecal/uncertainty.hpp"
 

@@ -7,7 +7,7 @@
 #include <cmath>
 #include <stdexcept>
 
-#include "json_read.hpp"
+#include "ridgecal/json_read.hpp"
 
 namespace ridgecal {
 

@@ -8,7 +8,7 @@
 #include <memory>
 #include <sstream>
 
-#include "diag_common.hpp"
+#include "ridgecal/diag_common.hpp"
 #include "ridgecal/lack_of_fit.hpp"
 #include "ridgecal/repeat_groups.hpp"
 #include "ridgecal/uncertainty.hpp"

@@ -6,8 +6,8 @@
 #include <cmath>
 #include <stdexcept>
 
-#include "diag_common.hpp"
-#include "json_read.hpp"
+#include "ridgecal/diag_common.hpp"
+#include "ridgecal/json_read.hpp"
 #include "ridgecal/lack_of_fit.hpp"
 
 namespace ridgecal {
