@@ -288,24 +288,30 @@ int run_batch_command(const BatchCommand& cmd, std::ostream& out, std::ostream& 
   // `ridgecal export`, run on the record just written (thread-safe: each call
   // has its own streams and writes its own file atomically).
   if (cmd.reports)
-    opt.unit_outputs.push_back(
-        {"report", "reports", ".html", [](const std::string& rec, const std::string& path) {
-           ReportCommand rc;
-           rc.record_path = rec;
-           rc.output_path = path;
-           std::ostringstream o, e;
-           return run_report_command(rc, o, e) == kExitOk ? std::string() : one_line(e.str());
-         }});
+    opt.unit_outputs.push_back({"report", "reports", ".html",
+                                [](const std::string& rec, const std::string& path) {
+                                  ReportCommand rc;
+                                  rc.record_path = rec;
+                                  rc.output_path = path;
+                                  std::ostringstream o, e;
+                                  return run_report_command(rc, o, e) == kExitOk
+                                             ? std::string()
+                                             : one_line(e.str());
+                                },
+                                false});
   if (cmd.header) {
     const ExportCommand proto = *cmd.header;
-    opt.unit_outputs.push_back(
-        {"header", "headers", ".h", [proto](const std::string& rec, const std::string& path) {
-           ExportCommand ec = proto;
-           ec.record_path = rec;
-           ec.output_path = path;
-           std::ostringstream o, e;
-           return run_export_command(ec, o, e) == kExitOk ? std::string() : one_line(e.str());
-         }});
+    opt.unit_outputs.push_back({"header", "headers", ".h",
+                                [proto](const std::string& rec, const std::string& path) {
+                                  ExportCommand ec = proto;
+                                  ec.record_path = rec;
+                                  ec.output_path = path;
+                                  std::ostringstream o, e;
+                                  return run_export_command(ec, o, e) == kExitOk
+                                             ? std::string()
+                                             : one_line(e.str());
+                                },
+                                true});  // a header for a PASS unit only
   }
   ProgressMode mode = cmd.progress;
   if (mode == ProgressMode::Auto) mode = stderr_is_tty ? ProgressMode::Bar : ProgressMode::Lines;
@@ -355,6 +361,11 @@ int run_batch_command(const BatchCommand& cmd, std::ostream& out, std::ostream& 
     if (opt.assess.tolerance) out << fmt::format(", {} out of tolerance", r.out_of_tolerance);
     if (!opt.unit_outputs.empty())
       out << fmt::format(", {} with a report or header not written", r.outputs_failed);
+    if (r.outputs_withheld > 0)
+      out << fmt::format(
+          ", {} without a header (verdict not PASS: the warnings column of summary.csv says "
+          "\"header withheld\")",
+          r.outputs_withheld);
     out << "\nsummary: " << opt.out_dir << "/summary.csv, " << opt.out_dir << "/summary.json\n";
     return r.failed > 0 || r.out_of_tolerance > 0 || r.outputs_failed > 0 ? kExitOutOfTolerance
                                                                           : kExitOk;

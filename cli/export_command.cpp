@@ -34,6 +34,7 @@ po::options_description export_options() {
     ("tolerance", po::value<std::string>(), "absolute tolerance in reference units for the refusal rule only (default: the record's; without one, the validation RMSE); the header's result is always the record's verdict")
     ("tolerance-text", po::value<std::string>()->default_value(""), "tolerance description for the header's QA block")
     ("allow-modified", po::bool_switch(), allow_modified_option_help())
+    ("allow-unpassed", po::bool_switch(), "write a header for a record whose verdict is not PASS (FAIL, not judged, or modified with --allow-modified); without it such a record is refused, exit 1. The header's PREFIX_VERDICT macro states the verdict")
     ("grid-points", po::value<int>()->default_value(2001), "points of the proof grid over the calibrated range")
     ("raw-min", po::value<std::int64_t>(), "fixed: smallest raw integer input (default: ceil(x_min * input-scale))")
     ("raw-max", po::value<std::int64_t>(), "fixed: largest raw integer input (default: floor(x_max * input-scale))")
@@ -86,13 +87,23 @@ RecordAssessment record_assessment(const CalibrationRecord& rec,
   }
   return a;
 }
+// "ntc" -> "NTC", "not-judged" -> "NOT_JUDGED": the spelling of a macro.
+std::string upper_prefix(std::string s) {
+  for (char& c : s)
+    if (c >= 'a' && c <= 'z')
+      c = static_cast<char>(c - 'a' + 'A');
+    else if (c == '-')
+      c = '_';
+  return s;
+}
 }  // namespace
 
 std::string export_usage() {
   std::ostringstream s;
   s << export_options();
-  s << "\nExit codes: 0 written, 1 refused (the header's arithmetic deviates more than allowed;\n"
-       "nothing written), 2 bad input or usage (nothing written).\n"
+  s << "\nExit codes: 0 written, 1 refused (the record's verdict is not PASS, or the header's\n"
+       "arithmetic deviates more than allowed; nothing written), 2 bad input or usage (nothing\n"
+       "written).\n"
        "Build firmware that includes the header with -ffp-contract=off.\n";
   return s.str();
 }
@@ -127,6 +138,7 @@ ExportCommand parse_export_command(const std::vector<std::string>& args) {
   }
   cmd.tolerance_text = vm["tolerance-text"].as<std::string>();
   cmd.allow_modified = vm["allow-modified"].as<bool>();
+  cmd.allow_unpassed = vm["allow-unpassed"].as<bool>();
   cmd.options.grid_points = vm["grid-points"].as<int>();
   if (vm.count("raw-min")) cmd.options.raw_min = vm["raw-min"].as<std::int64_t>();
   if (vm.count("raw-max")) cmd.options.raw_max = vm["raw-max"].as<std::int64_t>();
@@ -187,6 +199,11 @@ int run_export_command(const ExportCommand& cmd, std::ostream& out, std::ostream
           "with "
           "--allow-modified); " +
           meta.pass_fail;
+    meta.verdict = guarded.modified ? firmware::HeaderVerdict::RecordModified
+                   : !rec.decision  ? firmware::HeaderVerdict::NotJudged
+                   : rec.decision->verdict == Verdict::Pass ? firmware::HeaderVerdict::Pass
+                                                            : firmware::HeaderVerdict::Fail;
+    meta.calibration_date = rec.created_utc;
     meta.record_sha256 = guarded.seal.computed;
     meta.tool_version = std::string("ridgecal ") + tool_version();
     for (const auto& p : cal.points) {
@@ -203,6 +220,20 @@ int run_export_command(const ExportCommand& cmd, std::ostream& out, std::ostream
     if (r.status == firmware::ExportStatus::Refused) {
       err << "ridgecal export: " << r.message << "; nothing written\n"
           << "  try --numeric double, or for fixed a larger --output-scale\n";
+      return kExitOutOfTolerance;
+    }
+    // After the header is proved, so that bad input (exit 2) is reported first.
+    if (meta.verdict != firmware::HeaderVerdict::Pass && !cmd.allow_unpassed) {
+      const char* why = meta.verdict == firmware::HeaderVerdict::Fail ? "its verdict is FAIL"
+                        : meta.verdict == firmware::HeaderVerdict::NotJudged
+                            ? "it has no verdict (no tolerance was given when it was fitted)"
+                            : "it was modified after ridgecal wrote it";
+      err << "ridgecal export: " << cmd.record_path << ": refused: " << why
+          << "; nothing written. A header is written for a PASS record only; to write one anyway "
+             "(e.g. for a test bench), add --allow-unpassed: its "
+          << upper_prefix(cmd.options.prefix) << "_VERDICT macro is then "
+          << upper_prefix(cmd.options.prefix) << "_VERDICT_"
+          << upper_prefix(firmware::to_string(meta.verdict)) << "\n";
       return kExitOutOfTolerance;
     }
     write_file_atomic(cmd.output_path, r.header);

@@ -21,6 +21,11 @@ struct ExportCommand {
   /// Export a record whose integrity digest does not match (edited by hand);
   /// the header's result line and the summary then say so.
   bool allow_modified = false;
+  /// Write a header for a record whose verdict is not PASS (FAIL, not judged
+  /// or modified). Default false: such a record is refused (exit 1), so that
+  /// a failed calibration never reaches firmware by accident. The header's
+  /// PREFIX_VERDICT then states the verdict for a compile-time check.
+  bool allow_unpassed = false;
   bool help = false;
 };
 
@@ -29,7 +34,8 @@ struct ExportCommand {
 ExportCommand parse_export_command(const std::vector<std::string>& args);
 
 /// Reads the record, generates the header and writes it. Exit codes: 0 ok,
-/// 1 refused (the header's arithmetic deviates more than allowed), 2 bad input.
+/// 1 refused (the record's verdict is not PASS and allow_unpassed is false, or
+/// the header's arithmetic deviates more than allowed), 2 bad input.
 /// An existing output file is left untouched unless the export succeeds.
 int run_export_command(const ExportCommand& cmd, std::ostream& out, std::ostream& err);
 

@@ -10,12 +10,15 @@
 #     [MAX_DEVIATION_FRACTION <f>] [TOLERANCE <abs>]
 #     [RAW_MIN <n>] [RAW_MAX <n>] [INPUT_SCALE <s>] [OUTPUT_SCALE <s>]   # fixed mode
 #     [AUX_SCALE <s>] [AUX_RAW_MIN <n>] [AUX_RAW_MAX <n>]    # fixed mode, records with an aux input
-#     [NO_FP_CONTRACT_FLAG])    # do not add -ffp-contract=off to TARGET
+#     [NO_FP_CONTRACT_FLAG]     # do not add -ffp-contract=off to TARGET
+#     [ALLOW_UNPASSED])         # also for a record whose verdict is not PASS
+#                               # (PREFIX_VERDICT then says FAIL or NOT_JUDGED)
 #
 # The header is rebuilt whenever the record (or the ridgecal executable)
 # changes. The export refuses (and the build fails, leaving any previous
 # header untouched) when the header's arithmetic deviates from the model by
-# more than the allowed fraction of the tolerance. The directory of OUTPUT is
+# more than the allowed fraction of the tolerance, and when the record's
+# verdict is not PASS unless ALLOW_UNPASSED is given. The directory of OUTPUT is
 # added to TARGET's include path, and for GCC/Clang C and C++ sources
 # -ffp-contract=off is added to TARGET (the header's bit-exactness needs it).
 #
@@ -27,7 +30,7 @@ include_guard(GLOBAL)
 set(RIDGECAL_EXECUTABLE "" CACHE FILEPATH "ridgecal executable used by ridgecal_generate_header")
 
 function(ridgecal_generate_header)
-  set(options NO_FP_CONTRACT_FLAG)
+  set(options NO_FP_CONTRACT_FLAG ALLOW_UNPASSED)
   set(one TARGET RECORD PREFIX OUTPUT NUMERIC MAX_DEVIATION_FRACTION TOLERANCE RAW_MIN RAW_MAX
           INPUT_SCALE OUTPUT_SCALE AUX_SCALE AUX_RAW_MIN AUX_RAW_MAX)
   cmake_parse_arguments(PARSE_ARGV 0 RG "${options}" "${one}" "")
@@ -78,6 +81,10 @@ function(ridgecal_generate_header)
       list(APPEND args ${flag} "${RG_${key}}")
     endif()
   endforeach()
+
+  if(RG_ALLOW_UNPASSED)
+    list(APPEND args --allow-unpassed)
+  endif()
 
   add_custom_command(
     OUTPUT "${output}"

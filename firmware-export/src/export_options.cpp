@@ -1,5 +1,6 @@
 #include <cmath>
 #include <sstream>
+#include <stdexcept>
 
 #include "ridgecal/firmware/c_text.hpp"
 #include "ridgecal/firmware/export.hpp"
@@ -64,6 +65,32 @@ std::string ExportOptions::validate() const {
     return "option exhaustive_limit = " + std::to_string(exhaustive_limit) +
            ": must be between 0 and 100000000";
   return {};
+}
+
+}  // namespace ridgecal::firmware
+
+namespace ridgecal::firmware {
+
+std::string to_string(HeaderVerdict v) {
+  switch (v) {
+    case HeaderVerdict::NotJudged:
+      return "not-judged";
+    case HeaderVerdict::Pass:
+      return "pass";
+    case HeaderVerdict::Fail:
+      return "fail";
+    case HeaderVerdict::RecordModified:
+      return "record-modified";
+  }
+  return "unknown";
+}
+
+HeaderVerdict header_verdict_from_string(const std::string& s) {
+  for (HeaderVerdict v : {HeaderVerdict::NotJudged, HeaderVerdict::Pass, HeaderVerdict::Fail,
+                          HeaderVerdict::RecordModified})
+    if (to_string(v) == s) return v;
+  throw std::invalid_argument("header verdict '" + s +
+                              "': must be not-judged, pass, fail or record-modified");
 }
 
 }  // namespace ridgecal::firmware

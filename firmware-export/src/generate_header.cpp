@@ -66,9 +66,9 @@ bool write_floating(detail::HeaderContext& c, std::ostringstream& body, ExportRe
         fmt + ", Horner in " +
         (p.basis == Basis::ScaledT ? "scaled t = (x - c) * s (chosen: lower error than raw x)"
                                    : "raw x (chosen: lower error than scaled t)");
-  crc = crc32_bytes(table_bytes(p.coef));
   detail::emit_floating(body, c, p);
-  detail::emit_crc(body, c.n, type, sizeof(T), c.d.table_size);
+  crc = detail::checked_crc32(c.checked);
+  detail::emit_crc(body, c, !is_float);
   // operations: the Horner steps, the scaling of each input, the transforms
   const int K = p.reading_degree, L = p.aux_degree;
   const int steps = (K + 1) * L + K + (p.basis == Basis::ScaledT ? 1 : 0) + (p.has_aux ? 1 : 0) +
@@ -106,9 +106,9 @@ bool write_fixed(detail::HeaderContext& c, std::ostringstream& body, ExportResul
     c.formats =
         "int32 coefficients Q[" + qs + "] (t^0..t^n), t in Q" + std::to_string(plan.t.frac) + tail;
   }
-  crc = crc32_bytes(table_bytes(plan.coef));
   detail::emit_fixed(body, c, plan);
-  detail::emit_crc(body, c.n, "int32_t", 4, c.d.table_size);
+  crc = detail::checked_crc32(c.checked);
+  detail::emit_crc(body, c, false);
   const int K = plan.reading_degree, L = plan.aux_degree, axes = plan.has_aux ? 2 : 1;
   const int ops = (K + 1) * L + K;
   r.stats = detail::stats_for("", (K + 1) * (L + 1), 4, ops + axes, 2 * ops + 2 * axes);
@@ -144,7 +144,8 @@ ExportResult generate_header(const FirmwareModel& model, const HeaderMeta& meta,
                           false,
                           detail::esc(meta.reading_unit, 40),
                           detail::esc(meta.reference_unit, 40),
-                          detail::esc(meta.aux_unit, 40)};
+                          detail::esc(meta.aux_unit, 40),
+                          {}};
   c.needs_log = model.transforms.reading == ReadingTransform::Ln && opt.mode != NumericMode::Fixed;
   std::ostringstream body;
   std::uint32_t crc = 0;

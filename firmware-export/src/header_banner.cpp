@@ -51,7 +51,7 @@ void emit_banner(std::ostringstream& o, const HeaderContext& c, const std::strin
     << " * GENERATED FILE -- DO NOT EDIT.\n"
     << " * Written by " << esc(meta.tool_version.empty() ? "ridgecal" : meta.tool_version, 60)
     << " (ridgecal export). Regenerate it from the calibration record\n"
-    << " * instead of editing: the coefficient CRC and the QA figures below would no\n"
+    << " * instead of editing: the self-check CRC and the QA figures below would no\n"
     << " * longer match.\n"
     << " * Header format version " << kHeaderFormatVersion << " (" << c.n.P << "_FORMAT_VERSION).\n"
     << " * ==========================================================================\n"
@@ -127,6 +127,55 @@ void emit_banner(std::ostringstream& o, const HeaderContext& c, const std::strin
   o << " */\n";
 }
 
+namespace {
+
+// Characters safe in a C string literal and meaningful in a date or digest;
+// anything else becomes '?'.
+std::string c_string_safe(const std::string& s) {
+  std::string out;
+  for (char ch : s.substr(0, 80)) {
+    const bool ok = (ch >= '0' && ch <= '9') || (ch >= 'A' && ch <= 'Z') ||
+                    (ch >= 'a' && ch <= 'z') || ch == ':' || ch == '.' || ch == '+' || ch == '-';
+    out += ok ? ch : '?';
+  }
+  return out;
+}
+
+// The suffix of PREFIX_VERDICT_... for a verdict.
+const char* verdict_macro(HeaderVerdict v) {
+  switch (v) {
+    case HeaderVerdict::Pass:
+      return "PASS";
+    case HeaderVerdict::Fail:
+      return "FAIL";
+    case HeaderVerdict::RecordModified:
+      return "RECORD_MODIFIED";
+    case HeaderVerdict::NotJudged:
+      break;
+  }
+  return "NOT_JUDGED";
+}
+
+// A comma-separated list broken into lines of at most `width` characters.
+std::string wrap_list(const std::string& list, const std::string& indent, std::size_t width) {
+  std::string out, line = indent;
+  std::size_t pos = 0;
+  while (pos < list.size()) {
+    std::size_t next = list.find(", ", pos);
+    const std::string item =
+        list.substr(pos, next == std::string::npos ? std::string::npos : next + 1 - pos);
+    if (line.size() > indent.size() && line.size() + item.size() + 1 > width) {
+      out += line + "\n";
+      line = indent;
+    }
+    line += (line.size() > indent.size() ? " " : "") + item;
+    pos = next == std::string::npos ? list.size() : next + 2;
+  }
+  return out + line;
+}
+
+}  // namespace
+
 void emit_prologue(std::ostringstream& o, const HeaderContext& c, std::uint32_t crc) {
   const Names& n = c.n;
   const FirmwareModel& m = c.model;
@@ -149,9 +198,26 @@ void emit_prologue(std::ostringstream& o, const HeaderContext& c, std::uint32_t 
   }
   const std::string w = c.d.input_word, r = c.d.outcome_word;
   o << "/* CRC-32 (IEEE: reflected 0xEDB88320, init and xorout 0xFFFFFFFF) over the\n"
-    << "   bit patterns of " << n.P << "_COEF[0.." << N - 1
-    << "], each least significant byte\n   first; see " << n.p << "_table_crc32(). */\n"
+    << "   bit patterns of every constant the evaluation uses, in this order\n"
+    << wrap_list(checked_names(c.checked), "   ", 76) << ";\n   see " << n.p
+    << "_table_crc32(). */\n"
     << "#define " << n.P << "_TABLE_CRC32 " << hex32(crc) << "\n\n"
+    << "/* The record behind this header, for compile-time checks, e.g.\n"
+    << " *   #if " << n.P << "_VERDICT != " << n.P << "_VERDICT_PASS\n"
+    << " *   #error \"this calibration did not pass\"\n"
+    << " *   #endif */\n"
+    << "#define " << n.P
+    << "_VERDICT_NOT_JUDGED 0 /* no tolerance in the record: nothing judged */\n"
+    << "#define " << n.P << "_VERDICT_PASS 1\n"
+    << "#define " << n.P << "_VERDICT_FAIL 2\n"
+    << "#define " << n.P
+    << "_VERDICT_RECORD_MODIFIED 3 /* record edited after ridgecal wrote it */\n"
+    << "#define " << n.P << "_VERDICT " << n.P << "_VERDICT_" << verdict_macro(c.meta.verdict)
+    << "\n"
+    << "#define " << n.P << "_RECORD_SHA256 \"" << c_string_safe(c.meta.record_sha256)
+    << "\" /* SHA-256 of the calibration record */\n"
+    << "#define " << n.P << "_CALIBRATION_DATE \"" << c_string_safe(c.meta.calibration_date)
+    << "\" /* when the record was made, UTC; \"\" if it does not say */\n\n"
     << "/* Status codes of the range-checked evaluation"
     << (aux ? ": the reading's code plus the aux input's code" : "") << " */\n"
     << "#define " << n.P << "_IN_RANGE 0     /* input inside the valid range */\n"

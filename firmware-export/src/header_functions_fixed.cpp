@@ -11,6 +11,96 @@ namespace ridgecal::firmware::detail {
 
 namespace {
 
+// Which integer mappings and shift tables the evaluation uses.
+bool uses_t(const FixedPlan& p) {
+  return p.reading_degree > 0;
+}
+bool uses_s(const FixedPlan& p) {
+  return p.has_aux && p.aux_degree > 0;
+}
+bool uses_out_shift(const FixedPlan& p) {
+  return p.q[0] > 0;
+}
+
+std::string shift_list(const std::vector<int>& v) {
+  std::string s;
+  for (std::size_t i = 0; i < v.size(); ++i) s += (i ? ", " : "") + std::to_string(v[i]) + "U";
+  return s;
+}
+
+// The constants of the input mappings and the shift of every Horner step, as
+// named macros and tables (so that the self-check covers them).
+void emit_mapping_constants(std::ostringstream& o, const HeaderContext& c, const FixedPlan& p) {
+  const std::string& P = c.n.P;
+  const auto axis = [&](const char* A, const char* var, const char* raw, const FixedAxis& a) {
+    o << "/* " << var << "_q = " << var << " * 2^" << a.frac << " = rshift_round((" << raw << " - "
+      << P << "_" << A << "_R0) * " << P << "_" << A << "_MUL + " << P << "_" << A << "_ADD, " << P
+      << "_" << A << "_SHIFT). */\n"
+      << "#define " << P << "_" << A << "_R0 (" << c_int64_literal(a.r0) << ")\n"
+      << "#define " << P << "_" << A << "_MUL (" << c_int64_literal(a.mul) << ")\n"
+      << "#define " << P << "_" << A << "_ADD (" << c_int64_literal(a.add) << ")\n"
+      << "#define " << P << "_" << A << "_SHIFT " << a.shift << "U\n";
+  };
+  if (uses_t(p)) axis("T", "t", "raw", p.t);
+  if (uses_s(p)) axis("S", "s", "raw_aux", p.s);
+  if (uses_t(p))
+    o << "/* Shift after the product with t_q in Horner step k (entry k). */\n"
+      << "static const uint8_t " << P << "_T_STEP_SHIFT[" << p.sh_out.size() << "] = {"
+      << shift_list(p.sh_out) << "};\n";
+  if (uses_s(p))
+    o << "/* Shift after the product with s_q, entry k * " << P
+      << "_AUX_DEGREE + l (row k, step l). */\n"
+      << "static const uint8_t " << P << "_S_STEP_SHIFT[" << p.sh_in.size() << "] = {"
+      << shift_list(p.sh_in) << "};\n";
+  if (uses_out_shift(p))
+    o << "/* Final shift from Q" << p.q[0] << " to the output unit. */\n"
+      << "#define " << P << "_OUT_SHIFT " << p.q[0] << "U\n";
+  o << "\n";
+}
+
+// The constants the evaluation uses, for the self-check, in a fixed order:
+// the coefficient table, the raw ranges, the mappings, the shift tables, the
+// output shift and the degree macros.
+void check_constants(HeaderContext& c, const FixedPlan& p) {
+  using Kind = CheckedConstant::Kind;
+  const std::string& P = c.n.P;
+  std::vector<CheckedConstant>& k = c.checked;
+  const auto table = [&](const std::string& name, Kind kind, const auto& values,
+                         const std::string& count) {
+    CheckedConstant t = checked_int(name, kind, 0);
+    t.bits.clear();
+    for (auto v : values) t.bits.push_back(checked_int("", kind, v).bits[0]);
+    t.table = true;
+    t.count_expr = count;
+    k.push_back(t);
+  };
+  table(P + "_COEF", Kind::I32, p.coef, c.d.table_size);
+  k.push_back(checked_int(P + "_RAW_MIN", Kind::I32, p.t.raw_min));
+  k.push_back(checked_int(P + "_RAW_MAX", Kind::I32, p.t.raw_max));
+  if (p.has_aux) {
+    k.push_back(checked_int(P + "_AUX_RAW_MIN", Kind::I32, p.s.raw_min));
+    k.push_back(checked_int(P + "_AUX_RAW_MAX", Kind::I32, p.s.raw_max));
+  }
+  const auto axis = [&](const char* A, const FixedAxis& a) {
+    k.push_back(checked_int(P + "_" + A + "_R0", Kind::I64, a.r0));
+    k.push_back(checked_int(P + "_" + A + "_MUL", Kind::I64, a.mul));
+    k.push_back(checked_int(P + "_" + A + "_ADD", Kind::I64, a.add));
+    k.push_back(checked_int(P + "_" + A + "_SHIFT", Kind::I32, a.shift));
+  };
+  if (uses_t(p)) axis("T", p.t);
+  if (uses_s(p)) axis("S", p.s);
+  if (uses_t(p)) table(P + "_T_STEP_SHIFT", Kind::U8, p.sh_out, std::to_string(p.sh_out.size()));
+  if (uses_s(p)) table(P + "_S_STEP_SHIFT", Kind::U8, p.sh_in, std::to_string(p.sh_in.size()));
+  if (uses_out_shift(p)) k.push_back(checked_int(P + "_OUT_SHIFT", Kind::I32, p.q[0]));
+  if (c.d.extended) {
+    k.push_back(checked_int(P + "_READING_DEGREE", Kind::I32, p.reading_degree));
+    k.push_back(checked_int(P + "_AUX_DEGREE", Kind::I32, p.aux_degree));
+    k.push_back(checked_int(P + "_N_COEF", Kind::I32, (p.reading_degree + 1) * (p.aux_degree + 1)));
+  } else {
+    k.push_back(checked_int(P + "_DEGREE", Kind::I32, p.reading_degree));
+  }
+}
+
 void emit_constants(std::ostringstream& o, const HeaderContext& c, const FixedPlan& p) {
   const std::string& P = c.n.P;
   const int K = p.reading_degree, L = p.aux_degree, N = (K + 1) * (L + 1);
@@ -55,6 +145,7 @@ void emit_constants(std::ostringstream& o, const HeaderContext& c, const FixedPl
       << " /* " << term_name(i / (L + 1), i % (L + 1), p.has_aux) << ", Q"
       << p.q[static_cast<std::size_t>(i)] << " */\n";
   o << "};\n\n";
+  emit_mapping_constants(o, c, p);
   o << "/* floor((v + 2^(s-1)) / 2^s), i.e. v / 2^s rounded half up, for\n"
     << "   -2^62 <= v + 2^(s-1) < 2^62 and 1 <= s <= 61. Only a non-negative value is\n"
     << "   shifted (v is offset by 2^62 first), so the result does not depend on how\n"
@@ -95,11 +186,11 @@ void emit_overflow_proof(std::ostringstream& o, const HeaderContext& c, const Fi
   o << buf << " *   output in " << range_text(p.out) << "\n";
 }
 
-// "rshift_round((RAW - r0) * mul + add, shift)" of one input axis.
-std::string axis_map(const HeaderContext& c, const FixedAxis& a, const char* raw) {
-  return c.n.p + "_rshift_round(((int64_t)" + raw + " - " + c_int64_literal(a.r0) + ") * " +
-         c_int64_literal(a.mul) + " + " + c_int64_literal(a.add) + ", " + std::to_string(a.shift) +
-         "U)";
+// "rshift_round((RAW - R0) * MUL + ADD, SHIFT)" of one input axis (A: T or S).
+std::string axis_map(const HeaderContext& c, const char* A, const char* raw) {
+  const std::string m = c.n.P + "_" + A;
+  return c.n.p + "_rshift_round(((int64_t)" + raw + " - " + m + "_R0) * " + m + "_MUL + " + m +
+         "_ADD, " + m + "_SHIFT)";
 }
 
 // The statements of PREFIX_eval_fixed. One-input header: one Horner loop in
@@ -107,28 +198,28 @@ std::string axis_map(const HeaderContext& c, const FixedAxis& a, const char* raw
 void emit_eval_statements(std::ostringstream& o, const HeaderContext& c, const FixedPlan& p) {
   const std::string &P = c.n.P, &pre = c.n.p;
   const int K = p.reading_degree, L = p.aux_degree;
-  const std::string out =
-      p.q[0] > 0 ? "(int32_t)" + pre + "_rshift_round(acc, " + std::to_string(p.q[0]) + "U)"
-                 : std::string("(int32_t)acc");
+  const std::string out = uses_out_shift(p)
+                              ? "(int32_t)" + pre + "_rshift_round(acc, " + P + "_OUT_SHIFT)"
+                              : std::string("(int32_t)acc");
   if (!c.d.extended) {
-    o << (K == 0 ? "    (void)raw;\n" : "    const int64_t t = " + axis_map(c, p.t, "raw") + ";\n");
+    o << (K == 0 ? "    (void)raw;\n" : "    const int64_t t = " + axis_map(c, "T", "raw") + ";\n");
     if (K == 0) {
       o << "    return "
-        << (p.q[0] > 0 ? "(int32_t)" + pre + "_rshift_round((int64_t)" + P + "_COEF[0], " +
-                             std::to_string(p.q[0]) + "U)"
-                       : P + "_COEF[0]")
+        << (uses_out_shift(p) ? "(int32_t)" + pre + "_rshift_round((int64_t)" + P + "_COEF[0], " +
+                                    P + "_OUT_SHIFT)"
+                              : P + "_COEF[0]")
         << ";\n}\n\n";
       return;
     }
     o << "    int64_t acc = (int64_t)" << P << "_COEF[" << K << "];\n";
     for (int k = K - 1; k >= 0; --k)
-      o << "    acc = " << pre << "_rshift_round(acc * t, " << p.sh_out[static_cast<std::size_t>(k)]
-        << "U) + " << P << "_COEF[" << k << "];\n";
+      o << "    acc = " << pre << "_rshift_round(acc * t, (unsigned)" << P << "_T_STEP_SHIFT[" << k
+        << "]) + " << P << "_COEF[" << k << "];\n";
     o << "    return " << out << ";\n}\n\n";
     return;
   }
-  if (K > 0) o << "    const int64_t t = " << axis_map(c, p.t, "raw") << ";\n";
-  if (p.has_aux && L > 0) o << "    const int64_t s = " << axis_map(c, p.s, "raw_aux") << ";\n";
+  if (K > 0) o << "    const int64_t t = " << axis_map(c, "T", "raw") << ";\n";
+  if (p.has_aux && L > 0) o << "    const int64_t s = " << axis_map(c, "S", "raw_aux") << ";\n";
   o << "    int64_t w, acc;\n";
   if (K == 0) o << "    (void)raw;\n";
   if (p.has_aux && L == 0) o << "    (void)raw_aux;\n";
@@ -136,14 +227,13 @@ void emit_eval_statements(std::ostringstream& o, const HeaderContext& c, const F
     const int row = k * (L + 1);
     o << "    w = (int64_t)" << P << "_COEF[" << row + L << "];\n";
     for (int l = L - 1; l >= 0; --l)
-      o << "    w = " << pre << "_rshift_round(w * s, "
-        << p.sh_in[static_cast<std::size_t>(k * L + l)] << "U) + " << P << "_COEF[" << row + l
-        << "];\n";
+      o << "    w = " << pre << "_rshift_round(w * s, (unsigned)" << P << "_S_STEP_SHIFT["
+        << k * L + l << "]) + " << P << "_COEF[" << row + l << "];\n";
     if (k == K)
       o << "    acc = w;\n";
     else
-      o << "    acc = " << pre << "_rshift_round(acc * t, " << p.sh_out[static_cast<std::size_t>(k)]
-        << "U) + w;\n";
+      o << "    acc = " << pre << "_rshift_round(acc * t, (unsigned)" << P << "_T_STEP_SHIFT[" << k
+        << "]) + w;\n";
   }
   o << "    return " << out << ";\n}\n\n";
 }
@@ -183,12 +273,13 @@ void emit_eval_checked(std::ostringstream& o, const HeaderContext& c, const Fixe
 
 }  // namespace
 
-void emit_fixed(std::ostringstream& o, const HeaderContext& c, const FixedPlan& p) {
+void emit_fixed(std::ostringstream& o, HeaderContext& c, const FixedPlan& p) {
   const std::string &P = c.n.P, &pre = c.n.p, &fu = c.fu;
   const bool aux = p.has_aux;
   const std::string os = g(p.output_scale, 9);
   const std::string args = std::string("int32_t raw") + (aux ? ", int32_t raw_aux" : "");
   emit_constants(o, c, p);
+  check_constants(c, p);
   o << "/* " << pre << "_eval_fixed: round(reference * " << os << ") as int32 (1/" << os << " "
     << fu << ")\n"
     << " * for a raw integer reading in [" << P << "_RAW_MIN, " << P << "_RAW_MAX]"

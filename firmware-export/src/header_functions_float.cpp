@@ -209,20 +209,67 @@ void emit_eval_checked(std::ostringstream& o, const HeaderContext& c, const Floa
     << "    return " << pre << "_eval(x" << (p.has_aux ? ", aux" : "") << ");\n}\n\n";
 }
 
+// The constants emit_constants wrote, for the self-check: the table first,
+// then every macro in the order written, then the degree macros.
+template <typename T>
+void check_constants(HeaderContext& c, const FloatingProgram<T>& p) {
+  const std::string& P = c.n.P;
+  const auto one = [](const std::string& name, T v) {
+    if constexpr (std::is_same_v<T, float>)
+      return checked_f32(name, v);
+    else
+      return checked_f64(name, v);
+  };
+  CheckedConstant table = one(P + "_COEF", T(0));
+  table.bits.clear();
+  for (T v : p.coef) table.bits.push_back(one("", v).bits[0]);
+  table.table = true;
+  table.count_expr = c.d.table_size;
+  std::vector<CheckedConstant>& k = c.checked;
+  k.push_back(table);
+  k.push_back(one(P + "_X_MIN", p.x_lo));
+  k.push_back(one(P + "_X_MAX", p.x_hi));
+  if (p.has_aux) {
+    k.push_back(one(P + "_AUX_MIN", p.a_lo));
+    k.push_back(one(P + "_AUX_MAX", p.a_hi));
+  }
+  if (p.divider) {
+    k.push_back(one(P + "_DIVIDER_R", p.divider_r));
+    k.push_back(one(P + "_DIVIDER_FULL_SCALE", p.divider_fs));
+  }
+  if (p.basis == Basis::ScaledT) {
+    k.push_back(one(P + "_T_CENTER", p.center));
+    k.push_back(one(P + "_T_SCALE", p.inv_half_width));
+  }
+  if (p.has_aux) {
+    k.push_back(one(P + "_S_CENTER", p.aux_center));
+    k.push_back(one(P + "_S_SCALE", p.aux_inv_half_width));
+  }
+  if (p.reciprocal_kelvin) k.push_back(one(P + "_KELVIN_OFFSET", p.kelvin));
+  using Kind = CheckedConstant::Kind;
+  if (c.d.extended) {
+    k.push_back(checked_int(P + "_READING_DEGREE", Kind::I32, p.reading_degree));
+    k.push_back(checked_int(P + "_AUX_DEGREE", Kind::I32, p.aux_degree));
+    k.push_back(checked_int(P + "_N_COEF", Kind::I32, (p.reading_degree + 1) * (p.aux_degree + 1)));
+  } else {
+    k.push_back(checked_int(P + "_DEGREE", Kind::I32, p.reading_degree));
+  }
+}
+
 }  // namespace
 
 template <typename T>
-void emit_floating(std::ostringstream& o, const HeaderContext& c, const FloatingProgram<T>& p) {
+void emit_floating(std::ostringstream& o, HeaderContext& c, const FloatingProgram<T>& p) {
   const char* type = std::is_same_v<T, float> ? "float" : "double";
   const std::string args =
       std::string(type) + " x" + (p.has_aux ? std::string(", ") + type + " aux" : "");
   emit_constants(o, c, p, type);
+  check_constants(c, p);
   emit_eval(o, c, p, type, args);
   emit_eval_checked(o, c, p, type, args);
 }
 
-template void emit_floating<float>(std::ostringstream&, const HeaderContext&, const FloatProgram&);
-template void emit_floating<double>(std::ostringstream&, const HeaderContext&,
-                                    const DoubleProgram&);
+template void emit_floating<float>(std::ostringstream&, HeaderContext&, const FloatProgram&);
+template void emit_floating<double>(std::ostringstream&, HeaderContext&, const DoubleProgram&);
 
 }  // namespace ridgecal::firmware::detail

@@ -63,6 +63,24 @@ struct Dialect {
 };
 Dialect dialect(const FirmwareModel& m, const Names& n);
 
+/// A constant the evaluation uses, covered by the header's self-check
+/// (PREFIX_table_crc32): a macro or a table, with the exact bit pattern the
+/// C code will see. The CRC runs over every entry in the order of
+/// HeaderContext::checked, each value's `bytes()` least significant bytes
+/// first (a float its IEEE binary32 pattern, an int32 its two's complement).
+struct CheckedConstant {
+  enum class Kind { F32, F64, I32, I64, U8 };
+  std::string name;  ///< the macro or table name, e.g. "CALIB_X_MIN"
+  Kind kind = Kind::I32;
+  std::vector<std::uint64_t> bits;  ///< one value, or every entry of a table
+  bool table = false;               ///< a table NAME[bits.size()] (else a macro)
+  std::string count_expr;           ///< tables: the C expression of their length
+  int bytes() const;                ///< 4, 8, 4, 8, 1
+};
+CheckedConstant checked_f32(const std::string& name, float v);
+CheckedConstant checked_f64(const std::string& name, double v);
+CheckedConstant checked_int(const std::string& name, CheckedConstant::Kind k, std::int64_t v);
+
 /// Everything a piece of the header text reads.
 struct HeaderContext {
   const FirmwareModel& model;
@@ -75,6 +93,9 @@ struct HeaderContext {
   std::string formats;
   bool needs_log = false;  ///< the C calls log()/logf()
   std::string ru, fu, au;  ///< the units, escaped for a comment
+  /// Every constant the evaluation uses, the coefficient table first; filled
+  /// by emit_floating / emit_fixed, read by the CRC and the self-check.
+  std::vector<CheckedConstant> checked;
 };
 
 // ---- header_text.cpp: text helpers --------------------------------------------------
@@ -92,9 +113,13 @@ std::string lit(T v);
 std::string range_text(const IntRange& r);
 /// "t^k", with an aux input "t^k s^l"; var replaces t (one-input raw-x basis).
 std::string term_name(int k, int l, bool has_aux, const char* var = "t");
-/// PREFIX_table_crc32() and PREFIX_check_table() over PREFIX_COEF[0 .. count_expr - 1].
-void emit_crc(std::ostringstream& o, const Names& n, const char* elem_type, int bytes,
-              const std::string& count_expr);
+/// PREFIX_table_crc32() and PREFIX_check_table() over every constant of
+/// c.checked; `double_mode`: the check is UNCHECKABLE where double is not 64-bit.
+void emit_crc(std::ostringstream& o, const HeaderContext& c, bool double_mode);
+/// The CRC-32 the generated PREFIX_table_crc32() computes over c.checked.
+std::uint32_t checked_crc32(const std::vector<CheckedConstant>& checked);
+/// "P_COEF[0..n-1], P_X_MIN, ...": the names of the checked constants.
+std::string checked_names(const std::vector<CheckedConstant>& checked);
 /// Size figures of a generated header: its bytes and lines, the table size,
 /// and the operations per evaluation.
 CodeStats stats_for(const std::string& text, int entries, int entry_bytes, int mul, int add);
@@ -115,10 +140,10 @@ void emit_epilogue(std::ostringstream& o, const Names& n);
 /// Range, scaling and transform constants, the coefficient table,
 /// PREFIX_eval() and PREFIX_eval_checked() of a float/double program.
 template <typename T>
-void emit_floating(std::ostringstream& o, const HeaderContext& c, const FloatingProgram<T>& p);
+void emit_floating(std::ostringstream& o, HeaderContext& c, const FloatingProgram<T>& p);
 /// Raw ranges, the coefficient table, PREFIX_rshift_round(),
 /// PREFIX_eval_fixed() and PREFIX_eval_fixed_checked() of a fixed-point plan.
-void emit_fixed(std::ostringstream& o, const HeaderContext& c, const FixedPlan& p);
+void emit_fixed(std::ostringstream& o, HeaderContext& c, const FixedPlan& p);
 
 // ---- header_proof.cpp -------------------------------------------------------------------
 

@@ -65,10 +65,11 @@ grep -q "also in" "$TMP/err" || fail "duplicate message: $(cat "$TMP/err")"
 [ ! -e "$TMP/dup/summary.json" ] || fail "merge wrote output after an error"
 # Per-unit reports and headers (--reports, --headers): the same files as
 # `ridgecal report` / `ridgecal export` make from the unit's record.
+# (A header is written for a PASS unit only: --tol-offset 0.5 passes N1..N3.)
 "$RIDGECAL" batch "$TMP/batch.csv" --unit unit --setpoint setpoint -o "$TMP/rh" -j 2 --timestamp none \
-  --progress none --reports --headers coldstore --header-numeric float >"$TMP/out.txt" 2>"$TMP/err"; rc=$?
+  --progress none --reports --headers coldstore --header-numeric float --tol-offset 0.5 >"$TMP/out.txt" 2>"$TMP/err"; rc=$?
 [ $rc -eq 1 ] || fail "reports/headers run gave $rc (BAD unit fails)"
-grep -q "4 units: 3 ok, 1 failed, 0 with a report or header not written" "$TMP/out.txt" || fail "stdout: $(cat "$TMP/out.txt")"
+grep -q "4 units: 3 ok, 1 failed, 0 out of tolerance, 0 with a report or header not written$" "$TMP/out.txt" || fail "stdout: $(cat "$TMP/out.txt")"
 for u in N1 N2 N3; do
   grep -q '<html' "$TMP/rh/reports/$u.html" || fail "no report for $u"
   grep -q 'coldstore_eval' "$TMP/rh/headers/$u.h" || fail "no header for $u"
@@ -78,6 +79,16 @@ for u in N1 N2 N3; do
   cmp -s "$TMP/one.h" "$TMP/rh/headers/$u.h" || fail "batch header of $u differs from 'ridgecal export'"
 done
 [ ! -e "$TMP/rh/reports/BAD.html" ] && [ ! -e "$TMP/rh/headers/BAD.h" ] || fail "outputs for the failed unit"
+# Units that do not pass get no header (issue 14): with a tolerance they all
+# miss, the headers of the run above are removed, and the summary says why.
+"$RIDGECAL" batch "$TMP/batch.csv" --unit unit --setpoint setpoint -o "$TMP/rh" -j 2 --timestamp none \
+  --progress none --headers coldstore --tol-offset 0.00001 >"$TMP/out.txt" 2>"$TMP/err"; rc=$?
+[ $rc -eq 1 ] || fail "headers of FAIL units: exit $rc"
+grep -q ", 3 without a header (verdict not PASS" "$TMP/out.txt" || fail "withheld count: $(cat "$TMP/out.txt")"
+for u in N1 N2 N3; do
+  [ ! -e "$TMP/rh/headers/$u.h" ] || fail "a header was written (or left) for the FAIL unit $u"
+  grep -q "^$u,ok,.*header withheld: verdict FAIL" "$TMP/rh/summary.csv" || fail "no withheld note for $u: $(cat "$TMP/rh/summary.csv")"
+done
 # A header the export proof refuses (fixed point rounded to whole degrees,
 # against a 0.05 degC tolerance): a warning in the summary, exit 1, and the
 # header of the earlier run is removed rather than left to pass for this one.

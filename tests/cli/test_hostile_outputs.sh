@@ -44,7 +44,7 @@ if ! "$bin" export --help >"$work/help" 2>&1; then
 fi
 {
   # ---- the header is valid C, and nothing escapes its comments ----
-  if "$bin" export "$work/rec.json" --prefix hostile -o "$work/hostile.h" >"$work/out" 2>&1; then ok
+  if "$bin" export "$work/rec.json" --prefix hostile --allow-unpassed -o "$work/hostile.h" >"$work/out" 2>&1; then ok
   else bad "export of the hostile record: $(cat "$work/out")"; fi
   printf '#include "hostile.h"\nint main(void) { return 0; }\n' >"$work/main.c"
   for std in c99 c11; do
@@ -60,7 +60,7 @@ fi
   # ---- identifiers: hostile prefixes are rejected, nothing is written ----
   for prefix in 'a b' '*/x' 'x;y' '1abc' 'é' '' 'a__b' 'int' "$(head -c 300 /dev/zero | tr '\0' a)"; do
     rm -f "$work/p.h"
-    "$bin" export "$work/rec.json" --prefix "$prefix" -o "$work/p.h" >/dev/null 2>"$work/err"
+    "$bin" export "$work/rec.json" --prefix "$prefix" --allow-unpassed -o "$work/p.h" >/dev/null 2>"$work/err"
     rc=$?
     if [[ $rc -eq 2 && ! -e "$work/p.h" ]] && grep -q -- "prefix" "$work/err"; then ok
     else bad "--prefix '$prefix': exit $rc, header written: $([[ -e $work/p.h ]] && echo yes || echo no): $(head -3 "$work/err")"; fi
@@ -83,7 +83,7 @@ PY
   )
   for c in "${keep_cases[@]}"; do
     IFS='|' read -r -a f <<<"$c"
-    "$bin" export "${f[3]}" "${f[@]:4}" -o "$work/keep.h" >/dev/null 2>"$work/err"
+    "$bin" export "${f[3]}" "${f[@]:4}" --allow-unpassed -o "$work/keep.h" >/dev/null 2>"$work/err"
     rc=$?
     if [[ $rc -eq ${f[1]} && "$(cat "$work/keep.h")" == "/* KEEP */" ]] && grep -Eq -- "${f[2]}" "$work/err" &&
        ! compgen -G "$work/keep.h.tmp-*" >/dev/null; then ok
@@ -96,7 +96,7 @@ PY
   if [[ $rc -eq 2 ]] && grep -q "modified" "$work/err" && grep -q "ridgecal fit" "$work/err" &&
      grep -q -- "--allow-modified" "$work/err"; then ok
   else bad "edited record: exit $rc: $(cat "$work/err")"; fi
-  "$bin" export "$work/edited.json" --prefix k --allow-modified -o "$work/k.h" >"$work/out" 2>&1
+  "$bin" export "$work/edited.json" --prefix k --allow-modified --allow-unpassed -o "$work/k.h" >"$work/out" 2>&1
   rc=$?
   if [[ $rc -eq 0 ]] && grep -q "RECORD MODIFIED" "$work/k.h" && grep -q "was modified" "$work/out"; then ok
   else bad "--allow-modified: exit $rc, header or summary does not say the record was modified: $(cat "$work/out")"; fi
@@ -108,7 +108,7 @@ PY
   else bad "the extreme-magnitude fit failed (exit $?): $(head -5 "$work/out")"; fi
   for mode in float double fixed; do
     rm -f "$work/ext.h"
-    "$bin" export "$work/ext.json" --prefix ext --numeric $mode -o "$work/ext.h" >"$work/out" 2>&1
+    "$bin" export "$work/ext.json" --prefix ext --numeric $mode --allow-unpassed -o "$work/ext.h" >"$work/out" 2>&1
     rc=$?
     if [[ $rc -eq 0 ]]; then
       # Code only: comments legitimately mention NaN inputs.

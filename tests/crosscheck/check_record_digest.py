@@ -177,7 +177,7 @@ def check(argv, mutation):
         good = f"{work}/resigned-{i}.json"
         write_raw(t, good)
         for cmd in (["verify", good, ntc], ["export", good, "--prefix", "xck", "--numeric", "double",
-                                             "-o", f"{work}/xck-ok-{i}.h"]):
+                                             "--allow-unpassed", "-o", f"{work}/xck-ok-{i}.h"]):
             r = run_cli([ridgecal] + cmd, expect_rc=None)
             if r.returncode != 0:
                 fails.add(f"integrity.sha256 of the re-signed copy ({what}): {cmd[0]} exit {r.returncode}, "

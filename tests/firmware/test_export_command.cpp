@@ -97,11 +97,13 @@ BOOST_AUTO_TEST_CASE(export_writes_header_exit_0) {
   for (const char* mode : {"float", "double", "fixed"}) {
     const fs::path h = temp().dir / (std::string("ok_") + mode + ".h");
     std::string err;
-    BOOST_TEST(run({temp().record.string(), "--prefix", "ntc", "--numeric", mode, "-o", h.string()},
+    BOOST_TEST(run({temp().record.string(), "--prefix", "ntc", "--numeric", mode,
+                    "--allow-unpassed", "-o", h.string()},
                    &err) == kExitOk,
                err);
     const std::string text = slurp(h);
-    BOOST_TEST(text.find("#define NTC_FORMAT_VERSION 1") != std::string::npos);
+    BOOST_TEST(text.find("#define NTC_FORMAT_VERSION 2") != std::string::npos);
+    BOOST_TEST(text.find("#define NTC_VERDICT NTC_VERDICT_NOT_JUDGED\n") != std::string::npos);
     BOOST_TEST(text.find("cold store NTC") != std::string::npos);
     // the record's integrity digest is the SHA-256 in the QA block
     const std::string digest = record_digest(read_record_json(temp().record.string()));
@@ -115,7 +117,7 @@ BOOST_AUTO_TEST_CASE(refused_export_exit_1_keeps_existing_file) {
   std::string err;
   // tolerance 1e-6: even binary32 rounding exceeds 0.1 x 1e-6
   BOOST_TEST(run({temp().record.string(), "--prefix", "ntc", "--numeric", "float", "--tolerance",
-                  "1e-6", "-o", h.string()},
+                  "1e-6", "--allow-unpassed", "-o", h.string()},
                  &err) == kExitOutOfTolerance);
   BOOST_TEST(err.find("refused") != std::string::npos, err);
   BOOST_TEST(slurp(h) == "previous header\n");
@@ -124,6 +126,48 @@ BOOST_AUTO_TEST_CASE(refused_export_exit_1_keeps_existing_file) {
   for (const auto& e : fs::directory_iterator(temp().dir))
     files += e.path().filename().string().rfind("keep", 0) == 0;
   BOOST_TEST(files == 1);
+}
+
+// Issue 14: a record that did not pass never becomes a header by accident.
+// Without --allow-unpassed a record that is not judged (no tolerance) or FAIL
+// is refused with exit 1, nothing written and an existing file kept; a PASS
+// record needs no flag and says PASS to the compiler.
+BOOST_AUTO_TEST_CASE(unpassed_record_refused_without_allow_unpassed) {
+  const fs::path h = temp().dir / "unpassed.h";
+  std::ofstream(h) << "previous header\n";
+  std::string err;
+  BOOST_TEST(run({temp().record.string(), "--prefix", "ntc", "-o", h.string()}, &err) ==
+             kExitOutOfTolerance);
+  BOOST_TEST(err.find("refused: it has no verdict (no tolerance was given when it was fitted); "
+                      "nothing written") != std::string::npos,
+             err);
+  BOOST_TEST(err.find("--allow-unpassed") != std::string::npos, err);
+  BOOST_TEST(slurp(h) == "previous header\n");
+
+  const fs::path failed = temp().dir / "failed.json";
+  {
+    std::ostringstream out, e;
+    const int rc =
+        fit_main({std::string(RIDGECAL_SAMPLES_DIR) + "/ntc-coldstore/ntc-coldstore.csv", "-o",
+                  failed.string(), "--timestamp", "2026-05-06T07:08:09Z", "--tol-offset", "1e-5"},
+                 out, e);
+    BOOST_REQUIRE_MESSAGE(rc == kExitOutOfTolerance, e.str());
+  }
+  // (--tolerance 1: the refusal rule of the header arithmetic must not be what refuses)
+  BOOST_TEST(run({failed.string(), "--prefix", "ntc", "--tolerance", "1", "-o", h.string()},
+                 &err) == kExitOutOfTolerance);
+  BOOST_TEST(err.find("refused: its verdict is FAIL; nothing written") != std::string::npos, err);
+  BOOST_TEST(slurp(h) == "previous header\n");
+  BOOST_TEST(run({failed.string(), "--prefix", "ntc", "--tolerance", "1", "--allow-unpassed", "-o",
+                  h.string()},
+                 &err) == kExitOk,
+             err);
+  const std::string text = slurp(h);
+  BOOST_TEST(text.find("#define NTC_VERDICT NTC_VERDICT_FAIL\n") != std::string::npos);
+  BOOST_TEST(text.find("#define NTC_CALIBRATION_DATE \"2026-05-06T07:08:09Z\"") !=
+             std::string::npos);
+  const std::string digest = record_digest(read_record_json(failed.string()));
+  BOOST_TEST(text.find("#define NTC_RECORD_SHA256 \"" + digest + "\"") != std::string::npos);
 }
 
 BOOST_AUTO_TEST_CASE(bad_input_exit_2_writes_nothing) {
@@ -170,6 +214,7 @@ BOOST_AUTO_TEST_CASE(record_tolerance_and_decision_are_used) {
   const std::string text = slurp(h);
   BOOST_TEST(text.find("+-(0.05 + 0.001*|reference|) (user)") != std::string::npos);
   BOOST_TEST(text.find("result:              PASS: ") != std::string::npos);
+  BOOST_TEST(text.find("#define NTC_VERDICT NTC_VERDICT_PASS\n") != std::string::npos);
   BOOST_TEST(text.find("(record tolerance)") != std::string::npos);
   // strictest limit is at the reference value closest to 0: >= 0.05
   const auto pos = text.find("tolerance used:");
@@ -243,8 +288,8 @@ BOOST_AUTO_TEST_CASE(pressure_tempco_record_exports_in_every_mode) {
   for (const char* mode : {"float", "double", "fixed"}) {
     const fs::path h = temp().dir / (std::string("pt7_") + mode + ".h");
     std::ostringstream out, err;
-    std::vector<std::string> args = {rec.string(), "--prefix", "pt7",     "--numeric",
-                                     mode,         "-o",       h.string()};
+    std::vector<std::string> args = {rec.string(), "--prefix",         "pt7", "--numeric",
+                                     mode,         "--allow-unpassed", "-o",  h.string()};
     if (std::string(mode) == "fixed")
       args.insert(args.end(), {"--aux-scale", "100", "--output-scale", "100000"});
     BOOST_TEST(export_main(args, out, err) == kExitOk, mode << ": " << err.str());
@@ -265,8 +310,10 @@ BOOST_AUTO_TEST_CASE(pressure_tempco_record_exports_in_every_mode) {
   // the refusal rule applies as in 1-D: float rounding cannot meet 0.1 x 1e-7
   const fs::path h = temp().dir / "pt7_refused.h";
   std::ostringstream out, err;
-  BOOST_TEST(export_main({rec.string(), "--prefix", "pt7", "--tolerance", "1e-7", "-o", h.string()},
+  BOOST_TEST(export_main({rec.string(), "--prefix", "pt7", "--tolerance", "1e-7",
+                          "--allow-unpassed", "-o", h.string()},
                          out, err) == kExitOutOfTolerance);
+  BOOST_TEST(err.str().find("max deviation") != std::string::npos, err.str());
   BOOST_TEST(!fs::exists(h));
 }
 
@@ -275,7 +322,8 @@ BOOST_AUTO_TEST_CASE(thermistor_record_exports_float_and_double_refuses_fixed) {
   for (const char* mode : {"float", "double"}) {
     const fs::path h = temp().dir / (std::string("sh_") + mode + ".h");
     std::ostringstream out, err;
-    BOOST_TEST(export_main({rec.string(), "--prefix", "ntc", "--numeric", mode, "-o", h.string()},
+    BOOST_TEST(export_main({rec.string(), "--prefix", "ntc", "--numeric", mode, "--allow-unpassed",
+                            "-o", h.string()},
                            out, err) == kExitOk,
                err.str());
     const std::string text = slurp(h);

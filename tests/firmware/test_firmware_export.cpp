@@ -268,21 +268,67 @@ BOOST_AUTO_TEST_CASE(table_byte_order_is_value_defined) {
   BOOST_TEST((i == std::vector<std::uint8_t>{0xfe, 0xff, 0xff, 0xff, 4, 3, 2, 1}));
 }
 
-BOOST_AUTO_TEST_CASE(header_carries_table_crc) {
-  for (NumericMode mode : {NumericMode::Float, NumericMode::Double, NumericMode::Fixed}) {
-    const ExportResult r =
-        generate_header(firmware_model(fwtest::ntc_model()), ntc_meta(), opts(mode));
-    BOOST_REQUIRE(r.ok());
-    std::uint32_t expect = 0;
-    if (r.float_program) expect = crc32_bytes(table_bytes(r.float_program->coef));
-    if (r.double_program) expect = crc32_bytes(table_bytes(r.double_program->coef));
-    if (r.fixed_plan) expect = crc32_bytes(table_bytes(r.fixed_plan->coef));
-    BOOST_TEST(r.table_crc32 == expect);
-    char text[64];
-    std::snprintf(text, sizeof text, "#define FWT_TABLE_CRC32 0x%08lXUL",
-                  static_cast<unsigned long>(expect));
-    BOOST_TEST(r.header.find(text) != std::string::npos, text);
+// The self-check covers every constant of the evaluation, in the order the
+// header's TABLE_CRC32 comment lists (docs/firmware-export.md). Restated here
+// for the float header of the NTC model: the table, X_MIN, X_MAX, T_CENTER and
+// T_SCALE (scaled-t basis) and DEGREE. The other modes are proved by
+// compiling and flipping every constant (constant-flip.sh).
+BOOST_AUTO_TEST_CASE(header_carries_crc_of_every_constant) {
+  const ExportResult r =
+      generate_header(firmware_model(fwtest::ntc_model()), ntc_meta(), opts(NumericMode::Float));
+  BOOST_REQUIRE(r.ok());
+  BOOST_REQUIRE(r.float_program.has_value());
+  const FloatProgram& p = *r.float_program;
+  BOOST_REQUIRE(p.basis == Basis::ScaledT);
+  std::vector<std::uint8_t> bytes = table_bytes(p.coef);
+  for (float v : {p.x_lo, p.x_hi, p.center, p.inv_half_width}) {
+    const auto b = table_bytes(std::vector<float>{v});
+    bytes.insert(bytes.end(), b.begin(), b.end());
   }
+  const auto deg = table_bytes(std::vector<std::int32_t>{p.reading_degree});
+  bytes.insert(bytes.end(), deg.begin(), deg.end());
+  const std::uint32_t expect = crc32_bytes(bytes);
+  BOOST_TEST(r.table_crc32 == expect);
+  BOOST_TEST(r.table_crc32 != crc32_bytes(table_bytes(p.coef)));  // more than the table
+  char text[64];
+  std::snprintf(text, sizeof text, "#define FWT_TABLE_CRC32 0x%08lXUL",
+                static_cast<unsigned long>(expect));
+  BOOST_TEST(r.header.find(text) != std::string::npos, text);
+  const auto from = r.header.find("in this order"), to = r.header.find("see fwt_table_crc32");
+  BOOST_REQUIRE(from < to);
+  const std::string listed = r.header.substr(from, to - from);
+  for (const char* name :
+       {"FWT_COEF[0..", "FWT_X_MIN,", "FWT_X_MAX,", "FWT_T_CENTER,", "FWT_T_SCALE,", "FWT_DEGREE;"})
+    BOOST_TEST(listed.find(name) != std::string::npos, name << " in " << listed);
+  for (NumericMode mode : {NumericMode::Double, NumericMode::Fixed}) {
+    const ExportResult q =
+        generate_header(firmware_model(fwtest::ntc_model()), ntc_meta(), opts(mode));
+    BOOST_REQUIRE(q.ok());
+    std::snprintf(text, sizeof text, "#define FWT_TABLE_CRC32 0x%08lXUL",
+                  static_cast<unsigned long>(q.table_crc32));
+    BOOST_TEST(q.header.find(text) != std::string::npos, text);
+  }
+}
+
+// The record's verdict, digest and date reach the compiler as macros.
+BOOST_AUTO_TEST_CASE(header_states_verdict_digest_and_date) {
+  HeaderMeta meta = ntc_meta();
+  meta.verdict = HeaderVerdict::Fail;
+  meta.calibration_date = "2026-03-04T05:06:07Z\"*/";  // hostile tail: never closes the string
+  meta.record_sha256 = std::string(64, 'a');
+  const ExportResult r =
+      generate_header(firmware_model(fwtest::ntc_model()), meta, opts(NumericMode::Float));
+  BOOST_REQUIRE(r.ok());
+  BOOST_TEST(r.header.find("#define FWT_VERDICT FWT_VERDICT_FAIL\n") != std::string::npos);
+  BOOST_TEST(r.header.find("#define FWT_VERDICT_PASS 1\n") != std::string::npos);
+  BOOST_TEST(r.header.find("#define FWT_CALIBRATION_DATE \"2026-03-04T05:06:07Z???\"") !=
+             std::string::npos);
+  BOOST_TEST(r.header.find("#define FWT_RECORD_SHA256 \"" + std::string(64, 'a') + "\"") !=
+             std::string::npos);
+  for (HeaderVerdict v : {HeaderVerdict::NotJudged, HeaderVerdict::Pass, HeaderVerdict::Fail,
+                          HeaderVerdict::RecordModified})
+    BOOST_TEST((header_verdict_from_string(to_string(v)) == v));
+  BOOST_CHECK_THROW(header_verdict_from_string("PASS"), std::invalid_argument);
 }
 
 // ---- header contract ----------------------------------------------------------------------
@@ -296,7 +342,7 @@ BOOST_AUTO_TEST_CASE(header_contract_elements) {
     const std::string h = code_only(full);
     BOOST_TEST(full.find("//") == std::string::npos);  // C89: block comments only
     for (const char* must :
-         {"GENERATED FILE -- DO NOT EDIT", "#define FWT_FORMAT_VERSION 1", "#include <stdint.h>",
+         {"GENERATED FILE -- DO NOT EDIT", "#define FWT_FORMAT_VERSION 2", "#include <stdint.h>",
           "Measured max |error|", "Precision:", "#ifndef FWT_RIDGECAL_CALIBRATION_H",
           "extern \"C\" {", "static const", "FWT_INLINE", "fwt_check_table(void)",
           "record SHA-256:", "tool version:", "local codes and certified procedures",

@@ -104,7 +104,7 @@ BOOST_AUTO_TEST_CASE(pressure_header_contract) {
   BOOST_TEST_REQUIRE(r.ok());
   const std::string& h = r.header;
   BOOST_TEST(has(h, "GENERATED FILE -- DO NOT EDIT."));
-  BOOST_TEST(has(h, "#define FWT_FORMAT_VERSION 1"));
+  BOOST_TEST(has(h, "#define FWT_FORMAT_VERSION 2"));
   BOOST_TEST(has(h, "#define FWT_HAS_AUX 1"));
   BOOST_TEST(has(h, "#define FWT_N_COEF 12"));
   BOOST_TEST(has(h, "FWT_INLINE float fwt_eval(float x, float aux)"));
@@ -120,11 +120,13 @@ BOOST_AUTO_TEST_CASE(pressure_header_contract) {
   BOOST_TEST(has(h, "calibrated aux:"));
   BOOST_TEST(has(h, "Measured max |error| against the double-precision model"));
   BOOST_TEST(has(h, "for (k = 0U; k < (unsigned)(FWT_N_COEF); ++k)"));
-  // CRC of the written table
+  // the self-check covers the table and every constant (the aux ones too)
   char want[32];
-  std::snprintf(want, sizeof want, "0x%08lXUL",
-                static_cast<unsigned long>(crc32_bytes(table_bytes(r.float_program->coef))));
+  std::snprintf(want, sizeof want, "0x%08lXUL", static_cast<unsigned long>(r.table_crc32));
   BOOST_TEST(has(h, std::string("#define FWT_TABLE_CRC32 ") + want));
+  BOOST_TEST(r.table_crc32 != crc32_bytes(table_bytes(r.float_program->coef)));
+  BOOST_TEST(has(h, "FWT_AUX_MIN, FWT_AUX_MAX,"));
+  BOOST_TEST(has(h, "FWT_S_CENTER, FWT_S_SCALE,"));
   // every float literal carries the f suffix
   const auto pos = h.find("FWT_COEF[FWT_N_COEF] = {");
   const auto end = h.find("};", pos);

@@ -76,12 +76,32 @@ fs::path fit_record(const TempDir& t, const std::string& name, std::vector<std::
   return rec;
 }
 
-void check_fail_header(const fs::path& h) {
-  const std::string text = slurp(h);
+// A header written (with --allow-unpassed) from a FAIL record says FAIL in
+// its QA block and to the compiler, and PASS nowhere but in the macro
+// PREFIX_VERDICT_PASS that names the code.
+void check_fail_header(const fs::path& h, const std::string& P) {
+  std::string text = slurp(h);
   BOOST_TEST_CONTEXT(h.filename().string() << ": " << result_line(text)) {
     BOOST_TEST(result_line(text).rfind("FAIL: ", 0) == 0);
+    BOOST_TEST(text.find("#define " + P + "_VERDICT " + P + "_VERDICT_FAIL\n") !=
+               std::string::npos);
+    for (const std::string& named :
+         {"#if " + P + "_VERDICT != " + P + "_VERDICT_PASS", "#define " + P + "_VERDICT_PASS 1"}) {
+      const auto at = text.find(named);
+      BOOST_TEST_REQUIRE(at != std::string::npos, named);
+      text.erase(at, named.size());
+    }
     BOOST_TEST(text.find("PASS") == std::string::npos);
   }
+}
+
+// Without --allow-unpassed the export of a FAIL record is refused: exit 1,
+// nothing written.
+void check_fail_refused(std::vector<std::string> args, const fs::path& h) {
+  std::string err;
+  BOOST_TEST(call_main(export_main, args, &err) == kExitOutOfTolerance);
+  BOOST_TEST(err.find("refused: its verdict is FAIL; nothing written") != std::string::npos, err);
+  BOOST_TEST(!fs::exists(h));
 }
 
 void check_fail_report(const fs::path& html) {
@@ -115,9 +135,11 @@ BOOST_AUTO_TEST_CASE(a_fail_one_input_record_gives_fail_headers_whatever_the_tol
                                        mode,         "-o",       h.string()};
       if (std::string(mode) == "fixed") args.insert(args.end(), {"--output-scale", "1000000"});
       args.insert(args.end(), extra.begin(), extra.end());
+      check_fail_refused(args, h);
+      args.push_back("--allow-unpassed");
       std::string err;
       BOOST_REQUIRE_MESSAGE(call_main(export_main, args, &err) == kExitOk, err);
-      check_fail_header(h);
+      check_fail_header(h, "LC");
     }
 }
 
@@ -126,7 +148,7 @@ BOOST_AUTO_TEST_CASE(the_header_states_the_record_verdict_verbatim_and_names_the
   const fs::path rec = fit_record(t, "lc", kLoadcellFail, kExitOutOfTolerance);
   const fs::path h = t.path() / "lc.h";
   BOOST_REQUIRE(call_main(export_main, {rec.string(), "--prefix", "lc", "--tolerance", "0.002",
-                                        "-o", h.string()}) == kExitOk);
+                                        "--allow-unpassed", "-o", h.string()}) == kExitOk);
   const std::string text = slurp(h);
   BOOST_TEST(result_line(text) ==
              "FAIL: Simple acceptance: a point conforms when |error| <= tolerance +-(0.002); the "
@@ -142,10 +164,20 @@ BOOST_AUTO_TEST_CASE(a_record_without_a_decision_is_not_judged_by_the_export) {
   args.insert(args.end(), {"--timestamp", "none"});
   const fs::path rec = fit_record(t, "lc", args, kExitOk);
   const fs::path h = t.path() / "lc.h";
-  BOOST_REQUIRE(call_main(export_main, {rec.string(), "--prefix", "lc", "--tolerance", "1", "-o",
-                                        h.string()}) == kExitOk);
-  const std::string text = slurp(h);
+  std::string err;
+  BOOST_TEST(call_main(export_main,
+                       {rec.string(), "--prefix", "lc", "--tolerance", "1", "-o", h.string()},
+                       &err) == kExitOutOfTolerance);
+  BOOST_TEST(err.find("refused: it has no verdict") != std::string::npos, err);
+  BOOST_TEST(!fs::exists(h));
+  BOOST_REQUIRE(call_main(export_main, {rec.string(), "--prefix", "lc", "--tolerance", "1",
+                                        "--allow-unpassed", "-o", h.string()}) == kExitOk);
+  std::string text = slurp(h);
   BOOST_TEST(result_line(text) == "not assessed (no tolerance in the record)");
+  BOOST_TEST(text.find("#define LC_VERDICT LC_VERDICT_NOT_JUDGED\n") != std::string::npos);
+  for (const std::string named : {"#if LC_VERDICT != LC_VERDICT_PASS", "#define LC_VERDICT_PASS 1",
+                                  "#define LC_VERDICT_FAIL 2"})
+    text.erase(text.find(named), named.size());
   BOOST_TEST(text.find("PASS") == std::string::npos);
   BOOST_TEST(text.find("FAIL") == std::string::npos);
 }
@@ -160,6 +192,7 @@ BOOST_AUTO_TEST_CASE(a_pass_record_gives_a_pass_header) {
   BOOST_REQUIRE(call_main(export_main, {rec.string(), "--prefix", "lc", "--tolerance", "0.0001",
                                         "-o", h.string(), "--numeric", "double"}) == kExitOk);
   BOOST_TEST(result_line(slurp(h)).rfind("PASS: ", 0) == 0);
+  BOOST_TEST(slurp(h).find("#define LC_VERDICT LC_VERDICT_PASS\n") != std::string::npos);
 }
 
 BOOST_AUTO_TEST_CASE(a_fail_two_input_record_gives_fail_headers_and_reports) {
@@ -174,9 +207,11 @@ BOOST_AUTO_TEST_CASE(a_fail_two_input_record_gives_fail_headers_and_reports) {
       std::vector<std::string> args = {rec.string(), "--prefix", "pt",      "--numeric",
                                        mode,         "-o",       h.string()};
       args.insert(args.end(), extra.begin(), extra.end());
+      check_fail_refused(args, h);
+      args.push_back("--allow-unpassed");
       std::string err;
       BOOST_REQUIRE_MESSAGE(call_main(export_main, args, &err) == kExitOk, err);
-      check_fail_header(h);
+      check_fail_header(h, "PT");
     }
   const fs::path html = t.path() / "pt.html";
   BOOST_REQUIRE(call_main(report_main, {rec.string(), "-o", html.string()}) == kExitOk);
@@ -223,8 +258,14 @@ BOOST_AUTO_TEST_CASE(batch_headers_and_reports_of_fail_units_say_fail) {
                  "--reports", "--headers", "lc"},
                 &err) == kExitOutOfTolerance,
       err);
+  // FAIL units get a report that says FAIL and no header (issue 14: headers
+  // for passing units only); the summary lists why.
+  std::ifstream summary(dir / "summary.csv");
+  std::stringstream all;
+  all << summary.rdbuf();
   for (const char* unit : {"U1", "U2"}) {
-    check_fail_header(dir / "headers" / (std::string(unit) + ".h"));
+    BOOST_TEST(!fs::exists(dir / "headers" / (std::string(unit) + ".h")));
     check_fail_report(dir / "reports" / (std::string(unit) + ".html"));
   }
+  BOOST_TEST(all.str().find("header withheld: verdict FAIL") != std::string::npos, all.str());
 }

@@ -56,6 +56,12 @@ struct UnitOutput {
   std::string directory;  ///< relative to out_dir, e.g. "reports"; a plain name
   std::string extension;  ///< e.g. ".html"
   std::function<std::string(const std::string& record_path, const std::string& output_path)> write;
+  /// Written for units whose verdict is PASS only (the firmware header: a
+  /// unit that failed or was not judged must not reach firmware). For the
+  /// others the file of that name is removed, the unit gets the warning
+  /// "<name> withheld: verdict <v>", and it counts in
+  /// BatchResult::outputs_withheld (not in outputs_failed). Default false.
+  bool pass_only = false;
 };
 
 struct BatchOptions {
@@ -104,6 +110,7 @@ struct BatchResult {
   std::uint64_t failed = 0;            ///< not fitted
   std::uint64_t out_of_tolerance = 0;  ///< fitted with verdict FAIL
   std::uint64_t outputs_failed = 0;    ///< fitted units with an extra output not written
+  std::uint64_t outputs_withheld = 0;  ///< fitted units with a pass_only output withheld
   int interrupted_by = 0;              ///< the signal that stopped the batch (options.stop), or 0
   double seconds = 0.0;
 };

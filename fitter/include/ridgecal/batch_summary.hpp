@@ -57,6 +57,7 @@ struct UnitSummary {
   std::string record;  ///< record file, relative to the output directory ("" if none)
   int outputs_failed =
       0;  ///< extra per-unit outputs not written (batch_run.hpp); not in the summary files
+  int outputs_withheld = 0;  ///< pass_only outputs withheld (batch_run.hpp); in the warnings
 };
 
 /// Header line of the summary CSV.

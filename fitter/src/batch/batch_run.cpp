@@ -267,6 +267,13 @@ UnitSummary process_unit(const UnitChunk& chunk, const BatchOptions& options) {
     u.record = rel;
     for (const UnitOutput& o : options.unit_outputs) {
       const std::string path = output_path(o);
+      if (o.pass_only && u.verdict != UnitVerdict::Pass) {
+        ::unlink(path.c_str());  // an earlier run's file must not pass for this run's
+        u.warnings.push_back(o.name + " withheld: verdict " +
+                             (u.verdict == UnitVerdict::Fail ? "FAIL" : "not judged"));
+        ++u.outputs_withheld;
+        continue;
+      }
       std::string why;
       try {
         why = o.write(options.out_dir + "/" + rel, path);
@@ -405,6 +412,7 @@ BatchResult run_batch(const std::vector<std::string>& inputs, const BatchOptions
     (u.status == UnitStatus::Ok ? res.ok : res.failed)++;
     if (u.verdict == UnitVerdict::Fail) ++res.out_of_tolerance;
     if (u.outputs_failed > 0) ++res.outputs_failed;
+    if (u.outputs_withheld > 0) ++res.outputs_withheld;
     if (progress &&
         std::chrono::duration<double>(Clock::now() - last_report).count() >= progress_interval_s) {
       last_report = Clock::now();

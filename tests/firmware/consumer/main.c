@@ -4,6 +4,11 @@
 #include <stdio.h>
 #include "coldstore_calibration.h"
 
+/* The build refuses a calibration that did not pass (format version 2). */
+#if COLDSTORE_VERDICT != COLDSTORE_VERDICT_PASS
+#error "the calibration record behind coldstore_calibration.h did not pass"
+#endif
+
 int main(void)
 {
     int status = -1;

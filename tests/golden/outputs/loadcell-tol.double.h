@@ -1,9 +1,9 @@
 /* ==========================================================================
  * GENERATED FILE -- DO NOT EDIT.
  * Written by ridgecal 0.1.0 (ridgecal export). Regenerate it from the calibration record
- * instead of editing: the coefficient CRC and the QA figures below would no
+ * instead of editing: the self-check CRC and the QA figures below would no
  * longer match.
- * Header format version 1 (LC_FORMAT_VERSION).
+ * Header format version 2 (LC_FORMAT_VERSION).
  * ==========================================================================
  *
  * Calibration QA
@@ -45,13 +45,26 @@
 
 #include <stdint.h>
 
-#define LC_FORMAT_VERSION 1
+#define LC_FORMAT_VERSION 2
 #define LC_NUMERIC_DOUBLE 1
 #define LC_DEGREE 2
 /* CRC-32 (IEEE: reflected 0xEDB88320, init and xorout 0xFFFFFFFF) over the
-   bit patterns of LC_COEF[0..2], each least significant byte
-   first; see lc_table_crc32(). */
-#define LC_TABLE_CRC32 0x2843149AUL
+   bit patterns of every constant the evaluation uses, in this order
+   LC_COEF[0..2], LC_X_MIN, LC_X_MAX, LC_T_CENTER, LC_T_SCALE, LC_DEGREE;
+   see lc_table_crc32(). */
+#define LC_TABLE_CRC32 0x81B48553UL
+
+/* The record behind this header, for compile-time checks, e.g.
+ *   #if LC_VERDICT != LC_VERDICT_PASS
+ *   #error "this calibration did not pass"
+ *   #endif */
+#define LC_VERDICT_NOT_JUDGED 0 /* no tolerance in the record: nothing judged */
+#define LC_VERDICT_PASS 1
+#define LC_VERDICT_FAIL 2
+#define LC_VERDICT_RECORD_MODIFIED 3 /* record edited after ridgecal wrote it */
+#define LC_VERDICT LC_VERDICT_FAIL
+#define LC_RECORD_SHA256 "a626d9c1ecd4bb33a169bb7641d532d58b382a97ea120d3c71b37d562655b0b3" /* SHA-256 of the calibration record */
+#define LC_CALIBRATION_DATE "2026-01-01T00:00:00Z" /* when the record was made, UTC; "" if it does not say */
 
 /* Status codes of the range-checked evaluation */
 #define LC_IN_RANGE 0     /* input inside the valid range */
@@ -134,34 +147,48 @@ LC_INLINE double lc_eval_checked(double x, int *status)
     return lc_eval(x);
 }
 
-/* CRC-32 of the coefficient table as stored in this program's memory.
-   Byte order: each entry's 64-bit pattern (IEEE 754), least significant
-   byte first, entries in index order -- the same on little- and big-endian
-   targets. Bitwise (no table). Call it at start-up via lc_check_table(). */
+/* Self-check of every constant the evaluation uses: CRC-32 (IEEE) over
+   LC_TABLE_CRC32's list, each value's bit pattern (IEEE 754 binary64; integers two's complement),
+   least significant byte first -- the same on little- and big-endian targets.
+   Bitwise (no table). Call it at start-up via lc_check_table(). */
+LC_INLINE uint32_t lc_crc32_step(uint32_t crc, uint64_t bits, unsigned n)
+{
+    unsigned b, i;
+    for (b = 0U; b < n; ++b) {
+        crc ^= (uint32_t)((bits >> (8U * b)) & 0xFFU);
+        for (i = 0U; i < 8U; ++i) {
+            if ((crc & 1U) != 0U)
+                crc = (crc >> 1) ^ (uint32_t)0xEDB88320UL;
+            else
+                crc >>= 1;
+        }
+    }
+    return crc;
+}
+
+LC_INLINE uint64_t lc_bits_d(double d)
+{
+    union { double d; uint64_t u; } pun;
+    pun.u = 0U;
+    pun.d = d;
+    return pun.u;
+}
+
 LC_INLINE uint32_t lc_table_crc32(void)
 {
     uint32_t crc = 0xFFFFFFFFUL;
-    unsigned k, b, i;
-    for (k = 0U; k < (unsigned)(LC_DEGREE + 1); ++k) {
-        union { double d; uint64_t u; } pun;
-        uint64_t bits;
-        pun.u = 0U;
-        pun.d = LC_COEF[k];
-        bits = pun.u;
-        for (b = 0U; b < 8U; ++b) {
-            crc ^= (uint32_t)((bits >> (8U * b)) & 0xFFU);
-            for (i = 0U; i < 8U; ++i) {
-                if ((crc & 1U) != 0U)
-                    crc = (crc >> 1) ^ (uint32_t)0xEDB88320UL;
-                else
-                    crc >>= 1;
-            }
-        }
-    }
+    unsigned k;
+    for (k = 0U; k < (unsigned)(LC_DEGREE + 1); ++k)
+        crc = lc_crc32_step(crc, lc_bits_d(LC_COEF[k]), 8U);
+    crc = lc_crc32_step(crc, lc_bits_d(LC_X_MIN), 8U);
+    crc = lc_crc32_step(crc, lc_bits_d(LC_X_MAX), 8U);
+    crc = lc_crc32_step(crc, lc_bits_d(LC_T_CENTER), 8U);
+    crc = lc_crc32_step(crc, lc_bits_d(LC_T_SCALE), 8U);
+    crc = lc_crc32_step(crc, (uint64_t)(uint32_t)(LC_DEGREE), 4U);
     return crc ^ (uint32_t)0xFFFFFFFFUL;
 }
 
-/* Start-up self-check: LC_TABLE_OK when the coefficient table is intact,
+/* Start-up self-check: LC_TABLE_OK when every constant is intact,
    LC_TABLE_CORRUPT otherwise, LC_TABLE_UNCHECKABLE where double is not
    IEEE binary64 (e.g. avr-gcc, whose double is 32 bits). */
 LC_INLINE int lc_check_table(void)

@@ -1,9 +1,9 @@
 /* ==========================================================================
  * GENERATED FILE -- DO NOT EDIT.
  * Written by ridgecal 0.1.0 (ridgecal export). Regenerate it from the calibration record
- * instead of editing: the coefficient CRC and the QA figures below would no
+ * instead of editing: the self-check CRC and the QA figures below would no
  * longer match.
- * Header format version 1 (LC_FORMAT_VERSION).
+ * Header format version 2 (LC_FORMAT_VERSION).
  * ==========================================================================
  *
  * Calibration QA
@@ -45,13 +45,27 @@
 
 #include <stdint.h>
 
-#define LC_FORMAT_VERSION 1
+#define LC_FORMAT_VERSION 2
 #define LC_NUMERIC_FIXED 1
 #define LC_DEGREE 2
 /* CRC-32 (IEEE: reflected 0xEDB88320, init and xorout 0xFFFFFFFF) over the
-   bit patterns of LC_COEF[0..2], each least significant byte
-   first; see lc_table_crc32(). */
-#define LC_TABLE_CRC32 0x868757BBUL
+   bit patterns of every constant the evaluation uses, in this order
+   LC_COEF[0..2], LC_RAW_MIN, LC_RAW_MAX, LC_T_R0, LC_T_MUL, LC_T_ADD,
+   LC_T_SHIFT, LC_T_STEP_SHIFT[0..1], LC_OUT_SHIFT, LC_DEGREE;
+   see lc_table_crc32(). */
+#define LC_TABLE_CRC32 0x2D6CC20DUL
+
+/* The record behind this header, for compile-time checks, e.g.
+ *   #if LC_VERDICT != LC_VERDICT_PASS
+ *   #error "this calibration did not pass"
+ *   #endif */
+#define LC_VERDICT_NOT_JUDGED 0 /* no tolerance in the record: nothing judged */
+#define LC_VERDICT_PASS 1
+#define LC_VERDICT_FAIL 2
+#define LC_VERDICT_RECORD_MODIFIED 3 /* record edited after ridgecal wrote it */
+#define LC_VERDICT LC_VERDICT_FAIL
+#define LC_RECORD_SHA256 "a626d9c1ecd4bb33a169bb7641d532d58b382a97ea120d3c71b37d562655b0b3" /* SHA-256 of the calibration record */
+#define LC_CALIBRATION_DATE "2026-01-01T00:00:00Z" /* when the record was made, UTC; "" if it does not say */
 
 /* Status codes of the range-checked evaluation */
 #define LC_IN_RANGE 0     /* input inside the valid range */
@@ -92,6 +106,16 @@ static const int32_t LC_COEF[LC_DEGREE + 1] = {
     -668487757L  /* t^2, Q15 */
 };
 
+/* t_q = t * 2^30 = rshift_round((raw - LC_T_R0) * LC_T_MUL + LC_T_ADD, LC_T_SHIFT). */
+#define LC_T_R0 ((int64_t)3176241L)
+#define LC_T_MUL ((int64_t)1441145424L)
+#define LC_T_ADD ((int64_t)0L)
+#define LC_T_SHIFT 22U
+/* Shift after the product with t_q in Horner step k (entry k). */
+static const uint8_t LC_T_STEP_SHIFT[2] = {31U, 42U};
+/* Final shift from Q2 to the output unit. */
+#define LC_OUT_SHIFT 2U
+
 /* floor((v + 2^(s-1)) / 2^s), i.e. v / 2^s rounded half up, for
    -2^62 <= v + 2^(s-1) < 2^62 and 1 <= s <= 61. Only a non-negative value is
    shifted (v is offset by 2^62 first), so the result does not depend on how
@@ -122,11 +146,11 @@ LC_INLINE int64_t lc_rshift_round(int64_t v, unsigned s)
  * bounds do not hold: use lc_eval_fixed_checked() for untrusted input. */
 LC_INLINE int32_t lc_eval_fixed(int32_t raw)
 {
-    const int64_t t = lc_rshift_round(((int64_t)raw - (int64_t)3176241L) * (int64_t)1441145424L + (int64_t)0L, 22U);
+    const int64_t t = lc_rshift_round(((int64_t)raw - LC_T_R0) * LC_T_MUL + LC_T_ADD, LC_T_SHIFT);
     int64_t acc = (int64_t)LC_COEF[2];
-    acc = lc_rshift_round(acc * t, 42U) + LC_COEF[1];
-    acc = lc_rshift_round(acc * t, 31U) + LC_COEF[0];
-    return (int32_t)lc_rshift_round(acc, 2U);
+    acc = lc_rshift_round(acc * t, (unsigned)LC_T_STEP_SHIFT[1]) + LC_COEF[1];
+    acc = lc_rshift_round(acc * t, (unsigned)LC_T_STEP_SHIFT[0]) + LC_COEF[0];
+    return (int32_t)lc_rshift_round(acc, LC_OUT_SHIFT);
 }
 
 /* lc_eval_fixed_checked: as lc_eval_fixed, but never leaves the raw range:
@@ -148,30 +172,45 @@ LC_INLINE int32_t lc_eval_fixed_checked(int32_t raw, int *status)
     return lc_eval_fixed(raw);
 }
 
-/* CRC-32 of the coefficient table as stored in this program's memory.
-   Byte order: each entry's 32-bit pattern (two's complement), least significant
-   byte first, entries in index order -- the same on little- and big-endian
-   targets. Bitwise (no table). Call it at start-up via lc_check_table(). */
+/* Self-check of every constant the evaluation uses: CRC-32 (IEEE) over
+   LC_TABLE_CRC32's list, each value's bit pattern (two's complement),
+   least significant byte first -- the same on little- and big-endian targets.
+   Bitwise (no table). Call it at start-up via lc_check_table(). */
+LC_INLINE uint32_t lc_crc32_step(uint32_t crc, uint64_t bits, unsigned n)
+{
+    unsigned b, i;
+    for (b = 0U; b < n; ++b) {
+        crc ^= (uint32_t)((bits >> (8U * b)) & 0xFFU);
+        for (i = 0U; i < 8U; ++i) {
+            if ((crc & 1U) != 0U)
+                crc = (crc >> 1) ^ (uint32_t)0xEDB88320UL;
+            else
+                crc >>= 1;
+        }
+    }
+    return crc;
+}
+
 LC_INLINE uint32_t lc_table_crc32(void)
 {
     uint32_t crc = 0xFFFFFFFFUL;
-    unsigned k, b, i;
-    for (k = 0U; k < (unsigned)(LC_DEGREE + 1); ++k) {
-        uint32_t bits = (uint32_t)LC_COEF[k];
-        for (b = 0U; b < 4U; ++b) {
-            crc ^= (uint32_t)((bits >> (8U * b)) & 0xFFU);
-            for (i = 0U; i < 8U; ++i) {
-                if ((crc & 1U) != 0U)
-                    crc = (crc >> 1) ^ (uint32_t)0xEDB88320UL;
-                else
-                    crc >>= 1;
-            }
-        }
-    }
+    unsigned k;
+    for (k = 0U; k < (unsigned)(LC_DEGREE + 1); ++k)
+        crc = lc_crc32_step(crc, (uint64_t)(uint32_t)(LC_COEF[k]), 4U);
+    crc = lc_crc32_step(crc, (uint64_t)(uint32_t)(LC_RAW_MIN), 4U);
+    crc = lc_crc32_step(crc, (uint64_t)(uint32_t)(LC_RAW_MAX), 4U);
+    crc = lc_crc32_step(crc, (uint64_t)(LC_T_R0), 8U);
+    crc = lc_crc32_step(crc, (uint64_t)(LC_T_MUL), 8U);
+    crc = lc_crc32_step(crc, (uint64_t)(LC_T_ADD), 8U);
+    crc = lc_crc32_step(crc, (uint64_t)(uint32_t)(LC_T_SHIFT), 4U);
+    for (k = 0U; k < (unsigned)(2); ++k)
+        crc = lc_crc32_step(crc, (uint64_t)LC_T_STEP_SHIFT[k], 1U);
+    crc = lc_crc32_step(crc, (uint64_t)(uint32_t)(LC_OUT_SHIFT), 4U);
+    crc = lc_crc32_step(crc, (uint64_t)(uint32_t)(LC_DEGREE), 4U);
     return crc ^ (uint32_t)0xFFFFFFFFUL;
 }
 
-/* Start-up self-check: LC_TABLE_OK when the coefficient table is intact,
+/* Start-up self-check: LC_TABLE_OK when every constant is intact,
    LC_TABLE_CORRUPT otherwise. */
 LC_INLINE int lc_check_table(void)
 {

@@ -1,9 +1,9 @@
 /* ==========================================================================
  * GENERATED FILE -- DO NOT EDIT.
  * Written by ridgecal 0.1.0 (ridgecal export). Regenerate it from the calibration record
- * instead of editing: the coefficient CRC and the QA figures below would no
+ * instead of editing: the self-check CRC and the QA figures below would no
  * longer match.
- * Header format version 1 (FILIP_FORMAT_VERSION).
+ * Header format version 2 (FILIP_FORMAT_VERSION).
  * ==========================================================================
  *
  * Calibration QA
@@ -45,13 +45,28 @@
 
 #include <stdint.h>
 
-#define FILIP_FORMAT_VERSION 1
+#define FILIP_FORMAT_VERSION 2
 #define FILIP_NUMERIC_FIXED 1
 #define FILIP_DEGREE 10
 /* CRC-32 (IEEE: reflected 0xEDB88320, init and xorout 0xFFFFFFFF) over the
-   bit patterns of FILIP_COEF[0..10], each least significant byte
-   first; see filip_table_crc32(). */
-#define FILIP_TABLE_CRC32 0xFBC6F7D1UL
+   bit patterns of every constant the evaluation uses, in this order
+   FILIP_COEF[0..10], FILIP_RAW_MIN, FILIP_RAW_MAX, FILIP_T_R0, FILIP_T_MUL,
+   FILIP_T_ADD, FILIP_T_SHIFT, FILIP_T_STEP_SHIFT[0..9], FILIP_OUT_SHIFT,
+   FILIP_DEGREE;
+   see filip_table_crc32(). */
+#define FILIP_TABLE_CRC32 0x811716B8UL
+
+/* The record behind this header, for compile-time checks, e.g.
+ *   #if FILIP_VERDICT != FILIP_VERDICT_PASS
+ *   #error "this calibration did not pass"
+ *   #endif */
+#define FILIP_VERDICT_NOT_JUDGED 0 /* no tolerance in the record: nothing judged */
+#define FILIP_VERDICT_PASS 1
+#define FILIP_VERDICT_FAIL 2
+#define FILIP_VERDICT_RECORD_MODIFIED 3 /* record edited after ridgecal wrote it */
+#define FILIP_VERDICT FILIP_VERDICT_NOT_JUDGED
+#define FILIP_RECORD_SHA256 "d0170d6d5c31290bd2f6f5f6be9fe5a78ff7e99c18ed0a749436b581717fb1c7" /* SHA-256 of the calibration record */
+#define FILIP_CALIBRATION_DATE "2026-01-01T00:00:00Z" /* when the record was made, UTC; "" if it does not say */
 
 /* Status codes of the range-checked evaluation */
 #define FILIP_IN_RANGE 0     /* input inside the valid range */
@@ -108,6 +123,16 @@ static const int32_t FILIP_COEF[FILIP_DEGREE + 1] = {
     -667276124L  /* t^10, Q9 */
 };
 
+/* t_q = t * 2^30 = rshift_round((raw - FILIP_T_R0) * FILIP_T_MUL + FILIP_T_ADD, FILIP_T_SHIFT). */
+#define FILIP_T_R0 ((int64_t)-6L)
+#define FILIP_T_MUL ((int64_t)1520487187L)
+#define FILIP_T_ADD ((int64_t)-65786170L)
+#define FILIP_T_SHIFT 2U
+/* Shift after the product with t_q in Horner step k (entry k). */
+static const uint8_t FILIP_T_STEP_SHIFT[10] = {30U, 29U, 30U, 30U, 30U, 30U, 30U, 30U, 32U, 30U};
+/* Final shift from Q8 to the output unit. */
+#define FILIP_OUT_SHIFT 8U
+
 /* floor((v + 2^(s-1)) / 2^s), i.e. v / 2^s rounded half up, for
    -2^62 <= v + 2^(s-1) < 2^62 and 1 <= s <= 61. Only a non-negative value is
    shifted (v is offset by 2^62 first), so the result does not depend on how
@@ -146,19 +171,19 @@ FILIP_INLINE int64_t filip_rshift_round(int64_t v, unsigned s)
  * bounds do not hold: use filip_eval_fixed_checked() for untrusted input. */
 FILIP_INLINE int32_t filip_eval_fixed(int32_t raw)
 {
-    const int64_t t = filip_rshift_round(((int64_t)raw - (int64_t)-6L) * (int64_t)1520487187L + (int64_t)-65786170L, 2U);
+    const int64_t t = filip_rshift_round(((int64_t)raw - FILIP_T_R0) * FILIP_T_MUL + FILIP_T_ADD, FILIP_T_SHIFT);
     int64_t acc = (int64_t)FILIP_COEF[10];
-    acc = filip_rshift_round(acc * t, 30U) + FILIP_COEF[9];
-    acc = filip_rshift_round(acc * t, 32U) + FILIP_COEF[8];
-    acc = filip_rshift_round(acc * t, 30U) + FILIP_COEF[7];
-    acc = filip_rshift_round(acc * t, 30U) + FILIP_COEF[6];
-    acc = filip_rshift_round(acc * t, 30U) + FILIP_COEF[5];
-    acc = filip_rshift_round(acc * t, 30U) + FILIP_COEF[4];
-    acc = filip_rshift_round(acc * t, 30U) + FILIP_COEF[3];
-    acc = filip_rshift_round(acc * t, 30U) + FILIP_COEF[2];
-    acc = filip_rshift_round(acc * t, 29U) + FILIP_COEF[1];
-    acc = filip_rshift_round(acc * t, 30U) + FILIP_COEF[0];
-    return (int32_t)filip_rshift_round(acc, 8U);
+    acc = filip_rshift_round(acc * t, (unsigned)FILIP_T_STEP_SHIFT[9]) + FILIP_COEF[9];
+    acc = filip_rshift_round(acc * t, (unsigned)FILIP_T_STEP_SHIFT[8]) + FILIP_COEF[8];
+    acc = filip_rshift_round(acc * t, (unsigned)FILIP_T_STEP_SHIFT[7]) + FILIP_COEF[7];
+    acc = filip_rshift_round(acc * t, (unsigned)FILIP_T_STEP_SHIFT[6]) + FILIP_COEF[6];
+    acc = filip_rshift_round(acc * t, (unsigned)FILIP_T_STEP_SHIFT[5]) + FILIP_COEF[5];
+    acc = filip_rshift_round(acc * t, (unsigned)FILIP_T_STEP_SHIFT[4]) + FILIP_COEF[4];
+    acc = filip_rshift_round(acc * t, (unsigned)FILIP_T_STEP_SHIFT[3]) + FILIP_COEF[3];
+    acc = filip_rshift_round(acc * t, (unsigned)FILIP_T_STEP_SHIFT[2]) + FILIP_COEF[2];
+    acc = filip_rshift_round(acc * t, (unsigned)FILIP_T_STEP_SHIFT[1]) + FILIP_COEF[1];
+    acc = filip_rshift_round(acc * t, (unsigned)FILIP_T_STEP_SHIFT[0]) + FILIP_COEF[0];
+    return (int32_t)filip_rshift_round(acc, FILIP_OUT_SHIFT);
 }
 
 /* filip_eval_fixed_checked: as filip_eval_fixed, but never leaves the raw range:
@@ -180,30 +205,45 @@ FILIP_INLINE int32_t filip_eval_fixed_checked(int32_t raw, int *status)
     return filip_eval_fixed(raw);
 }
 
-/* CRC-32 of the coefficient table as stored in this program's memory.
-   Byte order: each entry's 32-bit pattern (two's complement), least significant
-   byte first, entries in index order -- the same on little- and big-endian
-   targets. Bitwise (no table). Call it at start-up via filip_check_table(). */
+/* Self-check of every constant the evaluation uses: CRC-32 (IEEE) over
+   FILIP_TABLE_CRC32's list, each value's bit pattern (two's complement),
+   least significant byte first -- the same on little- and big-endian targets.
+   Bitwise (no table). Call it at start-up via filip_check_table(). */
+FILIP_INLINE uint32_t filip_crc32_step(uint32_t crc, uint64_t bits, unsigned n)
+{
+    unsigned b, i;
+    for (b = 0U; b < n; ++b) {
+        crc ^= (uint32_t)((bits >> (8U * b)) & 0xFFU);
+        for (i = 0U; i < 8U; ++i) {
+            if ((crc & 1U) != 0U)
+                crc = (crc >> 1) ^ (uint32_t)0xEDB88320UL;
+            else
+                crc >>= 1;
+        }
+    }
+    return crc;
+}
+
 FILIP_INLINE uint32_t filip_table_crc32(void)
 {
     uint32_t crc = 0xFFFFFFFFUL;
-    unsigned k, b, i;
-    for (k = 0U; k < (unsigned)(FILIP_DEGREE + 1); ++k) {
-        uint32_t bits = (uint32_t)FILIP_COEF[k];
-        for (b = 0U; b < 4U; ++b) {
-            crc ^= (uint32_t)((bits >> (8U * b)) & 0xFFU);
-            for (i = 0U; i < 8U; ++i) {
-                if ((crc & 1U) != 0U)
-                    crc = (crc >> 1) ^ (uint32_t)0xEDB88320UL;
-                else
-                    crc >>= 1;
-            }
-        }
-    }
+    unsigned k;
+    for (k = 0U; k < (unsigned)(FILIP_DEGREE + 1); ++k)
+        crc = filip_crc32_step(crc, (uint64_t)(uint32_t)(FILIP_COEF[k]), 4U);
+    crc = filip_crc32_step(crc, (uint64_t)(uint32_t)(FILIP_RAW_MIN), 4U);
+    crc = filip_crc32_step(crc, (uint64_t)(uint32_t)(FILIP_RAW_MAX), 4U);
+    crc = filip_crc32_step(crc, (uint64_t)(FILIP_T_R0), 8U);
+    crc = filip_crc32_step(crc, (uint64_t)(FILIP_T_MUL), 8U);
+    crc = filip_crc32_step(crc, (uint64_t)(FILIP_T_ADD), 8U);
+    crc = filip_crc32_step(crc, (uint64_t)(uint32_t)(FILIP_T_SHIFT), 4U);
+    for (k = 0U; k < (unsigned)(10); ++k)
+        crc = filip_crc32_step(crc, (uint64_t)FILIP_T_STEP_SHIFT[k], 1U);
+    crc = filip_crc32_step(crc, (uint64_t)(uint32_t)(FILIP_OUT_SHIFT), 4U);
+    crc = filip_crc32_step(crc, (uint64_t)(uint32_t)(FILIP_DEGREE), 4U);
     return crc ^ (uint32_t)0xFFFFFFFFUL;
 }
 
-/* Start-up self-check: FILIP_TABLE_OK when the coefficient table is intact,
+/* Start-up self-check: FILIP_TABLE_OK when every constant is intact,
    FILIP_TABLE_CORRUPT otherwise. */
 FILIP_INLINE int filip_check_table(void)
 {

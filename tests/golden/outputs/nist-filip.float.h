@@ -1,9 +1,9 @@
 /* ==========================================================================
  * GENERATED FILE -- DO NOT EDIT.
  * Written by ridgecal 0.1.0 (ridgecal export). Regenerate it from the calibration record
- * instead of editing: the coefficient CRC and the QA figures below would no
+ * instead of editing: the self-check CRC and the QA figures below would no
  * longer match.
- * Header format version 1 (FILIP_FORMAT_VERSION).
+ * Header format version 2 (FILIP_FORMAT_VERSION).
  * ==========================================================================
  *
  * Calibration QA
@@ -45,13 +45,27 @@
 
 #include <stdint.h>
 
-#define FILIP_FORMAT_VERSION 1
+#define FILIP_FORMAT_VERSION 2
 #define FILIP_NUMERIC_FLOAT 1
 #define FILIP_DEGREE 10
 /* CRC-32 (IEEE: reflected 0xEDB88320, init and xorout 0xFFFFFFFF) over the
-   bit patterns of FILIP_COEF[0..10], each least significant byte
-   first; see filip_table_crc32(). */
-#define FILIP_TABLE_CRC32 0xA8781285UL
+   bit patterns of every constant the evaluation uses, in this order
+   FILIP_COEF[0..10], FILIP_X_MIN, FILIP_X_MAX, FILIP_T_CENTER,
+   FILIP_T_SCALE, FILIP_DEGREE;
+   see filip_table_crc32(). */
+#define FILIP_TABLE_CRC32 0x76505A26UL
+
+/* The record behind this header, for compile-time checks, e.g.
+ *   #if FILIP_VERDICT != FILIP_VERDICT_PASS
+ *   #error "this calibration did not pass"
+ *   #endif */
+#define FILIP_VERDICT_NOT_JUDGED 0 /* no tolerance in the record: nothing judged */
+#define FILIP_VERDICT_PASS 1
+#define FILIP_VERDICT_FAIL 2
+#define FILIP_VERDICT_RECORD_MODIFIED 3 /* record edited after ridgecal wrote it */
+#define FILIP_VERDICT FILIP_VERDICT_NOT_JUDGED
+#define FILIP_RECORD_SHA256 "d0170d6d5c31290bd2f6f5f6be9fe5a78ff7e99c18ed0a749436b581717fb1c7" /* SHA-256 of the calibration record */
+#define FILIP_CALIBRATION_DATE "2026-01-01T00:00:00Z" /* when the record was made, UTC; "" if it does not say */
 
 /* Status codes of the range-checked evaluation */
 #define FILIP_IN_RANGE 0     /* input inside the valid range */
@@ -150,33 +164,47 @@ FILIP_INLINE float filip_eval_checked(float x, int *status)
     return filip_eval(x);
 }
 
-/* CRC-32 of the coefficient table as stored in this program's memory.
-   Byte order: each entry's 32-bit pattern (IEEE 754), least significant
-   byte first, entries in index order -- the same on little- and big-endian
-   targets. Bitwise (no table). Call it at start-up via filip_check_table(). */
+/* Self-check of every constant the evaluation uses: CRC-32 (IEEE) over
+   FILIP_TABLE_CRC32's list, each value's bit pattern (IEEE 754 binary32; integers two's complement),
+   least significant byte first -- the same on little- and big-endian targets.
+   Bitwise (no table). Call it at start-up via filip_check_table(). */
+FILIP_INLINE uint32_t filip_crc32_step(uint32_t crc, uint64_t bits, unsigned n)
+{
+    unsigned b, i;
+    for (b = 0U; b < n; ++b) {
+        crc ^= (uint32_t)((bits >> (8U * b)) & 0xFFU);
+        for (i = 0U; i < 8U; ++i) {
+            if ((crc & 1U) != 0U)
+                crc = (crc >> 1) ^ (uint32_t)0xEDB88320UL;
+            else
+                crc >>= 1;
+        }
+    }
+    return crc;
+}
+
+FILIP_INLINE uint64_t filip_bits_f(float f)
+{
+    union { float f; uint32_t u; } pun;
+    pun.f = f;
+    return pun.u;
+}
+
 FILIP_INLINE uint32_t filip_table_crc32(void)
 {
     uint32_t crc = 0xFFFFFFFFUL;
-    unsigned k, b, i;
-    for (k = 0U; k < (unsigned)(FILIP_DEGREE + 1); ++k) {
-        union { float f; uint32_t u; } pun;
-        uint32_t bits;
-        pun.f = FILIP_COEF[k];
-        bits = pun.u;
-        for (b = 0U; b < 4U; ++b) {
-            crc ^= (uint32_t)((bits >> (8U * b)) & 0xFFU);
-            for (i = 0U; i < 8U; ++i) {
-                if ((crc & 1U) != 0U)
-                    crc = (crc >> 1) ^ (uint32_t)0xEDB88320UL;
-                else
-                    crc >>= 1;
-            }
-        }
-    }
+    unsigned k;
+    for (k = 0U; k < (unsigned)(FILIP_DEGREE + 1); ++k)
+        crc = filip_crc32_step(crc, filip_bits_f(FILIP_COEF[k]), 4U);
+    crc = filip_crc32_step(crc, filip_bits_f(FILIP_X_MIN), 4U);
+    crc = filip_crc32_step(crc, filip_bits_f(FILIP_X_MAX), 4U);
+    crc = filip_crc32_step(crc, filip_bits_f(FILIP_T_CENTER), 4U);
+    crc = filip_crc32_step(crc, filip_bits_f(FILIP_T_SCALE), 4U);
+    crc = filip_crc32_step(crc, (uint64_t)(uint32_t)(FILIP_DEGREE), 4U);
     return crc ^ (uint32_t)0xFFFFFFFFUL;
 }
 
-/* Start-up self-check: FILIP_TABLE_OK when the coefficient table is intact,
+/* Start-up self-check: FILIP_TABLE_OK when every constant is intact,
    FILIP_TABLE_CORRUPT otherwise. */
 FILIP_INLINE int filip_check_table(void)
 {

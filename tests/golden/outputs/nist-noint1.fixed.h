@@ -1,9 +1,9 @@
 /* ==========================================================================
  * GENERATED FILE -- DO NOT EDIT.
  * Written by ridgecal 0.1.0 (ridgecal export). Regenerate it from the calibration record
- * instead of editing: the coefficient CRC and the QA figures below would no
+ * instead of editing: the self-check CRC and the QA figures below would no
  * longer match.
- * Header format version 1 (NOINT1_FORMAT_VERSION).
+ * Header format version 2 (NOINT1_FORMAT_VERSION).
  * ==========================================================================
  *
  * Calibration QA
@@ -45,13 +45,28 @@
 
 #include <stdint.h>
 
-#define NOINT1_FORMAT_VERSION 1
+#define NOINT1_FORMAT_VERSION 2
 #define NOINT1_NUMERIC_FIXED 1
 #define NOINT1_DEGREE 1
 /* CRC-32 (IEEE: reflected 0xEDB88320, init and xorout 0xFFFFFFFF) over the
-   bit patterns of NOINT1_COEF[0..1], each least significant byte
-   first; see noint1_table_crc32(). */
-#define NOINT1_TABLE_CRC32 0x5E826139UL
+   bit patterns of every constant the evaluation uses, in this order
+   NOINT1_COEF[0..1], NOINT1_RAW_MIN, NOINT1_RAW_MAX, NOINT1_T_R0,
+   NOINT1_T_MUL, NOINT1_T_ADD, NOINT1_T_SHIFT, NOINT1_T_STEP_SHIFT[0..0],
+   NOINT1_OUT_SHIFT, NOINT1_DEGREE;
+   see noint1_table_crc32(). */
+#define NOINT1_TABLE_CRC32 0xA2CA2749UL
+
+/* The record behind this header, for compile-time checks, e.g.
+ *   #if NOINT1_VERDICT != NOINT1_VERDICT_PASS
+ *   #error "this calibration did not pass"
+ *   #endif */
+#define NOINT1_VERDICT_NOT_JUDGED 0 /* no tolerance in the record: nothing judged */
+#define NOINT1_VERDICT_PASS 1
+#define NOINT1_VERDICT_FAIL 2
+#define NOINT1_VERDICT_RECORD_MODIFIED 3 /* record edited after ridgecal wrote it */
+#define NOINT1_VERDICT NOINT1_VERDICT_NOT_JUDGED
+#define NOINT1_RECORD_SHA256 "3fcb8950996ce6f33892e0e7ba05c607114f15fbf04049e216f3d35347b5f02f" /* SHA-256 of the calibration record */
+#define NOINT1_CALIBRATION_DATE "2026-01-01T00:00:00Z" /* when the record was made, UTC; "" if it does not say */
 
 /* Status codes of the range-checked evaluation */
 #define NOINT1_IN_RANGE 0     /* input inside the valid range */
@@ -90,6 +105,16 @@ static const int32_t NOINT1_COEF[NOINT1_DEGREE + 1] = {
     679732893L  /* t^1, Q16 */
 };
 
+/* t_q = t * 2^30 = rshift_round((raw - NOINT1_T_R0) * NOINT1_T_MUL + NOINT1_T_ADD, NOINT1_T_SHIFT). */
+#define NOINT1_T_R0 ((int64_t)65L)
+#define NOINT1_T_MUL ((int64_t)1717986918L)
+#define NOINT1_T_ADD ((int64_t)0L)
+#define NOINT1_T_SHIFT 3U
+/* Shift after the product with t_q in Horner step k (entry k). */
+static const uint8_t NOINT1_T_STEP_SHIFT[1] = {34U};
+/* Final shift from Q12 to the output unit. */
+#define NOINT1_OUT_SHIFT 12U
+
 /* floor((v + 2^(s-1)) / 2^s), i.e. v / 2^s rounded half up, for
    -2^62 <= v + 2^(s-1) < 2^62 and 1 <= s <= 61. Only a non-negative value is
    shifted (v is offset by 2^62 first), so the result does not depend on how
@@ -119,10 +144,10 @@ NOINT1_INLINE int64_t noint1_rshift_round(int64_t v, unsigned s)
  * bounds do not hold: use noint1_eval_fixed_checked() for untrusted input. */
 NOINT1_INLINE int32_t noint1_eval_fixed(int32_t raw)
 {
-    const int64_t t = noint1_rshift_round(((int64_t)raw - (int64_t)65L) * (int64_t)1717986918L + (int64_t)0L, 3U);
+    const int64_t t = noint1_rshift_round(((int64_t)raw - NOINT1_T_R0) * NOINT1_T_MUL + NOINT1_T_ADD, NOINT1_T_SHIFT);
     int64_t acc = (int64_t)NOINT1_COEF[1];
-    acc = noint1_rshift_round(acc * t, 34U) + NOINT1_COEF[0];
-    return (int32_t)noint1_rshift_round(acc, 12U);
+    acc = noint1_rshift_round(acc * t, (unsigned)NOINT1_T_STEP_SHIFT[0]) + NOINT1_COEF[0];
+    return (int32_t)noint1_rshift_round(acc, NOINT1_OUT_SHIFT);
 }
 
 /* noint1_eval_fixed_checked: as noint1_eval_fixed, but never leaves the raw range:
@@ -144,30 +169,45 @@ NOINT1_INLINE int32_t noint1_eval_fixed_checked(int32_t raw, int *status)
     return noint1_eval_fixed(raw);
 }
 
-/* CRC-32 of the coefficient table as stored in this program's memory.
-   Byte order: each entry's 32-bit pattern (two's complement), least significant
-   byte first, entries in index order -- the same on little- and big-endian
-   targets. Bitwise (no table). Call it at start-up via noint1_check_table(). */
+/* Self-check of every constant the evaluation uses: CRC-32 (IEEE) over
+   NOINT1_TABLE_CRC32's list, each value's bit pattern (two's complement),
+   least significant byte first -- the same on little- and big-endian targets.
+   Bitwise (no table). Call it at start-up via noint1_check_table(). */
+NOINT1_INLINE uint32_t noint1_crc32_step(uint32_t crc, uint64_t bits, unsigned n)
+{
+    unsigned b, i;
+    for (b = 0U; b < n; ++b) {
+        crc ^= (uint32_t)((bits >> (8U * b)) & 0xFFU);
+        for (i = 0U; i < 8U; ++i) {
+            if ((crc & 1U) != 0U)
+                crc = (crc >> 1) ^ (uint32_t)0xEDB88320UL;
+            else
+                crc >>= 1;
+        }
+    }
+    return crc;
+}
+
 NOINT1_INLINE uint32_t noint1_table_crc32(void)
 {
     uint32_t crc = 0xFFFFFFFFUL;
-    unsigned k, b, i;
-    for (k = 0U; k < (unsigned)(NOINT1_DEGREE + 1); ++k) {
-        uint32_t bits = (uint32_t)NOINT1_COEF[k];
-        for (b = 0U; b < 4U; ++b) {
-            crc ^= (uint32_t)((bits >> (8U * b)) & 0xFFU);
-            for (i = 0U; i < 8U; ++i) {
-                if ((crc & 1U) != 0U)
-                    crc = (crc >> 1) ^ (uint32_t)0xEDB88320UL;
-                else
-                    crc >>= 1;
-            }
-        }
-    }
+    unsigned k;
+    for (k = 0U; k < (unsigned)(NOINT1_DEGREE + 1); ++k)
+        crc = noint1_crc32_step(crc, (uint64_t)(uint32_t)(NOINT1_COEF[k]), 4U);
+    crc = noint1_crc32_step(crc, (uint64_t)(uint32_t)(NOINT1_RAW_MIN), 4U);
+    crc = noint1_crc32_step(crc, (uint64_t)(uint32_t)(NOINT1_RAW_MAX), 4U);
+    crc = noint1_crc32_step(crc, (uint64_t)(NOINT1_T_R0), 8U);
+    crc = noint1_crc32_step(crc, (uint64_t)(NOINT1_T_MUL), 8U);
+    crc = noint1_crc32_step(crc, (uint64_t)(NOINT1_T_ADD), 8U);
+    crc = noint1_crc32_step(crc, (uint64_t)(uint32_t)(NOINT1_T_SHIFT), 4U);
+    for (k = 0U; k < (unsigned)(1); ++k)
+        crc = noint1_crc32_step(crc, (uint64_t)NOINT1_T_STEP_SHIFT[k], 1U);
+    crc = noint1_crc32_step(crc, (uint64_t)(uint32_t)(NOINT1_OUT_SHIFT), 4U);
+    crc = noint1_crc32_step(crc, (uint64_t)(uint32_t)(NOINT1_DEGREE), 4U);
     return crc ^ (uint32_t)0xFFFFFFFFUL;
 }
 
-/* Start-up self-check: NOINT1_TABLE_OK when the coefficient table is intact,
+/* Start-up self-check: NOINT1_TABLE_OK when every constant is intact,
    NOINT1_TABLE_CORRUPT otherwise. */
 NOINT1_INLINE int noint1_check_table(void)
 {

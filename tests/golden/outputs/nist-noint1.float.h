@@ -1,9 +1,9 @@
 /* ==========================================================================
  * GENERATED FILE -- DO NOT EDIT.
  * Written by ridgecal 0.1.0 (ridgecal export). Regenerate it from the calibration record
- * instead of editing: the coefficient CRC and the QA figures below would no
+ * instead of editing: the self-check CRC and the QA figures below would no
  * longer match.
- * Header format version 1 (NOINT1_FORMAT_VERSION).
+ * Header format version 2 (NOINT1_FORMAT_VERSION).
  * ==========================================================================
  *
  * Calibration QA
@@ -45,13 +45,26 @@
 
 #include <stdint.h>
 
-#define NOINT1_FORMAT_VERSION 1
+#define NOINT1_FORMAT_VERSION 2
 #define NOINT1_NUMERIC_FLOAT 1
 #define NOINT1_DEGREE 1
 /* CRC-32 (IEEE: reflected 0xEDB88320, init and xorout 0xFFFFFFFF) over the
-   bit patterns of NOINT1_COEF[0..1], each least significant byte
-   first; see noint1_table_crc32(). */
-#define NOINT1_TABLE_CRC32 0x61E59E4DUL
+   bit patterns of every constant the evaluation uses, in this order
+   NOINT1_COEF[0..1], NOINT1_X_MIN, NOINT1_X_MAX, NOINT1_DEGREE;
+   see noint1_table_crc32(). */
+#define NOINT1_TABLE_CRC32 0x317BEF07UL
+
+/* The record behind this header, for compile-time checks, e.g.
+ *   #if NOINT1_VERDICT != NOINT1_VERDICT_PASS
+ *   #error "this calibration did not pass"
+ *   #endif */
+#define NOINT1_VERDICT_NOT_JUDGED 0 /* no tolerance in the record: nothing judged */
+#define NOINT1_VERDICT_PASS 1
+#define NOINT1_VERDICT_FAIL 2
+#define NOINT1_VERDICT_RECORD_MODIFIED 3 /* record edited after ridgecal wrote it */
+#define NOINT1_VERDICT NOINT1_VERDICT_NOT_JUDGED
+#define NOINT1_RECORD_SHA256 "3fcb8950996ce6f33892e0e7ba05c607114f15fbf04049e216f3d35347b5f02f" /* SHA-256 of the calibration record */
+#define NOINT1_CALIBRATION_DATE "2026-01-01T00:00:00Z" /* when the record was made, UTC; "" if it does not say */
 
 /* Status codes of the range-checked evaluation */
 #define NOINT1_IN_RANGE 0     /* input inside the valid range */
@@ -128,33 +141,45 @@ NOINT1_INLINE float noint1_eval_checked(float x, int *status)
     return noint1_eval(x);
 }
 
-/* CRC-32 of the coefficient table as stored in this program's memory.
-   Byte order: each entry's 32-bit pattern (IEEE 754), least significant
-   byte first, entries in index order -- the same on little- and big-endian
-   targets. Bitwise (no table). Call it at start-up via noint1_check_table(). */
+/* Self-check of every constant the evaluation uses: CRC-32 (IEEE) over
+   NOINT1_TABLE_CRC32's list, each value's bit pattern (IEEE 754 binary32; integers two's complement),
+   least significant byte first -- the same on little- and big-endian targets.
+   Bitwise (no table). Call it at start-up via noint1_check_table(). */
+NOINT1_INLINE uint32_t noint1_crc32_step(uint32_t crc, uint64_t bits, unsigned n)
+{
+    unsigned b, i;
+    for (b = 0U; b < n; ++b) {
+        crc ^= (uint32_t)((bits >> (8U * b)) & 0xFFU);
+        for (i = 0U; i < 8U; ++i) {
+            if ((crc & 1U) != 0U)
+                crc = (crc >> 1) ^ (uint32_t)0xEDB88320UL;
+            else
+                crc >>= 1;
+        }
+    }
+    return crc;
+}
+
+NOINT1_INLINE uint64_t noint1_bits_f(float f)
+{
+    union { float f; uint32_t u; } pun;
+    pun.f = f;
+    return pun.u;
+}
+
 NOINT1_INLINE uint32_t noint1_table_crc32(void)
 {
     uint32_t crc = 0xFFFFFFFFUL;
-    unsigned k, b, i;
-    for (k = 0U; k < (unsigned)(NOINT1_DEGREE + 1); ++k) {
-        union { float f; uint32_t u; } pun;
-        uint32_t bits;
-        pun.f = NOINT1_COEF[k];
-        bits = pun.u;
-        for (b = 0U; b < 4U; ++b) {
-            crc ^= (uint32_t)((bits >> (8U * b)) & 0xFFU);
-            for (i = 0U; i < 8U; ++i) {
-                if ((crc & 1U) != 0U)
-                    crc = (crc >> 1) ^ (uint32_t)0xEDB88320UL;
-                else
-                    crc >>= 1;
-            }
-        }
-    }
+    unsigned k;
+    for (k = 0U; k < (unsigned)(NOINT1_DEGREE + 1); ++k)
+        crc = noint1_crc32_step(crc, noint1_bits_f(NOINT1_COEF[k]), 4U);
+    crc = noint1_crc32_step(crc, noint1_bits_f(NOINT1_X_MIN), 4U);
+    crc = noint1_crc32_step(crc, noint1_bits_f(NOINT1_X_MAX), 4U);
+    crc = noint1_crc32_step(crc, (uint64_t)(uint32_t)(NOINT1_DEGREE), 4U);
     return crc ^ (uint32_t)0xFFFFFFFFUL;
 }
 
-/* Start-up self-check: NOINT1_TABLE_OK when the coefficient table is intact,
+/* Start-up self-check: NOINT1_TABLE_OK when every constant is intact,
    NOINT1_TABLE_CORRUPT otherwise. */
 NOINT1_INLINE int noint1_check_table(void)
 {

@@ -1,9 +1,9 @@
 /* ==========================================================================
  * GENERATED FILE -- DO NOT EDIT.
  * Written by ridgecal 0.1.0 (ridgecal export). Regenerate it from the calibration record
- * instead of editing: the coefficient CRC and the QA figures below would no
+ * instead of editing: the self-check CRC and the QA figures below would no
  * longer match.
- * Header format version 1 (NOINT2_FORMAT_VERSION).
+ * Header format version 2 (NOINT2_FORMAT_VERSION).
  * ==========================================================================
  *
  * Calibration QA
@@ -45,13 +45,27 @@
 
 #include <stdint.h>
 
-#define NOINT2_FORMAT_VERSION 1
+#define NOINT2_FORMAT_VERSION 2
 #define NOINT2_NUMERIC_DOUBLE 1
 #define NOINT2_DEGREE 1
 /* CRC-32 (IEEE: reflected 0xEDB88320, init and xorout 0xFFFFFFFF) over the
-   bit patterns of NOINT2_COEF[0..1], each least significant byte
-   first; see noint2_table_crc32(). */
-#define NOINT2_TABLE_CRC32 0xC60D598BUL
+   bit patterns of every constant the evaluation uses, in this order
+   NOINT2_COEF[0..1], NOINT2_X_MIN, NOINT2_X_MAX, NOINT2_T_CENTER,
+   NOINT2_T_SCALE, NOINT2_DEGREE;
+   see noint2_table_crc32(). */
+#define NOINT2_TABLE_CRC32 0x4FA03E32UL
+
+/* The record behind this header, for compile-time checks, e.g.
+ *   #if NOINT2_VERDICT != NOINT2_VERDICT_PASS
+ *   #error "this calibration did not pass"
+ *   #endif */
+#define NOINT2_VERDICT_NOT_JUDGED 0 /* no tolerance in the record: nothing judged */
+#define NOINT2_VERDICT_PASS 1
+#define NOINT2_VERDICT_FAIL 2
+#define NOINT2_VERDICT_RECORD_MODIFIED 3 /* record edited after ridgecal wrote it */
+#define NOINT2_VERDICT NOINT2_VERDICT_NOT_JUDGED
+#define NOINT2_RECORD_SHA256 "7fc133853f16629f538f8a68184155d4bcaa8e98155813b90d5bf9758b820353" /* SHA-256 of the calibration record */
+#define NOINT2_CALIBRATION_DATE "2026-01-01T00:00:00Z" /* when the record was made, UTC; "" if it does not say */
 
 /* Status codes of the range-checked evaluation */
 #define NOINT2_IN_RANGE 0     /* input inside the valid range */
@@ -132,34 +146,48 @@ NOINT2_INLINE double noint2_eval_checked(double x, int *status)
     return noint2_eval(x);
 }
 
-/* CRC-32 of the coefficient table as stored in this program's memory.
-   Byte order: each entry's 64-bit pattern (IEEE 754), least significant
-   byte first, entries in index order -- the same on little- and big-endian
-   targets. Bitwise (no table). Call it at start-up via noint2_check_table(). */
+/* Self-check of every constant the evaluation uses: CRC-32 (IEEE) over
+   NOINT2_TABLE_CRC32's list, each value's bit pattern (IEEE 754 binary64; integers two's complement),
+   least significant byte first -- the same on little- and big-endian targets.
+   Bitwise (no table). Call it at start-up via noint2_check_table(). */
+NOINT2_INLINE uint32_t noint2_crc32_step(uint32_t crc, uint64_t bits, unsigned n)
+{
+    unsigned b, i;
+    for (b = 0U; b < n; ++b) {
+        crc ^= (uint32_t)((bits >> (8U * b)) & 0xFFU);
+        for (i = 0U; i < 8U; ++i) {
+            if ((crc & 1U) != 0U)
+                crc = (crc >> 1) ^ (uint32_t)0xEDB88320UL;
+            else
+                crc >>= 1;
+        }
+    }
+    return crc;
+}
+
+NOINT2_INLINE uint64_t noint2_bits_d(double d)
+{
+    union { double d; uint64_t u; } pun;
+    pun.u = 0U;
+    pun.d = d;
+    return pun.u;
+}
+
 NOINT2_INLINE uint32_t noint2_table_crc32(void)
 {
     uint32_t crc = 0xFFFFFFFFUL;
-    unsigned k, b, i;
-    for (k = 0U; k < (unsigned)(NOINT2_DEGREE + 1); ++k) {
-        union { double d; uint64_t u; } pun;
-        uint64_t bits;
-        pun.u = 0U;
-        pun.d = NOINT2_COEF[k];
-        bits = pun.u;
-        for (b = 0U; b < 8U; ++b) {
-            crc ^= (uint32_t)((bits >> (8U * b)) & 0xFFU);
-            for (i = 0U; i < 8U; ++i) {
-                if ((crc & 1U) != 0U)
-                    crc = (crc >> 1) ^ (uint32_t)0xEDB88320UL;
-                else
-                    crc >>= 1;
-            }
-        }
-    }
+    unsigned k;
+    for (k = 0U; k < (unsigned)(NOINT2_DEGREE + 1); ++k)
+        crc = noint2_crc32_step(crc, noint2_bits_d(NOINT2_COEF[k]), 8U);
+    crc = noint2_crc32_step(crc, noint2_bits_d(NOINT2_X_MIN), 8U);
+    crc = noint2_crc32_step(crc, noint2_bits_d(NOINT2_X_MAX), 8U);
+    crc = noint2_crc32_step(crc, noint2_bits_d(NOINT2_T_CENTER), 8U);
+    crc = noint2_crc32_step(crc, noint2_bits_d(NOINT2_T_SCALE), 8U);
+    crc = noint2_crc32_step(crc, (uint64_t)(uint32_t)(NOINT2_DEGREE), 4U);
     return crc ^ (uint32_t)0xFFFFFFFFUL;
 }
 
-/* Start-up self-check: NOINT2_TABLE_OK when the coefficient table is intact,
+/* Start-up self-check: NOINT2_TABLE_OK when every constant is intact,
    NOINT2_TABLE_CORRUPT otherwise, NOINT2_TABLE_UNCHECKABLE where double is not
    IEEE binary64 (e.g. avr-gcc, whose double is 32 bits). */
 NOINT2_INLINE int noint2_check_table(void)

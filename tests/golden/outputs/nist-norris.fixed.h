@@ -1,9 +1,9 @@
 /* ==========================================================================
  * GENERATED FILE -- DO NOT EDIT.
  * Written by ridgecal 0.1.0 (ridgecal export). Regenerate it from the calibration record
- * instead of editing: the coefficient CRC and the QA figures below would no
+ * instead of editing: the self-check CRC and the QA figures below would no
  * longer match.
- * Header format version 1 (NORRIS_FORMAT_VERSION).
+ * Header format version 2 (NORRIS_FORMAT_VERSION).
  * ==========================================================================
  *
  * Calibration QA
@@ -45,13 +45,28 @@
 
 #include <stdint.h>
 
-#define NORRIS_FORMAT_VERSION 1
+#define NORRIS_FORMAT_VERSION 2
 #define NORRIS_NUMERIC_FIXED 1
 #define NORRIS_DEGREE 1
 /* CRC-32 (IEEE: reflected 0xEDB88320, init and xorout 0xFFFFFFFF) over the
-   bit patterns of NORRIS_COEF[0..1], each least significant byte
-   first; see norris_table_crc32(). */
-#define NORRIS_TABLE_CRC32 0xB28A938AUL
+   bit patterns of every constant the evaluation uses, in this order
+   NORRIS_COEF[0..1], NORRIS_RAW_MIN, NORRIS_RAW_MAX, NORRIS_T_R0,
+   NORRIS_T_MUL, NORRIS_T_ADD, NORRIS_T_SHIFT, NORRIS_T_STEP_SHIFT[0..0],
+   NORRIS_OUT_SHIFT, NORRIS_DEGREE;
+   see norris_table_crc32(). */
+#define NORRIS_TABLE_CRC32 0x40E0703DUL
+
+/* The record behind this header, for compile-time checks, e.g.
+ *   #if NORRIS_VERDICT != NORRIS_VERDICT_PASS
+ *   #error "this calibration did not pass"
+ *   #endif */
+#define NORRIS_VERDICT_NOT_JUDGED 0 /* no tolerance in the record: nothing judged */
+#define NORRIS_VERDICT_PASS 1
+#define NORRIS_VERDICT_FAIL 2
+#define NORRIS_VERDICT_RECORD_MODIFIED 3 /* record edited after ridgecal wrote it */
+#define NORRIS_VERDICT NORRIS_VERDICT_NOT_JUDGED
+#define NORRIS_RECORD_SHA256 "babf005226584174675f84151dd8ef551deb26bb73240582f8800fb65691e7bb" /* SHA-256 of the calibration record */
+#define NORRIS_CALIBRATION_DATE "2026-01-01T00:00:00Z" /* when the record was made, UTC; "" if it does not say */
 
 /* Status codes of the range-checked evaluation */
 #define NORRIS_IN_RANGE 0     /* input inside the valid range */
@@ -90,6 +105,16 @@ static const int32_t NORRIS_COEF[NORRIS_DEGREE + 1] = {
     1024936221L  /* t^1, Q11 */
 };
 
+/* t_q = t * 2^30 = rshift_round((raw - NORRIS_T_R0) * NORRIS_T_MUL + NORRIS_T_ADD, NORRIS_T_SHIFT). */
+#define NORRIS_T_R0 ((int64_t)500L)
+#define NORRIS_T_MUL ((int64_t)1100832627L)
+#define NORRIS_T_ADD ((int64_t)440333051L)
+#define NORRIS_T_SHIFT 9U
+/* Shift after the product with t_q in Horner step k (entry k). */
+static const uint8_t NORRIS_T_STEP_SHIFT[1] = {31U};
+/* Final shift from Q10 to the output unit. */
+#define NORRIS_OUT_SHIFT 10U
+
 /* floor((v + 2^(s-1)) / 2^s), i.e. v / 2^s rounded half up, for
    -2^62 <= v + 2^(s-1) < 2^62 and 1 <= s <= 61. Only a non-negative value is
    shifted (v is offset by 2^62 first), so the result does not depend on how
@@ -119,10 +144,10 @@ NORRIS_INLINE int64_t norris_rshift_round(int64_t v, unsigned s)
  * bounds do not hold: use norris_eval_fixed_checked() for untrusted input. */
 NORRIS_INLINE int32_t norris_eval_fixed(int32_t raw)
 {
-    const int64_t t = norris_rshift_round(((int64_t)raw - (int64_t)500L) * (int64_t)1100832627L + (int64_t)440333051L, 9U);
+    const int64_t t = norris_rshift_round(((int64_t)raw - NORRIS_T_R0) * NORRIS_T_MUL + NORRIS_T_ADD, NORRIS_T_SHIFT);
     int64_t acc = (int64_t)NORRIS_COEF[1];
-    acc = norris_rshift_round(acc * t, 31U) + NORRIS_COEF[0];
-    return (int32_t)norris_rshift_round(acc, 10U);
+    acc = norris_rshift_round(acc * t, (unsigned)NORRIS_T_STEP_SHIFT[0]) + NORRIS_COEF[0];
+    return (int32_t)norris_rshift_round(acc, NORRIS_OUT_SHIFT);
 }
 
 /* norris_eval_fixed_checked: as norris_eval_fixed, but never leaves the raw range:
@@ -144,30 +169,45 @@ NORRIS_INLINE int32_t norris_eval_fixed_checked(int32_t raw, int *status)
     return norris_eval_fixed(raw);
 }
 
-/* CRC-32 of the coefficient table as stored in this program's memory.
-   Byte order: each entry's 32-bit pattern (two's complement), least significant
-   byte first, entries in index order -- the same on little- and big-endian
-   targets. Bitwise (no table). Call it at start-up via norris_check_table(). */
+/* Self-check of every constant the evaluation uses: CRC-32 (IEEE) over
+   NORRIS_TABLE_CRC32's list, each value's bit pattern (two's complement),
+   least significant byte first -- the same on little- and big-endian targets.
+   Bitwise (no table). Call it at start-up via norris_check_table(). */
+NORRIS_INLINE uint32_t norris_crc32_step(uint32_t crc, uint64_t bits, unsigned n)
+{
+    unsigned b, i;
+    for (b = 0U; b < n; ++b) {
+        crc ^= (uint32_t)((bits >> (8U * b)) & 0xFFU);
+        for (i = 0U; i < 8U; ++i) {
+            if ((crc & 1U) != 0U)
+                crc = (crc >> 1) ^ (uint32_t)0xEDB88320UL;
+            else
+                crc >>= 1;
+        }
+    }
+    return crc;
+}
+
 NORRIS_INLINE uint32_t norris_table_crc32(void)
 {
     uint32_t crc = 0xFFFFFFFFUL;
-    unsigned k, b, i;
-    for (k = 0U; k < (unsigned)(NORRIS_DEGREE + 1); ++k) {
-        uint32_t bits = (uint32_t)NORRIS_COEF[k];
-        for (b = 0U; b < 4U; ++b) {
-            crc ^= (uint32_t)((bits >> (8U * b)) & 0xFFU);
-            for (i = 0U; i < 8U; ++i) {
-                if ((crc & 1U) != 0U)
-                    crc = (crc >> 1) ^ (uint32_t)0xEDB88320UL;
-                else
-                    crc >>= 1;
-            }
-        }
-    }
+    unsigned k;
+    for (k = 0U; k < (unsigned)(NORRIS_DEGREE + 1); ++k)
+        crc = norris_crc32_step(crc, (uint64_t)(uint32_t)(NORRIS_COEF[k]), 4U);
+    crc = norris_crc32_step(crc, (uint64_t)(uint32_t)(NORRIS_RAW_MIN), 4U);
+    crc = norris_crc32_step(crc, (uint64_t)(uint32_t)(NORRIS_RAW_MAX), 4U);
+    crc = norris_crc32_step(crc, (uint64_t)(NORRIS_T_R0), 8U);
+    crc = norris_crc32_step(crc, (uint64_t)(NORRIS_T_MUL), 8U);
+    crc = norris_crc32_step(crc, (uint64_t)(NORRIS_T_ADD), 8U);
+    crc = norris_crc32_step(crc, (uint64_t)(uint32_t)(NORRIS_T_SHIFT), 4U);
+    for (k = 0U; k < (unsigned)(1); ++k)
+        crc = norris_crc32_step(crc, (uint64_t)NORRIS_T_STEP_SHIFT[k], 1U);
+    crc = norris_crc32_step(crc, (uint64_t)(uint32_t)(NORRIS_OUT_SHIFT), 4U);
+    crc = norris_crc32_step(crc, (uint64_t)(uint32_t)(NORRIS_DEGREE), 4U);
     return crc ^ (uint32_t)0xFFFFFFFFUL;
 }
 
-/* Start-up self-check: NORRIS_TABLE_OK when the coefficient table is intact,
+/* Start-up self-check: NORRIS_TABLE_OK when every constant is intact,
    NORRIS_TABLE_CORRUPT otherwise. */
 NORRIS_INLINE int norris_check_table(void)
 {

@@ -1,9 +1,9 @@
 /* ==========================================================================
  * GENERATED FILE -- DO NOT EDIT.
  * Written by ridgecal 0.1.0 (ridgecal export). Regenerate it from the calibration record
- * instead of editing: the coefficient CRC and the QA figures below would no
+ * instead of editing: the self-check CRC and the QA figures below would no
  * longer match.
- * Header format version 1 (NORRIS_FORMAT_VERSION).
+ * Header format version 2 (NORRIS_FORMAT_VERSION).
  * ==========================================================================
  *
  * Calibration QA
@@ -45,13 +45,26 @@
 
 #include <stdint.h>
 
-#define NORRIS_FORMAT_VERSION 1
+#define NORRIS_FORMAT_VERSION 2
 #define NORRIS_NUMERIC_FLOAT 1
 #define NORRIS_DEGREE 1
 /* CRC-32 (IEEE: reflected 0xEDB88320, init and xorout 0xFFFFFFFF) over the
-   bit patterns of NORRIS_COEF[0..1], each least significant byte
-   first; see norris_table_crc32(). */
-#define NORRIS_TABLE_CRC32 0x310EEC91UL
+   bit patterns of every constant the evaluation uses, in this order
+   NORRIS_COEF[0..1], NORRIS_X_MIN, NORRIS_X_MAX, NORRIS_DEGREE;
+   see norris_table_crc32(). */
+#define NORRIS_TABLE_CRC32 0x74311C17UL
+
+/* The record behind this header, for compile-time checks, e.g.
+ *   #if NORRIS_VERDICT != NORRIS_VERDICT_PASS
+ *   #error "this calibration did not pass"
+ *   #endif */
+#define NORRIS_VERDICT_NOT_JUDGED 0 /* no tolerance in the record: nothing judged */
+#define NORRIS_VERDICT_PASS 1
+#define NORRIS_VERDICT_FAIL 2
+#define NORRIS_VERDICT_RECORD_MODIFIED 3 /* record edited after ridgecal wrote it */
+#define NORRIS_VERDICT NORRIS_VERDICT_NOT_JUDGED
+#define NORRIS_RECORD_SHA256 "babf005226584174675f84151dd8ef551deb26bb73240582f8800fb65691e7bb" /* SHA-256 of the calibration record */
+#define NORRIS_CALIBRATION_DATE "2026-01-01T00:00:00Z" /* when the record was made, UTC; "" if it does not say */
 
 /* Status codes of the range-checked evaluation */
 #define NORRIS_IN_RANGE 0     /* input inside the valid range */
@@ -128,33 +141,45 @@ NORRIS_INLINE float norris_eval_checked(float x, int *status)
     return norris_eval(x);
 }
 
-/* CRC-32 of the coefficient table as stored in this program's memory.
-   Byte order: each entry's 32-bit pattern (IEEE 754), least significant
-   byte first, entries in index order -- the same on little- and big-endian
-   targets. Bitwise (no table). Call it at start-up via norris_check_table(). */
+/* Self-check of every constant the evaluation uses: CRC-32 (IEEE) over
+   NORRIS_TABLE_CRC32's list, each value's bit pattern (IEEE 754 binary32; integers two's complement),
+   least significant byte first -- the same on little- and big-endian targets.
+   Bitwise (no table). Call it at start-up via norris_check_table(). */
+NORRIS_INLINE uint32_t norris_crc32_step(uint32_t crc, uint64_t bits, unsigned n)
+{
+    unsigned b, i;
+    for (b = 0U; b < n; ++b) {
+        crc ^= (uint32_t)((bits >> (8U * b)) & 0xFFU);
+        for (i = 0U; i < 8U; ++i) {
+            if ((crc & 1U) != 0U)
+                crc = (crc >> 1) ^ (uint32_t)0xEDB88320UL;
+            else
+                crc >>= 1;
+        }
+    }
+    return crc;
+}
+
+NORRIS_INLINE uint64_t norris_bits_f(float f)
+{
+    union { float f; uint32_t u; } pun;
+    pun.f = f;
+    return pun.u;
+}
+
 NORRIS_INLINE uint32_t norris_table_crc32(void)
 {
     uint32_t crc = 0xFFFFFFFFUL;
-    unsigned k, b, i;
-    for (k = 0U; k < (unsigned)(NORRIS_DEGREE + 1); ++k) {
-        union { float f; uint32_t u; } pun;
-        uint32_t bits;
-        pun.f = NORRIS_COEF[k];
-        bits = pun.u;
-        for (b = 0U; b < 4U; ++b) {
-            crc ^= (uint32_t)((bits >> (8U * b)) & 0xFFU);
-            for (i = 0U; i < 8U; ++i) {
-                if ((crc & 1U) != 0U)
-                    crc = (crc >> 1) ^ (uint32_t)0xEDB88320UL;
-                else
-                    crc >>= 1;
-            }
-        }
-    }
+    unsigned k;
+    for (k = 0U; k < (unsigned)(NORRIS_DEGREE + 1); ++k)
+        crc = norris_crc32_step(crc, norris_bits_f(NORRIS_COEF[k]), 4U);
+    crc = norris_crc32_step(crc, norris_bits_f(NORRIS_X_MIN), 4U);
+    crc = norris_crc32_step(crc, norris_bits_f(NORRIS_X_MAX), 4U);
+    crc = norris_crc32_step(crc, (uint64_t)(uint32_t)(NORRIS_DEGREE), 4U);
     return crc ^ (uint32_t)0xFFFFFFFFUL;
 }
 
-/* Start-up self-check: NORRIS_TABLE_OK when the coefficient table is intact,
+/* Start-up self-check: NORRIS_TABLE_OK when every constant is intact,
    NORRIS_TABLE_CORRUPT otherwise. */
 NORRIS_INLINE int norris_check_table(void)
 {

@@ -1,9 +1,9 @@
 /* ==========================================================================
  * GENERATED FILE -- DO NOT EDIT.
  * Written by ridgecal 0.1.0 (ridgecal export). Regenerate it from the calibration record
- * instead of editing: the coefficient CRC and the QA figures below would no
+ * instead of editing: the self-check CRC and the QA figures below would no
  * longer match.
- * Header format version 1 (PONTIUS_FORMAT_VERSION).
+ * Header format version 2 (PONTIUS_FORMAT_VERSION).
  * ==========================================================================
  *
  * Calibration QA
@@ -45,13 +45,28 @@
 
 #include <stdint.h>
 
-#define PONTIUS_FORMAT_VERSION 1
+#define PONTIUS_FORMAT_VERSION 2
 #define PONTIUS_NUMERIC_FIXED 1
 #define PONTIUS_DEGREE 2
 /* CRC-32 (IEEE: reflected 0xEDB88320, init and xorout 0xFFFFFFFF) over the
-   bit patterns of PONTIUS_COEF[0..2], each least significant byte
-   first; see pontius_table_crc32(). */
-#define PONTIUS_TABLE_CRC32 0x5DBBA22BUL
+   bit patterns of every constant the evaluation uses, in this order
+   PONTIUS_COEF[0..2], PONTIUS_RAW_MIN, PONTIUS_RAW_MAX, PONTIUS_T_R0,
+   PONTIUS_T_MUL, PONTIUS_T_ADD, PONTIUS_T_SHIFT,
+   PONTIUS_T_STEP_SHIFT[0..1], PONTIUS_OUT_SHIFT, PONTIUS_DEGREE;
+   see pontius_table_crc32(). */
+#define PONTIUS_TABLE_CRC32 0xD54AA01CUL
+
+/* The record behind this header, for compile-time checks, e.g.
+ *   #if PONTIUS_VERDICT != PONTIUS_VERDICT_PASS
+ *   #error "this calibration did not pass"
+ *   #endif */
+#define PONTIUS_VERDICT_NOT_JUDGED 0 /* no tolerance in the record: nothing judged */
+#define PONTIUS_VERDICT_PASS 1
+#define PONTIUS_VERDICT_FAIL 2
+#define PONTIUS_VERDICT_RECORD_MODIFIED 3 /* record edited after ridgecal wrote it */
+#define PONTIUS_VERDICT PONTIUS_VERDICT_NOT_JUDGED
+#define PONTIUS_RECORD_SHA256 "7718125f227e93978bd1c41b9a7fbfe57b44c704a0a1a43f2d4fe63db1463f26" /* SHA-256 of the calibration record */
+#define PONTIUS_CALIBRATION_DATE "2026-01-01T00:00:00Z" /* when the record was made, UTC; "" if it does not say */
 
 /* Status codes of the range-checked evaluation */
 #define PONTIUS_IN_RANGE 0     /* input inside the valid range */
@@ -92,6 +107,16 @@ static const int32_t PONTIUS_COEF[PONTIUS_DEGREE + 1] = {
     -841277440L  /* t^2, Q17 */
 };
 
+/* t_q = t * 2^30 = rshift_round((raw - PONTIUS_T_R0) * PONTIUS_T_MUL + PONTIUS_T_ADD, PONTIUS_T_SHIFT). */
+#define PONTIUS_T_R0 ((int64_t)1575000L)
+#define PONTIUS_T_MUL ((int64_t)1580210396L)
+#define PONTIUS_T_ADD ((int64_t)0L)
+#define PONTIUS_T_SHIFT 21U
+/* Shift after the product with t_q in Horner step k (entry k). */
+static const uint8_t PONTIUS_T_STEP_SHIFT[2] = {32U, 37U};
+/* Final shift from Q8 to the output unit. */
+#define PONTIUS_OUT_SHIFT 8U
+
 /* floor((v + 2^(s-1)) / 2^s), i.e. v / 2^s rounded half up, for
    -2^62 <= v + 2^(s-1) < 2^62 and 1 <= s <= 61. Only a non-negative value is
    shifted (v is offset by 2^62 first), so the result does not depend on how
@@ -122,11 +147,11 @@ PONTIUS_INLINE int64_t pontius_rshift_round(int64_t v, unsigned s)
  * bounds do not hold: use pontius_eval_fixed_checked() for untrusted input. */
 PONTIUS_INLINE int32_t pontius_eval_fixed(int32_t raw)
 {
-    const int64_t t = pontius_rshift_round(((int64_t)raw - (int64_t)1575000L) * (int64_t)1580210396L + (int64_t)0L, 21U);
+    const int64_t t = pontius_rshift_round(((int64_t)raw - PONTIUS_T_R0) * PONTIUS_T_MUL + PONTIUS_T_ADD, PONTIUS_T_SHIFT);
     int64_t acc = (int64_t)PONTIUS_COEF[2];
-    acc = pontius_rshift_round(acc * t, 37U) + PONTIUS_COEF[1];
-    acc = pontius_rshift_round(acc * t, 32U) + PONTIUS_COEF[0];
-    return (int32_t)pontius_rshift_round(acc, 8U);
+    acc = pontius_rshift_round(acc * t, (unsigned)PONTIUS_T_STEP_SHIFT[1]) + PONTIUS_COEF[1];
+    acc = pontius_rshift_round(acc * t, (unsigned)PONTIUS_T_STEP_SHIFT[0]) + PONTIUS_COEF[0];
+    return (int32_t)pontius_rshift_round(acc, PONTIUS_OUT_SHIFT);
 }
 
 /* pontius_eval_fixed_checked: as pontius_eval_fixed, but never leaves the raw range:
@@ -148,30 +173,45 @@ PONTIUS_INLINE int32_t pontius_eval_fixed_checked(int32_t raw, int *status)
     return pontius_eval_fixed(raw);
 }
 
-/* CRC-32 of the coefficient table as stored in this program's memory.
-   Byte order: each entry's 32-bit pattern (two's complement), least significant
-   byte first, entries in index order -- the same on little- and big-endian
-   targets. Bitwise (no table). Call it at start-up via pontius_check_table(). */
+/* Self-check of every constant the evaluation uses: CRC-32 (IEEE) over
+   PONTIUS_TABLE_CRC32's list, each value's bit pattern (two's complement),
+   least significant byte first -- the same on little- and big-endian targets.
+   Bitwise (no table). Call it at start-up via pontius_check_table(). */
+PONTIUS_INLINE uint32_t pontius_crc32_step(uint32_t crc, uint64_t bits, unsigned n)
+{
+    unsigned b, i;
+    for (b = 0U; b < n; ++b) {
+        crc ^= (uint32_t)((bits >> (8U * b)) & 0xFFU);
+        for (i = 0U; i < 8U; ++i) {
+            if ((crc & 1U) != 0U)
+                crc = (crc >> 1) ^ (uint32_t)0xEDB88320UL;
+            else
+                crc >>= 1;
+        }
+    }
+    return crc;
+}
+
 PONTIUS_INLINE uint32_t pontius_table_crc32(void)
 {
     uint32_t crc = 0xFFFFFFFFUL;
-    unsigned k, b, i;
-    for (k = 0U; k < (unsigned)(PONTIUS_DEGREE + 1); ++k) {
-        uint32_t bits = (uint32_t)PONTIUS_COEF[k];
-        for (b = 0U; b < 4U; ++b) {
-            crc ^= (uint32_t)((bits >> (8U * b)) & 0xFFU);
-            for (i = 0U; i < 8U; ++i) {
-                if ((crc & 1U) != 0U)
-                    crc = (crc >> 1) ^ (uint32_t)0xEDB88320UL;
-                else
-                    crc >>= 1;
-            }
-        }
-    }
+    unsigned k;
+    for (k = 0U; k < (unsigned)(PONTIUS_DEGREE + 1); ++k)
+        crc = pontius_crc32_step(crc, (uint64_t)(uint32_t)(PONTIUS_COEF[k]), 4U);
+    crc = pontius_crc32_step(crc, (uint64_t)(uint32_t)(PONTIUS_RAW_MIN), 4U);
+    crc = pontius_crc32_step(crc, (uint64_t)(uint32_t)(PONTIUS_RAW_MAX), 4U);
+    crc = pontius_crc32_step(crc, (uint64_t)(PONTIUS_T_R0), 8U);
+    crc = pontius_crc32_step(crc, (uint64_t)(PONTIUS_T_MUL), 8U);
+    crc = pontius_crc32_step(crc, (uint64_t)(PONTIUS_T_ADD), 8U);
+    crc = pontius_crc32_step(crc, (uint64_t)(uint32_t)(PONTIUS_T_SHIFT), 4U);
+    for (k = 0U; k < (unsigned)(2); ++k)
+        crc = pontius_crc32_step(crc, (uint64_t)PONTIUS_T_STEP_SHIFT[k], 1U);
+    crc = pontius_crc32_step(crc, (uint64_t)(uint32_t)(PONTIUS_OUT_SHIFT), 4U);
+    crc = pontius_crc32_step(crc, (uint64_t)(uint32_t)(PONTIUS_DEGREE), 4U);
     return crc ^ (uint32_t)0xFFFFFFFFUL;
 }
 
-/* Start-up self-check: PONTIUS_TABLE_OK when the coefficient table is intact,
+/* Start-up self-check: PONTIUS_TABLE_OK when every constant is intact,
    PONTIUS_TABLE_CORRUPT otherwise. */
 PONTIUS_INLINE int pontius_check_table(void)
 {

@@ -1,9 +1,9 @@
 /* ==========================================================================
  * GENERATED FILE -- DO NOT EDIT.
  * Written by ridgecal 0.1.0 (ridgecal export). Regenerate it from the calibration record
- * instead of editing: the coefficient CRC and the QA figures below would no
+ * instead of editing: the self-check CRC and the QA figures below would no
  * longer match.
- * Header format version 1 (PONTIUS_FORMAT_VERSION).
+ * Header format version 2 (PONTIUS_FORMAT_VERSION).
  * ==========================================================================
  *
  * Calibration QA
@@ -45,13 +45,26 @@
 
 #include <stdint.h>
 
-#define PONTIUS_FORMAT_VERSION 1
+#define PONTIUS_FORMAT_VERSION 2
 #define PONTIUS_NUMERIC_FLOAT 1
 #define PONTIUS_DEGREE 2
 /* CRC-32 (IEEE: reflected 0xEDB88320, init and xorout 0xFFFFFFFF) over the
-   bit patterns of PONTIUS_COEF[0..2], each least significant byte
-   first; see pontius_table_crc32(). */
-#define PONTIUS_TABLE_CRC32 0xA1448148UL
+   bit patterns of every constant the evaluation uses, in this order
+   PONTIUS_COEF[0..2], PONTIUS_X_MIN, PONTIUS_X_MAX, PONTIUS_DEGREE;
+   see pontius_table_crc32(). */
+#define PONTIUS_TABLE_CRC32 0xE99E9BF7UL
+
+/* The record behind this header, for compile-time checks, e.g.
+ *   #if PONTIUS_VERDICT != PONTIUS_VERDICT_PASS
+ *   #error "this calibration did not pass"
+ *   #endif */
+#define PONTIUS_VERDICT_NOT_JUDGED 0 /* no tolerance in the record: nothing judged */
+#define PONTIUS_VERDICT_PASS 1
+#define PONTIUS_VERDICT_FAIL 2
+#define PONTIUS_VERDICT_RECORD_MODIFIED 3 /* record edited after ridgecal wrote it */
+#define PONTIUS_VERDICT PONTIUS_VERDICT_NOT_JUDGED
+#define PONTIUS_RECORD_SHA256 "7718125f227e93978bd1c41b9a7fbfe57b44c704a0a1a43f2d4fe63db1463f26" /* SHA-256 of the calibration record */
+#define PONTIUS_CALIBRATION_DATE "2026-01-01T00:00:00Z" /* when the record was made, UTC; "" if it does not say */
 
 /* Status codes of the range-checked evaluation */
 #define PONTIUS_IN_RANGE 0     /* input inside the valid range */
@@ -130,33 +143,45 @@ PONTIUS_INLINE float pontius_eval_checked(float x, int *status)
     return pontius_eval(x);
 }
 
-/* CRC-32 of the coefficient table as stored in this program's memory.
-   Byte order: each entry's 32-bit pattern (IEEE 754), least significant
-   byte first, entries in index order -- the same on little- and big-endian
-   targets. Bitwise (no table). Call it at start-up via pontius_check_table(). */
+/* Self-check of every constant the evaluation uses: CRC-32 (IEEE) over
+   PONTIUS_TABLE_CRC32's list, each value's bit pattern (IEEE 754 binary32; integers two's complement),
+   least significant byte first -- the same on little- and big-endian targets.
+   Bitwise (no table). Call it at start-up via pontius_check_table(). */
+PONTIUS_INLINE uint32_t pontius_crc32_step(uint32_t crc, uint64_t bits, unsigned n)
+{
+    unsigned b, i;
+    for (b = 0U; b < n; ++b) {
+        crc ^= (uint32_t)((bits >> (8U * b)) & 0xFFU);
+        for (i = 0U; i < 8U; ++i) {
+            if ((crc & 1U) != 0U)
+                crc = (crc >> 1) ^ (uint32_t)0xEDB88320UL;
+            else
+                crc >>= 1;
+        }
+    }
+    return crc;
+}
+
+PONTIUS_INLINE uint64_t pontius_bits_f(float f)
+{
+    union { float f; uint32_t u; } pun;
+    pun.f = f;
+    return pun.u;
+}
+
 PONTIUS_INLINE uint32_t pontius_table_crc32(void)
 {
     uint32_t crc = 0xFFFFFFFFUL;
-    unsigned k, b, i;
-    for (k = 0U; k < (unsigned)(PONTIUS_DEGREE + 1); ++k) {
-        union { float f; uint32_t u; } pun;
-        uint32_t bits;
-        pun.f = PONTIUS_COEF[k];
-        bits = pun.u;
-        for (b = 0U; b < 4U; ++b) {
-            crc ^= (uint32_t)((bits >> (8U * b)) & 0xFFU);
-            for (i = 0U; i < 8U; ++i) {
-                if ((crc & 1U) != 0U)
-                    crc = (crc >> 1) ^ (uint32_t)0xEDB88320UL;
-                else
-                    crc >>= 1;
-            }
-        }
-    }
+    unsigned k;
+    for (k = 0U; k < (unsigned)(PONTIUS_DEGREE + 1); ++k)
+        crc = pontius_crc32_step(crc, pontius_bits_f(PONTIUS_COEF[k]), 4U);
+    crc = pontius_crc32_step(crc, pontius_bits_f(PONTIUS_X_MIN), 4U);
+    crc = pontius_crc32_step(crc, pontius_bits_f(PONTIUS_X_MAX), 4U);
+    crc = pontius_crc32_step(crc, (uint64_t)(uint32_t)(PONTIUS_DEGREE), 4U);
     return crc ^ (uint32_t)0xFFFFFFFFUL;
 }
 
-/* Start-up self-check: PONTIUS_TABLE_OK when the coefficient table is intact,
+/* Start-up self-check: PONTIUS_TABLE_OK when every constant is intact,
    PONTIUS_TABLE_CORRUPT otherwise. */
 PONTIUS_INLINE int pontius_check_table(void)
 {

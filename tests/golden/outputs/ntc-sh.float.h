@@ -1,9 +1,9 @@
 /* ==========================================================================
  * GENERATED FILE -- DO NOT EDIT.
  * Written by ridgecal 0.1.0 (ridgecal export). Regenerate it from the calibration record
- * instead of editing: the coefficient CRC and the QA figures below would no
+ * instead of editing: the self-check CRC and the QA figures below would no
  * longer match.
- * Header format version 1 (NTC_FORMAT_VERSION).
+ * Header format version 2 (NTC_FORMAT_VERSION).
  * ==========================================================================
  *
  * Calibration QA (extended model, transforms)
@@ -56,16 +56,31 @@
 #include <stdint.h>
 #include <math.h>
 
-#define NTC_FORMAT_VERSION 1
+#define NTC_FORMAT_VERSION 2
 #define NTC_NUMERIC_FLOAT 1
 #define NTC_EXTENDED_MODEL 1 /* transforms and/or aux input: see the functions */
 #define NTC_READING_DEGREE 3
 #define NTC_AUX_DEGREE 0
 #define NTC_N_COEF 4 /* (READING_DEGREE + 1) * (AUX_DEGREE + 1) */
 /* CRC-32 (IEEE: reflected 0xEDB88320, init and xorout 0xFFFFFFFF) over the
-   bit patterns of NTC_COEF[0..3], each least significant byte
-   first; see ntc_table_crc32(). */
-#define NTC_TABLE_CRC32 0x36FD982DUL
+   bit patterns of every constant the evaluation uses, in this order
+   NTC_COEF[0..3], NTC_X_MIN, NTC_X_MAX, NTC_DIVIDER_R,
+   NTC_DIVIDER_FULL_SCALE, NTC_T_CENTER, NTC_T_SCALE, NTC_KELVIN_OFFSET,
+   NTC_READING_DEGREE, NTC_AUX_DEGREE, NTC_N_COEF;
+   see ntc_table_crc32(). */
+#define NTC_TABLE_CRC32 0x999F98EFUL
+
+/* The record behind this header, for compile-time checks, e.g.
+ *   #if NTC_VERDICT != NTC_VERDICT_PASS
+ *   #error "this calibration did not pass"
+ *   #endif */
+#define NTC_VERDICT_NOT_JUDGED 0 /* no tolerance in the record: nothing judged */
+#define NTC_VERDICT_PASS 1
+#define NTC_VERDICT_FAIL 2
+#define NTC_VERDICT_RECORD_MODIFIED 3 /* record edited after ridgecal wrote it */
+#define NTC_VERDICT NTC_VERDICT_NOT_JUDGED
+#define NTC_RECORD_SHA256 "e0163534f62550ed6f6daf4a28a126348d4473d77f263bcecbf494423da9ff78" /* SHA-256 of the calibration record */
+#define NTC_CALIBRATION_DATE "2026-01-01T00:00:00Z" /* when the record was made, UTC; "" if it does not say */
 
 /* Status codes of the range-checked evaluation */
 #define NTC_IN_RANGE 0     /* input inside the valid range */
@@ -172,33 +187,52 @@ NTC_INLINE float ntc_eval_checked(float x, int *status)
     return ntc_eval(x);
 }
 
-/* CRC-32 of the coefficient table as stored in this program's memory.
-   Byte order: each entry's 32-bit pattern (IEEE 754), least significant
-   byte first, entries in index order -- the same on little- and big-endian
-   targets. Bitwise (no table). Call it at start-up via ntc_check_table(). */
+/* Self-check of every constant the evaluation uses: CRC-32 (IEEE) over
+   NTC_TABLE_CRC32's list, each value's bit pattern (IEEE 754 binary32; integers two's complement),
+   least significant byte first -- the same on little- and big-endian targets.
+   Bitwise (no table). Call it at start-up via ntc_check_table(). */
+NTC_INLINE uint32_t ntc_crc32_step(uint32_t crc, uint64_t bits, unsigned n)
+{
+    unsigned b, i;
+    for (b = 0U; b < n; ++b) {
+        crc ^= (uint32_t)((bits >> (8U * b)) & 0xFFU);
+        for (i = 0U; i < 8U; ++i) {
+            if ((crc & 1U) != 0U)
+                crc = (crc >> 1) ^ (uint32_t)0xEDB88320UL;
+            else
+                crc >>= 1;
+        }
+    }
+    return crc;
+}
+
+NTC_INLINE uint64_t ntc_bits_f(float f)
+{
+    union { float f; uint32_t u; } pun;
+    pun.f = f;
+    return pun.u;
+}
+
 NTC_INLINE uint32_t ntc_table_crc32(void)
 {
     uint32_t crc = 0xFFFFFFFFUL;
-    unsigned k, b, i;
-    for (k = 0U; k < (unsigned)(NTC_N_COEF); ++k) {
-        union { float f; uint32_t u; } pun;
-        uint32_t bits;
-        pun.f = NTC_COEF[k];
-        bits = pun.u;
-        for (b = 0U; b < 4U; ++b) {
-            crc ^= (uint32_t)((bits >> (8U * b)) & 0xFFU);
-            for (i = 0U; i < 8U; ++i) {
-                if ((crc & 1U) != 0U)
-                    crc = (crc >> 1) ^ (uint32_t)0xEDB88320UL;
-                else
-                    crc >>= 1;
-            }
-        }
-    }
+    unsigned k;
+    for (k = 0U; k < (unsigned)(NTC_N_COEF); ++k)
+        crc = ntc_crc32_step(crc, ntc_bits_f(NTC_COEF[k]), 4U);
+    crc = ntc_crc32_step(crc, ntc_bits_f(NTC_X_MIN), 4U);
+    crc = ntc_crc32_step(crc, ntc_bits_f(NTC_X_MAX), 4U);
+    crc = ntc_crc32_step(crc, ntc_bits_f(NTC_DIVIDER_R), 4U);
+    crc = ntc_crc32_step(crc, ntc_bits_f(NTC_DIVIDER_FULL_SCALE), 4U);
+    crc = ntc_crc32_step(crc, ntc_bits_f(NTC_T_CENTER), 4U);
+    crc = ntc_crc32_step(crc, ntc_bits_f(NTC_T_SCALE), 4U);
+    crc = ntc_crc32_step(crc, ntc_bits_f(NTC_KELVIN_OFFSET), 4U);
+    crc = ntc_crc32_step(crc, (uint64_t)(uint32_t)(NTC_READING_DEGREE), 4U);
+    crc = ntc_crc32_step(crc, (uint64_t)(uint32_t)(NTC_AUX_DEGREE), 4U);
+    crc = ntc_crc32_step(crc, (uint64_t)(uint32_t)(NTC_N_COEF), 4U);
     return crc ^ (uint32_t)0xFFFFFFFFUL;
 }
 
-/* Start-up self-check: NTC_TABLE_OK when the coefficient table is intact,
+/* Start-up self-check: NTC_TABLE_OK when every constant is intact,
    NTC_TABLE_CORRUPT otherwise. */
 NTC_INLINE int ntc_check_table(void)
 {

@@ -1,9 +1,9 @@
 /* ==========================================================================
  * GENERATED FILE -- DO NOT EDIT.
  * Written by ridgecal 0.1.0 (ridgecal export). Regenerate it from the calibration record
- * instead of editing: the coefficient CRC and the QA figures below would no
+ * instead of editing: the self-check CRC and the QA figures below would no
  * longer match.
- * Header format version 1 (NTC_FORMAT_VERSION).
+ * Header format version 2 (NTC_FORMAT_VERSION).
  * ==========================================================================
  *
  * Calibration QA
@@ -45,13 +45,27 @@
 
 #include <stdint.h>
 
-#define NTC_FORMAT_VERSION 1
+#define NTC_FORMAT_VERSION 2
 #define NTC_NUMERIC_FIXED 1
 #define NTC_DEGREE 5
 /* CRC-32 (IEEE: reflected 0xEDB88320, init and xorout 0xFFFFFFFF) over the
-   bit patterns of NTC_COEF[0..5], each least significant byte
-   first; see ntc_table_crc32(). */
-#define NTC_TABLE_CRC32 0xDDAC2B54UL
+   bit patterns of every constant the evaluation uses, in this order
+   NTC_COEF[0..5], NTC_RAW_MIN, NTC_RAW_MAX, NTC_T_R0, NTC_T_MUL, NTC_T_ADD,
+   NTC_T_SHIFT, NTC_T_STEP_SHIFT[0..4], NTC_OUT_SHIFT, NTC_DEGREE;
+   see ntc_table_crc32(). */
+#define NTC_TABLE_CRC32 0xEF8B4F96UL
+
+/* The record behind this header, for compile-time checks, e.g.
+ *   #if NTC_VERDICT != NTC_VERDICT_PASS
+ *   #error "this calibration did not pass"
+ *   #endif */
+#define NTC_VERDICT_NOT_JUDGED 0 /* no tolerance in the record: nothing judged */
+#define NTC_VERDICT_PASS 1
+#define NTC_VERDICT_FAIL 2
+#define NTC_VERDICT_RECORD_MODIFIED 3 /* record edited after ridgecal wrote it */
+#define NTC_VERDICT NTC_VERDICT_NOT_JUDGED
+#define NTC_RECORD_SHA256 "f229eff621bb4c4e71f019cb64339ceb9b1f4b3d0aee557bb685afd445c7d22b" /* SHA-256 of the calibration record */
+#define NTC_CALIBRATION_DATE "2026-01-01T00:00:00Z" /* when the record was made, UTC; "" if it does not say */
 
 /* Status codes of the range-checked evaluation */
 #define NTC_IN_RANGE 0     /* input inside the valid range */
@@ -98,6 +112,16 @@ static const int32_t NTC_COEF[NTC_DEGREE + 1] = {
     -988088495L  /* t^5, Q21 */
 };
 
+/* t_q = t * 2^30 = rshift_round((raw - NTC_T_R0) * NTC_T_MUL + NTC_T_ADD, NTC_T_SHIFT). */
+#define NTC_T_R0 ((int64_t)2232L)
+#define NTC_T_MUL ((int64_t)2027683961L)
+#define NTC_T_ADD ((int64_t)1013841981L)
+#define NTC_T_SHIFT 11U
+/* Shift after the product with t_q in Horner step k (entry k). */
+static const uint8_t NTC_T_STEP_SHIFT[5] = {30U, 33U, 30U, 33U, 30U};
+/* Final shift from Q15 to the output unit. */
+#define NTC_OUT_SHIFT 15U
+
 /* floor((v + 2^(s-1)) / 2^s), i.e. v / 2^s rounded half up, for
    -2^62 <= v + 2^(s-1) < 2^62 and 1 <= s <= 61. Only a non-negative value is
    shifted (v is offset by 2^62 first), so the result does not depend on how
@@ -131,14 +155,14 @@ NTC_INLINE int64_t ntc_rshift_round(int64_t v, unsigned s)
  * bounds do not hold: use ntc_eval_fixed_checked() for untrusted input. */
 NTC_INLINE int32_t ntc_eval_fixed(int32_t raw)
 {
-    const int64_t t = ntc_rshift_round(((int64_t)raw - (int64_t)2232L) * (int64_t)2027683961L + (int64_t)1013841981L, 11U);
+    const int64_t t = ntc_rshift_round(((int64_t)raw - NTC_T_R0) * NTC_T_MUL + NTC_T_ADD, NTC_T_SHIFT);
     int64_t acc = (int64_t)NTC_COEF[5];
-    acc = ntc_rshift_round(acc * t, 30U) + NTC_COEF[4];
-    acc = ntc_rshift_round(acc * t, 33U) + NTC_COEF[3];
-    acc = ntc_rshift_round(acc * t, 30U) + NTC_COEF[2];
-    acc = ntc_rshift_round(acc * t, 33U) + NTC_COEF[1];
-    acc = ntc_rshift_round(acc * t, 30U) + NTC_COEF[0];
-    return (int32_t)ntc_rshift_round(acc, 15U);
+    acc = ntc_rshift_round(acc * t, (unsigned)NTC_T_STEP_SHIFT[4]) + NTC_COEF[4];
+    acc = ntc_rshift_round(acc * t, (unsigned)NTC_T_STEP_SHIFT[3]) + NTC_COEF[3];
+    acc = ntc_rshift_round(acc * t, (unsigned)NTC_T_STEP_SHIFT[2]) + NTC_COEF[2];
+    acc = ntc_rshift_round(acc * t, (unsigned)NTC_T_STEP_SHIFT[1]) + NTC_COEF[1];
+    acc = ntc_rshift_round(acc * t, (unsigned)NTC_T_STEP_SHIFT[0]) + NTC_COEF[0];
+    return (int32_t)ntc_rshift_round(acc, NTC_OUT_SHIFT);
 }
 
 /* ntc_eval_fixed_checked: as ntc_eval_fixed, but never leaves the raw range:
@@ -160,30 +184,45 @@ NTC_INLINE int32_t ntc_eval_fixed_checked(int32_t raw, int *status)
     return ntc_eval_fixed(raw);
 }
 
-/* CRC-32 of the coefficient table as stored in this program's memory.
-   Byte order: each entry's 32-bit pattern (two's complement), least significant
-   byte first, entries in index order -- the same on little- and big-endian
-   targets. Bitwise (no table). Call it at start-up via ntc_check_table(). */
+/* Self-check of every constant the evaluation uses: CRC-32 (IEEE) over
+   NTC_TABLE_CRC32's list, each value's bit pattern (two's complement),
+   least significant byte first -- the same on little- and big-endian targets.
+   Bitwise (no table). Call it at start-up via ntc_check_table(). */
+NTC_INLINE uint32_t ntc_crc32_step(uint32_t crc, uint64_t bits, unsigned n)
+{
+    unsigned b, i;
+    for (b = 0U; b < n; ++b) {
+        crc ^= (uint32_t)((bits >> (8U * b)) & 0xFFU);
+        for (i = 0U; i < 8U; ++i) {
+            if ((crc & 1U) != 0U)
+                crc = (crc >> 1) ^ (uint32_t)0xEDB88320UL;
+            else
+                crc >>= 1;
+        }
+    }
+    return crc;
+}
+
 NTC_INLINE uint32_t ntc_table_crc32(void)
 {
     uint32_t crc = 0xFFFFFFFFUL;
-    unsigned k, b, i;
-    for (k = 0U; k < (unsigned)(NTC_DEGREE + 1); ++k) {
-        uint32_t bits = (uint32_t)NTC_COEF[k];
-        for (b = 0U; b < 4U; ++b) {
-            crc ^= (uint32_t)((bits >> (8U * b)) & 0xFFU);
-            for (i = 0U; i < 8U; ++i) {
-                if ((crc & 1U) != 0U)
-                    crc = (crc >> 1) ^ (uint32_t)0xEDB88320UL;
-                else
-                    crc >>= 1;
-            }
-        }
-    }
+    unsigned k;
+    for (k = 0U; k < (unsigned)(NTC_DEGREE + 1); ++k)
+        crc = ntc_crc32_step(crc, (uint64_t)(uint32_t)(NTC_COEF[k]), 4U);
+    crc = ntc_crc32_step(crc, (uint64_t)(uint32_t)(NTC_RAW_MIN), 4U);
+    crc = ntc_crc32_step(crc, (uint64_t)(uint32_t)(NTC_RAW_MAX), 4U);
+    crc = ntc_crc32_step(crc, (uint64_t)(NTC_T_R0), 8U);
+    crc = ntc_crc32_step(crc, (uint64_t)(NTC_T_MUL), 8U);
+    crc = ntc_crc32_step(crc, (uint64_t)(NTC_T_ADD), 8U);
+    crc = ntc_crc32_step(crc, (uint64_t)(uint32_t)(NTC_T_SHIFT), 4U);
+    for (k = 0U; k < (unsigned)(5); ++k)
+        crc = ntc_crc32_step(crc, (uint64_t)NTC_T_STEP_SHIFT[k], 1U);
+    crc = ntc_crc32_step(crc, (uint64_t)(uint32_t)(NTC_OUT_SHIFT), 4U);
+    crc = ntc_crc32_step(crc, (uint64_t)(uint32_t)(NTC_DEGREE), 4U);
     return crc ^ (uint32_t)0xFFFFFFFFUL;
 }
 
-/* Start-up self-check: NTC_TABLE_OK when the coefficient table is intact,
+/* Start-up self-check: NTC_TABLE_OK when every constant is intact,
    NTC_TABLE_CORRUPT otherwise. */
 NTC_INLINE int ntc_check_table(void)
 {

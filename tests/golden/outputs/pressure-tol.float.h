@@ -1,9 +1,9 @@
 /* ==========================================================================
  * GENERATED FILE -- DO NOT EDIT.
  * Written by ridgecal 0.1.0 (ridgecal export). Regenerate it from the calibration record
- * instead of editing: the coefficient CRC and the QA figures below would no
+ * instead of editing: the self-check CRC and the QA figures below would no
  * longer match.
- * Header format version 1 (PT7_FORMAT_VERSION).
+ * Header format version 2 (PT7_FORMAT_VERSION).
  * ==========================================================================
  *
  * Calibration QA (extended model, second input aux)
@@ -50,7 +50,7 @@
 
 #include <stdint.h>
 
-#define PT7_FORMAT_VERSION 1
+#define PT7_FORMAT_VERSION 2
 #define PT7_NUMERIC_FLOAT 1
 #define PT7_EXTENDED_MODEL 1 /* transforms and/or aux input: see the functions */
 #define PT7_HAS_AUX 1 /* the functions take (reading, aux) */
@@ -58,9 +58,24 @@
 #define PT7_AUX_DEGREE 3
 #define PT7_N_COEF 12 /* (READING_DEGREE + 1) * (AUX_DEGREE + 1) */
 /* CRC-32 (IEEE: reflected 0xEDB88320, init and xorout 0xFFFFFFFF) over the
-   bit patterns of PT7_COEF[0..11], each least significant byte
-   first; see pt7_table_crc32(). */
-#define PT7_TABLE_CRC32 0xD1F47C1BUL
+   bit patterns of every constant the evaluation uses, in this order
+   PT7_COEF[0..11], PT7_X_MIN, PT7_X_MAX, PT7_AUX_MIN, PT7_AUX_MAX,
+   PT7_T_CENTER, PT7_T_SCALE, PT7_S_CENTER, PT7_S_SCALE, PT7_READING_DEGREE,
+   PT7_AUX_DEGREE, PT7_N_COEF;
+   see pt7_table_crc32(). */
+#define PT7_TABLE_CRC32 0x874EA0BCUL
+
+/* The record behind this header, for compile-time checks, e.g.
+ *   #if PT7_VERDICT != PT7_VERDICT_PASS
+ *   #error "this calibration did not pass"
+ *   #endif */
+#define PT7_VERDICT_NOT_JUDGED 0 /* no tolerance in the record: nothing judged */
+#define PT7_VERDICT_PASS 1
+#define PT7_VERDICT_FAIL 2
+#define PT7_VERDICT_RECORD_MODIFIED 3 /* record edited after ridgecal wrote it */
+#define PT7_VERDICT PT7_VERDICT_PASS
+#define PT7_RECORD_SHA256 "1a015ff08c6bcfb67695b25a27e1e431f20ff7a88f7a58ea618a907c9d719e96" /* SHA-256 of the calibration record */
+#define PT7_CALIBRATION_DATE "2026-01-01T00:00:00Z" /* when the record was made, UTC; "" if it does not say */
 
 /* Status codes of the range-checked evaluation: the reading's code plus the aux input's code */
 #define PT7_IN_RANGE 0     /* input inside the valid range */
@@ -193,33 +208,53 @@ PT7_INLINE float pt7_eval_checked(float x, float aux, int *status)
     return pt7_eval(x, aux);
 }
 
-/* CRC-32 of the coefficient table as stored in this program's memory.
-   Byte order: each entry's 32-bit pattern (IEEE 754), least significant
-   byte first, entries in index order -- the same on little- and big-endian
-   targets. Bitwise (no table). Call it at start-up via pt7_check_table(). */
+/* Self-check of every constant the evaluation uses: CRC-32 (IEEE) over
+   PT7_TABLE_CRC32's list, each value's bit pattern (IEEE 754 binary32; integers two's complement),
+   least significant byte first -- the same on little- and big-endian targets.
+   Bitwise (no table). Call it at start-up via pt7_check_table(). */
+PT7_INLINE uint32_t pt7_crc32_step(uint32_t crc, uint64_t bits, unsigned n)
+{
+    unsigned b, i;
+    for (b = 0U; b < n; ++b) {
+        crc ^= (uint32_t)((bits >> (8U * b)) & 0xFFU);
+        for (i = 0U; i < 8U; ++i) {
+            if ((crc & 1U) != 0U)
+                crc = (crc >> 1) ^ (uint32_t)0xEDB88320UL;
+            else
+                crc >>= 1;
+        }
+    }
+    return crc;
+}
+
+PT7_INLINE uint64_t pt7_bits_f(float f)
+{
+    union { float f; uint32_t u; } pun;
+    pun.f = f;
+    return pun.u;
+}
+
 PT7_INLINE uint32_t pt7_table_crc32(void)
 {
     uint32_t crc = 0xFFFFFFFFUL;
-    unsigned k, b, i;
-    for (k = 0U; k < (unsigned)(PT7_N_COEF); ++k) {
-        union { float f; uint32_t u; } pun;
-        uint32_t bits;
-        pun.f = PT7_COEF[k];
-        bits = pun.u;
-        for (b = 0U; b < 4U; ++b) {
-            crc ^= (uint32_t)((bits >> (8U * b)) & 0xFFU);
-            for (i = 0U; i < 8U; ++i) {
-                if ((crc & 1U) != 0U)
-                    crc = (crc >> 1) ^ (uint32_t)0xEDB88320UL;
-                else
-                    crc >>= 1;
-            }
-        }
-    }
+    unsigned k;
+    for (k = 0U; k < (unsigned)(PT7_N_COEF); ++k)
+        crc = pt7_crc32_step(crc, pt7_bits_f(PT7_COEF[k]), 4U);
+    crc = pt7_crc32_step(crc, pt7_bits_f(PT7_X_MIN), 4U);
+    crc = pt7_crc32_step(crc, pt7_bits_f(PT7_X_MAX), 4U);
+    crc = pt7_crc32_step(crc, pt7_bits_f(PT7_AUX_MIN), 4U);
+    crc = pt7_crc32_step(crc, pt7_bits_f(PT7_AUX_MAX), 4U);
+    crc = pt7_crc32_step(crc, pt7_bits_f(PT7_T_CENTER), 4U);
+    crc = pt7_crc32_step(crc, pt7_bits_f(PT7_T_SCALE), 4U);
+    crc = pt7_crc32_step(crc, pt7_bits_f(PT7_S_CENTER), 4U);
+    crc = pt7_crc32_step(crc, pt7_bits_f(PT7_S_SCALE), 4U);
+    crc = pt7_crc32_step(crc, (uint64_t)(uint32_t)(PT7_READING_DEGREE), 4U);
+    crc = pt7_crc32_step(crc, (uint64_t)(uint32_t)(PT7_AUX_DEGREE), 4U);
+    crc = pt7_crc32_step(crc, (uint64_t)(uint32_t)(PT7_N_COEF), 4U);
     return crc ^ (uint32_t)0xFFFFFFFFUL;
 }
 
-/* Start-up self-check: PT7_TABLE_OK when the coefficient table is intact,
+/* Start-up self-check: PT7_TABLE_OK when every constant is intact,
    PT7_TABLE_CORRUPT otherwise. */
 PT7_INLINE int pt7_check_table(void)
 {

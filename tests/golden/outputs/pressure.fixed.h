@@ -1,9 +1,9 @@
 /* ==========================================================================
  * GENERATED FILE -- DO NOT EDIT.
  * Written by ridgecal 0.1.0 (ridgecal export). Regenerate it from the calibration record
- * instead of editing: the coefficient CRC and the QA figures below would no
+ * instead of editing: the self-check CRC and the QA figures below would no
  * longer match.
- * Header format version 1 (PT7_FORMAT_VERSION).
+ * Header format version 2 (PT7_FORMAT_VERSION).
  * ==========================================================================
  *
  * Calibration QA (extended model, second input aux)
@@ -50,7 +50,7 @@
 
 #include <stdint.h>
 
-#define PT7_FORMAT_VERSION 1
+#define PT7_FORMAT_VERSION 2
 #define PT7_NUMERIC_FIXED 1
 #define PT7_EXTENDED_MODEL 1 /* transforms and/or aux input: see the functions */
 #define PT7_HAS_AUX 1 /* the functions take (reading, aux) */
@@ -58,9 +58,26 @@
 #define PT7_AUX_DEGREE 3
 #define PT7_N_COEF 12 /* (READING_DEGREE + 1) * (AUX_DEGREE + 1) */
 /* CRC-32 (IEEE: reflected 0xEDB88320, init and xorout 0xFFFFFFFF) over the
-   bit patterns of PT7_COEF[0..11], each least significant byte
-   first; see pt7_table_crc32(). */
-#define PT7_TABLE_CRC32 0xA601B6DFUL
+   bit patterns of every constant the evaluation uses, in this order
+   PT7_COEF[0..11], PT7_RAW_MIN, PT7_RAW_MAX, PT7_AUX_RAW_MIN,
+   PT7_AUX_RAW_MAX, PT7_T_R0, PT7_T_MUL, PT7_T_ADD, PT7_T_SHIFT, PT7_S_R0,
+   PT7_S_MUL, PT7_S_ADD, PT7_S_SHIFT, PT7_T_STEP_SHIFT[0..1],
+   PT7_S_STEP_SHIFT[0..8], PT7_OUT_SHIFT, PT7_READING_DEGREE,
+   PT7_AUX_DEGREE, PT7_N_COEF;
+   see pt7_table_crc32(). */
+#define PT7_TABLE_CRC32 0x4181F906UL
+
+/* The record behind this header, for compile-time checks, e.g.
+ *   #if PT7_VERDICT != PT7_VERDICT_PASS
+ *   #error "this calibration did not pass"
+ *   #endif */
+#define PT7_VERDICT_NOT_JUDGED 0 /* no tolerance in the record: nothing judged */
+#define PT7_VERDICT_PASS 1
+#define PT7_VERDICT_FAIL 2
+#define PT7_VERDICT_RECORD_MODIFIED 3 /* record edited after ridgecal wrote it */
+#define PT7_VERDICT PT7_VERDICT_NOT_JUDGED
+#define PT7_RECORD_SHA256 "e615c95d117856cae2e6dff606ad90bb9cdf2577470020190b2aebfc07c0c48c" /* SHA-256 of the calibration record */
+#define PT7_CALIBRATION_DATE "2026-01-01T00:00:00Z" /* when the record was made, UTC; "" if it does not say */
 
 /* Status codes of the range-checked evaluation: the reading's code plus the aux input's code */
 #define PT7_IN_RANGE 0     /* input inside the valid range */
@@ -114,6 +131,23 @@ static const int32_t PT7_COEF[PT7_N_COEF] = {
     628848760L  /* t^2 s^3, Q22 */
 };
 
+/* t_q = t * 2^30 = rshift_round((raw - PT7_T_R0) * PT7_T_MUL + PT7_T_ADD, PT7_T_SHIFT). */
+#define PT7_T_R0 ((int64_t)32824L)
+#define PT7_T_MUL ((int64_t)1304901007L)
+#define PT7_T_ADD ((int64_t)-326225252L)
+#define PT7_T_SHIFT 15U
+/* s_q = s * 2^30 = rshift_round((raw_aux - PT7_S_R0) * PT7_S_MUL + PT7_S_ADD, PT7_S_SHIFT). */
+#define PT7_S_R0 ((int64_t)2967L)
+#define PT7_S_MUL ((int64_t)1752209765L)
+#define PT7_S_ADD ((int64_t)0L)
+#define PT7_S_SHIFT 13U
+/* Shift after the product with t_q in Horner step k (entry k). */
+static const uint8_t PT7_T_STEP_SHIFT[2] = {31U, 36U};
+/* Shift after the product with s_q, entry k * PT7_AUX_DEGREE + l (row k, step l). */
+static const uint8_t PT7_S_STEP_SHIFT[9] = {35U, 34U, 34U, 33U, 34U, 34U, 33U, 32U, 31U};
+/* Final shift from Q9 to the output unit. */
+#define PT7_OUT_SHIFT 9U
+
 /* floor((v + 2^(s-1)) / 2^s), i.e. v / 2^s rounded half up, for
    -2^62 <= v + 2^(s-1) < 2^62 and 1 <= s <= 61. Only a non-negative value is
    shifted (v is offset by 2^62 first), so the result does not depend on how
@@ -143,25 +177,25 @@ PT7_INLINE int64_t pt7_rshift_round(int64_t v, unsigned s)
  * bounds do not hold: use pt7_eval_fixed_checked() for untrusted input. */
 PT7_INLINE int32_t pt7_eval_fixed(int32_t raw, int32_t raw_aux)
 {
-    const int64_t t = pt7_rshift_round(((int64_t)raw - (int64_t)32824L) * (int64_t)1304901007L + (int64_t)-326225252L, 15U);
-    const int64_t s = pt7_rshift_round(((int64_t)raw_aux - (int64_t)2967L) * (int64_t)1752209765L + (int64_t)0L, 13U);
+    const int64_t t = pt7_rshift_round(((int64_t)raw - PT7_T_R0) * PT7_T_MUL + PT7_T_ADD, PT7_T_SHIFT);
+    const int64_t s = pt7_rshift_round(((int64_t)raw_aux - PT7_S_R0) * PT7_S_MUL + PT7_S_ADD, PT7_S_SHIFT);
     int64_t w, acc;
     w = (int64_t)PT7_COEF[11];
-    w = pt7_rshift_round(w * s, 31U) + PT7_COEF[10];
-    w = pt7_rshift_round(w * s, 32U) + PT7_COEF[9];
-    w = pt7_rshift_round(w * s, 33U) + PT7_COEF[8];
+    w = pt7_rshift_round(w * s, (unsigned)PT7_S_STEP_SHIFT[8]) + PT7_COEF[10];
+    w = pt7_rshift_round(w * s, (unsigned)PT7_S_STEP_SHIFT[7]) + PT7_COEF[9];
+    w = pt7_rshift_round(w * s, (unsigned)PT7_S_STEP_SHIFT[6]) + PT7_COEF[8];
     acc = w;
     w = (int64_t)PT7_COEF[7];
-    w = pt7_rshift_round(w * s, 34U) + PT7_COEF[6];
-    w = pt7_rshift_round(w * s, 34U) + PT7_COEF[5];
-    w = pt7_rshift_round(w * s, 33U) + PT7_COEF[4];
-    acc = pt7_rshift_round(acc * t, 36U) + w;
+    w = pt7_rshift_round(w * s, (unsigned)PT7_S_STEP_SHIFT[5]) + PT7_COEF[6];
+    w = pt7_rshift_round(w * s, (unsigned)PT7_S_STEP_SHIFT[4]) + PT7_COEF[5];
+    w = pt7_rshift_round(w * s, (unsigned)PT7_S_STEP_SHIFT[3]) + PT7_COEF[4];
+    acc = pt7_rshift_round(acc * t, (unsigned)PT7_T_STEP_SHIFT[1]) + w;
     w = (int64_t)PT7_COEF[3];
-    w = pt7_rshift_round(w * s, 34U) + PT7_COEF[2];
-    w = pt7_rshift_round(w * s, 34U) + PT7_COEF[1];
-    w = pt7_rshift_round(w * s, 35U) + PT7_COEF[0];
-    acc = pt7_rshift_round(acc * t, 31U) + w;
-    return (int32_t)pt7_rshift_round(acc, 9U);
+    w = pt7_rshift_round(w * s, (unsigned)PT7_S_STEP_SHIFT[2]) + PT7_COEF[2];
+    w = pt7_rshift_round(w * s, (unsigned)PT7_S_STEP_SHIFT[1]) + PT7_COEF[1];
+    w = pt7_rshift_round(w * s, (unsigned)PT7_S_STEP_SHIFT[0]) + PT7_COEF[0];
+    acc = pt7_rshift_round(acc * t, (unsigned)PT7_T_STEP_SHIFT[0]) + w;
+    return (int32_t)pt7_rshift_round(acc, PT7_OUT_SHIFT);
 }
 
 /* pt7_eval_fixed_checked: as pt7_eval_fixed, but never leaves the raw ranges:
@@ -191,30 +225,55 @@ PT7_INLINE int32_t pt7_eval_fixed_checked(int32_t raw, int32_t raw_aux, int *sta
     return pt7_eval_fixed(raw, raw_aux);
 }
 
-/* CRC-32 of the coefficient table as stored in this program's memory.
-   Byte order: each entry's 32-bit pattern (two's complement), least significant
-   byte first, entries in index order -- the same on little- and big-endian
-   targets. Bitwise (no table). Call it at start-up via pt7_check_table(). */
+/* Self-check of every constant the evaluation uses: CRC-32 (IEEE) over
+   PT7_TABLE_CRC32's list, each value's bit pattern (two's complement),
+   least significant byte first -- the same on little- and big-endian targets.
+   Bitwise (no table). Call it at start-up via pt7_check_table(). */
+PT7_INLINE uint32_t pt7_crc32_step(uint32_t crc, uint64_t bits, unsigned n)
+{
+    unsigned b, i;
+    for (b = 0U; b < n; ++b) {
+        crc ^= (uint32_t)((bits >> (8U * b)) & 0xFFU);
+        for (i = 0U; i < 8U; ++i) {
+            if ((crc & 1U) != 0U)
+                crc = (crc >> 1) ^ (uint32_t)0xEDB88320UL;
+            else
+                crc >>= 1;
+        }
+    }
+    return crc;
+}
+
 PT7_INLINE uint32_t pt7_table_crc32(void)
 {
     uint32_t crc = 0xFFFFFFFFUL;
-    unsigned k, b, i;
-    for (k = 0U; k < (unsigned)(PT7_N_COEF); ++k) {
-        uint32_t bits = (uint32_t)PT7_COEF[k];
-        for (b = 0U; b < 4U; ++b) {
-            crc ^= (uint32_t)((bits >> (8U * b)) & 0xFFU);
-            for (i = 0U; i < 8U; ++i) {
-                if ((crc & 1U) != 0U)
-                    crc = (crc >> 1) ^ (uint32_t)0xEDB88320UL;
-                else
-                    crc >>= 1;
-            }
-        }
-    }
+    unsigned k;
+    for (k = 0U; k < (unsigned)(PT7_N_COEF); ++k)
+        crc = pt7_crc32_step(crc, (uint64_t)(uint32_t)(PT7_COEF[k]), 4U);
+    crc = pt7_crc32_step(crc, (uint64_t)(uint32_t)(PT7_RAW_MIN), 4U);
+    crc = pt7_crc32_step(crc, (uint64_t)(uint32_t)(PT7_RAW_MAX), 4U);
+    crc = pt7_crc32_step(crc, (uint64_t)(uint32_t)(PT7_AUX_RAW_MIN), 4U);
+    crc = pt7_crc32_step(crc, (uint64_t)(uint32_t)(PT7_AUX_RAW_MAX), 4U);
+    crc = pt7_crc32_step(crc, (uint64_t)(PT7_T_R0), 8U);
+    crc = pt7_crc32_step(crc, (uint64_t)(PT7_T_MUL), 8U);
+    crc = pt7_crc32_step(crc, (uint64_t)(PT7_T_ADD), 8U);
+    crc = pt7_crc32_step(crc, (uint64_t)(uint32_t)(PT7_T_SHIFT), 4U);
+    crc = pt7_crc32_step(crc, (uint64_t)(PT7_S_R0), 8U);
+    crc = pt7_crc32_step(crc, (uint64_t)(PT7_S_MUL), 8U);
+    crc = pt7_crc32_step(crc, (uint64_t)(PT7_S_ADD), 8U);
+    crc = pt7_crc32_step(crc, (uint64_t)(uint32_t)(PT7_S_SHIFT), 4U);
+    for (k = 0U; k < (unsigned)(2); ++k)
+        crc = pt7_crc32_step(crc, (uint64_t)PT7_T_STEP_SHIFT[k], 1U);
+    for (k = 0U; k < (unsigned)(9); ++k)
+        crc = pt7_crc32_step(crc, (uint64_t)PT7_S_STEP_SHIFT[k], 1U);
+    crc = pt7_crc32_step(crc, (uint64_t)(uint32_t)(PT7_OUT_SHIFT), 4U);
+    crc = pt7_crc32_step(crc, (uint64_t)(uint32_t)(PT7_READING_DEGREE), 4U);
+    crc = pt7_crc32_step(crc, (uint64_t)(uint32_t)(PT7_AUX_DEGREE), 4U);
+    crc = pt7_crc32_step(crc, (uint64_t)(uint32_t)(PT7_N_COEF), 4U);
     return crc ^ (uint32_t)0xFFFFFFFFUL;
 }
 
-/* Start-up self-check: PT7_TABLE_OK when the coefficient table is intact,
+/* Start-up self-check: PT7_TABLE_OK when every constant is intact,
    PT7_TABLE_CORRUPT otherwise. */
 PT7_INLINE int pt7_check_table(void)
 {

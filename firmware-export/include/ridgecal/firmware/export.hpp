@@ -22,7 +22,22 @@ namespace ridgecal::firmware {
 
 /// Version of the generated header's contract (PREFIX_FORMAT_VERSION). Bump
 /// when names, signatures or semantics of the generated symbols change.
-inline constexpr int kHeaderFormatVersion = 1;
+/// 2: the self-check covers every constant of the evaluation (not only the
+/// coefficient table), the fixed-point mappings and shifts are named, and the
+/// record's verdict, digest and date are macros.
+inline constexpr int kHeaderFormatVersion = 2;
+
+/// The record's verdict as the header states it to the compiler
+/// (PREFIX_VERDICT), so that a firmware build can refuse a calibration that
+/// did not pass with `#if PREFIX_VERDICT != PREFIX_VERDICT_PASS`.
+enum class HeaderVerdict {
+  NotJudged,       ///< `not-judged`: the record has no tolerance (or no decision)
+  Pass,            ///< `pass`
+  Fail,            ///< `fail`
+  RecordModified,  ///< `record-modified`: the record was edited after it was written
+};
+std::string to_string(HeaderVerdict v);
+HeaderVerdict header_verdict_from_string(const std::string& s);  ///< throws std::invalid_argument
 
 /// ulps of log/logf result assumed for a target C library (glibc, newlib and
 /// avr-libc; see docs/firmware-export.md for what was measured).
@@ -87,6 +102,13 @@ struct HeaderMeta {
   /// The record's verdict, verbatim (the generator never judges), or a text
   /// saying that the record has none.
   std::string pass_fail;
+  /// The verdict for PREFIX_VERDICT (default: not judged). The generator
+  /// writes it; refusing a header for a record that did not pass is the
+  /// caller's rule (`ridgecal export`, `batch --headers`).
+  HeaderVerdict verdict = HeaderVerdict::NotJudged;
+  /// When the record was made (ISO 8601 UTC) for PREFIX_CALIBRATION_DATE; ""
+  /// when it does not say. Characters outside [0-9A-Za-z:.+-] become '?'.
+  std::string calibration_date;
   std::string record_sha256;                 ///< SHA-256 of the calibration record
   std::string tool_version;                  ///< e.g. "ridgecal 0.1.0"
   std::vector<double> calibration_readings;  ///< checked in the proof too
