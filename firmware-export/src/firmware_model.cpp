@@ -36,19 +36,6 @@ std::string surface_problem(const SurfaceModel& model) {
   return "";
 }
 
-// The N = 1 case of the general model back as the plain polynomial it came
-// from (same scaling, same Chebyshev coefficients: general_model()).
-PolyModel one_input_polynomial(const SurfaceModel& m) {
-  PolyModel p;
-  if (m.terms.empty()) return p;  // no coefficients: the adapter reports it
-  p.scaling.x_min = m.input.min;
-  p.scaling.x_max = m.input.max;
-  p.cheb.assign(static_cast<std::size_t>(m.reading_degree()) + 1, 0.0);
-  for (std::size_t q = 0; q < m.terms.size() && q < m.coefficients.size(); ++q)
-    p.cheb[static_cast<std::size_t>(m.terms[q].i)] = m.coefficients[q];
-  return p;
-}
-
 }  // namespace
 
 FirmwareModel firmware_model(const PolyModel& model) {
@@ -95,8 +82,8 @@ FirmwareModel firmware_model(const SurfaceModel& model) {
 }
 
 FirmwareModel firmware_model(const Calibration& cal) {
-  const SurfaceModel general = general_model(cal);
-  return is_extended(cal) ? firmware_model(general) : firmware_model(one_input_polynomial(general));
+  return is_extended(cal) ? firmware_model(cal.model)
+                          : firmware_model(one_input_polynomial(cal.model));
 }
 
 std::pair<double, double> raw_reading_range(const FirmwareModel& m) {

@@ -44,7 +44,7 @@ CalibrateResult calibrate(const Dataset& data, const CalibrateOptions& options) 
   rec.sensor = options.sensor;
   rec.input = InputInfo{data.file, data.sha256, data.rows.size(), data.columns};
   rec.calibration = std::move(fit.calibration);
-  assert(rec.calibration.surface.has_value() == extended);
+  assert(is_extended(rec.calibration) == extended);
   if (options.skip_unjudged_assessment && !options.assess.tolerance) return result;
   // The verdict is computed here and only here (assessment), and kept in the record.
   Assessment a = assess_calibration(data, rec.calibration, options.assess);

@@ -158,10 +158,10 @@ BOOST_AUTO_TEST_CASE(residual_pattern_by_runs_test) {
 
 BOOST_AUTO_TEST_CASE(non_monotonic) {
   Calibration cal;
-  cal.model.scaling = {-1.0, 1.0};
-  cal.model.cheb = {0.0, 1.0, 0.0, 0.5};  // t + 0.5 T3 = 2t^3 - 0.5t: slope < 0 near 0
+  // t + 0.5 T3 = 2t^3 - 0.5t: slope < 0 near 0
+  cal.model = one_input_model(PolyModel{{-1.0, 1.0}, {0.0, 1.0, 0.0, 0.5}});
   BOOST_TEST(has(check_monotonic(cal), DiagnosticCode::NonMonotonic));
-  cal.model.cheb = {0.0, 1.0, 0.0, 0.1};  // slope 0.7 + 1.2t^2 > 0
+  cal.model.coefficients = {0.0, 1.0, 0.0, 0.1};  // slope 0.7 + 1.2t^2 > 0
   BOOST_TEST(check_monotonic(cal).empty());
 }
 
@@ -203,8 +203,7 @@ BOOST_AUTO_TEST_CASE(high_condition_number) {
 
 BOOST_AUTO_TEST_CASE(extrapolation_outside_range) {
   Calibration cal;  // a one-input line over readings 10..20 (the N = 1 general model)
-  cal.model.scaling = {10.0, 20.0};
-  cal.model.cheb = {0.0, 1.0};
+  cal.model = one_input_model(PolyModel{{10.0, 20.0}, {0.0, 1.0}});
   const SurfaceModel m = general_model(cal);
   const auto w = check_extrapolation(m, {9.0, 15.0, 21.0}, {}, {3, 4, 5}, "as-found readings");
   BOOST_REQUIRE_EQUAL(w.size(), 1u);
@@ -245,7 +244,7 @@ BOOST_AUTO_TEST_CASE(clean_fits_rarely_warn) {
           x.code == DiagnosticCode::LackOfFit || x.code == DiagnosticCode::DriftBetweenRepeats;
       BOOST_TEST(statistical, "seed " << seed << ": " << x.message);
       alarm = alarm || statistical;
-      BOOST_TEST_MESSAGE("seed " << seed << " degree " << cal.model.degree() << " lambda "
+      BOOST_TEST_MESSAGE("seed " << seed << " degree " << cal.model.reading_degree() << " lambda "
                                  << cal.lambda << ": " << x.message);
     }
     if (alarm) ++chance_alarms;

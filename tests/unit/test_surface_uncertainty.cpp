@@ -120,7 +120,7 @@ BOOST_AUTO_TEST_CASE(degree_one_standard_error_matches_the_normal_equations) {
   const FitOutcome out = fit_plane(ds, 0.0, 0.0);
   BOOST_REQUIRE_MESSAGE(out.status.ok, out.status.message);
   const Calibration& cal = out.calibration;
-  BOOST_REQUIRE_EQUAL(cal.surface->terms.size(), 3u);
+  BOOST_REQUIRE_EQUAL(cal.model.terms.size(), 3u);
   const Normal3 ne = normal_equations(cal);
   const FitCovariance cov(cal);
   BOOST_TEST(cov.n() == ne.n);
@@ -204,7 +204,7 @@ BOOST_AUTO_TEST_CASE(ridge_variance_is_the_sandwich_form) {
   const FitOutcome out = fit_plane(ds, lambda, 0.0);
   BOOST_REQUIRE_MESSAGE(out.status.ok, out.status.message);
   const Calibration& cal = out.calibration;
-  const SurfaceModel& m = *cal.surface;
+  const SurfaceModel& m = cal.model;
   // Scaled, centred columns t and s (T_1 = identity); A = Xc'Xc + n lambda I.
   std::vector<double> ts, ss;
   for (const PointResult& p : cal.points)
@@ -324,7 +324,7 @@ BOOST_AUTO_TEST_CASE(diagnostics_flag_extrapolation_overfit_and_grid_edges) {
   const Dataset ds = plane_run(6, 5, 2, 0.02, 16);
   const FitOutcome out = fit_plane(ds, 0.0, 0.0);
   BOOST_REQUIRE_MESSAGE(out.status.ok, out.status.message);
-  const SurfaceModel& m = *out.calibration.surface;
+  const SurfaceModel& m = out.calibration.model;
   // Outside in the reading only, in aux only, and inside.
   const auto w =
       check_extrapolation(m, {1200.0, 500.0, 500.0}, {20.0, 90.0, 20.0}, {7, 8, 9}, "check points");
@@ -433,7 +433,7 @@ BOOST_AUTO_TEST_CASE(band_covers_fresh_errors) {
     const FitOutcome out = fit_compensated(ds, fit, comp);
     BOOST_REQUIRE_MESSAGE(out.status.ok, out.status.message);
     const UncertaintyEvaluator su(out.calibration, UncertaintyOptions{});
-    const SurfaceModel& m = *out.calibration.surface;
+    const SurfaceModel& m = out.calibration.model;
     std::size_t in_seed = 0;
     for (int k = 0; k < kFresh; ++k) {
       const double x = 100.0 + 800.0 * (0.5 + 0.5 * std::tanh(g.next()));

@@ -19,6 +19,7 @@
 #include <string>
 #include <vector>
 
+#include "ridgecal/poly_model.hpp"
 #include "ridgecal/transforms.hpp"
 
 namespace ridgecal {
@@ -87,6 +88,19 @@ struct SurfaceModel {
   /// Fills out[m] with the value of term m's basis function at (t, s) (scaled).
   void basis_row(double t, double s, double* out) const;
 };
+
+/// True for the one-input polynomial: no aux, Chebyshev basis, identity
+/// transforms (the terms are then (0,0)..(d,0), or a subset for a fit through
+/// the origin). False for every extended model.
+bool is_one_input_polynomial(const SurfaceModel& m);
+/// The one-input polynomial as the general model (the N = 1 case): Chebyshev
+/// basis, terms (0,0)..(d,0), identity transforms, the same scaling and
+/// coefficients.
+SurfaceModel one_input_model(const PolyModel& p);
+/// The inverse, as an evaluation helper for the derived coefficient forms
+/// (power_in_x) and the firmware writer. Precondition:
+/// is_one_input_polynomial(m). No terms: an empty polynomial.
+PolyModel one_input_polynomial(const SurfaceModel& m);
 
 /// Terms of degree <= d in the reading only: (0,0), (1,0), ... (d,0).
 std::vector<Term> terms_reading_only(int d);

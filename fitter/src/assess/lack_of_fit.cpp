@@ -55,7 +55,7 @@ std::vector<double> fitted_residuals(const Calibration& cal) {
 
 std::vector<RepeatGroup> training_groups(const Dataset& data, const Calibration& cal,
                                          bool with_test) {
-  const bool has_aux = cal.surface && cal.surface->has_aux;
+  const bool has_aux = cal.model.has_aux;
   const bool rows_match = data.rows.size() == cal.points.size();
   const std::vector<double> e = fitted_residuals(cal);
   std::vector<RepeatGroup> groups;

@@ -42,7 +42,6 @@ FitOutcome fit_model(const Dataset& data, const FitOptions& options,
   cal.split_options = options.split;
   const std::size_t n = data.rows.size();
   const Transforms& tr = comp.transforms;
-  const bool extended = comp.active();     // else the plain one-input polynomial (cal.model)
   const bool origin = !options.intercept;  // through the origin: plain fits only (validate)
 
   // Values: magnitudes (status), then the transforms' domains (InputError, with the line).
@@ -226,7 +225,7 @@ FitOutcome fit_model(const Dataset& data, const FitOptions& options,
   sel.scheme = split.scheme;
   sel.n_folds = K;
   sel.lambdas = lambdas;
-  if (extended) {
+  if (comp.active()) {
     sel.aux_degrees = aux_degrees;
     sel.powers = powers;
   }
@@ -418,13 +417,9 @@ FitOutcome fit_model(const Dataset& data, const FitOptions& options,
       return out;
     }
   model.coefficients = coef;
-  if (extended) {
-    cal.surface = model;
-    if (comp.aux && data.columns.aux_setpoint_column.empty()) cal.aux_step = comp.aux_step;
-  } else {
-    cal.model.scaling = Scaling{umin, umax};
-    cal.model.cheb = coef;  // terms (0,0), (1,0), ...: the Chebyshev coefficients in order
-  }
+  cal.model = std::move(model);  // every fit (the one-input polynomial: its N = 1 case)
+  if (comp.aux && data.columns.aux_setpoint_column.empty()) cal.aux_step = comp.aux_step;
+  assert(is_extended(cal) == comp.active());
 
   // Points and metrics.
   std::vector<double> tr_ref, tr_pred, va_ref, va_pred, te_ref, te_pred;
@@ -435,7 +430,7 @@ FitOutcome fit_model(const Dataset& data, const FitOptions& options,
     p.reading = x[r];
     p.reference = data.rows[r].reference;
     p.aux = comp.aux ? a[r] : kNaN;
-    p.predicted = extended ? model.eval(x[r], a[r]) : cal.model.eval(x[r]);
+    p.predicted = cal.model.eval(x[r], a[r]);
     p.error = p.predicted - p.reference;
     p.role = row_role[r];
     p.fold = row_fold[r];

@@ -67,7 +67,7 @@ std::string term_name(const Term& t, bool aux) {
 }  // namespace
 
 std::string surface_brief(const Calibration& cal) {
-  const SurfaceModel& m = *cal.surface;
+  const SurfaceModel& m = cal.model;
   std::string s;
   std::string shape;
   if (!cal.selection.powers.empty()) {
@@ -104,7 +104,7 @@ std::string surface_brief(const Calibration& cal) {
 }
 
 std::string surface_full(const Calibration& cal) {
-  const SurfaceModel& m = *cal.surface;
+  const SurfaceModel& m = cal.model;
   std::string s = fmt::format("{} coefficients (scaled variables):", to_string(m.basis));
   for (std::size_t q = 0; q < m.terms.size(); ++q)
     s += fmt::format(" {}:{:.17g}", term_name(m.terms[q], m.has_aux), m.coefficients[q]);

@@ -175,6 +175,32 @@ std::vector<std::vector<double>> SurfaceModel::power_in_raw() const {
   return out;
 }
 
+bool is_one_input_polynomial(const SurfaceModel& m) {
+  return !m.has_aux && m.basis == SurfaceBasis::Chebyshev && m.transforms.identity();
+}
+
+SurfaceModel one_input_model(const PolyModel& p) {
+  SurfaceModel m;
+  m.basis = SurfaceBasis::Chebyshev;
+  m.input =
+      AxisScaling{p.scaling.x_min, p.scaling.x_max, p.scaling.center(), p.scaling.half_width()};
+  m.terms = terms_reading_only(p.degree());
+  m.coefficients = p.cheb;
+  return m;
+}
+
+PolyModel one_input_polynomial(const SurfaceModel& m) {
+  assert(is_one_input_polynomial(m));
+  PolyModel p;
+  if (m.terms.empty()) return p;
+  p.scaling.x_min = m.input.min;
+  p.scaling.x_max = m.input.max;
+  p.cheb.assign(static_cast<std::size_t>(m.reading_degree()) + 1, 0.0);
+  for (std::size_t q = 0; q < m.terms.size() && q < m.coefficients.size(); ++q)
+    p.cheb[static_cast<std::size_t>(m.terms[q].i)] = m.coefficients[q];
+  return p;
+}
+
 std::vector<Term> terms_reading_only(int d) {
   std::vector<Term> t;
   for (int i = 0; i <= d; ++i) t.push_back({i, 0});

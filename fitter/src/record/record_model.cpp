@@ -237,22 +237,11 @@ struct Layout {
 constexpr Layout kPolynomial{"polynomial", polynomial_penalty, write_polynomial, read_polynomial};
 constexpr Layout kSurface{"surface", surface_penalty, write_surface, read_surface};
 
-// The inverse of general_model(): the general model back into the member the
-// layout uses (the polynomial is the N = 1 case: Chebyshev, terms (0,0)..(d,0)).
-void store_model(Calibration& cal, SurfaceModel m, bool extended) {
-  if (extended) {
-    cal.surface = std::move(m);
-    return;
-  }
-  cal.model.scaling = Scaling{m.input.min, m.input.max};
-  cal.model.cheb = std::move(m.coefficients);
-}
-
 }  // namespace
 
 ModelParts model_to_json(const CalibrationRecord& rec) {
   const Calibration& cal = rec.calibration;
-  const SurfaceModel m = general_model(cal);
+  const SurfaceModel& m = cal.model;
   ModelParts out;
   out.extended = is_extended(cal);
   out.has_aux = m.has_aux;
@@ -283,7 +272,12 @@ void model_from_json(const json& j, CalibrationRecord& rec, const std::string& f
   SurfaceModel m = (extended ? kSurface : kPolynomial).read(r, j, rec);
   if (r.integer(model, "degree", "model") != m.total_degree())
     r.fail("model.degree", "does not match the degree of the coefficients");
-  store_model(cal, std::move(m), extended);
+  cal.model = std::move(m);
+  if (is_extended(cal) != extended)
+    r.fail("model.kind",
+           fmt::format("is '{}' but the model uses {} (an aux input, transforms or the power "
+                       "basis); the kind must match the model",
+                       kind, extended ? "no extension" : "an extension"));
 }
 
 }  // namespace ridgecal
