@@ -20,7 +20,7 @@ std::string poly_problem(const PolyModel& model) {
 }
 
 // Why an extended model cannot be exported ("" when it can).
-std::string surface_problem(const SurfaceModel& model) {
+std::string extended_problem(const Model& model) {
   if (model.terms.empty() || model.coefficients.size() != model.terms.size())
     return "model: no coefficients (or not one per term)";
   if (model.reading_degree() > 30 || model.aux_degree() > 30) return "model: a degree exceeds 30";
@@ -60,10 +60,10 @@ FirmwareModel firmware_model(const PolyModel& model) {
   return f;
 }
 
-FirmwareModel firmware_model(const SurfaceModel& model) {
+FirmwareModel firmware_model(const Model& model) {
   FirmwareModel f;
   f.extended = true;
-  f.problem = surface_problem(model);
+  f.problem = extended_problem(model);
   f.fitted_terms = model.terms.size();
   f.fitted_basis = to_string(model.basis);
   f.reference = [model](double x, double aux) { return model.eval(x, aux); };

@@ -32,8 +32,8 @@ CalibrateResult calibrate(const Dataset& data, const CalibrateOptions& options) 
   require_variation(data, variation_floors(options.assess.uncertainty), false);
   // The one branch between the one-input and the extended model.
   const bool extended = options.comp.active();
-  FitOutcome fit = extended ? fit_compensated(data, options.fit, options.comp)
-                            : fit_calibration(data, options.fit);
+  FitOutcome fit =
+      extended ? fit_extended(data, options.fit, options.comp) : fit_calibration(data, options.fit);
   if (!fit.status.ok) {
     result.status = std::move(fit.status);
     return result;

@@ -154,7 +154,7 @@ BOOST_AUTO_TEST_CASE(high_condition_number) {
 BOOST_AUTO_TEST_CASE(extrapolation_outside_range) {
   Calibration cal;  // a one-input line over readings 10..20 (the N = 1 general model)
   cal.model = one_input_model(PolyModel{{10.0, 20.0}, {0.0, 1.0}});
-  const SurfaceModel m = general_model(cal);
+  const Model m = general_model(cal);
   const auto w = check_extrapolation(m, {9.0, 15.0, 21.0}, {}, {3, 4, 5}, "as-found readings");
   BOOST_REQUIRE_EQUAL(w.size(), 1u);
   BOOST_TEST(w[0].lines == (std::vector<std::size_t>{3, 5}));

@@ -4,8 +4,8 @@
 #include <cmath>
 
 #include "ridgecal/calibration.hpp"
+#include "ridgecal/model.hpp"
 #include "ridgecal/poly_model.hpp"
-#include "ridgecal/surface_model.hpp"
 
 using namespace ridgecal;
 
@@ -71,7 +71,7 @@ BOOST_AUTO_TEST_CASE(one_input_model_is_the_same_curve) {
   Calibration cal;
   cal.model = one_input_model(p);
   BOOST_TEST(!is_extended(cal));
-  const SurfaceModel& g = cal.model;
+  const Model& g = cal.model;
   BOOST_TEST(g.terms.size() == p.cheb.size());
   BOOST_TEST(g.has_intercept());
   BOOST_TEST(!g.has_aux);
@@ -95,7 +95,7 @@ BOOST_AUTO_TEST_CASE(is_extended_is_computed_from_the_model) {
   aux.model.has_aux = true;
   BOOST_TEST(is_extended(aux));
   Calibration power = cal;
-  power.model.basis = SurfaceBasis::Power;
+  power.model.basis = ModelBasis::Power;
   BOOST_TEST(is_extended(power));
   Calibration ln = cal;
   ln.model.transforms.reading = ReadingTransform::Ln;

@@ -9,9 +9,9 @@
 // cross-validation on the training setpoints (see grouped_split.hpp); the test
 // setpoints are used for nothing but the final test metrics.
 //
-// One fit, one model: fit_calibration and fit_compensated (multi_input_fit.hpp)
+// One fit, one model: fit_calibration and fit_extended (extended_fit.hpp)
 // are two entry points into one implementation (fitter/src/fit/fit_model.cpp),
-// and every fit is stored in the one Calibration::model (surface_model.hpp).
+// and every fit is stored in the one Calibration::model (model.hpp).
 // This polynomial is its N = 1 case: Chebyshev basis, terms (0,0)..(d,0),
 // identity transforms, no aux. is_extended() tells the two output layouts apart.
 #pragma once
@@ -25,7 +25,7 @@
 #include "ridgecal/errors.hpp"
 #include "ridgecal/grouped_split.hpp"
 #include "ridgecal/metrics.hpp"
-#include "ridgecal/surface_model.hpp"
+#include "ridgecal/model.hpp"
 
 namespace ridgecal {
 
@@ -127,7 +127,7 @@ struct PointResult {
 struct Calibration {
   /// The fitted model, for every fit: the one-input polynomial is its N = 1
   /// case (see is_extended() for the layout question).
-  SurfaceModel model;
+  Model model;
   double lambda = 0.0;
   bool intercept = true;
   double condition_number = 0.0;  ///< of the centred Chebyshev design of the final fit
@@ -157,12 +157,12 @@ bool is_extended(const Calibration& cal);
 
 /// The fitted model: Calibration::model (kept as the accessor code that works
 /// on any model has always used).
-inline const SurfaceModel& general_model(const Calibration& cal) {
+inline const Model& general_model(const Calibration& cal) {
   return cal.model;
 }
 
 /// Splits, selects and fits the one-input polynomial (the same as
-/// fit_compensated with no extension). Preconditions: options.validate() is empty.
+/// fit_extended with no extension). Preconditions: options.validate() is empty.
 /// Fails (status) when: all readings are equal; there are fewer distinct
 /// training setpoints than the smallest candidate model needs; the grid has
 /// several cells but too few setpoints to cross-validate.

@@ -112,8 +112,7 @@ std::vector<Warning> check_coverage(const Calibration& cal, const DiagnosticOpti
 /// The warning's value is the largest distance beyond the range in reading
 /// units (of the transformed reading when there are transforms), or in aux
 /// units when only aux values are outside.
-std::vector<Warning> check_extrapolation(const SurfaceModel& model,
-                                         const std::vector<double>& readings,
+std::vector<Warning> check_extrapolation(const Model& model, const std::vector<double>& readings,
                                          const std::vector<double>& aux,
                                          const std::vector<std::size_t>& lines,
                                          const std::string& what);

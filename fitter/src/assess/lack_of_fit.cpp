@@ -43,7 +43,7 @@ double student_t_two_sided_p(double t, double df) {
 namespace detail {
 
 std::vector<double> fitted_residuals(const Calibration& cal) {
-  const SurfaceModel m = general_model(cal);
+  const Model m = general_model(cal);
   std::vector<double> e(cal.points.size(), kNaN);
   for (std::size_t i = 0; i < cal.points.size(); ++i) {
     const PointResult& p = cal.points[i];

@@ -101,7 +101,7 @@ json batch_settings_json(const BatchOptions& o) {
                  {"reference_unit", o.sensor.reference_unit}};
   if (o.comp
           .active()) {  // only then: the settings (and their digest) of plain batches are unchanged
-    const CompensationOptions& c = o.comp;
+    const ExtendedOptions& c = o.comp;
     s["compensation"] = {{"aux_column", o.input.csv.aux_column},
                          {"aux_setpoint_column", o.input.csv.aux_setpoint_column},
                          {"aux_step", c.aux_step},

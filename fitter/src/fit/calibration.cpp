@@ -9,8 +9,8 @@
 #include <memory>
 #include <stdexcept>
 
+#include "ridgecal/extended_fit.hpp"
 #include "ridgecal/fit_model.hpp"
-#include "ridgecal/multi_input_fit.hpp"
 
 namespace ridgecal {
 
@@ -99,7 +99,7 @@ std::string FitOptions::validate() const {
 
 FitOutcome fit_calibration(const Dataset& data, const FitOptions& options) {
   // The plain one-input polynomial: the one fit with no extension (fit_model.hpp).
-  return fit_model(data, options, CompensationOptions{});
+  return fit_model(data, options, ExtendedOptions{});
 }
 
 bool is_extended(const Calibration& cal) {
@@ -109,7 +109,7 @@ bool is_extended(const Calibration& cal) {
 std::string Calibration::brief() const {
   std::string s;
   if (is_extended(*this))
-    s += surface_brief(*this);
+    s += extended_brief(*this);
   else {
     const int degree = one_input_polynomial(model).degree();
     if (selection.mode == SelectionMode::Fixed)
@@ -138,7 +138,7 @@ std::string Calibration::full() const {
     return std::isfinite(v) ? fmt::format(fmt::runtime(spec), v) : std::string("n/a");
   };
   if (is_extended(*this))
-    s += surface_full(*this);
+    s += extended_full(*this);
   else {
     const PolyModel p = one_input_polynomial(model);
     s += "chebyshev coefficients (scaled reading t):";

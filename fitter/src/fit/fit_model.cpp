@@ -34,8 +34,7 @@ bool extreme(double v) {
 
 }  // namespace
 
-FitOutcome fit_model(const Dataset& data, const FitOptions& options,
-                     const CompensationOptions& comp) {
+FitOutcome fit_model(const Dataset& data, const FitOptions& options, const ExtendedOptions& comp) {
   assert(options.validate().empty() && comp.validate(options).empty());
   FitOutcome out;
   Calibration& cal = out.calibration;
@@ -190,12 +189,12 @@ FitOutcome fit_model(const Dataset& data, const FitOptions& options,
     out.status = Status::failure("all training aux values are equal; a second input must vary");
     return out;
   }
-  SurfaceModel model;
+  Model model;
   model.transforms = tr;
   model.has_aux = comp.aux;
-  model.basis = rule == TermRule::Powers ? SurfaceBasis::Power : SurfaceBasis::Chebyshev;
-  model.input = model.basis == SurfaceBasis::Chebyshev ? AxisScaling::centered(umin, umax)
-                                                       : AxisScaling::about_zero(umin, umax);
+  model.basis = rule == TermRule::Powers ? ModelBasis::Power : ModelBasis::Chebyshev;
+  model.input = model.basis == ModelBasis::Chebyshev ? AxisScaling::centered(umin, umax)
+                                                     : AxisScaling::about_zero(umin, umax);
   if (comp.aux) model.aux = AxisScaling::centered(amin, amax);
   std::vector<double> ts(n), ss(n, 0.0);
   for (std::size_t r = 0; r < n; ++r) {

@@ -13,7 +13,7 @@
 #include <set>
 
 #include "../support/linear_inputs_fit.hpp"
-#include "ridgecal/multi_input_fit.hpp"
+#include "ridgecal/extended_fit.hpp"
 #include "ridgecal/record.hpp"
 #include "test_support.hpp"
 
@@ -71,8 +71,8 @@ Dataset thermistor_run(int repeats, double rel_noise, std::uint64_t seed, int st
   return ds;
 }
 
-CompensationOptions steinhart_hart_options() {
-  CompensationOptions c;
+ExtendedOptions steinhart_hart_options() {
+  ExtendedOptions c;
   c.transforms.reading = ReadingTransform::Ln;
   c.transforms.reference = ReferenceTransform::ReciprocalKelvin;
   c.powers = {0, 1, 3};
@@ -103,12 +103,12 @@ BOOST_AUTO_TEST_CASE(divider_formulas_invert_the_divider) {
 BOOST_AUTO_TEST_CASE(surface_forms_agree_with_the_basis) {
   // A random-ish tensor Chebyshev model and a power model: the monomial form in
   // the scaled variables and the power form in the raw inputs give the same values.
-  for (SurfaceBasis b : {SurfaceBasis::Chebyshev, SurfaceBasis::Power}) {
-    SurfaceModel m;
+  for (ModelBasis b : {ModelBasis::Chebyshev, ModelBasis::Power}) {
+    Model m;
     m.has_aux = true;
     m.basis = b;
-    m.input = b == SurfaceBasis::Chebyshev ? AxisScaling::centered(100.0, 900.0)
-                                           : AxisScaling::about_zero(100.0, 900.0);
+    m.input = b == ModelBasis::Chebyshev ? AxisScaling::centered(100.0, 900.0)
+                                         : AxisScaling::about_zero(100.0, 900.0);
     m.aux = AxisScaling::centered(-10.0, 60.0);
     m.terms = terms_rectangle(3, 2);
     for (std::size_t q = 0; q < m.terms.size(); ++q)
@@ -139,12 +139,12 @@ BOOST_AUTO_TEST_CASE(steinhart_hart_noise_free_recovers_the_coefficients) {
   fit.fixed_degree = 3;
   fit.fixed_lambda = 0.0;
   fit.split.test_fraction = 0.0;
-  const CompensationOptions comp = steinhart_hart_options();
+  const ExtendedOptions comp = steinhart_hart_options();
   BOOST_REQUIRE(comp.validate(fit).empty());
-  const FitOutcome out = fit_compensated(ds, fit, comp);
+  const FitOutcome out = fit_extended(ds, fit, comp);
   BOOST_REQUIRE_MESSAGE(out.status.ok, out.status.message);
-  const SurfaceModel& m = out.calibration.model;
-  BOOST_TEST((m.basis == SurfaceBasis::Power));
+  const Model& m = out.calibration.model;
+  BOOST_TEST((m.basis == ModelBasis::Power));
   const auto a = m.power_in_raw_ld();
   const double A = static_cast<double>(a[0][0]), B = static_cast<double>(a[1][0]),
                C = static_cast<double>(a[3][0]);
@@ -166,9 +166,9 @@ BOOST_AUTO_TEST_CASE(steinhart_hart_noise_free_through_a_divider) {
   fit.fixed_degree = 3;
   fit.fixed_lambda = 0.0;
   fit.split.test_fraction = 0.0;
-  CompensationOptions comp = steinhart_hart_options();
+  ExtendedOptions comp = steinhart_hart_options();
   comp.transforms.divider = Divider{true, 10000.0, DividerPosition::SensorHigh, 4095.0};
-  const FitOutcome out = fit_compensated(ds, fit, comp);
+  const FitOutcome out = fit_extended(ds, fit, comp);
   BOOST_REQUIRE_MESSAGE(out.status.ok, out.status.message);
   const auto a = out.calibration.model.power_in_raw_ld();
   BOOST_TEST(static_cast<double>(a[3][0]) == kShC,
@@ -178,7 +178,7 @@ BOOST_AUTO_TEST_CASE(steinhart_hart_noise_free_through_a_divider) {
   BOOST_TEST(out.calibration.model.eval(counts) == 37.0, boost::test_tools::tolerance(1e-9));
   // A reading outside (0, full scale) is an input error naming the line.
   ds.rows[3].reading = 4095.0;
-  BOOST_CHECK_EXCEPTION(fit_compensated(ds, fit, comp), InputError,
+  BOOST_CHECK_EXCEPTION(fit_extended(ds, fit, comp), InputError,
                         [](const InputError& e) { return e.line() == 5; });
 }
 
@@ -196,7 +196,7 @@ BOOST_AUTO_TEST_CASE(steinhart_hart_with_noise_stays_within_a_hundredth) {
     fit.split.seed = seed;
     fit.fixed_degree = 3;
     fit.fixed_lambda = 0.0;
-    const FitOutcome out = fit_compensated(ds, fit, steinhart_hart_options());
+    const FitOutcome out = fit_extended(ds, fit, steinhart_hart_options());
     BOOST_REQUIRE_MESSAGE(out.status.ok, out.status.message);
     double worst = 0;
     for (double t = -20.0; t <= 80.0; t += 0.25)
@@ -241,10 +241,10 @@ BOOST_AUTO_TEST_CASE(aux_total_degree_two_is_exact_on_a_noise_free_surface) {
   FitOptions fit;
   fit.fixed_degree = 2;
   fit.fixed_lambda = 0.0;
-  CompensationOptions comp;
+  ExtendedOptions comp;
   comp.aux = true;
   comp.aux_step = 5.0;
-  const FitOutcome out = fit_compensated(ds, fit, comp);
+  const FitOutcome out = fit_extended(ds, fit, comp);
   BOOST_REQUIRE_MESSAGE(out.status.ok, out.status.message);
   BOOST_TEST(out.calibration.model.terms.size() == 6u);
   for (double x : {150.0, 500.0, 880.0})
@@ -258,12 +258,12 @@ BOOST_AUTO_TEST_CASE(aux_total_degree_two_is_exact_on_a_noise_free_surface) {
 BOOST_AUTO_TEST_CASE(boundary_groups_stay_in_training) {
   const Dataset ds = grid_run(bowl, 9, 6, 0.01, 4);
   FitOptions fit;
-  CompensationOptions comp;
+  ExtendedOptions comp;
   comp.aux = true;
   comp.aux_step = 1.0;
   comp.aux_degrees = {0, 1, 2};
   fit.degrees = {1, 2, 3};
-  const FitOutcome out = fit_compensated(ds, fit, comp);
+  const FitOutcome out = fit_extended(ds, fit, comp);
   BOOST_REQUIRE_MESSAGE(out.status.ok, out.status.message);
   const Calibration& cal = out.calibration;
   BOOST_REQUIRE_EQUAL(cal.setpoints.size(), 54u);
@@ -303,10 +303,10 @@ BOOST_AUTO_TEST_CASE(aux_degree_one_matches_the_n_input_linear_design) {
   fit.fixed_degree = 1;
   fit.fixed_lambda = 0.0;
   fit.split.test_fraction = 0.0;
-  CompensationOptions comp;
+  ExtendedOptions comp;
   comp.aux = true;
   comp.aux_step = 5.0;
-  const FitOutcome out = fit_compensated(ds, fit, comp);
+  const FitOutcome out = fit_extended(ds, fit, comp);
   BOOST_REQUIRE_MESSAGE(out.status.ok, out.status.message);
   Eigen::MatrixXd X(static_cast<Eigen::Index>(ds.rows.size()), 2);
   Eigen::VectorXd y(X.rows());
@@ -327,12 +327,12 @@ BOOST_AUTO_TEST_CASE(aux_degree_one_matches_the_n_input_linear_design) {
 BOOST_AUTO_TEST_CASE(record_round_trip_of_a_surface) {
   const Dataset ds = grid_run(bowl, 7, 5, 0.01, 6);
   FitOptions fit;
-  CompensationOptions comp;
+  ExtendedOptions comp;
   comp.aux = true;
   comp.aux_step = 5.0;
   comp.transforms.reading = ReadingTransform::Ln;
   fit.degrees = {1, 2, 3};
-  const FitOutcome out = fit_compensated(ds, fit, comp);
+  const FitOutcome out = fit_extended(ds, fit, comp);
   BOOST_REQUIRE_MESSAGE(out.status.ok, out.status.message);
   CalibrationRecord rec;
   rec.tool_version = "test";
@@ -380,16 +380,16 @@ BOOST_AUTO_TEST_CASE(one_dimensional_records_carry_no_new_members) {
 
 BOOST_AUTO_TEST_CASE(options_are_validated) {
   FitOptions fit;
-  CompensationOptions c;
+  ExtendedOptions c;
   c.aux_degrees = {1};
   BOOST_TEST(c.validate(fit).find("without an aux input") != std::string::npos);
-  c = CompensationOptions{};
+  c = ExtendedOptions{};
   c.powers = {0, 1, 1};
   BOOST_TEST(c.validate(fit).find("twice") != std::string::npos);
   c.powers = {0, 1, 3};
   c.aux = true;
   BOOST_TEST(c.validate(fit).find("aux_degrees") != std::string::npos);
-  c = CompensationOptions{};
+  c = ExtendedOptions{};
   c.transforms.divider = Divider{true, -1.0, DividerPosition::SensorLow, 4095.0};
   BOOST_TEST(c.validate(fit).find("fixed_resistance") != std::string::npos);
 }
@@ -422,12 +422,12 @@ BOOST_AUTO_TEST_CASE(pressure_demo_recovers_the_true_surface_within_the_noise) {
       read_calibration_csv(RIDGECAL_SAMPLES_DIR "/pressure-tempco/pressure-tempco.csv", csv);
   // As in the demo's README: separate degree limits, aux degree 0..3 (zero and
   // span drift over 100 degC), everything else default.
-  CompensationOptions comp;
+  ExtendedOptions comp;
   comp.aux = true;
   comp.aux_degrees = {0, 1, 2, 3};
-  const FitOutcome out = fit_compensated(ds, FitOptions{}, comp);
+  const FitOutcome out = fit_extended(ds, FitOptions{}, comp);
   BOOST_REQUIRE_MESSAGE(out.status.ok, out.status.message);
-  const SurfaceModel& m = out.calibration.model;
+  const Model& m = out.calibration.model;
   double worst = 0, ss = 0;
   int count = 0;
   for (double t = m.aux.min; t <= m.aux.max; t += (m.aux.max - m.aux.min) / 20.0)
@@ -464,7 +464,7 @@ BOOST_AUTO_TEST_CASE(identity_extension_is_the_one_dimensional_fit) {
     FitOptions fit;
     fit.split.seed = seed;
     const FitOutcome a = fit_calibration(ds, fit);
-    const FitOutcome b = fit_compensated(ds, fit, CompensationOptions{});
+    const FitOutcome b = fit_extended(ds, fit, ExtendedOptions{});
     BOOST_REQUIRE(a.status.ok);
     BOOST_REQUIRE(b.status.ok);
     BOOST_TEST(!is_extended(b.calibration));
@@ -485,17 +485,17 @@ BOOST_AUTO_TEST_CASE(total_degree_grid_scores_agree_with_the_final_model) {
   // for the largest candidate, ridge_grid.hpp); degree 6 (27 columns) is past
   // its 20 columns and goes to the SVD path. For every candidate chosen by a
   // fixed model, the grid's training RMSE (from the solver) must equal the
-  // training RMSE recomputed from the final model's points (SurfaceModel::eval).
+  // training RMSE recomputed from the final model's points (Model::eval).
   // Tolerance 1e-9 relative: both are orthogonal solves of a design of
   // condition < 1e3 (common practice for such agreement: ~1e-13 measured).
   constexpr double kRelTol = 1e-9;
   const Dataset ds = grid_run(bowl, 9, 8, 0.01, 4);  // 8 aux levels: total degree 6 needs 7
-  CompensationOptions comp;
+  ExtendedOptions comp;
   comp.aux = true;
   comp.aux_step = 1.0;
   FitOptions cv;
   cv.degrees = {1, 2, 3, 6};
-  const FitOutcome sel = fit_compensated(ds, cv, comp);
+  const FitOutcome sel = fit_extended(ds, cv, comp);
   BOOST_REQUIRE_MESSAGE(sel.status.ok, sel.status.message);
   BOOST_TEST(sel.calibration.selection.aux_degrees.empty());  // total degree
   for (const GridCell& c : sel.calibration.selection.grid) BOOST_TEST(std::isfinite(c.cv_rmse));
@@ -503,7 +503,7 @@ BOOST_AUTO_TEST_CASE(total_degree_grid_scores_agree_with_the_final_model) {
     FitOptions fixed;
     fixed.fixed_degree = d;
     fixed.fixed_lambda = 1e-6;
-    const FitOutcome f = fit_compensated(ds, fixed, comp);
+    const FitOutcome f = fit_extended(ds, fixed, comp);
     BOOST_REQUIRE_MESSAGE(f.status.ok, f.status.message);
     const Calibration& c = f.calibration;
     BOOST_TEST(c.model.total_degree() == d);
