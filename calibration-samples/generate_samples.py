@@ -56,7 +56,7 @@ def loadcell_hopper(path):
 
 
 # Pressure transmitter with temperature drift (invented): shared by the
-# generator and, as constants, by tests/unit/test_compensation.cpp.
+# generator and, as constants, by tests/unit/test_extended_fit.cpp.
 PT_OFFSET0, PT_OFFSET_TC, PT_OFFSET_TC2 = 6000.0, 4.0, 0.02  # counts, counts/degC, counts/degC^2
 PT_GAIN0, PT_GAIN_TC = 3200.0, -0.0015  # counts/bar at 25 degC, relative change per degC
 PT_BOW = 3.0  # counts/bar^2, bridge nonlinearity

@@ -11,7 +11,7 @@
 #include <sstream>
 
 #include "cli_common.hpp"
-#include "compensation_options.hpp"
+#include "extended_options.hpp"
 #include "judgement_options.hpp"
 #include "report_command.hpp"
 #include "ridgecal/errors.hpp"
@@ -133,7 +133,7 @@ po::options_description batch_options() {
     ("reference-unit", po::value<std::string>()->default_value(""), "unit of the reference, e.g. degC")
     ("timestamp", po::value<std::string>()->default_value(""), "creation time for records and summary (ISO 8601), 'none' to omit; default: now or SOURCE_DATE_EPOCH");
   // clang-format on
-  add_compensation_options(d);
+  add_extended_options(d);
   add_tolerance_options(d);
   add_uncertainty_options(d);
   return d;
@@ -247,7 +247,7 @@ BatchCommand parse_batch_command(const std::vector<std::string>& args) {
     f.fixed_lambda = vm["lambda"].as<double>();
   }
   f.intercept = !vm["through-origin"].as<bool>();
-  parse_compensation_options(vm, b.input.csv, b.comp);
+  parse_extended_options(vm, b.input.csv, b.comp);
   b.sensor.name = vm["sensor"].as<std::string>();
   b.sensor.reading_unit = vm["reading-unit"].as<std::string>();
   b.sensor.reference_unit = vm["reference-unit"].as<std::string>();

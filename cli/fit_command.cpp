@@ -7,7 +7,7 @@
 #include <sstream>
 
 #include "cli_common.hpp"
-#include "compensation_options.hpp"
+#include "extended_options.hpp"
 #include "judgement_options.hpp"
 #include "ridgecal/atomic_file.hpp"
 #include "ridgecal/calibrate.hpp"
@@ -53,7 +53,7 @@ po::options_description fit_options() {
     ("full", po::bool_switch(), "print the full summary (coefficients, notes)")
     ("direction", po::value<std::string>(), "column with 'up' or 'down' per row: the sweep direction (hysteresis check)");
   // clang-format on
-  add_compensation_options(d);
+  add_extended_options(d);
   add_tolerance_options(d);
   add_uncertainty_options(d);
   return d;
@@ -116,7 +116,7 @@ FitCommand parse_fit_command(const std::vector<std::string>& args) {
   }
   cmd.fit.intercept = !vm["through-origin"].as<bool>();
   if (const std::string e = cmd.fit.validate(); !e.empty()) throw UsageError(e);
-  parse_compensation_options(vm, cmd.csv, cmd.comp);
+  parse_extended_options(vm, cmd.csv, cmd.comp);
   if (const std::string e = cmd.csv.validate(); !e.empty()) throw UsageError(e);
   if (cmd.comp.active())
     if (const std::string e = cmd.comp.validate(cmd.fit); !e.empty()) throw UsageError(e);

@@ -8,7 +8,7 @@
 #include "ridgecal/assessment.hpp"
 #include "ridgecal/calibration.hpp"
 #include "ridgecal/calibration_csv.hpp"
-#include "ridgecal/multi_input_fit.hpp"
+#include "ridgecal/extended_fit.hpp"
 #include "ridgecal/record.hpp"
 
 namespace ridgecal::cli {
@@ -19,7 +19,7 @@ struct FitCommand {
   std::string report_path;  ///< QA report (HTML); empty: none
   CsvOptions csv;
   FitOptions fit;
-  CompensationOptions comp;  ///< transforms, aux input, allowed powers (inactive by default)
+  ExtendedOptions comp;  ///< transforms, aux input, allowed powers (inactive by default)
   SensorInfo sensor;
   std::string timestamp;     ///< injected creation time ("" = now, "none" = omit)
   bool full = false;         ///< print the full text form

@@ -41,7 +41,7 @@ McFit calibrate_adapter(const Dataset& data, const McOptions& options) {
   r.validation_rmse = cal->validation.rmse;
   r.test_rmse = cal->test.rmse;
   // One model and one budget for every fit: the general model (N = 1 for one input).
-  auto model = std::make_shared<const SurfaceModel>(general_model(*cal));
+  auto model = std::make_shared<const Model>(general_model(*cal));
   auto unc = std::make_shared<const UncertaintyEvaluator>(*cal, options.assess.uncertainty);
   r.predict = [model](double x, double aux) { return model->eval(x, aux); };
   r.expanded = [unc](double x, double aux) { return unc->expanded_at(x, aux); };

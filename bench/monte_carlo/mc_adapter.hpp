@@ -12,14 +12,14 @@
 #include "ridgecal/assessment.hpp"
 #include "ridgecal/calibration.hpp"
 #include "ridgecal/calibration_csv.hpp"
-#include "ridgecal/multi_input_fit.hpp"
+#include "ridgecal/extended_fit.hpp"
 
 namespace ridgecal::mc {
 
 /// Everything one library call needs.
 struct McOptions {
   FitOptions fit;
-  CompensationOptions comp;  ///< inactive: the 1-D fit
+  ExtendedOptions comp;      ///< inactive: the 1-D fit
   AssessmentOptions assess;  ///< tolerance optional
 };
 

@@ -20,7 +20,7 @@ std::string poly_problem(const PolyModel& model) {
 }
 
 // Why an extended model cannot be exported ("" when it can).
-std::string surface_problem(const SurfaceModel& model) {
+std::string extended_problem(const Model& model) {
   if (model.terms.empty() || model.coefficients.size() != model.terms.size())
     return "model: no coefficients (or not one per term)";
   if (model.reading_degree() > 30 || model.aux_degree() > 30) return "model: a degree exceeds 30";
@@ -34,19 +34,6 @@ std::string surface_problem(const SurfaceModel& model) {
     return "model: calibrated range must satisfy min < max (both finite) for every input";
   if (std::string e = model.transforms.validate(); !e.empty()) return "model: " + e;
   return "";
-}
-
-// The N = 1 case of the general model back as the plain polynomial it came
-// from (same scaling, same Chebyshev coefficients: general_model()).
-PolyModel one_input_polynomial(const SurfaceModel& m) {
-  PolyModel p;
-  if (m.terms.empty()) return p;  // no coefficients: the adapter reports it
-  p.scaling.x_min = m.input.min;
-  p.scaling.x_max = m.input.max;
-  p.cheb.assign(static_cast<std::size_t>(m.reading_degree()) + 1, 0.0);
-  for (std::size_t q = 0; q < m.terms.size() && q < m.coefficients.size(); ++q)
-    p.cheb[static_cast<std::size_t>(m.terms[q].i)] = m.coefficients[q];
-  return p;
 }
 
 }  // namespace
@@ -73,10 +60,10 @@ FirmwareModel firmware_model(const PolyModel& model) {
   return f;
 }
 
-FirmwareModel firmware_model(const SurfaceModel& model) {
+FirmwareModel firmware_model(const Model& model) {
   FirmwareModel f;
   f.extended = true;
-  f.problem = surface_problem(model);
+  f.problem = extended_problem(model);
   f.fitted_terms = model.terms.size();
   f.fitted_basis = to_string(model.basis);
   f.reference = [model](double x, double aux) { return model.eval(x, aux); };
@@ -95,8 +82,8 @@ FirmwareModel firmware_model(const SurfaceModel& model) {
 }
 
 FirmwareModel firmware_model(const Calibration& cal) {
-  const SurfaceModel general = general_model(cal);
-  return is_extended(cal) ? firmware_model(general) : firmware_model(one_input_polynomial(general));
+  return is_extended(cal) ? firmware_model(cal.model)
+                          : firmware_model(one_input_polynomial(cal.model));
 }
 
 std::pair<double, double> raw_reading_range(const FirmwareModel& m) {

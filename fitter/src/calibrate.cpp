@@ -32,8 +32,8 @@ CalibrateResult calibrate(const Dataset& data, const CalibrateOptions& options) 
   require_variation(data, variation_floors(options.assess.uncertainty), false);
   // The one branch between the one-input and the extended model.
   const bool extended = options.comp.active();
-  FitOutcome fit = extended ? fit_compensated(data, options.fit, options.comp)
-                            : fit_calibration(data, options.fit);
+  FitOutcome fit =
+      extended ? fit_extended(data, options.fit, options.comp) : fit_calibration(data, options.fit);
   if (!fit.status.ok) {
     result.status = std::move(fit.status);
     return result;
@@ -44,7 +44,7 @@ CalibrateResult calibrate(const Dataset& data, const CalibrateOptions& options) 
   rec.sensor = options.sensor;
   rec.input = InputInfo{data.file, data.sha256, data.rows.size(), data.columns};
   rec.calibration = std::move(fit.calibration);
-  assert(rec.calibration.surface.has_value() == extended);
+  assert(is_extended(rec.calibration) == extended);
   if (options.skip_unjudged_assessment && !options.assess.tolerance) return result;
   // The verdict is computed here and only here (assessment), and kept in the record.
   Assessment a = assess_calibration(data, rec.calibration, options.assess);

@@ -8,7 +8,7 @@ ModelView describe_model(const CalibrationRecord& rec) {
   const Calibration& cal = rec.calibration;
   ModelView v;
   v.model = general_model(cal);
-  const SurfaceModel& m = v.model;
+  const Model& m = v.model;
   v.extended = is_extended(cal);
   v.has_aux = m.has_aux;
   v.identity = m.transforms.identity();

@@ -1,7 +1,7 @@
 // ridgecal report (internal): everything the report needs from the fitted
 // model, in one place, read from general_model(cal) (the one-input polynomial
 // is its N = 1 case); `extended` (is_extended) picks what the page shows. No
-// other report file touches Calibration::model or Calibration::surface.
+// other report file touches Calibration::model.
 #pragma once
 
 #include <string>
@@ -42,7 +42,7 @@ struct ModelView {
       term_rule;  ///< extended: which terms were candidates (record's compensation.term_rule)
   std::string aux_grouping;   ///< extended: how aux levels were grouped
   std::string boundary_rule;  ///< extended: which groups always stay in training
-  SurfaceModel model;         ///< general_model(cal): what model_value evaluates
+  Model model;                ///< general_model(cal): what model_value evaluates
 };
 
 ModelView describe_model(const CalibrationRecord& rec);

@@ -91,13 +91,13 @@ inline std::vector<Fixture> target_fixtures() {
 
 struct SurfaceFixture {
   std::string name;
-  ridgecal::SurfaceModel model;
+  ridgecal::Model model;
   ridgecal::firmware::HeaderMeta meta;
   ridgecal::firmware::ExportOptions options;
 };
 
 /// Sets the coefficient of term (i, j) (the term must be in the model).
-inline void set_coef(ridgecal::SurfaceModel* m, int i, int j, double c) {
+inline void set_coef(ridgecal::Model* m, int i, int j, double c) {
   for (std::size_t q = 0; q < m->terms.size(); ++q)
     if (m->terms[q].i == i && m->terms[q].j == j) m->coefficients[q] = c;
 }
@@ -106,10 +106,10 @@ inline void set_coef(ridgecal::SurfaceModel* m, int i, int j, double c) {
 /// calibration-samples/pressure-tempco: counts 5861..59787.5 and sensor
 /// temperature -20.53..79.87 degC -> bar; tensor Chebyshev, reading degree 2,
 /// aux degree 3 (12 terms). Made-up coefficients.
-inline ridgecal::SurfaceModel pressure_surface_model() {
-  ridgecal::SurfaceModel m;
+inline ridgecal::Model pressure_extended_model() {
+  ridgecal::Model m;
   m.has_aux = true;
-  m.basis = ridgecal::SurfaceBasis::Chebyshev;
+  m.basis = ridgecal::ModelBasis::Chebyshev;
   m.input = ridgecal::AxisScaling::centered(5861.0, 59787.5);
   m.aux = ridgecal::AxisScaling::centered(-20.53, 79.87);
   m.terms = ridgecal::terms_rectangle(2, 3);
@@ -132,15 +132,15 @@ inline ridgecal::SurfaceModel pressure_surface_model() {
 /// NTC thermistor through a 10 kOhm sensor-low divider on a 12-bit ADC
 /// (full scale 4095), Steinhart-Hart 1/T = A + B ln R + C (ln R)^3 over
 /// 1 kOhm .. 100 kOhm (about 95 .. -27 degC): powers {0,1,3}, power basis.
-inline ridgecal::SurfaceModel steinhart_hart_model() {
-  ridgecal::SurfaceModel m;
+inline ridgecal::Model steinhart_hart_model() {
+  ridgecal::Model m;
   m.transforms.divider.enabled = true;
   m.transforms.divider.fixed_resistance = 10000.0;
   m.transforms.divider.full_scale = 4095.0;
   m.transforms.divider.position = ridgecal::DividerPosition::SensorLow;
   m.transforms.reading = ridgecal::ReadingTransform::Ln;
   m.transforms.reference = ridgecal::ReferenceTransform::ReciprocalKelvin;
-  m.basis = ridgecal::SurfaceBasis::Power;
+  m.basis = ridgecal::ModelBasis::Power;
   m.input = ridgecal::AxisScaling::about_zero(std::log(1000.0), std::log(100000.0));
   m.terms = ridgecal::terms_powers({0, 1, 3}, 0);
   m.coefficients.assign(m.terms.size(), 0.0);
@@ -157,7 +157,7 @@ inline std::vector<SurfaceFixture> surface_fixtures() {
   for (NumericMode mode : {NumericMode::Float, NumericMode::Double, NumericMode::Fixed}) {
     SurfaceFixture f;
     f.name = "ptc2d_" + ridgecal::firmware::to_string(mode);
-    f.model = pressure_surface_model();
+    f.model = pressure_extended_model();
     f.meta = base_meta("PT-7 pressure with tempco", "counts", "bar", 0.01);
     f.meta.aux_unit = "degC";
     for (int j = 0; j < 6; ++j)

@@ -603,7 +603,7 @@ BOOST_AUTO_TEST_CASE(calibration_adapter_picks_the_dialect) {
   // N = 1 case, and must give exactly the header of its polynomial; an
   // extended calibration that of its model, in the extended dialect.
   Calibration one;
-  one.model = fwtest::ntc_model();
+  one.model = one_input_model(fwtest::ntc_model());
   for (NumericMode mode : {NumericMode::Float, NumericMode::Double, NumericMode::Fixed}) {
     const ExportResult a = generate_header(firmware_model(one), ntc_meta(), opts(mode));
     const ExportResult b =
@@ -614,11 +614,11 @@ BOOST_AUTO_TEST_CASE(calibration_adapter_picks_the_dialect) {
     BOOST_TEST(a.header.find("_EXTENDED_MODEL") == std::string::npos);
   }
   Calibration ext;
-  ext.surface = fwtest::pressure_surface_model();
+  ext.model = fwtest::pressure_extended_model();
   const HeaderMeta meta = fwtest::base_meta("PT-7", "counts", "bar", 0.01);
   const ExportResult e = generate_header(firmware_model(ext), meta, opts(NumericMode::Float));
   BOOST_TEST_REQUIRE(e.ok(), e.message);
-  BOOST_TEST(e.header == generate_header(firmware_model(fwtest::pressure_surface_model()), meta,
+  BOOST_TEST(e.header == generate_header(firmware_model(fwtest::pressure_extended_model()), meta,
                                          opts(NumericMode::Float))
                              .header);
   BOOST_TEST(e.header.find("#define FWT_EXTENDED_MODEL 1") != std::string::npos);

@@ -75,11 +75,11 @@ extern "C" int LLVMFuzzerTestOneInput(const std::uint8_t* data, std::size_t size
     const FitOutcome fit = fit_calibration(ds, fo);
     if (fit.status.ok) {
       const Calibration& c = fit.calibration;
-      RIDGECAL_FUZZ_CHECK(!c.model.cheb.empty());
-      for (double v : c.model.cheb) RIDGECAL_FUZZ_CHECK(std::isfinite(v));
+      RIDGECAL_FUZZ_CHECK(!c.model.coefficients.empty());
+      for (double v : c.model.coefficients) RIDGECAL_FUZZ_CHECK(std::isfinite(v));
       RIDGECAL_FUZZ_CHECK(c.points.size() == ds.rows.size());
       for (const PointResult& p : c.points) RIDGECAL_FUZZ_CHECK(std::isfinite(p.predicted));
-      RIDGECAL_FUZZ_CHECK(c.model.scaling.x_max > c.model.scaling.x_min);
+      RIDGECAL_FUZZ_CHECK(c.model.input.max > c.model.input.min);
     } else {
       RIDGECAL_FUZZ_CHECK(!fit.status.message.empty());
     }

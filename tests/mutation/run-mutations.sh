@@ -38,7 +38,7 @@ done
 # cross-checks without their self-test twins, the host firmware run).
 TARGETS="ridgecal fw_fixture fw_compare test_poly_model test_ridge_path test_ridge_grid test_nist_strd
   test_thermometry test_assessment test_grouped_split test_selection test_selection_pins test_record
-  test_record_guard test_cli_judgement test_surface_uncertainty test_firmware_export test_export_command"
+  test_record_guard test_cli_judgement test_extended_uncertainty test_firmware_export test_export_command"
 TESTS='^(fitter\.poly_model|fitter\.ridge_path|fitter\.ridge_grid|fitter\.nist_strd|fitter\.thermometry|fitter\.assessment|fitter\.grouped_split|fitter\.selection|fitter\.selection_pins|fitter\.record|fitter\.record_guard|cli\.judgement|fitter\.surface_uncertainty|firmware\.export|firmware\.export_command|cli\.fit|cli\.verify|cli\.surface_budget_numpy\.check|firmware\.generate_fixtures|firmware\.target\.host-gcc|crosscheck\.cv_selection|crosscheck\.budget_1d|crosscheck\.record_digest|crosscheck\.firmware_model_host)$'
 
 # name | file | exact text | replacement | what the fault is

@@ -213,8 +213,7 @@ BOOST_AUTO_TEST_CASE(sparse_records_still_render) {
   // A record of a fixed fit without a grid, without points and without an
   // assessment: every part it lacks is stated as missing.
   CalibrationRecord rec;
-  rec.calibration.model.scaling = ridgecal::Scaling{0.0, 1.0};
-  rec.calibration.model.cheb = {0.5, 1.0};
+  rec.calibration.model = ridgecal::one_input_model(ridgecal::PolyModel{{0.0, 1.0}, {0.5, 1.0}});
   rec.calibration.selection.mode = ridgecal::SelectionMode::Fixed;
   rec.cautions.clear();
   const json j = ridgecal::record_to_json(rec);

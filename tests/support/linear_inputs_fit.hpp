@@ -12,7 +12,7 @@
 #include <vector>
 
 #include "ridgecal/errors.hpp"
-#include "ridgecal/surface_model.hpp"
+#include "ridgecal/model.hpp"
 
 namespace ridgecal {
 

@@ -80,7 +80,7 @@ BOOST_AUTO_TEST_CASE(injected_time) {
   BOOST_TEST(creation_time("").size() == 20u);
 }
 
-BOOST_AUTO_TEST_CASE(compensation_options) {
+BOOST_AUTO_TEST_CASE(extended_options) {
   const FitCommand plain = parse_fit_command({"run.csv"});
   BOOST_TEST(!plain.comp.active());
   const FitCommand c =

@@ -10,8 +10,8 @@
 
 #include "ridgecal/assessment.hpp"
 #include "ridgecal/calibrate.hpp"
+#include "ridgecal/extended_fit.hpp"
 #include "ridgecal/lack_of_fit.hpp"
-#include "ridgecal/multi_input_fit.hpp"
 #include "ridgecal/record.hpp"
 #include "test_support.hpp"
 
@@ -134,17 +134,17 @@ BOOST_AUTO_TEST_CASE(lack_of_fit_two_inputs) {
       }
   ds.columns.aux_setpoint_column = "aux_setpoint";
   FitOptions fo = fixed(2);
-  CompensationOptions comp;
+  ExtendedOptions comp;
   comp.aux = true;
   comp.aux_degrees = {2};
-  const FitOutcome good = fit_compensated(ds, fo, comp);
+  const FitOutcome good = fit_extended(ds, fo, comp);
   BOOST_REQUIRE_MESSAGE(good.status.ok, good.status.message);
   const LackOfFit lg = lack_of_fit_test(ds, good.calibration, 0.01);
   BOOST_REQUIRE(lg.computed);
   BOOST_TEST(lg.setpoints == 30u);  // 6 readings x 5 aux levels
   BOOST_TEST(lg.p > 0.01);
   comp.aux_degrees = {0};
-  const FitOutcome flat = fit_compensated(ds, fo, comp);
+  const FitOutcome flat = fit_extended(ds, fo, comp);
   BOOST_REQUIRE_MESSAGE(flat.status.ok, flat.status.message);
   const LackOfFit lf = lack_of_fit_test(ds, flat.calibration, 0.01);
   BOOST_REQUIRE(lf.computed);

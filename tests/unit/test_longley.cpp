@@ -15,7 +15,7 @@
 #include "../support/linear_inputs_fit.hpp"
 #include "ridgecal/atomic_file.hpp"
 #include "ridgecal/calibration_csv.hpp"
-#include "ridgecal/multi_input_fit.hpp"
+#include "ridgecal/extended_fit.hpp"
 
 using namespace ridgecal;
 

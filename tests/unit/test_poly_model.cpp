@@ -4,8 +4,8 @@
 #include <cmath>
 
 #include "ridgecal/calibration.hpp"
+#include "ridgecal/model.hpp"
 #include "ridgecal/poly_model.hpp"
-#include "ridgecal/surface_model.hpp"
 
 using namespace ridgecal;
 
@@ -63,21 +63,41 @@ BOOST_AUTO_TEST_CASE(scaling_maps_range_to_unit_interval) {
 }
 
 // One model (issue 12): the one-input polynomial is the N = 1 case of the
-// general model. general_model() must evaluate the same curve. Both run
+// general model. one_input_model() must evaluate the same curve. Both run
 // Clenshaw on the same coefficients and the same scaling, so they agree to
 // rounding: 1e-13 relative (measured 0 on this range) leaves a wide margin.
-BOOST_AUTO_TEST_CASE(general_model_is_the_same_curve) {
+BOOST_AUTO_TEST_CASE(one_input_model_is_the_same_curve) {
+  const PolyModel p{{2500.0, 3900.0}, {-5.0, -20.0, 1.5, -0.4, 0.1, -0.02}};
   Calibration cal;
-  cal.model.scaling = {2500.0, 3900.0};
-  cal.model.cheb = {-5.0, -20.0, 1.5, -0.4, 0.1, -0.02};
+  cal.model = one_input_model(p);
   BOOST_TEST(!is_extended(cal));
-  const SurfaceModel g = general_model(cal);
-  BOOST_TEST(g.terms.size() == cal.model.cheb.size());
+  const Model& g = cal.model;
+  BOOST_TEST(g.terms.size() == p.cheb.size());
   BOOST_TEST(g.has_intercept());
   BOOST_TEST(!g.has_aux);
   BOOST_TEST(g.transforms.identity());
   for (double x = 2500.0; x <= 3900.0; x += 7.0)
-    BOOST_TEST(std::fabs(g.eval(x) - cal.model.eval(x)) <= 1e-13 * 25.0);
-  cal.surface = g;
-  BOOST_TEST(is_extended(cal));
+    BOOST_TEST(std::fabs(g.eval(x) - p.eval(x)) <= 1e-13 * 25.0);
+  // And back: the evaluation helper gives the same polynomial bit for bit.
+  const PolyModel back = one_input_polynomial(g);
+  BOOST_TEST(back.cheb == p.cheb);
+  BOOST_TEST(back.scaling.x_min == p.scaling.x_min);
+  BOOST_TEST(back.scaling.x_max == p.scaling.x_max);
+}
+
+// is_extended() is computed from the one model: each extension alone makes
+// the layout extended.
+BOOST_AUTO_TEST_CASE(is_extended_is_computed_from_the_model) {
+  Calibration cal;
+  cal.model = one_input_model(PolyModel{{0.0, 1.0}, {0.5, 1.0}});
+  BOOST_TEST(!is_extended(cal));
+  Calibration aux = cal;
+  aux.model.has_aux = true;
+  BOOST_TEST(is_extended(aux));
+  Calibration power = cal;
+  power.model.basis = ModelBasis::Power;
+  BOOST_TEST(is_extended(power));
+  Calibration ln = cal;
+  ln.model.transforms.reading = ReadingTransform::Ln;
+  BOOST_TEST(is_extended(ln));
 }

@@ -34,7 +34,7 @@ BOOST_AUTO_TEST_CASE(round_trip_preserves_model_and_metrics) {
   const auto parsed = nlohmann::json::parse(record_text(j));
   BOOST_TEST(record_integrity_ok(parsed));
   const CalibrationRecord back = record_from_json(parsed, "r.json");
-  BOOST_TEST(back.calibration.model.cheb == rec.calibration.model.cheb);
+  BOOST_TEST(back.calibration.model.coefficients == rec.calibration.model.coefficients);
   BOOST_TEST(back.calibration.lambda == rec.calibration.lambda);
   BOOST_TEST(back.calibration.validation.rmse == rec.calibration.validation.rmse);
   BOOST_TEST(back.calibration.selection.chosen == rec.calibration.selection.chosen);
@@ -93,6 +93,15 @@ BOOST_AUTO_TEST_CASE(invalid_records_are_input_errors) {
   j = good;
   j["selection"]["rule"] = "best";
   expect_bad(j, "selection.rule");
+  // One stored model: the layout follows the model, so an extended layout
+  // around the plain one-input polynomial is refused, naming the kind.
+  CalibrationRecord ext = sample_record();
+  ext.calibration.model.transforms.reading = ReadingTransform::Ln;
+  BOOST_REQUIRE(is_extended(ext.calibration));
+  j = record_to_json(ext);
+  BOOST_REQUIRE(j["model"]["kind"] == "surface");
+  j["compensation"]["transforms"]["reading"] = "none";
+  expect_bad(j, "is 'surface' but the model uses no extension");
   expect_bad(nlohmann::json::array(), "top level");
 }
 

@@ -72,17 +72,17 @@ BOOST_AUTO_TEST_CASE(ridge_coefficients_match_long_double_normal_equations) {
       opt.split.test_fraction = 0.0;
       const FitOutcome fit = fit_calibration(ds, opt);
       BOOST_REQUIRE(fit.status.ok);
-      const Scaling& sc = fit.calibration.model.scaling;
+      const AxisScaling& sc = fit.calibration.model.input;
       std::vector<std::vector<long double>> X;
       std::vector<long double> y;
       for (const auto& ob : ds.rows) {
         std::vector<double> row(static_cast<std::size_t>(degree) + 1);
-        chebyshev_row(sc.to_t(ob.reading), degree, row.data());
+        chebyshev_row(sc.to_scaled(ob.reading), degree, row.data());
         X.emplace_back(row.begin() + 1, row.end());
         y.push_back(ob.reference);
       }
       const auto want = closed_form(X, y, lambda);
-      const auto& got = fit.calibration.model.cheb;
+      const auto& got = fit.calibration.model.coefficients;
       long double scale = 0;
       for (auto v : want) scale = std::max(scale, std::fabs(v));
       for (std::size_t k = 0; k < want.size(); ++k) {

@@ -151,7 +151,7 @@ BOOST_AUTO_TEST_CASE(pt100_noise_free_fit_reproduces_the_equation) {
     worst = std::max(worst, std::fabs(fit.calibration.model.eval(cvd.resistance(t)) - t));
   BOOST_TEST_MESSAGE(fmt::format(
       "Pt100 noise-free: degree {}, lambda {:g}, max |T_fit - T| over 0..400 degC = {:.2e} degC",
-      fit.calibration.model.degree(), fit.calibration.lambda, worst));
+      fit.calibration.model.reading_degree(), fit.calibration.lambda, worst));
   BOOST_TEST(worst <= kPt100NoiseFreeMaxError);
 }
 
@@ -277,7 +277,7 @@ BOOST_AUTO_TEST_CASE(type_k_inverse_over_0_to_500) {
   BOOST_TEST_MESSAGE(
       fmt::format("type K T(E) 0..500 degC: degree {}, lambda {:g}, max error {:.4f} degC (NIST "
                   "inverse band -0.05..0.04)",
-                  fit.calibration.model.degree(), fit.calibration.lambda, worst));
+                  fit.calibration.model.reading_degree(), fit.calibration.lambda, worst));
   BOOST_TEST(worst <= kTypeKMaxError);
 
   // The default degrees (1..7) are not enough here (max error about 0.16 degC);
@@ -289,7 +289,7 @@ BOOST_AUTO_TEST_CASE(type_k_inverse_over_0_to_500) {
     worst_narrow = std::max(worst_narrow, std::fabs(narrow.calibration.model.eval(k.emf(t)) - t));
   BOOST_TEST_MESSAGE(
       fmt::format("type K with the default degrees 1..7: degree {}, max error {:.3f} degC",
-                  narrow.calibration.model.degree(), worst_narrow));
+                  narrow.calibration.model.reading_degree(), worst_narrow));
   const auto edge = check_grid_edges(narrow.calibration);
   BOOST_TEST((worst_narrow <= kTypeKMaxError ||
               std::any_of(edge.begin(), edge.end(), [](const Warning& w) {

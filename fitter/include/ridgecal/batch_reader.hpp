@@ -69,6 +69,9 @@ struct UnitChunk {
 /// not exist or a directory holds no CSV file.
 std::vector<std::string> batch_input_files(const std::string& path);
 
+/// The 64-bit FNV-1a hash of a unit label (batch_unit_names.cpp).
+std::uint64_t unit_label_hash(const std::string& s);
+
 /// A set of 64-bit hashes, 8 bytes per member: a sorted run plus a small
 /// unsorted tail merged into it when full.
 class HashSet64 {
@@ -139,7 +142,7 @@ Dataset parse_unit_chunk(const UnitChunk& chunk, const CsvOptions& options);
 /// the label's 64-bit FNV-1a hash. Plain names and hashed names never coincide,
 /// and no name is reserved on Windows. Two labels can still map to names that
 /// differ only in case, or (improbably) to one hashed name: UnitFileNames
-/// resolves that within a batch.
+/// resolves that within a batch. (batch_unit_names.cpp, as UnitFileNames.)
 std::string unit_file_stem(const std::string& unit);
 
 /// The file names of one batch's units, handed out in input order, so that

@@ -37,7 +37,7 @@
 #include "ridgecal/batch_reader.hpp"
 #include "ridgecal/batch_summary.hpp"
 #include "ridgecal/calibration.hpp"
-#include "ridgecal/multi_input_fit.hpp"
+#include "ridgecal/extended_fit.hpp"
 #include "ridgecal/record.hpp"
 
 namespace ridgecal {
@@ -67,10 +67,10 @@ struct UnitOutput {
 struct BatchOptions {
   BatchInputOptions input;  ///< unit column and the other columns
   FitOptions fit;           ///< the same fit settings for every unit
-  /// Second input and transforms (multi_input_fit.hpp), the same for every
-  /// unit; when active() every unit is fitted with fit_compensated and its aux
+  /// Second input and transforms (extended_fit.hpp), the same for every
+  /// unit; when active() every unit is fitted with fit_extended and its aux
   /// column is input.csv.aux_column.
-  CompensationOptions comp;
+  ExtendedOptions comp;
   AssessmentOptions assess;   ///< tolerance, decision rule, uncertainty, diagnostics (as `fit`)
   SensorInfo sensor;          ///< copied into every record (name may be empty)
   std::string out_dir;        ///< created if missing; required

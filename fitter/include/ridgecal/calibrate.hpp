@@ -4,8 +4,8 @@
 // `ridgecal fit`, `ridgecal batch` (every unit) and library callers use it,
 // so they give the same record, the same verdict and the same warnings for
 // the same data and options. It chooses between the one-input fit
-// (fit_calibration, calibration.hpp) and the extended fit (fit_compensated,
-// multi_input_fit.hpp: a second input, transforms, restricted powers) in one
+// (fit_calibration, calibration.hpp) and the extended fit (fit_extended,
+// extended_fit.hpp: a second input, transforms, restricted powers) in one
 // branch; one assessment (assess_calibration, assessment.hpp) serves both.
 //
 // The verdict (PASS/FAIL) is computed here, once, by the assessment, and
@@ -32,7 +32,7 @@
 #include "ridgecal/calibration.hpp"
 #include "ridgecal/calibration_csv.hpp"
 #include "ridgecal/errors.hpp"
-#include "ridgecal/multi_input_fit.hpp"
+#include "ridgecal/extended_fit.hpp"
 #include "ridgecal/record.hpp"
 
 namespace ridgecal {
@@ -40,9 +40,9 @@ namespace ridgecal {
 struct CalibrateOptions {
   FitOptions fit;  ///< degrees, penalties, rule, split; default: the CLI's defaults
   /// Second input, transforms, restricted powers. When comp.active() the data
-  /// are fitted with fit_compensated (and comp.aux must match whether the data
+  /// are fitted with fit_extended (and comp.aux must match whether the data
   /// were read with an aux column); otherwise with fit_calibration. Default: none.
-  CompensationOptions comp;
+  ExtendedOptions comp;
   /// Tolerance, decision rule, uncertainty budget and diagnostics. Without a
   /// tolerance the record carries no decision (nothing is judged).
   AssessmentOptions assess;

@@ -9,11 +9,11 @@
 // cross-validation on the training setpoints (see grouped_split.hpp); the test
 // setpoints are used for nothing but the final test metrics.
 //
-// One fit: fit_calibration and fit_compensated (multi_input_fit.hpp) are two
-// entry points into one implementation (fitter/src/fit/fit_model.cpp). This
-// polynomial is its case "reading-only Chebyshev terms, identity transforms,
-// no aux", written to Calibration::model; extended fits are written to
-// Calibration::surface. Code that works on any model reads general_model().
+// One fit, one model: fit_calibration and fit_extended (extended_fit.hpp)
+// are two entry points into one implementation (fitter/src/fit/fit_model.cpp),
+// and every fit is stored in the one Calibration::model (model.hpp).
+// This polynomial is its N = 1 case: Chebyshev basis, terms (0,0)..(d,0),
+// identity transforms, no aux. is_extended() tells the two output layouts apart.
 #pragma once
 
 #include <limits>
@@ -25,8 +25,7 @@
 #include "ridgecal/errors.hpp"
 #include "ridgecal/grouped_split.hpp"
 #include "ridgecal/metrics.hpp"
-#include "ridgecal/poly_model.hpp"
-#include "ridgecal/surface_model.hpp"
+#include "ridgecal/model.hpp"
 
 namespace ridgecal {
 
@@ -126,7 +125,9 @@ struct PointResult {
 };
 
 struct Calibration {
-  PolyModel model;
+  /// The fitted model, for every fit: the one-input polynomial is its N = 1
+  /// case (see is_extended() for the layout question).
+  Model model;
   double lambda = 0.0;
   bool intercept = true;
   double condition_number = 0.0;  ///< of the centred Chebyshev design of the final fit
@@ -136,9 +137,6 @@ struct Calibration {
   std::vector<SetpointResult> setpoints;  ///< in order of increasing reading
   Metrics training, validation, test;
   std::vector<PointResult> points;  ///< in file order
-  /// Extended fits (transforms, an aux input, restricted powers; see
-  /// multi_input_fit.hpp): the model. `model` is then unused (empty).
-  std::optional<SurfaceModel> surface;
   /// Extended fits with an aux input grouped by rounded value: the rounding step (0 otherwise).
   double aux_step = 0.0;
 
@@ -151,19 +149,20 @@ struct FitOutcome {
   Calibration calibration;
 };
 
-/// True when the fit used an extension (an aux input, transforms or
-/// restricted powers): the record and the header then use their extended
+/// True when the model uses an extension (an aux input, non-identity
+/// transforms or restricted powers, i.e. the power basis), computed from
+/// Calibration::model: the record and the header then use their extended
 /// layout. False for the plain one-input polynomial.
 bool is_extended(const Calibration& cal);
 
-/// The fitted model in its general form (surface_model.hpp): the extended
-/// model itself, or the one-input polynomial as the N = 1 case (Chebyshev
-/// basis, terms (0,0)..(d,0), identity transforms, the same scaling, the same
-/// coefficients). Code that works on any model reads this, not the two fields.
-SurfaceModel general_model(const Calibration& cal);
+/// The fitted model: Calibration::model (kept as the accessor code that works
+/// on any model has always used).
+inline const Model& general_model(const Calibration& cal) {
+  return cal.model;
+}
 
 /// Splits, selects and fits the one-input polynomial (the same as
-/// fit_compensated with no extension). Preconditions: options.validate() is empty.
+/// fit_extended with no extension). Preconditions: options.validate() is empty.
 /// Fails (status) when: all readings are equal; there are fewer distinct
 /// training setpoints than the smallest candidate model needs; the grid has
 /// several cells but too few setpoints to cross-validate.

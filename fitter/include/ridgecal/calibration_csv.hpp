@@ -49,8 +49,7 @@ struct CsvOptions {
       direction_column;    ///< empty: no sweep direction; values `up` / `down` (hysteresis check)
   char delimiter = ',';    ///< one of ',' ';' '\t'
   std::string aux_column;  ///< empty: no second input; else its column (e.g. sensor temperature)
-  std::string
-      aux_setpoint_column;  ///< empty: aux groups by rounded value (see multi_input_fit.hpp)
+  std::string aux_setpoint_column;  ///< empty: aux groups by rounded value (see extended_fit.hpp)
   /// Numbers use ',' as the decimal point ("12,5"); requires delimiter ';' or
   /// tab, and then a '.' in a number is rejected (no thousands separators).
   bool decimal_comma = false;

@@ -52,17 +52,13 @@ struct Warning {
 };
 
 struct DiagnosticOptions {
-  double test_validation_ratio = 2.0;  ///< warn when test RMSE > ratio * validation RMSE; > 1
   /// Warn when validation (CV) RMSE > ratio * training RMSE (overfit); > 1.
   double cv_training_ratio = 2.0;
-  double min_setpoints_per_coefficient =
-      3.0;  ///< warn below this many training setpoints per coefficient; >= 0
   double coverage_end_fraction =
       0.05;  ///< declared span ends must be reached within this fraction of the span; 0..0.5
-  double gap_factor = 2.5;     ///< warn when a gap between adjacent setpoints (training and test)
-                               ///< exceeds this many mean spacings; > 1
-  double outlier_limit = 3.5;  ///< warn when |externally studentized residual| exceeds this; > 0
-  double runs_z = 1.96;        ///< warn when the runs test z is below -runs_z (too few runs); > 0
+  double gap_factor = 2.5;  ///< warn when a gap between adjacent setpoints (training and test)
+                            ///< exceeds this many mean spacings; > 1
+  double runs_z = 1.96;     ///< warn when the runs test z is below -runs_z (too few runs); > 0
   std::size_t runs_min_setpoints =
       10;                        ///< run the runs test only with this many training setpoints; >= 4
   double condition_limit = 1e6;  ///< warn when the design's condition number exceeds this; > 1
@@ -102,15 +98,10 @@ std::vector<Warning> diagnose_fit(const Dataset& data, const Calibration& cal,
 
 // The individual checks (each returns the warnings it raises).
 // diag_selection.cpp: the model choice.
-std::vector<Warning> check_test_vs_validation(const Calibration& cal, const DiagnosticOptions& o);
 /// Validation (CV) RMSE more than o.cv_training_ratio times the training RMSE: overfit.
 std::vector<Warning> check_cv_vs_training(const Calibration& cal, const DiagnosticOptions& o);
 /// Degree, aux degree (fits with an aux input) or lambda chosen at the edge of its candidate grid.
 std::vector<Warning> check_grid_edges(const Calibration& cal);
-/// Fewer than o.min_setpoints_per_coefficient training setpoints (groups) per
-/// free coefficient (the model's terms, less the (0,0) term of a fit through the origin).
-std::vector<Warning> check_setpoints_per_coefficient(const Calibration& cal,
-                                                     const DiagnosticOptions& o);
 std::vector<Warning> check_condition(const Calibration& cal, const DiagnosticOptions& o);
 
 // diag_range.cpp: the calibrated range.
@@ -121,17 +112,12 @@ std::vector<Warning> check_coverage(const Calibration& cal, const DiagnosticOpti
 /// The warning's value is the largest distance beyond the range in reading
 /// units (of the transformed reading when there are transforms), or in aux
 /// units when only aux values are outside.
-std::vector<Warning> check_extrapolation(const SurfaceModel& model,
-                                         const std::vector<double>& readings,
+std::vector<Warning> check_extrapolation(const Model& model, const std::vector<double>& readings,
                                          const std::vector<double>& aux,
                                          const std::vector<std::size_t>& lines,
                                          const std::string& what);
 
 // diag_residuals.cpp: the residuals.
-/// Externally studentized residuals of the training points, in the fitted
-/// output v (the errors without a reference transform), with the leverage of
-/// the general model (FitCovariance).
-std::vector<Warning> check_outliers(const Calibration& cal, const DiagnosticOptions& o);
 /// Runs test on the signs of the mean residual per training setpoint (one input only).
 std::vector<Warning> check_residual_runs(const Calibration& cal, const DiagnosticOptions& o);
 

@@ -13,16 +13,16 @@
 #include "ridgecal/errors.hpp"
 
 // Model: transforms, polynomial and extended (reading + aux) models.
+#include "ridgecal/model.hpp"
 #include "ridgecal/poly_model.hpp"
-#include "ridgecal/surface_model.hpp"
 #include "ridgecal/transforms.hpp"
 
 // Fit: grouped split, selection by cross-validation, the fitted calibration.
 #include "ridgecal/calibrate.hpp"
 #include "ridgecal/calibration.hpp"
+#include "ridgecal/extended_fit.hpp"
 #include "ridgecal/grouped_split.hpp"
 #include "ridgecal/metrics.hpp"
-#include "ridgecal/multi_input_fit.hpp"
 
 // Assessment: tolerance, uncertainty, decision, warnings, as-found checks.
 #include "ridgecal/as_found.hpp"

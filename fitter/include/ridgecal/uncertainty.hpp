@@ -1,7 +1,7 @@
 // ridgecal: measurement uncertainty of the calibrated value (GUM method), for
 // every model: the one-input polynomial (the N = 1 case of the general model,
 // general_model() in calibration.hpp) and the extended fits (transforms, an aux
-// input, restricted powers; multi_input_fit.hpp) alike.
+// input, restricted powers; extended_fit.hpp) alike.
 //
 // Components, all in reference units (standard uncertainties, added in
 // quadrature; see docs/decision-and-uncertainty.md):
@@ -9,7 +9,7 @@
 //    s^2 = RSS / (n - df), df the effective number of parameters (Type A);
 //  * fit coefficients: u_fit(x, a), the standard deviation of the fitted model
 //    at reading x (and aux value a) from the coefficients' covariance (Type A).
-//    The design row is SurfaceModel::basis_row of the terms other than (0,0)
+//    The design row is Model::basis_row of the terms other than (0,0)
 //    at the scaled inputs (t, s), centred on the training means when there is
 //    an intercept; through the origin (cal.intercept false) it is
 //    row(t) - row(t0), t0 the scaled reading 0, not centred: exactly the fit's
@@ -42,7 +42,7 @@
 #include <vector>
 
 #include "ridgecal/calibration.hpp"
-#include "ridgecal/surface_model.hpp"
+#include "ridgecal/model.hpp"
 
 namespace ridgecal {
 
@@ -135,13 +135,13 @@ class FitCovariance {
   double output_sensitivity(double reading, double aux = 0.0) const;
   /// Standard deviation of the fitted model at (reading, aux), reference units.
   double u_fit(double reading, double aux = 0.0) const;
-  const SurfaceModel& model() const { return model_; }
+  const Model& model() const { return model_; }
 
  private:
   bool projected(double reading, double aux, Eigen::VectorXd& w) const;
   bool design_row(double reading, double aux, double* out) const;
-  SurfaceModel model_;
-  SurfaceModel columns_;  ///< model_ with the terms other than (0,0): the design columns
+  Model model_;
+  Model columns_;  ///< model_ with the terms other than (0,0): the design columns
   bool ok_ = false;
   bool intercept_ = true;
   std::size_t n_ = 0;

@@ -17,7 +17,7 @@ std::vector<Warning> check_monotonic(const Calibration& cal) {
   // The sign of dv/du over the calibrated input range (the transforms are
   // monotonic, so a sign change of dv/du is one of d reference / d reading).
   // Defined along one input: not applied to a model with an aux input.
-  const SurfaceModel model = general_model(cal);
+  const Model model = general_model(cal);
   if (model.has_aux || model.terms.empty()) return {};
   const std::vector<std::vector<double>> mono = model.monomial_in_scaled();
   const AxisScaling& sc = model.input;

@@ -68,7 +68,7 @@ std::vector<Warning> check_coverage(const Calibration& cal, const DiagnosticOpti
   return out;
 }
 
-std::vector<Warning> check_extrapolation(const SurfaceModel& m, const std::vector<double>& readings,
+std::vector<Warning> check_extrapolation(const Model& m, const std::vector<double>& readings,
                                          const std::vector<double>& aux,
                                          const std::vector<std::size_t>& lines,
                                          const std::string& what) {

@@ -1,5 +1,5 @@
-// Checks of the residuals: outliers (externally studentized, with the
-// leverage of the general model) and a systematic pattern (runs test).
+// Checks of the residuals: a systematic pattern (runs test). (Outliers are the
+// calibrated check of calibrated_checks.cpp.)
 #include <fmt/format.h>
 
 #include <algorithm>
@@ -12,37 +12,6 @@
 namespace ridgecal {
 
 using detail::make_warning;
-
-std::vector<Warning> check_outliers(const Calibration& cal, const DiagnosticOptions& o) {
-  // Residuals in the fitted output v (the errors themselves without a
-  // reference transform), scaled by the residual SD there and the leverage.
-  std::vector<Warning> out;
-  const FitCovariance cov(cal);
-  const double s = cov.residual_sd_fitted();
-  const double dof = cov.dof();
-  if (!(std::isfinite(s) && s > 0.0) || dof < 2.0) return out;
-  const SurfaceModel& m = cov.model();
-  for (const PointResult& p : cal.points) {
-    if (p.role != SetRole::Train) continue;
-    const double e = cov.fitted_residual(p);
-    const double h = std::min(cov.leverage(p.reading, p.aux), 1.0 - 1e-12);
-    if (!(std::isfinite(e) && std::isfinite(h))) continue;
-    const double r = e / (s * std::sqrt(1.0 - h));  // internally studentized
-    const double denom = dof - r * r;
-    if (!(denom > 1e-12)) continue;
-    const double t = r * std::sqrt((dof - 1.0) / denom);  // externally studentized
-    if (std::fabs(t) > o.outlier_limit)
-      out.push_back(make_warning(
-          DiagnosticCode::Outlier,
-          fmt::format(
-              "Line {} (setpoint '{}', reading {:g}{}) is an outlier: studentized residual {:.1f} "
-              "(limit {:g}); check the reading and the reference there.",
-              p.line, p.setpoint, p.reading,
-              m.has_aux ? fmt::format(", aux {:g}", p.aux) : std::string(), t, o.outlier_limit),
-          {p.line}, t));
-  }
-  return out;
-}
 
 double runs_test_z(const std::vector<double>& values) {
   std::vector<int> signs;

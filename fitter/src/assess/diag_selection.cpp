@@ -1,6 +1,7 @@
-// Checks of the model choice: test against validation, validation against
-// training (overfit), the chosen cell at the edge of its grid, too few
-// setpoints per coefficient, and the condition number of the design.
+// Checks of the model choice: validation against training (overfit), the
+// chosen cell at the edge of its grid, and the condition number of the design.
+// (Test against validation and setpoints per coefficient are the calibrated
+// checks of calibrated_checks.cpp.)
 #include <fmt/format.h>
 
 #include <algorithm>
@@ -12,24 +13,6 @@
 namespace ridgecal {
 
 using detail::make_warning;
-
-std::vector<Warning> check_test_vs_validation(const Calibration& cal, const DiagnosticOptions& o) {
-  const Metrics& t = cal.test;
-  const Metrics& v = cal.validation;
-  if (t.empty() || v.empty() || !(std::isfinite(t.rmse) && std::isfinite(v.rmse)) ||
-      !(v.rmse > 0.0))
-    return {};
-  const double ratio = t.rmse / v.rmse;
-  if (!(ratio > o.test_validation_ratio)) return {};
-  return {make_warning(
-      DiagnosticCode::TestMuchWorseThanValidation,
-      fmt::format(
-          "The test RMSE ({:.3g}) is {:.1f} times the validation RMSE ({:.3g}): the model may be "
-          "overfitted, or the test points differ from the training points (a leak, a drift, or "
-          "setpoints unlike the others).",
-          t.rmse, ratio, v.rmse),
-      {}, ratio)};
-}
 
 std::vector<Warning> check_cv_vs_training(const Calibration& cal, const DiagnosticOptions& o) {
   const Metrics& v = cal.validation;
@@ -104,38 +87,6 @@ std::vector<Warning> check_grid_edges(const Calibration& cal) {
           {}, c.aux_degree));
   }
   return out;
-}
-
-std::vector<Warning> check_setpoints_per_coefficient(const Calibration& cal,
-                                                     const DiagnosticOptions& o) {
-  std::size_t ntr = 0;
-  for (const SetpointResult& sp : cal.setpoints)
-    if (sp.role == SetRole::Train) ++ntr;
-  // Free coefficients: the model's terms, less the (0,0) term a fit through
-  // the origin fixes (the one-input polynomial: degree + intercept).
-  const SurfaceModel m = general_model(cal);
-  const int coefs = static_cast<int>(m.terms.size()) - (cal.intercept ? 0 : 1);
-  if (coefs <= 0) return {};
-  const double per = static_cast<double>(ntr) / coefs;
-  if (!(per < o.min_setpoints_per_coefficient)) return {};
-  if (m.has_aux)
-    return {make_warning(
-        DiagnosticCode::FewSetpointsPerCoefficient,
-        fmt::format("Only {} training setpoint groups for {} terms ({:.1f} per term, fewer "
-                    "than {:g}): the model "
-                    "between the groups is poorly constrained; add setpoints or levels of "
-                    "the second input, or "
-                    "use fewer terms.",
-                    ntr, coefs, per, o.min_setpoints_per_coefficient),
-        {}, per)};
-  return {make_warning(
-      DiagnosticCode::FewSetpointsPerCoefficient,
-      fmt::format(
-          "Only {} training setpoints for {} coefficients ({:.1f} per coefficient, fewer than "
-          "{:g}): "
-          "the curve between setpoints is poorly constrained; add setpoints or lower the degree.",
-          ntr, coefs, per, o.min_setpoints_per_coefficient),
-      {}, per)};
 }
 
 std::vector<Warning> check_condition(const Calibration& cal, const DiagnosticOptions& o) {

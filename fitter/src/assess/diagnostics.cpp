@@ -77,22 +77,14 @@ std::vector<DiagnosticCode> all_diagnostic_codes() {
 }
 
 std::string DiagnosticOptions::validate() const {
-  if (!(std::isfinite(test_validation_ratio) && test_validation_ratio > 1.0))
-    return fmt::format("test_validation_ratio is {}; it must be a finite number > 1",
-                       test_validation_ratio);
   if (!(std::isfinite(cv_training_ratio) && cv_training_ratio > 1.0))
     return fmt::format("cv_training_ratio is {}; it must be a finite number > 1",
                        cv_training_ratio);
-  if (!(std::isfinite(min_setpoints_per_coefficient) && min_setpoints_per_coefficient >= 0.0))
-    return fmt::format("min_setpoints_per_coefficient is {}; it must be a finite number >= 0",
-                       min_setpoints_per_coefficient);
   if (!(coverage_end_fraction >= 0.0 && coverage_end_fraction <= 0.5))
     return fmt::format("coverage_end_fraction is {}; it must be between 0 and 0.5",
                        coverage_end_fraction);
   if (!(std::isfinite(gap_factor) && gap_factor > 1.0))
     return fmt::format("gap_factor is {}; it must be a finite number > 1", gap_factor);
-  if (!(std::isfinite(outlier_limit) && outlier_limit > 0.0))
-    return fmt::format("outlier_limit is {}; it must be a finite number > 0", outlier_limit);
   if (!(std::isfinite(runs_z) && runs_z > 0.0))
     return fmt::format("runs_z is {}; it must be a finite number > 0", runs_z);
   if (runs_min_setpoints < 4)

@@ -43,7 +43,7 @@ double student_t_two_sided_p(double t, double df) {
 namespace detail {
 
 std::vector<double> fitted_residuals(const Calibration& cal) {
-  const SurfaceModel m = general_model(cal);
+  const Model m = general_model(cal);
   std::vector<double> e(cal.points.size(), kNaN);
   for (std::size_t i = 0; i < cal.points.size(); ++i) {
     const PointResult& p = cal.points[i];
@@ -55,7 +55,7 @@ std::vector<double> fitted_residuals(const Calibration& cal) {
 
 std::vector<RepeatGroup> training_groups(const Dataset& data, const Calibration& cal,
                                          bool with_test) {
-  const bool has_aux = cal.surface && cal.surface->has_aux;
+  const bool has_aux = cal.model.has_aux;
   const bool rows_match = data.rows.size() == cal.points.size();
   const std::vector<double> e = fitted_residuals(cal);
   std::vector<RepeatGroup> groups;

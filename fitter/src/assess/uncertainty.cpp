@@ -218,7 +218,7 @@ std::string UncertaintyBudget::full(const std::string& unit) const {
 // ---- UncertaintyEvaluator ----
 
 double UncertaintyEvaluator::reading_sensitivity(double reading, double aux) const {
-  const SurfaceModel& m = cov_.model();
+  const Model& m = cov_.model();
   if (m.transforms.identity() && !m.has_aux) {
     // A polynomial in the reading alone: its exact derivative,
     // d/dx sum m_k t^k = (1/h) sum k m_k t^(k-1) (as PolyModel::derivative).
@@ -257,7 +257,7 @@ UncertaintyEvaluator::UncertaintyEvaluator(const Calibration& cal,
                                            const UncertaintyOptions& options, int aux_points)
     : options_(options), cov_(cal) {
   assert(options.validate().empty() && aux_points >= 2);
-  const SurfaceModel& m = cov_.model();
+  const Model& m = cov_.model();
   monomial_ = m.monomial_in_scaled();
   const double s = cov_.residual_sd();
   s_ = std::isfinite(s) ? s : 0.0;
@@ -372,6 +372,8 @@ UncertaintyEvaluator::UncertaintyEvaluator(const Calibration& cal,
               "least-squares covariance s^2 (Xc'Xc)^-1 of the centred Chebyshev design";
     return;
   }
+  // The text keeps the old type name SurfaceModel (now Model): the records
+  // quote it, and the golden records pin it.
   b.band_method = fmt::format(
       "U(x, a) = k*sqrt(s^2 + u_fit(x, a)^2 + u_ref^2 + u_res(x, a)^2); u_fit from the {} "
       "covariance of the centred "

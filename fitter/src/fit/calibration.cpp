@@ -9,8 +9,8 @@
 #include <memory>
 #include <stdexcept>
 
+#include "ridgecal/extended_fit.hpp"
 #include "ridgecal/fit_model.hpp"
-#include "ridgecal/multi_input_fit.hpp"
 
 namespace ridgecal {
 
@@ -99,38 +99,27 @@ std::string FitOptions::validate() const {
 
 FitOutcome fit_calibration(const Dataset& data, const FitOptions& options) {
   // The plain one-input polynomial: the one fit with no extension (fit_model.hpp).
-  return fit_model(data, options, CompensationOptions{});
+  return fit_model(data, options, ExtendedOptions{});
 }
 
 bool is_extended(const Calibration& cal) {
-  return cal.surface.has_value();
-}
-
-SurfaceModel general_model(const Calibration& cal) {
-  if (cal.surface) return *cal.surface;
-  SurfaceModel m;
-  m.basis = SurfaceBasis::Chebyshev;
-  m.input = AxisScaling{cal.model.scaling.x_min, cal.model.scaling.x_max,
-                        cal.model.scaling.center(), cal.model.scaling.half_width()};
-  m.terms = terms_reading_only(cal.model.degree());
-  m.coefficients = cal.model.cheb;
-  return m;
+  return !is_one_input_polynomial(cal.model);
 }
 
 std::string Calibration::brief() const {
   std::string s;
-  if (surface)
-    s += surface_brief(*this);
+  if (is_extended(*this))
+    s += extended_brief(*this);
   else {
+    const int degree = one_input_polynomial(model).degree();
     if (selection.mode == SelectionMode::Fixed)
-      s += fmt::format("model: degree {}, lambda {:g} (fixed by the user)\n", model.degree(),
-                       lambda);
+      s += fmt::format("model: degree {}, lambda {:g} (fixed by the user)\n", degree, lambda);
     else
       s += fmt::format(
           "model: degree {}, lambda {:g} (chosen by {} grouped CV over {} folds, rule {})\n",
-          model.degree(), lambda, to_string(selection.scheme), selection.n_folds,
+          degree, lambda, to_string(selection.scheme), selection.n_folds,
           to_string(selection.rule));
-    s += fmt::format("range: reading {:g} .. {:g}\n", model.scaling.x_min, model.scaling.x_max);
+    s += fmt::format("range: reading {:g} .. {:g}\n", model.input.min, model.input.max);
   }
   std::size_t ntr = 0, nte = 0;
   for (const auto& sp : setpoints) (sp.role == SetRole::Train ? ntr : nte)++;
@@ -148,13 +137,14 @@ std::string Calibration::full() const {
   const auto g = [](double v, const char* spec) {
     return std::isfinite(v) ? fmt::format(fmt::runtime(spec), v) : std::string("n/a");
   };
-  if (surface)
-    s += surface_full(*this);
+  if (is_extended(*this))
+    s += extended_full(*this);
   else {
+    const PolyModel p = one_input_polynomial(model);
     s += "chebyshev coefficients (scaled reading t):";
-    for (double c : model.cheb) s += " " + g(c, "{:.17g}");
+    for (double c : p.cheb) s += " " + g(c, "{:.17g}");
     s += "\npower coefficients (raw reading x):";
-    for (double c : model.power_in_x()) s += " " + g(c, "{:.17g}");
+    for (double c : p.power_in_x()) s += " " + g(c, "{:.17g}");
   }
   s += "\ncondition number: " + g(condition_number, "{:.3g}") + "\n";
   for (const auto& note : selection.notes) s += "note: " + note + "\n";

@@ -10,8 +10,8 @@ namespace ridgecal {
 namespace {
 
 // Values of B_0..B_degree at t in the basis (no allocation).
-void basis_values(SurfaceBasis basis, double t, int degree, double* out) {
-  if (basis == SurfaceBasis::Chebyshev) {
+void basis_values(ModelBasis basis, double t, int degree, double* out) {
+  if (basis == ModelBasis::Chebyshev) {
     chebyshev_row(t, degree, out);
     return;
   }
@@ -21,7 +21,7 @@ void basis_values(SurfaceBasis basis, double t, int degree, double* out) {
 
 }  // namespace
 
-TermRule term_rule(const CompensationOptions& comp) {
+TermRule term_rule(const ExtendedOptions& comp) {
   if (!comp.powers.empty()) return TermRule::Powers;
   if (!comp.aux) return TermRule::ReadingOnly;
   return comp.aux_degrees.empty() ? TermRule::TotalDegree : TermRule::SeparateLimits;
@@ -73,7 +73,7 @@ std::string candidate_name(const Candidate& c) {
 
 // The design of `cols` at the scaled inputs (t, s) of every row; through the
 // origin (origin_row not null) each column minus its value at reading 0.
-Eigen::MatrixXd make_design(const std::vector<Term>& cols, SurfaceBasis basis,
+Eigen::MatrixXd make_design(const std::vector<Term>& cols, ModelBasis basis,
                             const std::vector<double>& ts, const std::vector<double>& ss,
                             const double* origin_row) {
   int D = 0, A = 0;

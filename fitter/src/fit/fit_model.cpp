@@ -34,15 +34,13 @@ bool extreme(double v) {
 
 }  // namespace
 
-FitOutcome fit_model(const Dataset& data, const FitOptions& options,
-                     const CompensationOptions& comp) {
+FitOutcome fit_model(const Dataset& data, const FitOptions& options, const ExtendedOptions& comp) {
   assert(options.validate().empty() && comp.validate(options).empty());
   FitOutcome out;
   Calibration& cal = out.calibration;
   cal.split_options = options.split;
   const std::size_t n = data.rows.size();
   const Transforms& tr = comp.transforms;
-  const bool extended = comp.active();     // else the plain one-input polynomial (cal.model)
   const bool origin = !options.intercept;  // through the origin: plain fits only (validate)
 
   // Values: magnitudes (status), then the transforms' domains (InputError, with the line).
@@ -191,12 +189,12 @@ FitOutcome fit_model(const Dataset& data, const FitOptions& options,
     out.status = Status::failure("all training aux values are equal; a second input must vary");
     return out;
   }
-  SurfaceModel model;
+  Model model;
   model.transforms = tr;
   model.has_aux = comp.aux;
-  model.basis = rule == TermRule::Powers ? SurfaceBasis::Power : SurfaceBasis::Chebyshev;
-  model.input = model.basis == SurfaceBasis::Chebyshev ? AxisScaling::centered(umin, umax)
-                                                       : AxisScaling::about_zero(umin, umax);
+  model.basis = rule == TermRule::Powers ? ModelBasis::Power : ModelBasis::Chebyshev;
+  model.input = model.basis == ModelBasis::Chebyshev ? AxisScaling::centered(umin, umax)
+                                                     : AxisScaling::about_zero(umin, umax);
   if (comp.aux) model.aux = AxisScaling::centered(amin, amax);
   std::vector<double> ts(n), ss(n, 0.0);
   for (std::size_t r = 0; r < n; ++r) {
@@ -226,7 +224,7 @@ FitOutcome fit_model(const Dataset& data, const FitOptions& options,
   sel.scheme = split.scheme;
   sel.n_folds = K;
   sel.lambdas = lambdas;
-  if (extended) {
+  if (comp.active()) {
     sel.aux_degrees = aux_degrees;
     sel.powers = powers;
   }
@@ -418,13 +416,9 @@ FitOutcome fit_model(const Dataset& data, const FitOptions& options,
       return out;
     }
   model.coefficients = coef;
-  if (extended) {
-    cal.surface = model;
-    if (comp.aux && data.columns.aux_setpoint_column.empty()) cal.aux_step = comp.aux_step;
-  } else {
-    cal.model.scaling = Scaling{umin, umax};
-    cal.model.cheb = coef;  // terms (0,0), (1,0), ...: the Chebyshev coefficients in order
-  }
+  cal.model = std::move(model);  // every fit (the one-input polynomial: its N = 1 case)
+  if (comp.aux && data.columns.aux_setpoint_column.empty()) cal.aux_step = comp.aux_step;
+  assert(is_extended(cal) == comp.active());
 
   // Points and metrics.
   std::vector<double> tr_ref, tr_pred, va_ref, va_pred, te_ref, te_pred;
@@ -435,7 +429,7 @@ FitOutcome fit_model(const Dataset& data, const FitOptions& options,
     p.reading = x[r];
     p.reference = data.rows[r].reference;
     p.aux = comp.aux ? a[r] : kNaN;
-    p.predicted = extended ? model.eval(x[r], a[r]) : cal.model.eval(x[r]);
+    p.predicted = cal.model.eval(x[r], a[r]);
     p.error = p.predicted - p.reference;
     p.role = row_role[r];
     p.fold = row_fold[r];

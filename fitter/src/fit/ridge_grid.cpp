@@ -196,8 +196,19 @@ RIDGECAL_LANE_CLONES void NestedRidge::solve(int d) {
   }
 }
 
-RIDGECAL_LANE_CLONES void NestedRidge::score(const double* lambdas, int nl, const int* degrees,
-                                             int count, double* val_mse, double* train_mse) {
+void NestedRidge::score(const double* lambdas, int nl, const int* degrees, int count,
+                        double* val_mse, double* train_mse) {
+  sweep(lambdas, nl, degrees, count, val_mse, train_mse, nullptr);
+}
+
+void NestedRidge::predict_lanes(const double* lambdas, int nl, const int* degrees, int count,
+                                double* pred) {
+  sweep(lambdas, nl, degrees, count, nullptr, nullptr, pred);
+}
+
+RIDGECAL_LANE_CLONES void NestedRidge::sweep(const double* lambdas, int nl, const int* degrees,
+                                             int count, double* val_mse, double* train_mse,
+                                             double* pred) {
   assert(nl >= 1 && nl <= L);
   double mu[L];
   for (int q = 0; q < L; ++q) mu[q] = std::sqrt(static_cast<double>(m_) * lambdas[q < nl ? q : 0]);
@@ -207,16 +218,26 @@ RIDGECAL_LANE_CLONES void NestedRidge::score(const double* lambdas, int nl, cons
     const int d = degrees[t];
     assert(d >= 1 && d <= usable_);
     solve(d);
-    if (val_mse) {
+    if (val_mse || pred) {
+      // The predictions at the validation rows: stored (pred) or scored (val_mse).
       Lanes sse = Lanes{};
       for (int i = 0; i < nv_; ++i) {
         const double* w = W_.data() + static_cast<std::size_t>(i) * D;
         Lanes p = Lanes{} + y_mean_;
         for (int k = 0; k < d; ++k) p += w[k] * b_[static_cast<std::size_t>(k)];
-        const Lanes e = p - yv_[static_cast<std::size_t>(i)];
-        sse += e * e;
+        if (pred) {
+          double* out = pred + (static_cast<std::size_t>(t) * static_cast<std::size_t>(nv_) +
+                                static_cast<std::size_t>(i)) *
+                                   L;
+          for (int q = 0; q < L; ++q) out[q] = p[q];
+        }
+        if (val_mse) {
+          const Lanes e = p - yv_[static_cast<std::size_t>(i)];
+          sse += e * e;
+        }
       }
-      for (int q = 0; q < L; ++q) val_mse[t * L + q] = nv_ > 0 ? sse[q] / nv_ : 0.0;
+      if (val_mse)
+        for (int q = 0; q < L; ++q) val_mse[t * L + q] = nv_ > 0 ? sse[q] / nv_ : 0.0;
     }
     if (train_mse) {
       // ||yc - Xc_d b||^2 = ||z_d - R_d b||^2 + sum_{j >= d} z_j^2 + rperp2.
@@ -231,30 +252,6 @@ RIDGECAL_LANE_CLONES void NestedRidge::score(const double* lambdas, int nl, cons
         sse += r * r;
       }
       for (int q = 0; q < L; ++q) train_mse[t * L + q] = sse[q] / m_;
-    }
-  }
-}
-
-RIDGECAL_LANE_CLONES void NestedRidge::predict_lanes(const double* lambdas, int nl,
-                                                     const int* degrees, int count, double* pred) {
-  assert(nl >= 1 && nl <= L);
-  double mu[L];
-  for (int q = 0; q < L; ++q) mu[q] = std::sqrt(static_cast<double>(m_) * lambdas[q < nl ? q : 0]);
-  rotate_in_penalty(mu);
-  const std::size_t D = static_cast<std::size_t>(D_);
-  for (int t = 0; t < count; ++t) {
-    const int d = degrees[t];
-    assert(d >= 1 && d <= usable_);
-    solve(d);
-    for (int i = 0; i < nv_; ++i) {
-      const double* w = W_.data() + static_cast<std::size_t>(i) * D;
-      Lanes p = Lanes{} + y_mean_;
-      for (int k = 0; k < d; ++k) p += w[k] * b_[static_cast<std::size_t>(k)];
-      for (int q = 0; q < L; ++q)
-        pred[(static_cast<std::size_t>(t) * static_cast<std::size_t>(nv_) +
-              static_cast<std::size_t>(i)) *
-                 L +
-             static_cast<std::size_t>(q)] = p[q];
     }
   }
 }

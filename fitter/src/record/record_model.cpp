@@ -15,13 +15,13 @@ using detail::num;
 using nlohmann::json;
 using Reader = detail::JsonReader;
 
-std::string term_rule_text(const SurfaceModel& m, const SelectionInfo& selection) {
+std::string term_rule_text(const Model& m, const SelectionInfo& selection) {
   if (!selection.powers.empty()) return "powers";
   if (!m.has_aux) return "reading-only";
   return selection.aux_degrees.empty() ? "total-degree" : "separate-limits";
 }
 
-std::string aux_grouping_text(const SurfaceModel& m, const CalibrationRecord& rec) {
+std::string aux_grouping_text(const Model& m, const CalibrationRecord& rec) {
   if (!m.has_aux) return "none (no aux input)";
   return rec.input.columns.aux_setpoint_column.empty()
              ? fmt::format("aux value rounded to the nearest multiple of {:g}",
@@ -29,7 +29,7 @@ std::string aux_grouping_text(const SurfaceModel& m, const CalibrationRecord& re
              : "aux setpoint column '" + rec.input.columns.aux_setpoint_column + "'";
 }
 
-std::string boundary_rule_text(const SurfaceModel& m) {
+std::string boundary_rule_text(const Model& m) {
   return m.has_aux
              ? "groups of the lowest and highest aux level, and the lowest- and highest-reading "
                "group of every aux "
@@ -80,12 +80,12 @@ AxisScaling read_scaling(const Reader& r, const json& obj, const std::string& wh
 
 // ---- the polynomial layout: scaling and Chebyshev series inside `model` ----
 
-std::string polynomial_penalty(const SurfaceModel&) {
+std::string polynomial_penalty(const Model&) {
   return "minimise (1/n)*sum(error^2) + lambda*sum_{k>=1} c_k^2 over the Chebyshev coefficients "
          "c_k of the scaled reading t=(x-center)/half_width; the intercept is not penalised";
 }
 
-void write_polynomial(json& model, json&, const SurfaceModel& m, const CalibrationRecord&) {
+void write_polynomial(json& model, json&, const Model& m, const CalibrationRecord&) {
   model["scaling"] = scaling_json(m.input, kPolynomialScaling);
   model["chebyshev_coefficients"] = numbers(m.coefficients);  // terms (0,0)..(d,0) in order
   // a_k of x^k: the first column of the general model's power form.
@@ -96,9 +96,9 @@ void write_polynomial(json& model, json&, const SurfaceModel& m, const Calibrati
   model["power_coefficients"] = numbers(power);
 }
 
-SurfaceModel read_polynomial(const Reader& r, const json& j, CalibrationRecord&) {
+Model read_polynomial(const Reader& r, const json& j, CalibrationRecord&) {
   const json& model = r.member(j, "model", "record");
-  SurfaceModel m;
+  Model m;
   m.input =
       read_scaling(r, r.member(model, "scaling", "model"), "model.scaling", kPolynomialScaling);
   const json& cheb = r.array(model, "chebyshev_coefficients", "model");
@@ -113,10 +113,10 @@ SurfaceModel read_polynomial(const Reader& r, const json& j, CalibrationRecord&)
   return m;
 }
 
-// ---- the surface layout: `model` describes, `compensation` holds the model ----
+// ---- the extended layout (kind "surface"): `model` describes, `compensation` holds the model ----
 
-std::string surface_penalty(const SurfaceModel& m) {
-  const std::string basis = m.basis == SurfaceBasis::Chebyshev
+std::string extended_penalty(const Model& m) {
+  const std::string basis = m.basis == ModelBasis::Chebyshev
                                 ? (m.has_aux ? "tensor Chebyshev T_i(t)*T_j(s) in the scaled inputs"
                                              : "Chebyshev T_i(t) in the scaled input")
                                 : (m.has_aux ? "plain powers t^i*s^j of the scaled inputs"
@@ -140,7 +140,7 @@ json transforms_json(const Transforms& t) {
   return tf;
 }
 
-void write_surface(json& model, json& comp, const SurfaceModel& m, const CalibrationRecord& rec) {
+void write_extended(json& model, json& comp, const Model& m, const CalibrationRecord& rec) {
   const Calibration& cal = rec.calibration;
   model["reading_degree"] = m.reading_degree();
   model["aux_degree"] = m.has_aux ? json(m.aux_degree()) : json(nullptr);
@@ -191,11 +191,11 @@ Transforms read_transforms(const Reader& r, const json& tf) {
   return t;
 }
 
-SurfaceModel read_surface(const Reader& r, const json& j, CalibrationRecord& rec) {
+Model read_extended(const Reader& r, const json& j, CalibrationRecord& rec) {
   const json& c = r.member(j, "compensation", "record");
-  SurfaceModel m;
+  Model m;
   m.transforms = read_transforms(r, r.member(c, "transforms", "compensation"));
-  m.basis = r.enum_value(c, "basis", "compensation", surface_basis_from_string);
+  m.basis = r.enum_value(c, "basis", "compensation", model_basis_from_string);
   const json& inputs = r.member(c, "inputs", "compensation");
   if (!inputs.is_array() || inputs.empty() || inputs.size() > 2)
     r.fail("compensation.inputs", "must list 1 or 2 inputs");
@@ -227,36 +227,25 @@ SurfaceModel read_surface(const Reader& r, const json& j, CalibrationRecord& rec
 
 struct Layout {
   const char* kind;  ///< model.kind
-  std::string (*penalty)(const SurfaceModel&);
+  std::string (*penalty)(const Model&);
   /// The members only this layout writes, into `model` and `compensation`.
-  void (*write)(json& model, json& compensation, const SurfaceModel&, const CalibrationRecord&);
+  void (*write)(json& model, json& compensation, const Model&, const CalibrationRecord&);
   /// Reads the scaling, terms and coefficients (and the layout's other members).
-  SurfaceModel (*read)(const Reader&, const json& record, CalibrationRecord&);
+  Model (*read)(const Reader&, const json& record, CalibrationRecord&);
 };
 
 constexpr Layout kPolynomial{"polynomial", polynomial_penalty, write_polynomial, read_polynomial};
-constexpr Layout kSurface{"surface", surface_penalty, write_surface, read_surface};
-
-// The inverse of general_model(): the general model back into the member the
-// layout uses (the polynomial is the N = 1 case: Chebyshev, terms (0,0)..(d,0)).
-void store_model(Calibration& cal, SurfaceModel m, bool extended) {
-  if (extended) {
-    cal.surface = std::move(m);
-    return;
-  }
-  cal.model.scaling = Scaling{m.input.min, m.input.max};
-  cal.model.cheb = std::move(m.coefficients);
-}
+constexpr Layout kExtended{"surface", extended_penalty, write_extended, read_extended};
 
 }  // namespace
 
 ModelParts model_to_json(const CalibrationRecord& rec) {
   const Calibration& cal = rec.calibration;
-  const SurfaceModel m = general_model(cal);
+  const Model& m = cal.model;
   ModelParts out;
   out.extended = is_extended(cal);
   out.has_aux = m.has_aux;
-  const Layout& layout = out.extended ? kSurface : kPolynomial;
+  const Layout& layout = out.extended ? kExtended : kPolynomial;
   out.model = {{"kind", layout.kind},
                {"degree", m.total_degree()},
                {"lambda", cal.lambda},
@@ -272,18 +261,23 @@ void model_from_json(const json& j, CalibrationRecord& rec, const std::string& f
   const Reader r{file};
   const json& model = r.member(j, "model", "record");
   const std::string kind = r.text(model, "kind", "model");
-  if (kind != kPolynomial.kind && kind != kSurface.kind)
+  if (kind != kPolynomial.kind && kind != kExtended.kind)
     r.fail("model.kind",
-           fmt::format("is '{}', not '{}' or '{}'", kind, kPolynomial.kind, kSurface.kind));
-  const bool extended = kind == kSurface.kind;
+           fmt::format("is '{}', not '{}' or '{}'", kind, kPolynomial.kind, kExtended.kind));
+  const bool extended = kind == kExtended.kind;
   Calibration& cal = rec.calibration;
   cal.lambda = r.finite(model, "lambda", "model");
   cal.intercept = r.boolean(model, "intercept", "model");
   cal.condition_number = r.number(model, "condition_number", "model");
-  SurfaceModel m = (extended ? kSurface : kPolynomial).read(r, j, rec);
+  Model m = (extended ? kExtended : kPolynomial).read(r, j, rec);
   if (r.integer(model, "degree", "model") != m.total_degree())
     r.fail("model.degree", "does not match the degree of the coefficients");
-  store_model(cal, std::move(m), extended);
+  cal.model = std::move(m);
+  if (is_extended(cal) != extended)
+    r.fail("model.kind",
+           fmt::format("is '{}' but the model uses {} (an aux input, transforms or the power "
+                       "basis); the kind must match the model",
+                       kind, extended ? "no extension" : "an extension"));
 }
 
 }  // namespace ridgecal

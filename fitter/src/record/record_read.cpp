@@ -35,7 +35,7 @@ Metrics read_metrics(const Reader& r, const json& obj, const std::string& where)
   return m;
 }
 
-// A member of the surface layout's rows: an integer or null (absent in the
+// A member of the extended layout's rows: an integer or null (absent in the
 // polynomial layout); `fallback` when it is not an integer.
 int integer_or(const json& obj, const char* key, int fallback) {
   const auto it = obj.find(key);

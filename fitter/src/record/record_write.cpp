@@ -43,7 +43,7 @@ json metrics_json(const Metrics& m) {
               {"residual_sd", num(m.residual_sd)}};
 }
 
-// A grid cell; the surface layout adds its aux degree limit and term count.
+// A grid cell; the extended layout adds its aux degree limit and term count.
 json cell_json(const GridCell& c, bool extended) {
   json o{{"degree", c.degree},
          {"lambda", c.lambda},

@@ -63,7 +63,7 @@ AsFoundResult evaluate_as_found(const CheckedRecord& rec, const Dataset& data,
   }
 
   // One model for every record: the general model (N = 1 for one input).
-  const SurfaceModel m = general_model(cal);
+  const Model m = general_model(cal);
   std::vector<double> refs, preds, xs, as;
   std::vector<std::size_t> lines;
   for (const Observation& ob : data.rows) {

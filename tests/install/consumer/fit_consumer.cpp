@@ -38,8 +38,8 @@ int main() {
   const double deviation = std::fabs(predicted - demo::true_kpa(x));
   std::printf(
       "fit_consumer: %zu rows, degree %d, p(%.0f counts) = %.4f kPa (true %.4f), |dev| = %.2e\n",
-      data.rows.size(), cal.model.degree(), x, predicted, demo::true_kpa(x), deviation);
-  if (cal.model.degree() != 2 || !(deviation <= kPredictionToleranceKpa)) {
+      data.rows.size(), cal.model.reading_degree(), x, predicted, demo::true_kpa(x), deviation);
+  if (cal.model.reading_degree() != 2 || !(deviation <= kPredictionToleranceKpa)) {
     std::printf("fit_consumer: FAILED (expected degree 2 and |dev| <= %g kPa)\n",
                 kPredictionToleranceKpa);
     return 1;

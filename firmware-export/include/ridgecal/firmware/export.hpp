@@ -68,7 +68,7 @@ struct ExportOptions {
   /// Fixed mode: check every integer input when the raw range has at most
   /// this many values (default 10^6), else the grid.
   std::int64_t exhaustive_limit = 1000000;
-  /// Extended (surface) models with an aux input, fixed mode: raw aux counts
+  /// Extended models with an aux input, fixed mode: raw aux counts
   /// per aux unit (aux = raw_aux / aux_input_scale) and the raw aux range
   /// (default: the integers inside the calibrated aux range).
   double aux_input_scale = 1.0;
@@ -163,7 +163,7 @@ struct ExportResult {
 };
 
 /// Generates the header of any model; make `model` with firmware_model()
-/// (firmware_model.hpp) from a Calibration, a PolyModel or a SurfaceModel.
+/// (firmware_model.hpp) from a Calibration, a PolyModel or a Model.
 /// Never throws for bad input: reports it in the result. Fixed mode with a
 /// transform (divider, ln, reciprocal-kelvin) is InvalidInput (use float or
 /// double).

@@ -14,8 +14,8 @@
 #include <vector>
 
 #include "ridgecal/calibration.hpp"
+#include "ridgecal/model.hpp"
 #include "ridgecal/poly_model.hpp"
-#include "ridgecal/surface_model.hpp"
 #include "ridgecal/transforms.hpp"
 
 namespace ridgecal::firmware {
@@ -71,7 +71,7 @@ struct FirmwareModel {
 /// The one adapter from the fitter's models (a plain polynomial is the
 /// one-input case, an extended model keeps its transforms and aux input).
 FirmwareModel firmware_model(const PolyModel& model);
-FirmwareModel firmware_model(const SurfaceModel& model);
+FirmwareModel firmware_model(const Model& model);
 /// A calibration's model: general_model(cal), in the header dialect that
 /// is_extended(cal) picks (the one-input header for the N = 1 case).
 FirmwareModel firmware_model(const Calibration& cal);

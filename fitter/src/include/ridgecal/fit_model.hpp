@@ -1,13 +1,13 @@
 // ridgecal (internal): the one fit behind fit_calibration (calibration.hpp)
-// and fit_compensated (multi_input_fit.hpp).
+// and fit_extended (extended_fit.hpp).
 //
 // Every fit is the same pipeline: check the values, group and split
 // (grouped_split.hpp, the boundary rule), scale the inputs, form the candidate
 // term lists, score the (candidate, lambda) grid by grouped CV (fit_grid.hpp),
 // choose the cell (choose_cell), fit it on all training points and assemble
 // the results. The one-input polynomial is the case "reading-only Chebyshev
-// terms, identity transforms, no aux": its result is written to
-// Calibration::model; every other case to Calibration::surface.
+// terms, identity transforms, no aux". Every result is written to the one
+// Calibration::model.
 #pragma once
 
 #include <Eigen/Dense>
@@ -15,19 +15,19 @@
 #include <vector>
 
 #include "ridgecal/calibration.hpp"
-#include "ridgecal/multi_input_fit.hpp"
-#include "ridgecal/surface_model.hpp"
+#include "ridgecal/extended_fit.hpp"
+#include "ridgecal/model.hpp"
 
 namespace ridgecal {
 
-/// How the candidate term lists are formed (see multi_input_fit.hpp).
+/// How the candidate term lists are formed (see extended_fit.hpp).
 enum class TermRule {
   ReadingOnly,     ///< i <= d, j = 0
   TotalDegree,     ///< i + j <= d
   SeparateLimits,  ///< i <= d, j <= a
   Powers,          ///< i in the allowed powers, j <= a (power basis)
 };
-TermRule term_rule(const CompensationOptions& comp);
+TermRule term_rule(const ExtendedOptions& comp);
 
 /// True when the candidates of the rule, in increasing degree, are nested:
 /// each term list (with the (0,0) term left out) is the leading part of the
@@ -55,7 +55,7 @@ std::vector<Term> design_terms(const std::vector<Term>& terms);
 /// (ts[r], ss[r]) of every row, in the basis: column q holds
 /// B_{i_q}(t) * B_{j_q}(s). Through the origin (origin_row not null) each
 /// column minus origin_row[q], its value at reading 0.
-Eigen::MatrixXd make_design(const std::vector<Term>& cols, SurfaceBasis basis,
+Eigen::MatrixXd make_design(const std::vector<Term>& cols, ModelBasis basis,
                             const std::vector<double>& ts, const std::vector<double>& ss,
                             const double* origin_row);
 
@@ -63,8 +63,8 @@ Eigen::MatrixXd make_design(const std::vector<Term>& cols, SurfaceBasis basis,
 std::string candidate_name(const Candidate& c);
 
 /// The one fit. Preconditions: fit.validate() and comp.validate(fit) are
-/// empty. Throws InputError as fit_compensated; fails (status) as documented
+/// empty. Throws InputError as fit_extended; fails (status) as documented
 /// for fit_calibration.
-FitOutcome fit_model(const Dataset& data, const FitOptions& fit, const CompensationOptions& comp);
+FitOutcome fit_model(const Dataset& data, const FitOptions& fit, const ExtendedOptions& comp);
 
 }  // namespace ridgecal

@@ -86,7 +86,10 @@ class NestedRidge {
 
  private:
   void rotate_in_penalty(const double* mu);  // Rt_, zt_ from R_, z_ (per lane)
-  void solve(int d);                         // b_ from Rt_, zt_ (per lane)
+  // score() and predict_lanes(): one loop over the degrees, each output optional.
+  void sweep(const double* lambdas, int nl, const int* degrees, int count, double* val_mse,
+             double* train_mse, double* pred);
+  void solve(int d);  // b_ from Rt_, zt_ (per lane)
 
   int D_ = 0, m_ = 0, nv_ = 0, usable_ = 0;
   bool intercept_ = true;

@@ -1,6 +1,8 @@
-// ridgecal: the extended calibration model: linearising transforms, an
-// optional second input (aux, e.g. the sensor's own temperature) and a chosen
-// set of polynomial terms.
+// ridgecal: the calibration model, the one type every fit stores
+// (Calibration::model): linearising transforms, an optional second input (aux,
+// e.g. the sensor's own temperature) and a chosen set of polynomial terms. The
+// one-input polynomial is its N = 1 case; a model with aux, transforms or
+// restricted powers is "extended" (is_extended()).
 //
 //   u = transforms.input(reading)            (see transforms.hpp)
 //   t = (u   - input.center) / input.half_width
@@ -19,13 +21,14 @@
 #include <string>
 #include <vector>
 
+#include "ridgecal/poly_model.hpp"
 #include "ridgecal/transforms.hpp"
 
 namespace ridgecal {
 
-enum class SurfaceBasis { Chebyshev, Power };
-std::string to_string(SurfaceBasis b);                         ///< `chebyshev`, `power`
-SurfaceBasis surface_basis_from_string(const std::string& s);  ///< throws std::invalid_argument
+enum class ModelBasis { Chebyshev, Power };
+std::string to_string(ModelBasis b);                       ///< `chebyshev`, `power`
+ModelBasis model_basis_from_string(const std::string& s);  ///< throws std::invalid_argument
 
 /// Affine map of one input onto its scaled variable: (v - center) / half_width.
 /// `min`/`max` are the calibrated range of the (transformed) input.
@@ -50,10 +53,10 @@ struct Term {
   bool operator==(const Term& o) const { return i == o.i && j == o.j; }
 };
 
-struct SurfaceModel {
+struct Model {
   Transforms transforms;
   bool has_aux = false;
-  SurfaceBasis basis = SurfaceBasis::Chebyshev;
+  ModelBasis basis = ModelBasis::Chebyshev;
   AxisScaling input;                 ///< scaling of the transformed reading u
   AxisScaling aux;                   ///< scaling of the aux input (unused without aux)
   std::vector<Term> terms;           ///< the model's terms, (0,0) first when present
@@ -87,6 +90,19 @@ struct SurfaceModel {
   /// Fills out[m] with the value of term m's basis function at (t, s) (scaled).
   void basis_row(double t, double s, double* out) const;
 };
+
+/// True for the one-input polynomial: no aux, Chebyshev basis, identity
+/// transforms (the terms are then (0,0)..(d,0), or a subset for a fit through
+/// the origin). False for every extended model.
+bool is_one_input_polynomial(const Model& m);
+/// The one-input polynomial as the general model (the N = 1 case): Chebyshev
+/// basis, terms (0,0)..(d,0), identity transforms, the same scaling and
+/// coefficients.
+Model one_input_model(const PolyModel& p);
+/// The inverse, as an evaluation helper for the derived coefficient forms
+/// (power_in_x) and the firmware writer. Precondition:
+/// is_one_input_polynomial(m). No terms: an empty polynomial.
+PolyModel one_input_polynomial(const Model& m);
 
 /// Terms of degree <= d in the reading only: (0,0), (1,0), ... (d,0).
 std::vector<Term> terms_reading_only(int d);

@@ -1,4 +1,4 @@
-#include "ridgecal/multi_input_fit.hpp"
+#include "ridgecal/extended_fit.hpp"
 
 #include <fmt/format.h>
 
@@ -19,7 +19,7 @@ constexpr int kMaxDegree = 20;
 constexpr int kMaxAuxDegree = 10;
 }  // namespace
 
-std::string CompensationOptions::validate(const FitOptions& fit) const {
+std::string ExtendedOptions::validate(const FitOptions& fit) const {
   if (const std::string e = transforms.validate(); !e.empty()) return e;
   if (!fit.intercept && active())
     return "intercept is false; extended models (transforms, aux, powers) always have the (0,0) "
@@ -53,8 +53,8 @@ std::string CompensationOptions::validate(const FitOptions& fit) const {
   return {};
 }
 
-FitOutcome fit_compensated(const Dataset& data, const FitOptions& options,
-                           const CompensationOptions& comp) {
+FitOutcome fit_extended(const Dataset& data, const FitOptions& options,
+                        const ExtendedOptions& comp) {
   // The one fit (fit_model.hpp); with no extension active it is the plain polynomial.
   return fit_model(data, options, comp);
 }
@@ -66,8 +66,8 @@ std::string term_name(const Term& t, bool aux) {
 }
 }  // namespace
 
-std::string surface_brief(const Calibration& cal) {
-  const SurfaceModel& m = *cal.surface;
+std::string extended_brief(const Calibration& cal) {
+  const Model& m = cal.model;
   std::string s;
   std::string shape;
   if (!cal.selection.powers.empty()) {
@@ -103,8 +103,8 @@ std::string surface_brief(const Calibration& cal) {
   return s;
 }
 
-std::string surface_full(const Calibration& cal) {
-  const SurfaceModel& m = *cal.surface;
+std::string extended_full(const Calibration& cal) {
+  const Model& m = cal.model;
   std::string s = fmt::format("{} coefficients (scaled variables):", to_string(m.basis));
   for (std::size_t q = 0; q < m.terms.size(); ++q)
     s += fmt::format(" {}:{:.17g}", term_name(m.terms[q], m.has_aux), m.coefficients[q]);

@@ -12,7 +12,7 @@
 #include <functional>
 
 #include "ridgecal/assessment.hpp"
-#include "ridgecal/multi_input_fit.hpp"
+#include "ridgecal/extended_fit.hpp"
 #include "ridgecal/record.hpp"
 #include "ridgecal/uncertainty.hpp"
 #include "test_support.hpp"
@@ -52,10 +52,10 @@ FitOutcome fit_plane(const Dataset& ds, double lambda, double test_fraction) {
   fit.fixed_degree = 1;  // total degree 1: terms (0,0), (1,0), (0,1)
   fit.fixed_lambda = lambda;
   fit.split.test_fraction = test_fraction;
-  CompensationOptions comp;
+  ExtendedOptions comp;
   comp.aux = true;
   comp.aux_step = 5.0;
-  return fit_compensated(ds, fit, comp);
+  return fit_extended(ds, fit, comp);
 }
 
 /// Least squares of reference on [1, x, a] over the training points, in long double.
@@ -120,7 +120,7 @@ BOOST_AUTO_TEST_CASE(degree_one_standard_error_matches_the_normal_equations) {
   const FitOutcome out = fit_plane(ds, 0.0, 0.0);
   BOOST_REQUIRE_MESSAGE(out.status.ok, out.status.message);
   const Calibration& cal = out.calibration;
-  BOOST_REQUIRE_EQUAL(cal.surface->terms.size(), 3u);
+  BOOST_REQUIRE_EQUAL(cal.model.terms.size(), 3u);
   const Normal3 ne = normal_equations(cal);
   const FitCovariance cov(cal);
   BOOST_TEST(cov.n() == ne.n);
@@ -204,7 +204,7 @@ BOOST_AUTO_TEST_CASE(ridge_variance_is_the_sandwich_form) {
   const FitOutcome out = fit_plane(ds, lambda, 0.0);
   BOOST_REQUIRE_MESSAGE(out.status.ok, out.status.message);
   const Calibration& cal = out.calibration;
-  const SurfaceModel& m = *cal.surface;
+  const Model& m = cal.model;
   // Scaled, centred columns t and s (T_1 = identity); A = Xc'Xc + n lambda I.
   std::vector<double> ts, ss;
   for (const PointResult& p : cal.points)
@@ -288,10 +288,10 @@ BOOST_AUTO_TEST_CASE(reciprocal_kelvin_budget_goes_through_the_inverse_transform
   fit.fixed_degree = 1;
   fit.fixed_lambda = 0.0;
   fit.split.test_fraction = 0.0;
-  CompensationOptions comp;
+  ExtendedOptions comp;
   comp.transforms.reading = ReadingTransform::Ln;
   comp.transforms.reference = ReferenceTransform::ReciprocalKelvin;
-  const FitOutcome out = fit_compensated(ds, fit, comp);
+  const FitOutcome out = fit_extended(ds, fit, comp);
   BOOST_REQUIRE_MESSAGE(out.status.ok, out.status.message);
   const Calibration& cal = out.calibration;
   const FitCovariance cov(cal);
@@ -324,7 +324,7 @@ BOOST_AUTO_TEST_CASE(diagnostics_flag_extrapolation_overfit_and_grid_edges) {
   const Dataset ds = plane_run(6, 5, 2, 0.02, 16);
   const FitOutcome out = fit_plane(ds, 0.0, 0.0);
   BOOST_REQUIRE_MESSAGE(out.status.ok, out.status.message);
-  const SurfaceModel& m = *out.calibration.surface;
+  const Model& m = out.calibration.model;
   // Outside in the reading only, in aux only, and inside.
   const auto w =
       check_extrapolation(m, {1200.0, 500.0, 500.0}, {20.0, 90.0, 20.0}, {7, 8, 9}, "check points");
@@ -348,11 +348,11 @@ BOOST_AUTO_TEST_CASE(diagnostics_flag_extrapolation_overfit_and_grid_edges) {
   // Aux degree chosen at the top of --aux-degree.
   FitOptions fit;
   fit.degrees = {1, 2};
-  CompensationOptions comp;
+  ExtendedOptions comp;
   comp.aux = true;
   comp.aux_step = 5.0;
   comp.aux_degrees = {0, 1};
-  const FitOutcome sel = fit_compensated(plane_run(6, 5, 2, 0.002, 17), fit, comp);
+  const FitOutcome sel = fit_extended(plane_run(6, 5, 2, 0.002, 17), fit, comp);
   BOOST_REQUIRE_MESSAGE(sel.status.ok, sel.status.message);
   const GridCell& chosen =
       sel.calibration.selection.grid[static_cast<std::size_t>(sel.calibration.selection.chosen)];
@@ -427,13 +427,13 @@ BOOST_AUTO_TEST_CASE(band_covers_fresh_errors) {
         }
     FitOptions fit;
     fit.degrees = {1, 2, 3};
-    CompensationOptions comp;
+    ExtendedOptions comp;
     comp.aux = true;
     comp.aux_step = 5.0;
-    const FitOutcome out = fit_compensated(ds, fit, comp);
+    const FitOutcome out = fit_extended(ds, fit, comp);
     BOOST_REQUIRE_MESSAGE(out.status.ok, out.status.message);
     const UncertaintyEvaluator su(out.calibration, UncertaintyOptions{});
-    const SurfaceModel& m = *out.calibration.surface;
+    const Model& m = out.calibration.model;
     std::size_t in_seed = 0;
     for (int k = 0; k < kFresh; ++k) {
       const double x = 100.0 + 800.0 * (0.5 + 0.5 * std::tanh(g.next()));

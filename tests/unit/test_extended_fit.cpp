@@ -13,7 +13,7 @@
 #include <set>
 
 #include "../support/linear_inputs_fit.hpp"
-#include "ridgecal/multi_input_fit.hpp"
+#include "ridgecal/extended_fit.hpp"
 #include "ridgecal/record.hpp"
 #include "test_support.hpp"
 
@@ -71,8 +71,8 @@ Dataset thermistor_run(int repeats, double rel_noise, std::uint64_t seed, int st
   return ds;
 }
 
-CompensationOptions steinhart_hart_options() {
-  CompensationOptions c;
+ExtendedOptions steinhart_hart_options() {
+  ExtendedOptions c;
   c.transforms.reading = ReadingTransform::Ln;
   c.transforms.reference = ReferenceTransform::ReciprocalKelvin;
   c.powers = {0, 1, 3};
@@ -103,12 +103,12 @@ BOOST_AUTO_TEST_CASE(divider_formulas_invert_the_divider) {
 BOOST_AUTO_TEST_CASE(surface_forms_agree_with_the_basis) {
   // A random-ish tensor Chebyshev model and a power model: the monomial form in
   // the scaled variables and the power form in the raw inputs give the same values.
-  for (SurfaceBasis b : {SurfaceBasis::Chebyshev, SurfaceBasis::Power}) {
-    SurfaceModel m;
+  for (ModelBasis b : {ModelBasis::Chebyshev, ModelBasis::Power}) {
+    Model m;
     m.has_aux = true;
     m.basis = b;
-    m.input = b == SurfaceBasis::Chebyshev ? AxisScaling::centered(100.0, 900.0)
-                                           : AxisScaling::about_zero(100.0, 900.0);
+    m.input = b == ModelBasis::Chebyshev ? AxisScaling::centered(100.0, 900.0)
+                                         : AxisScaling::about_zero(100.0, 900.0);
     m.aux = AxisScaling::centered(-10.0, 60.0);
     m.terms = terms_rectangle(3, 2);
     for (std::size_t q = 0; q < m.terms.size(); ++q)
@@ -139,12 +139,12 @@ BOOST_AUTO_TEST_CASE(steinhart_hart_noise_free_recovers_the_coefficients) {
   fit.fixed_degree = 3;
   fit.fixed_lambda = 0.0;
   fit.split.test_fraction = 0.0;
-  const CompensationOptions comp = steinhart_hart_options();
+  const ExtendedOptions comp = steinhart_hart_options();
   BOOST_REQUIRE(comp.validate(fit).empty());
-  const FitOutcome out = fit_compensated(ds, fit, comp);
+  const FitOutcome out = fit_extended(ds, fit, comp);
   BOOST_REQUIRE_MESSAGE(out.status.ok, out.status.message);
-  const SurfaceModel& m = *out.calibration.surface;
-  BOOST_TEST((m.basis == SurfaceBasis::Power));
+  const Model& m = out.calibration.model;
+  BOOST_TEST((m.basis == ModelBasis::Power));
   const auto a = m.power_in_raw_ld();
   const double A = static_cast<double>(a[0][0]), B = static_cast<double>(a[1][0]),
                C = static_cast<double>(a[3][0]);
@@ -166,19 +166,19 @@ BOOST_AUTO_TEST_CASE(steinhart_hart_noise_free_through_a_divider) {
   fit.fixed_degree = 3;
   fit.fixed_lambda = 0.0;
   fit.split.test_fraction = 0.0;
-  CompensationOptions comp = steinhart_hart_options();
+  ExtendedOptions comp = steinhart_hart_options();
   comp.transforms.divider = Divider{true, 10000.0, DividerPosition::SensorHigh, 4095.0};
-  const FitOutcome out = fit_compensated(ds, fit, comp);
+  const FitOutcome out = fit_extended(ds, fit, comp);
   BOOST_REQUIRE_MESSAGE(out.status.ok, out.status.message);
-  const auto a = out.calibration.surface->power_in_raw_ld();
+  const auto a = out.calibration.model.power_in_raw_ld();
   BOOST_TEST(static_cast<double>(a[3][0]) == kShC,
              boost::test_tools::tolerance(kShRelativeTolerance));
   // eval applies divider, ln, polynomial and the inverse reference transform.
   const double counts = 4095.0 * 10000.0 / (std::exp(sh_ln_r(37.0)) + 10000.0);
-  BOOST_TEST(out.calibration.surface->eval(counts) == 37.0, boost::test_tools::tolerance(1e-9));
+  BOOST_TEST(out.calibration.model.eval(counts) == 37.0, boost::test_tools::tolerance(1e-9));
   // A reading outside (0, full scale) is an input error naming the line.
   ds.rows[3].reading = 4095.0;
-  BOOST_CHECK_EXCEPTION(fit_compensated(ds, fit, comp), InputError,
+  BOOST_CHECK_EXCEPTION(fit_extended(ds, fit, comp), InputError,
                         [](const InputError& e) { return e.line() == 5; });
 }
 
@@ -196,11 +196,11 @@ BOOST_AUTO_TEST_CASE(steinhart_hart_with_noise_stays_within_a_hundredth) {
     fit.split.seed = seed;
     fit.fixed_degree = 3;
     fit.fixed_lambda = 0.0;
-    const FitOutcome out = fit_compensated(ds, fit, steinhart_hart_options());
+    const FitOutcome out = fit_extended(ds, fit, steinhart_hart_options());
     BOOST_REQUIRE_MESSAGE(out.status.ok, out.status.message);
     double worst = 0;
     for (double t = -20.0; t <= 80.0; t += 0.25)
-      worst = std::max(worst, std::fabs(out.calibration.surface->eval(std::exp(sh_ln_r(t))) - t));
+      worst = std::max(worst, std::fabs(out.calibration.model.eval(std::exp(sh_ln_r(t))) - t));
     BOOST_TEST_MESSAGE(fmt::format(
         "Steinhart-Hart, R noise 0.1 %, seed {}: lambda {:g}, largest curve error {:.4f} degC, "
         "test RMSE {:.4f} degC",
@@ -241,15 +241,15 @@ BOOST_AUTO_TEST_CASE(aux_total_degree_two_is_exact_on_a_noise_free_surface) {
   FitOptions fit;
   fit.fixed_degree = 2;
   fit.fixed_lambda = 0.0;
-  CompensationOptions comp;
+  ExtendedOptions comp;
   comp.aux = true;
   comp.aux_step = 5.0;
-  const FitOutcome out = fit_compensated(ds, fit, comp);
+  const FitOutcome out = fit_extended(ds, fit, comp);
   BOOST_REQUIRE_MESSAGE(out.status.ok, out.status.message);
-  BOOST_TEST(out.calibration.surface->terms.size() == 6u);
+  BOOST_TEST(out.calibration.model.terms.size() == 6u);
   for (double x : {150.0, 500.0, 880.0})
     for (double a : {-5.0, 20.0, 55.0})
-      BOOST_TEST(out.calibration.surface->eval(x, a) == bowl(x, a),
+      BOOST_TEST(out.calibration.model.eval(x, a) == bowl(x, a),
                  boost::test_tools::tolerance(kRoundoff));
   BOOST_TEST(out.calibration.test.n > 0u);
   BOOST_TEST(out.calibration.test.max_abs_error <= 1e-9);
@@ -258,12 +258,12 @@ BOOST_AUTO_TEST_CASE(aux_total_degree_two_is_exact_on_a_noise_free_surface) {
 BOOST_AUTO_TEST_CASE(boundary_groups_stay_in_training) {
   const Dataset ds = grid_run(bowl, 9, 6, 0.01, 4);
   FitOptions fit;
-  CompensationOptions comp;
+  ExtendedOptions comp;
   comp.aux = true;
   comp.aux_step = 1.0;
   comp.aux_degrees = {0, 1, 2};
   fit.degrees = {1, 2, 3};
-  const FitOutcome out = fit_compensated(ds, fit, comp);
+  const FitOutcome out = fit_extended(ds, fit, comp);
   BOOST_REQUIRE_MESSAGE(out.status.ok, out.status.message);
   const Calibration& cal = out.calibration;
   BOOST_REQUIRE_EQUAL(cal.setpoints.size(), 54u);
@@ -293,7 +293,7 @@ BOOST_AUTO_TEST_CASE(boundary_groups_stay_in_training) {
                  "group " << key << " straddles");
   }
   // The chosen model contains the cross term the truth has.
-  BOOST_TEST(cal.surface->aux_degree() >= 1);
+  BOOST_TEST(cal.model.aux_degree() >= 1);
 }
 
 BOOST_AUTO_TEST_CASE(aux_degree_one_matches_the_n_input_linear_design) {
@@ -303,10 +303,10 @@ BOOST_AUTO_TEST_CASE(aux_degree_one_matches_the_n_input_linear_design) {
   fit.fixed_degree = 1;
   fit.fixed_lambda = 0.0;
   fit.split.test_fraction = 0.0;
-  CompensationOptions comp;
+  ExtendedOptions comp;
   comp.aux = true;
   comp.aux_step = 5.0;
-  const FitOutcome out = fit_compensated(ds, fit, comp);
+  const FitOutcome out = fit_extended(ds, fit, comp);
   BOOST_REQUIRE_MESSAGE(out.status.ok, out.status.message);
   Eigen::MatrixXd X(static_cast<Eigen::Index>(ds.rows.size()), 2);
   Eigen::VectorXd y(X.rows());
@@ -318,7 +318,7 @@ BOOST_AUTO_TEST_CASE(aux_degree_one_matches_the_n_input_linear_design) {
   const LinearInputsFit lin = fit_linear_inputs(X, y);
   BOOST_REQUIRE(lin.status.ok);
   for (Eigen::Index i = 0; i < X.rows(); ++i)
-    BOOST_TEST(out.calibration.surface->eval(X(i, 0), X(i, 1)) == lin.predict(X.row(i)),
+    BOOST_TEST(out.calibration.model.eval(X(i, 0), X(i, 1)) == lin.predict(X.row(i)),
                boost::test_tools::tolerance(kRoundoff));
   BOOST_TEST(out.calibration.training.residual_sd == lin.residual_sd,
              boost::test_tools::tolerance(1e-9));
@@ -327,12 +327,12 @@ BOOST_AUTO_TEST_CASE(aux_degree_one_matches_the_n_input_linear_design) {
 BOOST_AUTO_TEST_CASE(record_round_trip_of_a_surface) {
   const Dataset ds = grid_run(bowl, 7, 5, 0.01, 6);
   FitOptions fit;
-  CompensationOptions comp;
+  ExtendedOptions comp;
   comp.aux = true;
   comp.aux_step = 5.0;
   comp.transforms.reading = ReadingTransform::Ln;
   fit.degrees = {1, 2, 3};
-  const FitOutcome out = fit_compensated(ds, fit, comp);
+  const FitOutcome out = fit_extended(ds, fit, comp);
   BOOST_REQUIRE_MESSAGE(out.status.ok, out.status.message);
   CalibrationRecord rec;
   rec.tool_version = "test";
@@ -344,9 +344,9 @@ BOOST_AUTO_TEST_CASE(record_round_trip_of_a_surface) {
   BOOST_TEST(j["compensation"]["transforms"]["reading"] == "ln");
   BOOST_TEST(j["points"][0].contains("aux"));
   const CalibrationRecord back = record_from_json(j, "rec.json");
-  BOOST_REQUIRE(back.calibration.surface.has_value());
+  BOOST_REQUIRE(is_extended(back.calibration));
   for (const PointResult& p : out.calibration.points)
-    BOOST_TEST(back.calibration.surface->eval(p.reading, p.aux) == p.predicted,
+    BOOST_TEST(back.calibration.model.eval(p.reading, p.aux) == p.predicted,
                boost::test_tools::tolerance(kRoundoff));
   // Writing the parsed record again gives the same document.
   BOOST_TEST(record_to_json(back) == j);
@@ -380,16 +380,16 @@ BOOST_AUTO_TEST_CASE(one_dimensional_records_carry_no_new_members) {
 
 BOOST_AUTO_TEST_CASE(options_are_validated) {
   FitOptions fit;
-  CompensationOptions c;
+  ExtendedOptions c;
   c.aux_degrees = {1};
   BOOST_TEST(c.validate(fit).find("without an aux input") != std::string::npos);
-  c = CompensationOptions{};
+  c = ExtendedOptions{};
   c.powers = {0, 1, 1};
   BOOST_TEST(c.validate(fit).find("twice") != std::string::npos);
   c.powers = {0, 1, 3};
   c.aux = true;
   BOOST_TEST(c.validate(fit).find("aux_degrees") != std::string::npos);
-  c = CompensationOptions{};
+  c = ExtendedOptions{};
   c.transforms.divider = Divider{true, -1.0, DividerPosition::SensorLow, 4095.0};
   BOOST_TEST(c.validate(fit).find("fixed_resistance") != std::string::npos);
 }
@@ -422,12 +422,12 @@ BOOST_AUTO_TEST_CASE(pressure_demo_recovers_the_true_surface_within_the_noise) {
       read_calibration_csv(RIDGECAL_SAMPLES_DIR "/pressure-tempco/pressure-tempco.csv", csv);
   // As in the demo's README: separate degree limits, aux degree 0..3 (zero and
   // span drift over 100 degC), everything else default.
-  CompensationOptions comp;
+  ExtendedOptions comp;
   comp.aux = true;
   comp.aux_degrees = {0, 1, 2, 3};
-  const FitOutcome out = fit_compensated(ds, FitOptions{}, comp);
+  const FitOutcome out = fit_extended(ds, FitOptions{}, comp);
   BOOST_REQUIRE_MESSAGE(out.status.ok, out.status.message);
-  const SurfaceModel& m = *out.calibration.surface;
+  const Model& m = out.calibration.model;
   double worst = 0, ss = 0;
   int count = 0;
   for (double t = m.aux.min; t <= m.aux.max; t += (m.aux.max - m.aux.min) / 20.0)
@@ -464,11 +464,11 @@ BOOST_AUTO_TEST_CASE(identity_extension_is_the_one_dimensional_fit) {
     FitOptions fit;
     fit.split.seed = seed;
     const FitOutcome a = fit_calibration(ds, fit);
-    const FitOutcome b = fit_compensated(ds, fit, CompensationOptions{});
+    const FitOutcome b = fit_extended(ds, fit, ExtendedOptions{});
     BOOST_REQUIRE(a.status.ok);
     BOOST_REQUIRE(b.status.ok);
-    BOOST_TEST(!b.calibration.surface.has_value());
-    BOOST_TEST(a.calibration.model.cheb == b.calibration.model.cheb);
+    BOOST_TEST(!is_extended(b.calibration));
+    BOOST_TEST(a.calibration.model.coefficients == b.calibration.model.coefficients);
     BOOST_TEST(a.calibration.lambda == b.calibration.lambda);
     BOOST_TEST(a.calibration.selection.chosen == b.calibration.selection.chosen);
     for (std::size_t g = 0; g < a.calibration.setpoints.size(); ++g) {
@@ -485,17 +485,17 @@ BOOST_AUTO_TEST_CASE(total_degree_grid_scores_agree_with_the_final_model) {
   // for the largest candidate, ridge_grid.hpp); degree 6 (27 columns) is past
   // its 20 columns and goes to the SVD path. For every candidate chosen by a
   // fixed model, the grid's training RMSE (from the solver) must equal the
-  // training RMSE recomputed from the final model's points (SurfaceModel::eval).
+  // training RMSE recomputed from the final model's points (Model::eval).
   // Tolerance 1e-9 relative: both are orthogonal solves of a design of
   // condition < 1e3 (common practice for such agreement: ~1e-13 measured).
   constexpr double kRelTol = 1e-9;
   const Dataset ds = grid_run(bowl, 9, 8, 0.01, 4);  // 8 aux levels: total degree 6 needs 7
-  CompensationOptions comp;
+  ExtendedOptions comp;
   comp.aux = true;
   comp.aux_step = 1.0;
   FitOptions cv;
   cv.degrees = {1, 2, 3, 6};
-  const FitOutcome sel = fit_compensated(ds, cv, comp);
+  const FitOutcome sel = fit_extended(ds, cv, comp);
   BOOST_REQUIRE_MESSAGE(sel.status.ok, sel.status.message);
   BOOST_TEST(sel.calibration.selection.aux_degrees.empty());  // total degree
   for (const GridCell& c : sel.calibration.selection.grid) BOOST_TEST(std::isfinite(c.cv_rmse));
@@ -503,10 +503,10 @@ BOOST_AUTO_TEST_CASE(total_degree_grid_scores_agree_with_the_final_model) {
     FitOptions fixed;
     fixed.fixed_degree = d;
     fixed.fixed_lambda = 1e-6;
-    const FitOutcome f = fit_compensated(ds, fixed, comp);
+    const FitOutcome f = fit_extended(ds, fixed, comp);
     BOOST_REQUIRE_MESSAGE(f.status.ok, f.status.message);
     const Calibration& c = f.calibration;
-    BOOST_TEST(c.surface->total_degree() == d);
+    BOOST_TEST(c.model.total_degree() == d);
     BOOST_TEST(c.training.rmse == c.selection.grid.front().train_rmse,
                boost::test_tools::tolerance(kRelTol));
   }

@@ -1,4 +1,4 @@
-#include "compensation_options.hpp"
+#include "extended_options.hpp"
 
 #include <string>
 #include <vector>
@@ -9,7 +9,7 @@ namespace po = boost::program_options;
 
 namespace ridgecal::cli {
 
-void add_compensation_options(po::options_description& d) {
+void add_extended_options(po::options_description& d) {
   // clang-format off
   po::options_description x("second input and linearising transforms (docs/compensation-and-transforms.md)");
   x.add_options()
@@ -49,8 +49,7 @@ auto parse_choice(const std::string& option, const std::string& text, F parse) {
 
 }  // namespace
 
-void parse_compensation_options(const po::variables_map& vm, CsvOptions& csv,
-                                CompensationOptions& c) {
+void parse_extended_options(const po::variables_map& vm, CsvOptions& csv, ExtendedOptions& c) {
   if (vm.count("aux")) {
     c.aux = true;
     csv.aux_column = vm["aux"].as<std::string>();

@@ -1,7 +1,7 @@
 // ridgecal: extended fits. Linearising transforms, a second input (aux) and
 // restricted powers, chosen and fitted like the 1-D curve (calibration.hpp).
 //
-// Model: see surface_model.hpp. Terms (i = degree in the reading, j in aux):
+// Model: see model.hpp. Terms (i = degree in the reading, j in aux):
 //   no aux:                 i <= d                      (d from FitOptions::degrees)
 //   aux, total degree:      i + j <= d                  (aux_degrees empty)
 //   aux, separate limits:   i <= d, j <= a              (a from aux_degrees)
@@ -19,10 +19,10 @@
 // boundary rule (which groups always stay in training) is that of
 // grouped_split.hpp: the 1-D end rule is its case without aux.
 //
-// One fit: fit_compensated and fit_calibration are entry points into one
+// One fit: fit_extended and fit_calibration are entry points into one
 // implementation (fitter/src/fit/fit_model.cpp); with no extension active
-// (CompensationOptions{}) fit_compensated is the plain polynomial, written to
-// Calibration::model, else the model goes to Calibration::surface. Candidates
+// (ExtendedOptions{}) fit_extended is the plain polynomial; either way the
+// model goes to the one Calibration::model. Candidates
 // whose term lists are nested (no aux; aux with total degree) share the nested
 // fast path (one QR per fold); separate limits and powers use one SVD per
 // candidate and fold.
@@ -33,12 +33,12 @@
 #include <vector>
 
 #include "ridgecal/calibration.hpp"
-#include "ridgecal/surface_model.hpp"
+#include "ridgecal/model.hpp"
 #include "ridgecal/transforms.hpp"
 
 namespace ridgecal {
 
-struct CompensationOptions {
+struct ExtendedOptions {
   Transforms transforms;
   bool aux = false;  ///< the rows carry an aux value (Observation::aux)
   std::vector<int>
@@ -59,11 +59,10 @@ struct CompensationOptions {
 /// and comp.validate(fit) are empty. Throws InputError (with the line) when a
 /// reading or reference is outside the transforms' domain or an aux value is
 /// missing; otherwise fails (status) like fit_calibration.
-FitOutcome fit_compensated(const Dataset& data, const FitOptions& fit,
-                           const CompensationOptions& comp);
+FitOutcome fit_extended(const Dataset& data, const FitOptions& fit, const ExtendedOptions& comp);
 
 /// Lines describing an extended model for Calibration::brief()/full().
-std::string surface_brief(const Calibration& cal);
-std::string surface_full(const Calibration& cal);
+std::string extended_brief(const Calibration& cal);
+std::string extended_full(const Calibration& cal);
 
 }  // namespace ridgecal

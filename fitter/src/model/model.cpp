@@ -1,4 +1,4 @@
-#include "ridgecal/surface_model.hpp"
+#include "ridgecal/model.hpp"
 
 #include <algorithm>
 #include <cassert>
@@ -9,12 +9,12 @@
 
 namespace ridgecal {
 
-std::string to_string(SurfaceBasis b) {
-  return b == SurfaceBasis::Chebyshev ? "chebyshev" : "power";
+std::string to_string(ModelBasis b) {
+  return b == ModelBasis::Chebyshev ? "chebyshev" : "power";
 }
-SurfaceBasis surface_basis_from_string(const std::string& s) {
-  if (s == "chebyshev") return SurfaceBasis::Chebyshev;
-  if (s == "power") return SurfaceBasis::Power;
+ModelBasis model_basis_from_string(const std::string& s) {
+  if (s == "chebyshev") return ModelBasis::Chebyshev;
+  if (s == "power") return ModelBasis::Power;
   throw std::invalid_argument("basis must be 'chebyshev' or 'power', got '" + s + "'");
 }
 
@@ -29,28 +29,28 @@ AxisScaling AxisScaling::about_zero(double min, double max) {
   return AxisScaling{min, max, 0.0, h};
 }
 
-int SurfaceModel::reading_degree() const {
+int Model::reading_degree() const {
   int d = 0;
   for (const Term& t : terms) d = std::max(d, t.i);
   return d;
 }
-int SurfaceModel::aux_degree() const {
+int Model::aux_degree() const {
   int d = 0;
   for (const Term& t : terms) d = std::max(d, t.j);
   return d;
 }
-int SurfaceModel::total_degree() const {
+int Model::total_degree() const {
   int d = 0;
   for (const Term& t : terms) d = std::max(d, t.i + t.j);
   return d;
 }
-bool SurfaceModel::has_intercept() const {
+bool Model::has_intercept() const {
   return std::find(terms.begin(), terms.end(), Term{0, 0}) != terms.end();
 }
 
 namespace {
-void univariate_row(SurfaceBasis b, double t, int degree, double* out) {
-  if (b == SurfaceBasis::Chebyshev) {
+void univariate_row(ModelBasis b, double t, int degree, double* out) {
+  if (b == ModelBasis::Chebyshev) {
     chebyshev_row(t, degree, out);
     return;
   }
@@ -59,11 +59,11 @@ void univariate_row(SurfaceBasis b, double t, int degree, double* out) {
 }
 
 // Monomial coefficients (in long double) of B_0..B_n.
-std::vector<std::vector<long double>> basis_monomials(SurfaceBasis b, int n) {
+std::vector<std::vector<long double>> basis_monomials(ModelBasis b, int n) {
   std::vector<std::vector<long double>> T(static_cast<std::size_t>(n) + 1);
   for (int k = 0; k <= n; ++k) {
     T[k].assign(static_cast<std::size_t>(k) + 1, 0.0L);
-    if (b == SurfaceBasis::Power) {
+    if (b == ModelBasis::Power) {
       T[k][k] = 1.0L;
     } else if (k == 0) {
       T[0][0] = 1.0L;
@@ -77,7 +77,7 @@ std::vector<std::vector<long double>> basis_monomials(SurfaceBasis b, int n) {
   return T;
 }
 
-std::vector<std::vector<long double>> monomial_ld(const SurfaceModel& m) {
+std::vector<std::vector<long double>> monomial_ld(const Model& m) {
   const int D = m.reading_degree(), A = m.aux_degree();
   std::vector<std::vector<long double>> out(
       static_cast<std::size_t>(D) + 1,
@@ -110,7 +110,7 @@ std::vector<std::vector<long double>> shifted_powers(long double c, long double 
 }
 }  // namespace
 
-void SurfaceModel::basis_row(double t, double s, double* out) const {
+void Model::basis_row(double t, double s, double* out) const {
   const int D = reading_degree(), A = aux_degree();
   std::vector<double> bt(static_cast<std::size_t>(D) + 1), bs(static_cast<std::size_t>(A) + 1);
   univariate_row(basis, t, D, bt.data());
@@ -118,10 +118,10 @@ void SurfaceModel::basis_row(double t, double s, double* out) const {
   for (std::size_t q = 0; q < terms.size(); ++q) out[q] = bt[terms[q].i] * bs[terms[q].j];
 }
 
-double SurfaceModel::eval_fitted(double u, double aux_value) const {
+double Model::eval_fitted(double u, double aux_value) const {
   assert(terms.size() == coefficients.size());
   const double t = input.to_scaled(u);
-  if (basis == SurfaceBasis::Chebyshev && !has_aux) {
+  if (basis == ModelBasis::Chebyshev && !has_aux) {
     // A Chebyshev series in the reading alone (the one-input polynomial is
     // this case): Clenshaw's recurrence, exactly as PolyModel::eval.
     std::vector<double> c(static_cast<std::size_t>(reading_degree()) + 1, 0.0);
@@ -137,20 +137,20 @@ double SurfaceModel::eval_fitted(double u, double aux_value) const {
   return v;
 }
 
-double SurfaceModel::eval(double reading, double aux_value) const {
+double Model::eval(double reading, double aux_value) const {
   const double u = transforms.input(reading);
   if (std::isnan(u)) return u;
   return transforms.output_inverse(eval_fitted(u, aux_value));
 }
 
-std::vector<std::vector<double>> SurfaceModel::monomial_in_scaled() const {
+std::vector<std::vector<double>> Model::monomial_in_scaled() const {
   const auto m = monomial_ld(*this);
   std::vector<std::vector<double>> out;
   for (const auto& row : m) out.emplace_back(row.begin(), row.end());
   return out;
 }
 
-std::vector<std::vector<long double>> SurfaceModel::power_in_raw_ld() const {
+std::vector<std::vector<long double>> Model::power_in_raw_ld() const {
   const auto m = monomial_ld(*this);
   const int D = reading_degree(), A = aux_degree();
   const auto Pu = shifted_powers(input.center, input.half_width, D);
@@ -168,11 +168,37 @@ std::vector<std::vector<long double>> SurfaceModel::power_in_raw_ld() const {
   return out;
 }
 
-std::vector<std::vector<double>> SurfaceModel::power_in_raw() const {
+std::vector<std::vector<double>> Model::power_in_raw() const {
   const auto a = power_in_raw_ld();
   std::vector<std::vector<double>> out;
   for (const auto& row : a) out.emplace_back(row.begin(), row.end());
   return out;
+}
+
+bool is_one_input_polynomial(const Model& m) {
+  return !m.has_aux && m.basis == ModelBasis::Chebyshev && m.transforms.identity();
+}
+
+Model one_input_model(const PolyModel& p) {
+  Model m;
+  m.basis = ModelBasis::Chebyshev;
+  m.input =
+      AxisScaling{p.scaling.x_min, p.scaling.x_max, p.scaling.center(), p.scaling.half_width()};
+  m.terms = terms_reading_only(p.degree());
+  m.coefficients = p.cheb;
+  return m;
+}
+
+PolyModel one_input_polynomial(const Model& m) {
+  assert(is_one_input_polynomial(m));
+  PolyModel p;
+  if (m.terms.empty()) return p;
+  p.scaling.x_min = m.input.min;
+  p.scaling.x_max = m.input.max;
+  p.cheb.assign(static_cast<std::size_t>(m.reading_degree()) + 1, 0.0);
+  for (std::size_t q = 0; q < m.terms.size() && q < m.coefficients.size(); ++q)
+    p.cheb[static_cast<std::size_t>(m.terms[q].i)] = m.coefficients[q];
+  return p;
 }
 
 std::vector<Term> terms_reading_only(int d) {
