@@ -259,7 +259,9 @@ UnitSummary process_unit(const UnitChunk& chunk, const BatchOptions& options) {
   // only (their grid-edge checks replace the former unit-level ones).
   // The verdict is the record's, computed once by the assessment.
   if (const auto v = result.verdict())
-    u.verdict = *v == Verdict::Pass ? UnitVerdict::Pass : UnitVerdict::Fail;
+    u.verdict = *v == Verdict::Pass   ? UnitVerdict::Pass
+                : *v == Verdict::Fail ? UnitVerdict::Fail
+                                      : UnitVerdict::Undecided;
   for (const Warning& w : rec.warnings) u.warnings.push_back(to_string(w.code) + ": " + w.message);
   if (options.write_records) {
     write_whole_file_atomic(options.out_dir + "/" + rel, record_text(record_to_json(rec)),
@@ -404,6 +406,7 @@ BatchResult run_batch(const std::vector<std::string>& inputs, const BatchOptions
     ++res.units;
     (u.status == UnitStatus::Ok ? res.ok : res.failed)++;
     if (u.verdict == UnitVerdict::Fail) ++res.out_of_tolerance;
+    if (u.verdict == UnitVerdict::Undecided) ++res.undecided;
     if (u.outputs_failed > 0) ++res.outputs_failed;
     if (progress &&
         std::chrono::duration<double>(Clock::now() - last_report).count() >= progress_interval_s) {

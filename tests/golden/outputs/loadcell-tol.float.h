@@ -17,7 +17,7 @@
  *   tolerance:           +-(0.002) (user); strictest over the range 0.002
  *   tolerance used:      0.002 kg (record tolerance)
  *   result:              FAIL: Simple acceptance: a point conforms when |error| <= tolerance +-(0.002); the measurement uncertainty is reported but not subtracted. FAIL: 42 of 44 judged points conform.
- *   record SHA-256:      a626d9c1ecd4bb33a169bb7641d532d58b382a97ea120d3c71b37d562655b0b3
+ *   record SHA-256:      d9705eb0c07fec6c0f399d84a25bfc5b9245d927763d2fec9d1cc2189f6163c3
  *   tool version:        ridgecal 0.1.0
  *
  * Export proof (evaluated at export time by an exact host emulation of the

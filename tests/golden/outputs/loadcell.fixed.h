@@ -17,7 +17,7 @@
  *   tolerance:           none in the record
  *   tolerance used:      0.00115559 kg (validation RMSE, fallback: no absolute tolerance given)
  *   result:              not assessed (no tolerance in the record)
- *   record SHA-256:      0942ebae363891ba4acbe2e2231cf9e7c69b198fe589ecf4ed1306ca482700e8
+ *   record SHA-256:      806d719571547c29214f37ff788d33c1ad42096a360648b747770e075404db45
  *   tool version:        ridgecal 0.1.0
  *
  * Export proof (evaluated at export time by an exact host emulation of the

@@ -17,7 +17,7 @@
  *   tolerance:           none in the record
  *   tolerance used:      0.00337435 (not given) (validation RMSE, fallback: no absolute tolerance given)
  *   result:              not assessed (no tolerance in the record)
- *   record SHA-256:      d0170d6d5c31290bd2f6f5f6be9fe5a78ff7e99c18ed0a749436b581717fb1c7
+ *   record SHA-256:      746669df2c433f37d3ba6f627796930b7004fc156b323734a53d46fc55edc91d
  *   tool version:        ridgecal 0.1.0
  *
  * Export proof (evaluated at export time by an exact host emulation of the

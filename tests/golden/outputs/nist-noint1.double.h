@@ -17,7 +17,7 @@
  *   tolerance:           none in the record
  *   tolerance used:      3.05461 (not given) (validation RMSE, fallback: no absolute tolerance given)
  *   result:              not assessed (no tolerance in the record)
- *   record SHA-256:      3fcb8950996ce6f33892e0e7ba05c607114f15fbf04049e216f3d35347b5f02f
+ *   record SHA-256:      787f2f7afb830640f1404ec795caa68b6a1ae87ae75108da716c2f7dbb90b9b7
  *   tool version:        ridgecal 0.1.0
  *
  * Export proof (evaluated at export time by an exact host emulation of the

@@ -17,7 +17,7 @@
  *   tolerance:           none in the record
  *   tolerance used:      0.5 (not given) (--tolerance, for the refusal rule only)
  *   result:              not assessed (no tolerance in the record)
- *   record SHA-256:      7fc133853f16629f538f8a68184155d4bcaa8e98155813b90d5bf9758b820353
+ *   record SHA-256:      96e1fb5a5dbf980895f09261a0288c89b3bc53717f95e68c9d594f312a49c25b
  *   tool version:        ridgecal 0.1.0
  *
  * Export proof (evaluated at export time by an exact host emulation of the

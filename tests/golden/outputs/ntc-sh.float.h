@@ -20,7 +20,7 @@
  *   tolerance:           none in the record
  *   tolerance used:      0.0117743 degC (validation RMSE, fallback: no absolute tolerance given)
  *   result:              not assessed (no tolerance in the record)
- *   record SHA-256:      e0163534f62550ed6f6daf4a28a126348d4473d77f263bcecbf494423da9ff78
+ *   record SHA-256:      6eb39dccb2be4cf077033c8403d9d8dbc7a43ef241de52e30b003f78d0cf7718
  *   tool version:        ridgecal 0.1.0
  *
  * Export proof (evaluated at export time by a host emulation of the

@@ -21,7 +21,7 @@
  *   tolerance:           +-(0.01) (user); strictest over the range 0.01
  *   tolerance used:      0.01 bar (record tolerance)
  *   result:              PASS: Guarded acceptance: a point conforms when |error| <= tolerance +-(0.01) minus the expanded uncertainty U at that point. PASS: 162 of 162 judged points conform.
- *   record SHA-256:      1a015ff08c6bcfb67695b25a27e1e431f20ff7a88f7a58ea618a907c9d719e96
+ *   record SHA-256:      f7351798f946991ec16b1556f0ba16375d44dbca8551a517f5b51c253c75aeac
  *   tool version:        ridgecal 0.1.0
  *
  * Export proof (evaluated at export time by a host emulation of the

@@ -21,7 +21,7 @@
  *   tolerance:           none in the record
  *   tolerance used:      0.00114136 bar (validation RMSE, fallback: no absolute tolerance given)
  *   result:              not assessed (no tolerance in the record)
- *   record SHA-256:      e615c95d117856cae2e6dff606ad90bb9cdf2577470020190b2aebfc07c0c48c
+ *   record SHA-256:      1409132242253a39baf005a4397474486374eb53364b528447153f67bc71a6ac
  *   tool version:        ridgecal 0.1.0
  *
  * Export proof (evaluated at export time by a host emulation of the

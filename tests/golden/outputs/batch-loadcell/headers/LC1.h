@@ -17,7 +17,7 @@
  *   tolerance:           +-(0.002) (user); strictest over the range 0.002
  *   tolerance used:      0.002 (not given) (record tolerance)
  *   result:              FAIL: Simple acceptance: a point conforms when |error| <= tolerance +-(0.002); the measurement uncertainty is reported but not subtracted. FAIL: 42 of 44 judged points conform.
- *   record SHA-256:      6271a967b3280ca293d115aba6df477757568618af167e1daa8b7b3b945a9b78
+ *   record SHA-256:      925900e198aa67013f617a9ce0cf207827dd090cb3554c73eed9808dc07ffeba
  *   tool version:        ridgecal 0.1.0
  *
  * Export proof (evaluated at export time by an exact host emulation of the

@@ -17,7 +17,7 @@
  *   tolerance:           +-(0.002) (user); strictest over the range 0.002
  *   tolerance used:      0.002 (not given) (record tolerance)
  *   result:              FAIL: Simple acceptance: a point conforms when |error| <= tolerance +-(0.002); the measurement uncertainty is reported but not subtracted. FAIL: 42 of 44 judged points conform.
- *   record SHA-256:      472b2bd33318a10562aee451168952cbc3faa271661fa46a139ccc3ab88192dd
+ *   record SHA-256:      f5505ab82dca0fba1817d84c9fd4ae230d07bbe16868cc88ab2b96156586db74
  *   tool version:        ridgecal 0.1.0
  *
  * Export proof (evaluated at export time by an exact host emulation of the
