@@ -370,9 +370,15 @@ int run(const Settings& st) {
     // Negative control: a quarter of U cannot cover 95 % of fresh points.
     sane(p.cov_quarter_u < 0.6, "coverage with U/4 is " + pct(p.cov_quarter_u) + ", not < 60 %");
     sane(std::fabs(p.bias_lo) < 2.0 && std::fabs(p.bias_hi) < 2.0, "pt100 end bias beyond 2 sigma");
-    // The known-bad family (NTC on counts) must show worse coverage than the Pt100.
+    // The known-bad family (NTC on counts): without the model-inadequacy term
+    // its coverage is worse than the Pt100's; with it, U covers (the full run
+    // measured 75.6 % without and 96.7 % with; window 90 %).
     const CleanStats& n = clean["ntc-counts"];
-    sane(n.covered / n.fresh < cov, "ntc-counts coverage not below pt100's");
+    if (st.no_inadequacy)
+      sane(n.covered / n.fresh < cov, "ntc-counts coverage not below pt100's");
+    else
+      sane(n.covered / n.fresh >= 0.90, "ntc-counts coverage " + pct(n.covered / n.fresh) +
+                                            " below 90 % with the model-inadequacy term");
     // The calibrated warnings (issue 13): quiet on clean Pt100 runs, and each
     // catches its seeded fault there (wide windows: 60 runs in the smoke test;
     // the full run measured 0-3 % and 97-100 %).
