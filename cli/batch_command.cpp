@@ -161,7 +161,8 @@ std::string batch_usage() {
        "once.\n"
        "Exit codes: 0 every unit fitted (and PASS, with a tolerance, and every report/header "
        "written),\n"
-       "1 at least one unit failed, is out of tolerance or lacks a requested report/header,\n"
+       "1 at least one unit failed, is out of tolerance or UNDECIDED, or lacks a requested "
+       "report/header,\n"
        "2 bad usage or unusable input (no summary written), 130 / 143 stopped by SIGINT / "
        "SIGTERM\n"
        "(partial summary written).\n";
@@ -257,6 +258,7 @@ BatchCommand parse_batch_command(const std::vector<std::string>& args) {
   b.assess.rule = jc.rule.value_or(DecisionRule::SimpleAcceptance);
   b.assess.uncertainty = jc.uncertainty;
   b.assess.diagnostics = jc.diagnostics;
+  b.assess.accept_inadequate_model = jc.accept_inadequate_model;
   if (jc.rule && !jc.tolerance)
     throw UsageError(
         "--decision needs a tolerance: give --tol-offset, --tol-proportional, --tol-percent-span "
@@ -359,6 +361,8 @@ int run_batch_command(const BatchCommand& cmd, std::ostream& out, std::ostream& 
     }
     out << fmt::format("{} units: {} ok, {} failed", r.units, r.ok, r.failed);
     if (opt.assess.tolerance) out << fmt::format(", {} out of tolerance", r.out_of_tolerance);
+    if (r.undecided > 0)
+      out << fmt::format(", {} undecided (test error far beyond the budget)", r.undecided);
     if (!opt.unit_outputs.empty())
       out << fmt::format(", {} with a report or header not written", r.outputs_failed);
     if (r.outputs_withheld > 0)
@@ -367,8 +371,9 @@ int run_batch_command(const BatchCommand& cmd, std::ostream& out, std::ostream& 
           "\"header withheld\")",
           r.outputs_withheld);
     out << "\nsummary: " << opt.out_dir << "/summary.csv, " << opt.out_dir << "/summary.json\n";
-    return r.failed > 0 || r.out_of_tolerance > 0 || r.outputs_failed > 0 ? kExitOutOfTolerance
-                                                                          : kExitOk;
+    return r.failed > 0 || r.out_of_tolerance > 0 || r.undecided > 0 || r.outputs_failed > 0
+               ? kExitOutOfTolerance
+               : kExitOk;
   } catch (const InputError& e) {
     err << "\nridgecal batch: " << format_input_error(e) << "\n";
     return kExitBadInput;

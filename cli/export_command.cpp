@@ -202,7 +202,9 @@ int run_export_command(const ExportCommand& cmd, std::ostream& out, std::ostream
     meta.verdict = guarded.modified ? firmware::HeaderVerdict::RecordModified
                    : !rec.decision  ? firmware::HeaderVerdict::NotJudged
                    : rec.decision->verdict == Verdict::Pass ? firmware::HeaderVerdict::Pass
-                                                            : firmware::HeaderVerdict::Fail;
+                   : rec.decision->verdict == Verdict::Undecided
+                       ? firmware::HeaderVerdict::Undecided
+                       : firmware::HeaderVerdict::Fail;
     meta.calibration_date = rec.created_utc;
     meta.record_sha256 = guarded.seal.computed;
     meta.tool_version = std::string("ridgecal ") + tool_version();
@@ -227,6 +229,9 @@ int run_export_command(const ExportCommand& cmd, std::ostream& out, std::ostream
       const char* why = meta.verdict == firmware::HeaderVerdict::Fail ? "its verdict is FAIL"
                         : meta.verdict == firmware::HeaderVerdict::NotJudged
                             ? "it has no verdict (no tolerance was given when it was fitted)"
+                        : meta.verdict == firmware::HeaderVerdict::Undecided
+                            ? "its verdict is UNDECIDED (the test error is far beyond what the "
+                              "uncertainty budget allows)"
                             : "it was modified after ridgecal wrote it";
       err << "ridgecal export: " << cmd.record_path << ": refused: " << why
           << "; nothing written. A header is written for a PASS record only; to write one anyway "

@@ -65,7 +65,8 @@ std::string fit_usage() {
   s << fit_options();
   s << "\nExit codes: 0 done (PASS, or no tolerance given), 1 out of tolerance (FAIL; the record "
        "is still written,\n"
-       "marked FAIL), 2 bad input or usage (nothing written).\n";
+       "marked FAIL; or UNDECIDED: the test error is far beyond the uncertainty budget, see\n"
+       "--accept-inadequate-model), 2 bad input or usage (nothing written).\n";
   return s.str();
 }
 
@@ -141,6 +142,7 @@ FitCommand parse_fit_command(const std::vector<std::string>& args) {
   cmd.assess.rule = jc.rule.value_or(DecisionRule::SimpleAcceptance);
   cmd.assess.uncertainty = jc.uncertainty;
   cmd.assess.diagnostics = jc.diagnostics;
+  cmd.assess.accept_inadequate_model = jc.accept_inadequate_model;
   if (jc.rule && !jc.tolerance)
     throw UsageError(
         "--decision needs a tolerance: give --tol-offset, --tol-proportional, --tol-percent-span "
@@ -200,6 +202,12 @@ int run_fit_command(const FitCommand& cmd, std::ostream& out, std::ostream& err)
     // The verdict is the record's (computed once, in the assessment).
     if (result.out_of_tolerance()) {
       out << "FAIL: out of tolerance; the record is written and marked FAIL\n";
+      return kExitOutOfTolerance;
+    }
+    if (result.undecided()) {
+      out << "UNDECIDED: the test error is far beyond what the uncertainty budget allows; no "
+             "PASS without --accept-inadequate-model. The record is written and marked "
+             "UNDECIDED\n";
       return kExitOutOfTolerance;
     }
     if (rec.decision) out << "PASS\n";

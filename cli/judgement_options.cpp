@@ -25,7 +25,9 @@ void add_uncertainty_options(po::options_description& d) {
   d.add_options()
     ("ref-uncertainty", po::value<std::string>(), "uncertainty of the reference standard, reference units (standard, or expanded with --ref-k)")
     ("ref-k", po::value<std::string>(), "coverage factor --ref-uncertainty is stated with (default 1: a standard uncertainty)")
-    ("resolution", po::value<std::string>(), "reading resolution (one digit step), reading units; rectangular distribution");
+    ("resolution", po::value<std::string>(), "reading resolution (one digit step), reading units; rectangular distribution")
+    ("inadequacy-alpha", po::value<std::string>(), "gate of the model-inadequacy term: included when the lack-of-fit test gives p below this (default 0.05; 0 = no term)")
+    ("accept-inadequate-model", po::bool_switch(), "give a PASS although the test error is far beyond the uncertainty budget (recorded; default: UNDECIDED, exit 1)");
   // clang-format on
 }
 
@@ -95,6 +97,9 @@ JudgementCli parse_judgement_options(const po::variables_map& vm) {
   if (const auto u = number("ref-uncertainty")) j.uncertainty.reference_uncertainty = *u;
   if (const auto k = number("ref-k")) j.uncertainty.reference_k = *k;
   if (const auto r = number("resolution")) j.uncertainty.resolution = *r;
+  if (const auto a = number("inadequacy-alpha")) j.uncertainty.inadequacy_alpha = *a;
+  j.accept_inadequate_model =
+      vm.count("accept-inadequate-model") && vm["accept-inadequate-model"].as<bool>();
   if (vm.count("ref-k") && !vm.count("ref-uncertainty"))
     throw UsageError(
         "--ref-k states the coverage factor of --ref-uncertainty; give --ref-uncertainty too");

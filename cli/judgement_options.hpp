@@ -16,11 +16,12 @@ struct JudgementCli {
   std::optional<DecisionRule> rule;
   UncertaintyOptions uncertainty;
   DiagnosticOptions diagnostics;
+  bool accept_inadequate_model = false;  ///< --accept-inadequate-model
 };
 
 /// --tol-offset, --tol-proportional, --tol-percent-span, --tol-class, --span, --decision.
 void add_tolerance_options(boost::program_options::options_description& d);
-/// --ref-uncertainty, --ref-k, --resolution.
+/// --ref-uncertainty, --ref-k, --resolution, --inadequacy-alpha, --accept-inadequate-model.
 void add_uncertainty_options(boost::program_options::options_description& d);
 
 /// Reads the options added above (those not added are left at their defaults).

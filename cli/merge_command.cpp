@@ -92,7 +92,7 @@ int run_merge_command(const MergeCommand& cmd, std::ostream& out, std::ostream& 
     std::size_t failed = 0, oot = 0;
     for (const auto& u : merged.units) {
       failed += u.status == UnitStatus::Failed;
-      oot += u.verdict == UnitVerdict::Fail;
+      oot += u.verdict == UnitVerdict::Fail || u.verdict == UnitVerdict::Undecided;
     }
     out << fmt::format("{} shards, {} units: {} ok, {} failed, {} out of tolerance\n",
                        shards.size(), merged.units.size(), merged.units.size() - failed, failed,

@@ -45,6 +45,12 @@ McFit calibrate_adapter(const Dataset& data, const McOptions& options) {
   auto unc = std::make_shared<const UncertaintyEvaluator>(*cal, options.assess.uncertainty);
   r.predict = [model](double x, double aux) { return model->eval(x, aux); };
   r.expanded = [unc](double x, double aux) { return unc->expanded_at(x, aux); };
+  // The adequacy check, also where the scenario has no tolerance (no decision).
+  r.inadequacy_included = unc->budget().inadequacy.included;
+  const AdequacyCheck ac = check_adequacy(*cal, *unc, options.assess.adequacy_limit);
+  r.adequacy_computed = ac.computed;
+  r.adequacy_ratio = ac.ratio;
+  r.adequacy_far = ac.far;
   return r;
 }
 

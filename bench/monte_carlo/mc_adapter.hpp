@@ -33,6 +33,10 @@ struct McFit {
   int degree = -1;
   double lambda = 0.0;
   double test_rmse = 0.0, validation_rmse = 0.0, training_rmse = 0.0;
+  bool inadequacy_included = false;  ///< the model-inadequacy term is in the budget
+  bool adequacy_computed = false;    ///< the adequacy check ran (test points present)
+  double adequacy_ratio = 0.0;       ///< its ratio R (decision.hpp, AdequacyCheck)
+  bool adequacy_far = false;         ///< R above the limit: a PASS would be UNDECIDED
   /// The delivered curve and its expanded uncertainty U(k) at (reading, aux).
   std::function<double(double reading, double aux)> predict;
   std::function<double(double reading, double aux)> expanded;

@@ -63,11 +63,15 @@ std::string unit_csv(Defect defect, Rng& rng) {
 
 }  // namespace
 
-LineStats run_line(int good_units, std::uint64_t seed) {
+LineStats run_line(int good_units, std::uint64_t seed, bool no_inadequacy) {
   const std::vector<Scenario> all = all_scenarios();
   const auto rh =
       std::find_if(all.begin(), all.end(), [](const Scenario& s) { return s.name == "rh"; });
-  const McOptions& options = rh->options;
+  McOptions options = rh->options;
+  if (no_inadequacy) {
+    options.assess.uncertainty.inadequacy_alpha = 0.0;
+    options.assess.adequacy_limit = 0.0;
+  }
   CsvOptions csv;
   csv.setpoint_column = "setpoint";
   LineStats st;

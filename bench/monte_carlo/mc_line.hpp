@@ -21,7 +21,9 @@ struct LineStats {
   std::vector<LineRow> rows;
 };
 
-/// `good_units` good units, and max(50, good_units / 10) units of each gross defect.
-LineStats run_line(int good_units, std::uint64_t seed);
+/// `good_units` good units, and max(50, good_units / 10) units of each gross
+/// defect. `no_inadequacy`: without the model-inadequacy term and the
+/// adequacy check (the method before them).
+LineStats run_line(int good_units, std::uint64_t seed, bool no_inadequacy = false);
 
 }  // namespace ridgecal::mc

@@ -34,6 +34,9 @@ struct Settings {
   /// stand-in for a penalty that does not bias the curve (issue 13 item 1),
   /// to tell the warnings' own false alarms from the bias they rightly see.
   bool least_squares = false;
+  /// The model-inadequacy term and the adequacy check turned off
+  /// (inadequacy_alpha = 0, adequacy_limit = 0): the method before them.
+  bool no_inadequacy = false;
 };
 
 std::string pct(double x) {
@@ -54,7 +57,9 @@ struct CleanStats {
   double third_cov[3] = {0, 0, 0}, third_n[3] = {0, 0, 0};
   std::map<std::string, int> code_runs;  ///< runs on which each code fired
   int any_warning = 0;
-  double cov_quarter_u = 0;  ///< negative control: coverage with U / 4
+  double cov_quarter_u = 0;                            ///< negative control: coverage with U / 4
+  int term_runs = 0, flag_runs = 0, checked_runs = 0;  ///< inadequacy term, adequacy flag
+  std::vector<double> ratios;                          ///< adequacy ratio R of each run
 };
 
 double aux_mid(const Scenario& s) {
@@ -95,6 +100,10 @@ CleanStats run_clean(const Scenario& s, const Settings& st, std::uint64_t seed) 
       c.third_n[third] += 1;
       covered_q += err <= 0.25 * U;
     }
+    c.term_runs += fit.inadequacy_included;
+    c.flag_runs += fit.adequacy_far;
+    c.checked_runs += fit.adequacy_computed;
+    if (fit.adequacy_computed) c.ratios.push_back(fit.adequacy_ratio);
     std::vector<std::string> codes = fit.warning_codes;
     std::sort(codes.begin(), codes.end());
     codes.erase(std::unique(codes.begin(), codes.end()), codes.end());
@@ -117,7 +126,8 @@ CleanStats run_clean(const Scenario& s, const Settings& st, std::uint64_t seed) 
 
 struct FaultStats {
   int runs = 0, refused = 0, any = 0, fail = 0;
-  int detected = 0;  ///< runs on which one of the fault's own codes fired
+  int detected = 0;                  ///< runs on which one of the fault's own codes fired
+  int term_runs = 0, flag_runs = 0;  ///< inadequacy term included, adequacy flag far
   std::map<std::string, int> code_runs;
 };
 
@@ -162,6 +172,8 @@ FaultStats run_fault(const Scenario& base, Fault f, const Settings& st, std::uin
       return std::find(own.begin(), own.end(), c) != own.end();
     });
     r.fail += fit.has_verdict && !fit.pass;
+    r.term_runs += fit.inadequacy_included;
+    r.flag_runs += fit.adequacy_far;
   }
   return r;
 }
@@ -183,10 +195,52 @@ std::string top_codes(const std::map<std::string, int>& m, int runs, int n,
   return out.empty() ? "none" : out;
 }
 
+double quantile(std::vector<double> v, double p) {
+  if (v.empty()) return std::nan("");
+  std::sort(v.begin(), v.end());
+  const double pos = p * static_cast<double>(v.size() - 1);
+  const std::size_t i = static_cast<std::size_t>(pos);
+  const double f = pos - static_cast<double>(i);
+  return i + 1 < v.size() ? v[i] + f * (v[i + 1] - v[i]) : v[i];
+}
+
+/// The model-inadequacy term and the adequacy check (issue 13 item 3).
+void inadequacy_table(std::ostringstream& o, const std::vector<Scenario>& scenarios,
+                      std::map<std::string, CleanStats>& clean,
+                      std::map<std::pair<std::string, int>, FaultStats>& faults) {
+  o << "### Model-inadequacy term and adequacy check\n\n"
+    << "| scenario | term included (clean) | adequacy ratio R on clean runs: median / 95 % / "
+       "99 % / max | flag (R > limit) on clean runs | flag on underfit | flag on stuck | flag "
+       "on wrong-label | term included (underfit) |\n|---|---|---|---|---|---|---|---|\n";
+  for (const Scenario& s : scenarios) {
+    const CleanStats& c = clean[s.name];
+    const int fitted = std::max(1, c.runs - c.refused);
+    auto fr = [&](Fault f, bool term) {
+      const FaultStats& r = faults[{s.name, static_cast<int>(f)}];
+      const int n = std::max(1, r.runs - r.refused);
+      return pct((term ? r.term_runs : r.flag_runs) / double(n));
+    };
+    o << "| " << s.name << " | " << pct(c.term_runs / double(fitted)) << " | "
+      << num(quantile(c.ratios, 0.5), "%.2f") << " / " << num(quantile(c.ratios, 0.95), "%.2f")
+      << " / " << num(quantile(c.ratios, 0.99), "%.2f") << " / "
+      << num(quantile(c.ratios, 1.0), "%.2f") << " | "
+      << pct(c.flag_runs / double(std::max(1, c.checked_runs))) << " | "
+      << fr(Fault::Underfit, false) << " | " << fr(Fault::Stuck, false) << " | "
+      << fr(Fault::WrongLabel, false) << " | " << fr(Fault::Underfit, true) << " |\n";
+  }
+  o << "\nR = test RMS error / RMS of the combined standard uncertainty without the "
+       "model-inadequacy term at the test points; the flag makes a PASS UNDECIDED.\n\n";
+}
+
 int run(const Settings& st) {
   std::vector<Scenario> scenarios = all_scenarios();
   if (st.least_squares)
     for (Scenario& s : scenarios) s.options.fit.lambdas = {0.0};
+  if (st.no_inadequacy)
+    for (Scenario& s : scenarios) {
+      s.options.assess.uncertainty.inadequacy_alpha = 0.0;
+      s.options.assess.adequacy_limit = 0.0;
+    }
   std::ostringstream o;
   int problems = 0;
   auto sane = [&](bool ok, const std::string& what) {
@@ -294,7 +348,9 @@ int run(const Settings& st) {
        "reference recorded a quarter of a setpoint step off; underfit = a 6-sigma cubic "
        "deviation with the degrees limited to 1..2; drift = 2 sigma more per repeat.\n\n";
 
-  const LineStats line = run_line(st.line_units, st.seed + 99991ULL);
+  inadequacy_table(o, scenarios, clean, faults);
+
+  const LineStats line = run_line(st.line_units, st.seed + 99991ULL, st.no_inadequacy);
   o << "### Production line of RH probes, tolerance +-(0.8 %RH + 1 % of reading)\n\n"
     << "| units | kind | rejected (refused or FAIL) | flagged (any warning) | rejected or "
        "flagged | target |\n|---|---|---|---|---|---|\n";
@@ -314,9 +370,15 @@ int run(const Settings& st) {
     // Negative control: a quarter of U cannot cover 95 % of fresh points.
     sane(p.cov_quarter_u < 0.6, "coverage with U/4 is " + pct(p.cov_quarter_u) + ", not < 60 %");
     sane(std::fabs(p.bias_lo) < 2.0 && std::fabs(p.bias_hi) < 2.0, "pt100 end bias beyond 2 sigma");
-    // The known-bad family (NTC on counts) must show worse coverage than the Pt100.
+    // The known-bad family (NTC on counts): without the model-inadequacy term
+    // its coverage is worse than the Pt100's; with it, U covers (the full run
+    // measured 75.6 % without and 96.7 % with; window 90 %).
     const CleanStats& n = clean["ntc-counts"];
-    sane(n.covered / n.fresh < cov, "ntc-counts coverage not below pt100's");
+    if (st.no_inadequacy)
+      sane(n.covered / n.fresh < cov, "ntc-counts coverage not below pt100's");
+    else
+      sane(n.covered / n.fresh >= 0.90, "ntc-counts coverage " + pct(n.covered / n.fresh) +
+                                            " below 90 % with the model-inadequacy term");
     // The calibrated warnings (issue 13): quiet on clean Pt100 runs, and each
     // catches its seeded fault there (wide windows: 60 runs in the smoke test;
     // the full run measured 0-3 % and 97-100 %).
@@ -376,9 +438,11 @@ int main(int argc, char** argv) {
         st.check = true;
       else if (a == "--least-squares")
         st.least_squares = true;
+      else if (a == "--no-inadequacy")
+        st.no_inadequacy = true;
       else {
         std::cerr << "usage: ridgecal_monte_carlo [--runs N] [--fresh M] [--line-units N] "
-                     "[--seed S] [--check] [--least-squares]\n";
+                     "[--seed S] [--check] [--least-squares] [--no-inadequacy]\n";
         return 2;
       }
     } catch (const std::exception&) {

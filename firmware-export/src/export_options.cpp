@@ -81,16 +81,18 @@ std::string to_string(HeaderVerdict v) {
       return "fail";
     case HeaderVerdict::RecordModified:
       return "record-modified";
+    case HeaderVerdict::Undecided:
+      return "undecided";
   }
   return "unknown";
 }
 
 HeaderVerdict header_verdict_from_string(const std::string& s) {
   for (HeaderVerdict v : {HeaderVerdict::NotJudged, HeaderVerdict::Pass, HeaderVerdict::Fail,
-                          HeaderVerdict::RecordModified})
+                          HeaderVerdict::RecordModified, HeaderVerdict::Undecided})
     if (to_string(v) == s) return v;
   throw std::invalid_argument("header verdict '" + s +
-                              "': must be not-judged, pass, fail or record-modified");
+                              "': must be not-judged, pass, fail, record-modified or undecided");
 }
 
 }  // namespace ridgecal::firmware

@@ -150,6 +150,8 @@ const char* verdict_macro(HeaderVerdict v) {
       return "FAIL";
     case HeaderVerdict::RecordModified:
       return "RECORD_MODIFIED";
+    case HeaderVerdict::Undecided:
+      return "UNDECIDED";
     case HeaderVerdict::NotJudged:
       break;
   }
@@ -212,6 +214,8 @@ void emit_prologue(std::ostringstream& o, const HeaderContext& c, std::uint32_t 
     << "#define " << n.P << "_VERDICT_FAIL 2\n"
     << "#define " << n.P
     << "_VERDICT_RECORD_MODIFIED 3 /* record edited after ridgecal wrote it */\n"
+    << "#define " << n.P
+    << "_VERDICT_UNDECIDED 4 /* within tolerance, model adequacy not shown */\n"
     << "#define " << n.P << "_VERDICT " << n.P << "_VERDICT_" << verdict_macro(c.meta.verdict)
     << "\n"
     << "#define " << n.P << "_RECORD_SHA256 \"" << c_string_safe(c.meta.record_sha256)

@@ -24,6 +24,10 @@ bool CalibrateResult::out_of_tolerance() const {
   return verdict() == Verdict::Fail;
 }
 
+bool CalibrateResult::undecided() const {
+  return verdict() == Verdict::Undecided;
+}
+
 CalibrateResult calibrate(const Dataset& data, const CalibrateOptions& options) {
   assert(options.validate().empty());
   assert(options.comp.aux == !data.columns.aux_column.empty());

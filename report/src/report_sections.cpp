@@ -108,8 +108,8 @@ void verdict_section(Builder& b, const ReportData& d) {
     word = esc(dec.verdict);
     if (dec.verdict == "PASS")
       cls = "pass";
-    else if (dec.verdict == "FAIL")
-      cls = "fail";
+    else if (dec.verdict == "FAIL" || dec.verdict == "UNDECIDED")
+      cls = "fail";  // UNDECIDED is not accepted either (decision.hpp)
   }
   b.o += fmt::format(
       "<div class=\"verdict {}\" id=\"verdict\">\n<div class=\"word\">{}</div>\n<div "
@@ -127,7 +127,8 @@ void verdict_section(Builder& b, const ReportData& d) {
   if (dec.present) b.o += "<div><b>Decision rule:</b> " + esc(dec.rule) + "</div>\n";
   // The record's statement repeats the rule and the counts; show it only when
   // the per-set counts are not otherwise known.
-  if (!dec.detail.empty() && dec.set_lines.empty()) b.o += "<div>" + esc(dec.detail) + "</div>\n";
+  if (!dec.detail.empty() && (dec.set_lines.empty() || dec.verdict == "UNDECIDED"))
+    b.o += "<div>" + esc(dec.detail) + "</div>\n";
   for (const std::string& line : dec.set_lines)
     b.o += "<div class=\"set\">" + esc(line) + "</div>\n";
   if (unc.present)

@@ -54,6 +54,9 @@ def main(argv):
            "--aux", "temperature", "--aux-setpoint", "chamber", "--degree", "1", "--lambda", "0",
            "--test-fraction", "0", "--ref-uncertainty", str(U_REF), "--ref-k", str(K_REF),
            "--resolution", str(RESOLUTION), "--tol-offset", "2", "--decision", "guarded",
+           # The model-inadequacy term (a degree-1 fit here lacks fit) is checked
+           # by fitter.inadequacy; this check recomputes the other four components.
+           "--inadequacy-alpha", "0",
            "--timestamp", "none", "-o", record_path]
     run = subprocess.run(cmd, capture_output=True, text=True)
     if run.returncode != 0:

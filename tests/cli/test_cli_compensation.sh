@@ -74,7 +74,8 @@ import json, math, sys
 j = json.load(open(sys.argv[1]))
 u = j["uncertainty"]
 names = [c["name"] for c in u["components"]]
-assert names == ["fit-residual", "fit-coefficients", "reference-standard", "reading-resolution"], names
+assert names == ["fit-residual", "fit-coefficients", "reference-standard", "reading-resolution",
+                 "model-inadequacy"], names
 uc = math.sqrt(sum(c["standard"] ** 2 for c in u["components"]))
 assert abs(u["combined"] - uc) <= 1e-12 * uc and abs(u["expanded"] - 2 * uc) <= 1e-12 * uc
 assert abs(u["components"][2]["standard"] - 0.0005) < 1e-15

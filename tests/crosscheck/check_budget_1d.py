@@ -63,7 +63,10 @@ def check(argv, mutation):
     rec_path = f"{work}/ntc-ridge.json"
     run_cli([ridgecal, "fit", csv_path, "--setpoint", "setpoint", "--degree", str(DEGREE), "--lambda",
              str(LAMBDA), "--test-fraction", "0", "--ref-uncertainty", str(U_REF), "--ref-k", str(K_REF),
-             "--resolution", str(RESOLUTION), "--timestamp", "none", "-o", rec_path])
+             "--resolution", str(RESOLUTION), "--timestamp", "none", "-o", rec_path,
+             # The model-inadequacy term is checked by fitter.inadequacy; this
+             # check recomputes the other four components independently.
+             "--inadequacy-alpha", "0"])
     rec = json.load(open(rec_path))
     u = rec["uncertainty"]
     comps = {c["name"]: c for c in u["components"]}

@@ -35,7 +35,7 @@ Calibration fit_line(double noise, double lambda = 0.0, std::uint64_t seed = 1) 
 BOOST_AUTO_TEST_CASE(enums_round_trip) {
   for (auto r : {DecisionRule::SimpleAcceptance, DecisionRule::GuardedAcceptance})
     BOOST_TEST((decision_rule_from_string(to_string(r)) == r));
-  for (auto v : {Verdict::Pass, Verdict::Fail})
+  for (auto v : {Verdict::Pass, Verdict::Fail, Verdict::Undecided})
     BOOST_TEST((verdict_from_string(to_string(v)) == v));
   for (auto p : {TolerancePreset::Iec60751AA, TolerancePreset::Iec60751A,
                  TolerancePreset::Iec60751B, TolerancePreset::Iec60751C})
@@ -158,7 +158,11 @@ BOOST_AUTO_TEST_CASE(budget_components) {
   o.resolution = 0.5;  // reading units; slope 2 -> u = 2 * 0.5 / (2 sqrt 3)
   BOOST_TEST(o.validate().empty());
   const UncertaintyBudget u = evaluate_uncertainty(cal, o);
-  BOOST_REQUIRE_EQUAL(u.components.size(), 4u);
+  // Four components and the model-inadequacy line (0 here: a line fitted by a line).
+  BOOST_REQUIRE_EQUAL(u.components.size(), 5u);
+  BOOST_TEST(u.components[4].name == "model-inadequacy");
+  BOOST_TEST(!u.inadequacy.included);
+  BOOST_TEST(u.components[4].standard == 0.0);
   BOOST_TEST(u.components[2].standard == 0.02, boost::test_tools::tolerance(1e-12));
   BOOST_TEST(u.components[3].standard == 0.5 / std::sqrt(3.0), boost::test_tools::tolerance(0.01));
   double sum = 0;

@@ -150,7 +150,11 @@ BOOST_AUTO_TEST_CASE(degree_one_budget_has_the_known_components) {
   uo.resolution = 0.5;  // reading units; slope 0.013 -> u_res = 0.013 * 0.5 / (2 sqrt 3)
   const UncertaintyEvaluator su(cal, uo);
   const UncertaintyBudget& b = su.budget();
-  BOOST_REQUIRE_EQUAL(b.components.size(), 4u);
+  // Four components and the model-inadequacy line (0 here: a plane fitted by a plane).
+  BOOST_REQUIRE_EQUAL(b.components.size(), 5u);
+  BOOST_TEST(b.components[4].name == "model-inadequacy");
+  BOOST_TEST(!b.inadequacy.included);
+  BOOST_TEST(b.components[4].standard == 0.0);
   // The plane's standard error is largest at a corner of the calibrated region.
   double x_min = 1e300, x_max = -1e300, a_min = 1e300, a_max = -1e300;
   for (const PointResult& p : cal.points) {

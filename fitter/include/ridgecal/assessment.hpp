@@ -24,6 +24,15 @@ struct AssessmentOptions {
   DecisionRule rule = DecisionRule::SimpleAcceptance;  ///< default: simple acceptance
   UncertaintyOptions uncertainty;
   DiagnosticOptions diagnostics;
+  /// The adequacy check (decision.hpp, AdequacyCheck): a test RMS error more
+  /// than this many times the combined standard uncertainty without the
+  /// model-inadequacy term is "far", and a PASS becomes UNDECIDED. 0 turns the
+  /// check off; else 1..100. Default 3 (false-alarm rate on clean Monte Carlo
+  /// runs in docs/decision-and-uncertainty.md).
+  double adequacy_limit = 3.0;
+  /// Keep a PASS although the adequacy check is far (the user's explicit,
+  /// recorded override; CLI --accept-inadequate-model). Default false.
+  bool accept_inadequate_model = false;
 
   /// Empty when valid, else a message naming the field, the value and the rule.
   std::string validate() const;
@@ -44,6 +53,11 @@ struct Assessment {
 /// tolerance, and the caller asked for one.
 void resolve_span(ToleranceSpec& tol, const Calibration& cal, const DiagnosticOptions& diag,
                   const std::string& file = {});
+
+/// The adequacy check of a fitted calibration against its budget (`unc` built
+/// from the same calibration): R over the test points; not computed without
+/// test points or with limit 0.
+AdequacyCheck check_adequacy(const Calibration& cal, const UncertaintyEvaluator& unc, double limit);
 
 /// Judges the points of the final model: `training` and `test` (counting for
 /// the verdict) and `validation` (the cross-validated predictions, judged for

@@ -109,6 +109,7 @@ struct BatchResult {
   std::uint64_t ok = 0;                ///< fitted (whatever their verdict)
   std::uint64_t failed = 0;            ///< not fitted
   std::uint64_t out_of_tolerance = 0;  ///< fitted with verdict FAIL
+  std::uint64_t undecided = 0;  ///< fitted with verdict UNDECIDED (adequacy check, decision.hpp)
   std::uint64_t outputs_failed = 0;    ///< fitted units with an extra output not written
   std::uint64_t outputs_withheld = 0;  ///< fitted units with a pass_only output withheld
   int interrupted_by = 0;              ///< the signal that stopped the batch (options.stop), or 0

@@ -38,8 +38,8 @@ std::string to_string(UnitStatus s);
 UnitStatus unit_status_from_string(const std::string& s);  ///< throws std::invalid_argument
 
 /// Tolerance verdict of a unit. NotAssessed until the tolerance module provides one.
-enum class UnitVerdict { NotAssessed, Pass, Fail };
-std::string to_string(UnitVerdict v);                        ///< `n/a`, `PASS`, `FAIL`
+enum class UnitVerdict { NotAssessed, Pass, Fail, Undecided };
+std::string to_string(UnitVerdict v);                        ///< `n/a`, `PASS`, `FAIL`, `UNDECIDED`
 UnitVerdict unit_verdict_from_string(const std::string& s);  ///< throws std::invalid_argument
 
 struct UnitSummary {

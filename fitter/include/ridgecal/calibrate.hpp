@@ -75,6 +75,8 @@ struct CalibrateResult {
   std::optional<Verdict> verdict() const;
   /// True when the record is judged and FAIL (the CLI's exit code 1).
   bool out_of_tolerance() const;
+  /// True when the record is judged UNDECIDED (adequacy check; also exit code 1).
+  bool undecided() const;
 };
 
 /// Fits, assesses and assembles the record of one data set.

@@ -8,7 +8,10 @@
 //    limit - U <= 0 no point can conform.
 // A point exactly on the acceptance limit conforms. A set passes when all of
 // its points conform; the verdict is PASS when every set that counts for the
-// decision passes.
+// decision passes, unless the adequacy check (AdequacyCheck below) finds the
+// test error far beyond what the budget allows: the verdict is then
+// UNDECIDED (not accepted, exit 1) with the reason in the statement, unless the
+// user overrides it explicitly (recorded).
 #pragma once
 
 #include <cstddef>
@@ -24,10 +27,12 @@ enum class DecisionRule { SimpleAcceptance, GuardedAcceptance };
 std::string to_string(DecisionRule r);                         ///< `simple`, `guarded`
 DecisionRule decision_rule_from_string(const std::string& s);  ///< throws std::invalid_argument
 
-enum class Verdict { Pass, Fail };
-std::string to_string(Verdict v);  ///< `PASS`, `FAIL`
-Verdict verdict_from_string(
-    const std::string& s);  ///< `PASS`/`FAIL` (case-insensitive); throws std::invalid_argument
+/// UNDECIDED: every counted point conforms, but the adequacy check found the
+/// test error far beyond the budget, so no PASS is given (see AdequacyCheck).
+enum class Verdict { Pass, Fail, Undecided };
+std::string to_string(Verdict v);                   ///< `PASS`, `FAIL`, `UNDECIDED`
+Verdict verdict_from_string(const std::string& s);  ///< the names above (case-insensitive);
+                                                    ///< throws std::invalid_argument
 
 /// One error to judge.
 struct PointToJudge {
@@ -59,6 +64,22 @@ struct SetJudgement {
   Verdict verdict = Verdict::Pass;
 };
 
+/// Is the test error far beyond what the uncertainty budget allows? The
+/// ratio R = sqrt(mean e_i^2 / mean u0(x_i)^2) over the test points, e_i the
+/// error and u0 the combined standard uncertainty without the
+/// model-inadequacy term (what the fit's own scatter and the stated inputs
+/// allow). R > limit is "far" (limit from a false-alarm rate measured by
+/// Monte Carlo, docs/decision-and-uncertainty.md).
+struct AdequacyCheck {
+  bool computed = false;  ///< false: no test points, or the check is off (limit 0)
+  std::size_t test_points = 0;
+  double ratio = 0.0;            ///< R
+  double ratio_with_term = 0.0;  ///< the same against the full combined uncertainty
+  double limit = 0.0;            ///< R above this is far
+  bool far = false;              ///< computed and ratio > limit
+  bool overridden = false;       ///< far, and the user accepted the model explicitly
+};
+
 struct Decision {
   DecisionRule rule = DecisionRule::SimpleAcceptance;
   Verdict verdict = Verdict::Pass;
@@ -66,6 +87,7 @@ struct Decision {
   std::vector<SetJudgement> sets;
   std::vector<PointJudgement> points;
 
+  AdequacyCheck adequacy;
   bool pass() const { return verdict == Verdict::Pass; }
   /// A few lines for a terminal: verdict, rule, one line per set, and the
   /// first 10 points that do not conform.
@@ -80,6 +102,11 @@ struct Decision {
 /// Precondition: tolerance.validate() is empty.
 Decision judge(const std::vector<PointToJudge>& points, const ToleranceSpec& tolerance,
                DecisionRule rule, const std::vector<std::string>& informative_sets = {});
+
+/// Applies the adequacy check to a judged decision: records it, and when it
+/// is far turns a PASS into UNDECIDED (or, with `override_far`, keeps the PASS
+/// and says so in the statement). A FAIL stays FAIL.
+void apply_adequacy_check(Decision& d, AdequacyCheck check, bool override_far);
 
 nlohmann::json to_json(const Decision& d);
 Decision decision_from_json(const nlohmann::json& j,

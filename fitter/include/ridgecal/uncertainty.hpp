@@ -27,7 +27,11 @@
 //    exact derivative of the polynomial for a model in the reading alone
 //    without transforms, else a central difference through the whole
 //    transform chain (transforms or an aux input).
-// combined(x, a) = sqrt(s^2 + u_fit^2 + u_ref^2 + u_res^2), U(x, a) = k combined(x, a).
+//  * model inadequacy: u_inad(x), the systematic error the curve family
+//    leaves where it cannot follow the sensor, from the leave-one-setpoint-out
+//    errors against the pure error of the repeats, included when the
+//    lack-of-fit test rejects the model (Type A; estimate_inadequacy below).
+// combined(x, a) = sqrt(s^2 + u_fit^2 + u_ref^2 + u_res^2 + u_inad^2), U(x, a) = k combined(x, a).
 // The headline `expanded` takes the largest value of each component over a
 // grid of the calibrated region (band_points readings over the training
 // readings' range x aux_points aux values, ends included), so it bounds U
@@ -37,6 +41,7 @@
 #pragma once
 
 #include <Eigen/Dense>
+#include <limits>
 #include <nlohmann/json.hpp>
 #include <string>
 #include <vector>
@@ -55,6 +60,11 @@ struct UncertaintyOptions {
   double coverage_k =
       2.0;  ///< coverage factor of the reported expanded uncertainty; default 2 (about 95 %)
   int band_points = 21;  ///< points of the prediction band over the range, 2..1001; default 21
+  /// Gate of the model-inadequacy term (inadequacy.cpp): the term enters the
+  /// budget when the lack-of-fit F test of the final model against the pure
+  /// error of the repeats gives p < inadequacy_alpha. 0 turns the term off;
+  /// 0..0.5; default 0.05 (see docs/decision-and-uncertainty.md).
+  double inadequacy_alpha = 0.05;
 
   /// Empty when valid, else a message naming the field, the value and the rule.
   std::string validate() const;
@@ -83,14 +93,45 @@ struct UncertaintyComponent {
 
 struct BandPoint {
   double reading = 0.0;
-  double predicted = 0.0;  ///< calibrated value p(reading)
-  double u_fit = 0.0;      ///< standard deviation of the fitted curve
-  double combined = 0.0;   ///< combined standard uncertainty at this reading
-  double expanded = 0.0;   ///< coverage_k * combined
+  double predicted = 0.0;     ///< calibrated value p(reading)
+  double u_fit = 0.0;         ///< standard deviation of the fitted curve
+  double u_inadequacy = 0.0;  ///< model-inadequacy standard uncertainty at this reading
+  double combined = 0.0;      ///< combined standard uncertainty at this reading
+  double expanded = 0.0;      ///< coverage_k * combined
+};
+
+/// One setpoint's evidence of model inadequacy (reference units).
+struct InadequacyNode {
+  double reading = 0.0;   ///< mean training reading of the setpoint
+  double deleted = 0.0;   ///< mean error with the setpoint left out (group-deletion formula)
+  double noise_sd = 0.0;  ///< standard deviation of `deleted` from the pure error alone
+  double standard = 0.0;  ///< smoothed inadequacy standard uncertainty at this setpoint
+};
+
+/// The model-inadequacy term: an estimate of the systematic error of the
+/// delivered curve where the curve family cannot follow the sensor, from the
+/// training setpoints' leave-one-setpoint-out errors against the pure error of
+/// the repeats. u(x) interpolates `nodes` linearly in u^2 (constant beyond the
+/// ends); with an aux input the term is one figure over the whole region
+/// (`uniform`). Zero unless `included`.
+struct ModelInadequacy {
+  bool estimated = false;  ///< enough evidence: repeats (df_pure >= 2) and >= 3 setpoints
+  bool included = false;   ///< the gate passed: the term is in the budget
+  double alpha = 0.0;      ///< the gate (UncertaintyOptions::inadequacy_alpha)
+  double lack_of_fit_p = std::numeric_limits<double>::quiet_NaN();  ///< the gate's test
+  double pure_sd = std::numeric_limits<double>::quiet_NaN();  ///< pooled repeat SD, reference units
+  double df_pure = 0.0;
+  double uniform = 0.0;               ///< with an aux input: the one figure used everywhere
+  std::vector<InadequacyNode> nodes;  ///< one-input models: by increasing reading
+  std::string reason;                 ///< why included or not, one sentence
+
+  double at(double reading) const;  ///< u at a reading (0 unless included)
+  double largest() const;           ///< largest u over the nodes (0 unless included)
 };
 
 struct UncertaintyBudget {
   std::vector<UncertaintyComponent> components;
+  ModelInadequacy inadequacy;  ///< the evidence behind the `model-inadequacy` component
   double residual_sd = 0.0;
   double degrees_of_freedom = 0.0;  ///< n - df of the residual SD
   double combined = 0.0;            ///< combined standard uncertainty (largest over the range)
@@ -166,6 +207,9 @@ class UncertaintyEvaluator {
   /// central difference through the transform chain.
   double reading_sensitivity(double reading, double aux = 0.0) const;
   double combined_at(double reading, double aux = 0.0) const;  ///< combined standard uncertainty
+  /// combined_at without the model-inadequacy term: what the fit's own scatter
+  /// and the stated inputs allow (the adequacy check of decision.hpp).
+  double combined_without_inadequacy_at(double reading, double aux = 0.0) const;
   /// U at (reading, aux) for guarded acceptance. Without an aux input the band
   /// is U(x) itself and this interpolates in it (UncertaintyBudget::expanded_at,
   /// so a reader of the record gets the same figure); with an aux input the
@@ -180,6 +224,13 @@ class UncertaintyEvaluator {
   double s_ = 0.0, u_ref_ = 0.0;
   UncertaintyBudget budget_;
 };
+
+/// Estimates the model-inadequacy term of a fitted calibration
+/// (inadequacy.cpp; the method is in docs/decision-and-uncertainty.md).
+/// `residual_sd` is the budget's fit-residual component (reference units):
+/// the pooled in-sample lack of fit it already carries is not counted twice.
+ModelInadequacy estimate_inadequacy(const Calibration& cal, const FitCovariance& cov,
+                                    double residual_sd, double alpha);
 
 /// The floors of the variation check (calibration_csv.hpp) these options
 /// imply: the reading resolution, and the reference standard's uncertainty

@@ -22,6 +22,11 @@ std::string AssessmentOptions::validate() const {
   }
   if (std::string e = uncertainty.validate(); !e.empty()) return "uncertainty: " + e;
   if (std::string e = diagnostics.validate(); !e.empty()) return "diagnostics: " + e;
+  if (!(std::isfinite(adequacy_limit) &&
+        (adequacy_limit == 0.0 || (adequacy_limit >= 1.0 && adequacy_limit <= 100.0))))
+    return fmt::format(
+        "adequacy_limit is {}; it must be 0 (no adequacy check) or between 1 and 100",
+        adequacy_limit);
   return {};
 }
 
@@ -49,6 +54,30 @@ void resolve_span(ToleranceSpec& tol, const Calibration& cal, const DiagnosticOp
                      "reference units (--tol-offset)");
 }
 
+AdequacyCheck check_adequacy(const Calibration& cal, const UncertaintyEvaluator& unc,
+                             double limit) {
+  AdequacyCheck c;
+  c.limit = limit;
+  if (!(limit > 0.0)) return c;
+  double e2 = 0.0, u02 = 0.0, u2 = 0.0;
+  for (const PointResult& p : cal.points) {
+    if (p.role != SetRole::Test || !std::isfinite(p.error)) continue;
+    const double u0 = unc.combined_without_inadequacy_at(p.reading, p.aux);
+    const double u = unc.combined_at(p.reading, p.aux);
+    if (!(std::isfinite(u0) && std::isfinite(u))) continue;
+    ++c.test_points;
+    e2 += p.error * p.error;
+    u02 += u0 * u0;
+    u2 += u * u;
+  }
+  if (c.test_points == 0 || !(u02 > 0.0)) return c;
+  c.computed = true;
+  c.ratio = std::sqrt(e2 / u02);
+  c.ratio_with_term = std::sqrt(e2 / u2);
+  c.far = c.ratio > limit;
+  return c;
+}
+
 Assessment assess_calibration(const Dataset& data, const Calibration& cal,
                               const AssessmentOptions& options) {
   assert(options.validate().empty());
@@ -69,7 +98,11 @@ Assessment assess_calibration(const Dataset& data, const Calibration& cal,
       if (p.role == SetRole::Train && std::isfinite(p.cv_predicted))
         pts.push_back(
             {p.line, "validation", p.reference, p.cv_predicted - p.reference, expanded_at(p)});
-    if (tol.validate().empty()) a.decision = judge(pts, tol, options.rule, {"validation"});
+    if (tol.validate().empty()) {
+      a.decision = judge(pts, tol, options.rule, {"validation"});
+      apply_adequacy_check(*a.decision, check_adequacy(cal, unc, options.adequacy_limit),
+                           options.accept_inadequate_model);
+    }
   }
   a.warnings = diagnose_fit(data, cal, a.uncertainty, a.tolerance ? &*a.tolerance : nullptr,
                             options.diagnostics);

@@ -21,14 +21,23 @@ DecisionRule decision_rule_from_string(const std::string& s) {
 }
 
 std::string to_string(Verdict v) {
-  return v == Verdict::Pass ? "PASS" : "FAIL";
+  switch (v) {
+    case Verdict::Pass:
+      return "PASS";
+    case Verdict::Fail:
+      return "FAIL";
+    case Verdict::Undecided:
+      return "UNDECIDED";
+  }
+  return "FAIL";
 }
 Verdict verdict_from_string(const std::string& s) {
   std::string u = s;
   std::transform(u.begin(), u.end(), u.begin(), [](unsigned char c) { return std::toupper(c); });
   if (u == "PASS") return Verdict::Pass;
   if (u == "FAIL") return Verdict::Fail;
-  throw std::invalid_argument("verdict must be 'PASS' or 'FAIL', got '" + s + "'");
+  if (u == "UNDECIDED") return Verdict::Undecided;
+  throw std::invalid_argument("verdict must be 'PASS', 'FAIL' or 'UNDECIDED', got '" + s + "'");
 }
 
 Decision judge(const std::vector<PointToJudge>& points, const ToleranceSpec& tolerance,
@@ -98,6 +107,30 @@ Decision judge(const std::vector<PointToJudge>& points, const ToleranceSpec& tol
   return d;
 }
 
+void apply_adequacy_check(Decision& d, AdequacyCheck check, bool override_far) {
+  check.overridden = check.far && override_far;
+  if (check.far) {
+    const std::string what = fmt::format(
+        " The test error is far beyond what the uncertainty budget allows: the test RMS error is "
+        "{:.3g} times the combined standard uncertainty from the fit's own scatter (limit {:g}; "
+        "{:.3g} times with the model-inadequacy term), so the curve family cannot follow the "
+        "sensor.",
+        check.ratio, check.limit, check.ratio_with_term);
+    if (d.verdict == Verdict::Pass && !check.overridden) {
+      d.verdict = Verdict::Undecided;
+      d.statement += what +
+                     " UNDECIDED: no PASS is given for such a model without an explicit "
+                     "override (--accept-inadequate-model).";
+    } else if (d.verdict == Verdict::Pass) {
+      d.statement +=
+          what + " PASS only by the user's explicit override (--accept-inadequate-model).";
+    } else {
+      d.statement += what;
+    }
+  }
+  d.adequacy = check;
+}
+
 namespace {
 // A figure for the terminal; a non-finite one (a model evaluated far outside
 // what double can hold) reads "not finite", never "nan" or "inf".
@@ -137,6 +170,12 @@ std::string Decision::brief() const {
   std::string s = fmt::format("decision: {} ({} acceptance)\n", to_string(verdict),
                               rule == DecisionRule::SimpleAcceptance ? "simple" : "guarded");
   s += set_lines(sets);
+  if (adequacy.far)
+    s += fmt::format(
+        "  adequacy: test RMS error {:.3g} x the budget's u_c without the model-inadequacy term "
+        "(limit {:g}){}\n",
+        adequacy.ratio, adequacy.limit,
+        adequacy.overridden ? "; PASS by explicit override" : "; no PASS without an override");
   return s + failing_points(points, 10);
 }
 
@@ -168,11 +207,17 @@ nlohmann::json to_json(const Decision& d) {
                    {"guard", num(p.guard)},
                    {"acceptance_limit", num(p.acceptance_limit)},
                    {"pass", p.pass}});
+  const AdequacyCheck& a = d.adequacy;
+  nlohmann::json adequacy{{"computed", a.computed},    {"test_points", a.test_points},
+                          {"ratio", num(a.ratio)},     {"ratio_with_term", num(a.ratio_with_term)},
+                          {"limit", num(a.limit)},     {"far", a.far},
+                          {"overridden", a.overridden}};
   return {{"rule", to_string(d.rule)},
           {"verdict", to_string(d.verdict)},
           {"statement", d.statement},
           {"sets", sets},
-          {"points", pts}};
+          {"points", pts},
+          {"adequacy", adequacy}};
 }
 
 Decision decision_from_json(const nlohmann::json& j, const std::string& file) {
@@ -203,6 +248,18 @@ Decision decision_from_json(const nlohmann::json& j, const std::string& file) {
     pj.acceptance_limit = r.number(p, "acceptance_limit", "decision.points[]");
     pj.pass = r.boolean(p, "pass", "decision.points[]");
     d.points.push_back(pj);
+  }
+  // Records written before the adequacy check have none (not computed).
+  if (j.contains("adequacy")) {
+    const nlohmann::json& a = j["adequacy"];
+    AdequacyCheck& c = d.adequacy;
+    c.computed = r.boolean(a, "computed", "decision.adequacy");
+    c.test_points = static_cast<std::size_t>(r.integer(a, "test_points", "decision.adequacy"));
+    c.ratio = r.number(a, "ratio", "decision.adequacy");
+    c.ratio_with_term = r.number(a, "ratio_with_term", "decision.adequacy");
+    c.limit = r.number(a, "limit", "decision.adequacy");
+    c.far = r.boolean(a, "far", "decision.adequacy");
+    c.overridden = r.boolean(a, "overridden", "decision.adequacy");
   }
   return d;
 }

@@ -30,6 +30,10 @@ std::string UncertaintyOptions::validate() const {
     return fmt::format("coverage_k is {}; it must be between 1 and 10", coverage_k);
   if (band_points < 2 || band_points > 1001)
     return fmt::format("band_points is {}; it must be between 2 and 1001", band_points);
+  if (!(std::isfinite(inadequacy_alpha) && inadequacy_alpha >= 0.0 && inadequacy_alpha <= 0.5))
+    return fmt::format(
+        "inadequacy_alpha is {}; it must be between 0 (no model-inadequacy term) and 0.5",
+        inadequacy_alpha);
   return {};
 }
 
@@ -245,7 +249,13 @@ double UncertaintyEvaluator::combined_at(double reading, double aux) const {
   const double ures = options_.resolution > 0.0 ? reading_sensitivity(reading, aux) *
                                                       options_.resolution / (2.0 * std::sqrt(3.0))
                                                 : 0.0;
-  return std::sqrt(s_ * s_ + uf * uf + u_ref_ * u_ref_ + ures * ures);
+  const double ui = budget_.inadequacy.at(reading);
+  return std::sqrt(s_ * s_ + uf * uf + u_ref_ * u_ref_ + ures * ures + ui * ui);
+}
+
+double UncertaintyEvaluator::combined_without_inadequacy_at(double reading, double aux) const {
+  const double c = combined_at(reading, aux), ui = budget_.inadequacy.at(reading);
+  return std::sqrt(std::max(c * c - ui * ui, 0.0));
 }
 
 double UncertaintyEvaluator::expanded_at(double reading, double aux) const {
@@ -267,6 +277,7 @@ UncertaintyEvaluator::UncertaintyEvaluator(const Calibration& cal,
   b.k = options.coverage_k;
   b.residual_sd = s;
   b.degrees_of_freedom = cov_.dof();
+  b.inadequacy = estimate_inadequacy(cal, cov_, s, options.inadequacy_alpha);
 
   // The calibrated region in raw readings: the training readings' range (the
   // model's input scaling is over the transformed reading u); a model without
@@ -306,6 +317,7 @@ UncertaintyEvaluator::UncertaintyEvaluator(const Calibration& cal,
         if (std::isfinite(comb) && comb >= bp.combined) {
           bp.combined = comb;
           bp.u_fit = uf;
+          bp.u_inadequacy = b.inadequacy.at(bp.reading);
         }
       }
       bp.expanded = b.k * bp.combined;
@@ -358,6 +370,13 @@ UncertaintyEvaluator::UncertaintyEvaluator(const Calibration& cal,
                  : "one digit step of the reading, rectangular, through the largest slope d "
                    "reference / d reading (whole transform chain) " +
                        where});
+  const double u_inad = b.inadequacy.largest();
+  b.components.push_back(
+      {"model-inadequacy", EvaluationType::A, Distribution::Normal, u_inad, 1.0, 1.0, u_inad,
+       "largest over the range of the systematic error the curve family leaves, from the "
+       "leave-one-setpoint-out errors of the training setpoints against the pure error of the "
+       "repeats (smoothed over neighbouring setpoints); " +
+           b.inadequacy.reason});
   double sum = 0.0;
   for (const UncertaintyComponent& c : b.components) sum += c.standard * c.standard;
   b.combined = std::sqrt(sum);
@@ -365,17 +384,20 @@ UncertaintyEvaluator::UncertaintyEvaluator(const Calibration& cal,
   if (!extended) {
     b.band_method =
         cal.lambda > 0.0
-            ? "U(x) = k*sqrt(s^2 + u_fit(x)^2 + u_ref^2 + u_res(x)^2); u_fit from the ridge "
+            ? "U(x) = k*sqrt(s^2 + u_fit(x)^2 + u_ref^2 + u_res(x)^2 + u_inad(x)^2); u_fit from "
+              "the ridge "
               "sandwich covariance s^2 V diag(s_j^2/(s_j^2+n*lambda)^2) V' of the centred "
               "Chebyshev design (approximation: ignores the shrinkage bias)"
-            : "U(x) = k*sqrt(s^2 + u_fit(x)^2 + u_ref^2 + u_res(x)^2); u_fit from the "
+            : "U(x) = k*sqrt(s^2 + u_fit(x)^2 + u_ref^2 + u_res(x)^2 + u_inad(x)^2); u_fit from "
+              "the "
               "least-squares covariance s^2 (Xc'Xc)^-1 of the centred Chebyshev design";
     return;
   }
   // The text keeps the old type name SurfaceModel (now Model): the records
   // quote it, and the golden records pin it.
   b.band_method = fmt::format(
-      "U(x, a) = k*sqrt(s^2 + u_fit(x, a)^2 + u_ref^2 + u_res(x, a)^2); u_fit from the {} "
+      "U(x, a) = k*sqrt(s^2 + u_fit(x, a)^2 + u_ref^2 + u_res(x, a)^2 + u_inad^2); u_fit from the "
+      "{} "
       "covariance of the centred "
       "design rows (SurfaceModel::basis_row of the terms other than (0,0)) in the fitted output, "
       "times |d reference / "
@@ -412,8 +434,21 @@ nlohmann::json to_json(const UncertaintyBudget& u) {
                     {"predicted", num(p.predicted)},
                     {"reference", num(p.predicted)},  // position on the reference axis (for plots)
                     {"u_fit", num(p.u_fit)},
+                    {"u_inadequacy", num(p.u_inadequacy)},
                     {"combined", num(p.combined)},
                     {"expanded", num(p.expanded)}});
+  nlohmann::json nodes = nlohmann::json::array();
+  for (const InadequacyNode& n : u.inadequacy.nodes)
+    nodes.push_back({{"reading", num(n.reading)},
+                     {"deleted", num(n.deleted)},
+                     {"noise_sd", num(n.noise_sd)},
+                     {"standard", num(n.standard)}});
+  const ModelInadequacy& mi = u.inadequacy;
+  nlohmann::json inad{{"estimated", mi.estimated},  {"included", mi.included},
+                      {"alpha", num(mi.alpha)},     {"lack_of_fit_p", num(mi.lack_of_fit_p)},
+                      {"pure_sd", num(mi.pure_sd)}, {"df_pure", num(mi.df_pure)},
+                      {"uniform", num(mi.uniform)}, {"nodes", nodes},
+                      {"reason", mi.reason}};
   return {{"method", "GUM: standard uncertainties added in quadrature; U = k * u_c"},
           {"residual_sd", num(u.residual_sd)},
           {"degrees_of_freedom", num(u.degrees_of_freedom)},
@@ -422,7 +457,8 @@ nlohmann::json to_json(const UncertaintyBudget& u) {
           {"expanded", num(u.expanded)},
           {"components", comps},
           {"band_method", u.band_method},
-          {"band", band}};
+          {"band", band},
+          {"inadequacy", inad}};
 }
 
 UncertaintyBudget uncertainty_from_json(const nlohmann::json& j, const std::string& file) {
@@ -452,11 +488,35 @@ UncertaintyBudget uncertainty_from_json(const nlohmann::json& j, const std::stri
     bp.reading = r.finite(p, "reading", "uncertainty.band[]");
     bp.predicted = r.number(p, "predicted", "uncertainty.band[]");
     bp.u_fit = r.number(p, "u_fit", "uncertainty.band[]");
+    // Records written before the model-inadequacy term have no such member (0).
+    if (p.contains("u_inadequacy"))
+      bp.u_inadequacy = r.number(p, "u_inadequacy", "uncertainty.band[]");
     bp.combined = r.number(p, "combined", "uncertainty.band[]");
     bp.expanded = r.number(p, "expanded", "uncertainty.band[]");
     if (!u.band.empty() && !(bp.reading > u.band.back().reading))
       r.fail("uncertainty.band", "is not in order of increasing reading");
     u.band.push_back(bp);
+  }
+  if (j.contains("inadequacy")) {
+    const nlohmann::json& m = j["inadequacy"];
+    const std::string w = "uncertainty.inadequacy";
+    ModelInadequacy& mi = u.inadequacy;
+    mi.estimated = r.boolean(m, "estimated", w);
+    mi.included = r.boolean(m, "included", w);
+    mi.alpha = r.number(m, "alpha", w);
+    mi.lack_of_fit_p = r.number(m, "lack_of_fit_p", w);
+    mi.pure_sd = r.number(m, "pure_sd", w);
+    mi.df_pure = r.number(m, "df_pure", w);
+    mi.uniform = r.number(m, "uniform", w);
+    mi.reason = r.text_or(m, "reason", "");
+    for (const nlohmann::json& n : r.array(m, "nodes", w)) {
+      InadequacyNode in;
+      in.reading = r.finite(n, "reading", w + ".nodes[]");
+      in.deleted = r.number(n, "deleted", w + ".nodes[]");
+      in.noise_sd = r.number(n, "noise_sd", w + ".nodes[]");
+      in.standard = r.number(n, "standard", w + ".nodes[]");
+      mi.nodes.push_back(in);
+    }
   }
   return u;
 }

@@ -256,7 +256,9 @@ UnitSummary process_unit(const UnitChunk& chunk, const BatchOptions& options) {
   // only (their grid-edge checks replace the former unit-level ones).
   // The verdict is the record's, computed once by the assessment.
   if (const auto v = result.verdict())
-    u.verdict = *v == Verdict::Pass ? UnitVerdict::Pass : UnitVerdict::Fail;
+    u.verdict = *v == Verdict::Pass   ? UnitVerdict::Pass
+                : *v == Verdict::Fail ? UnitVerdict::Fail
+                                      : UnitVerdict::Undecided;
   for (const Warning& w : rec.warnings) u.warnings.push_back(to_string(w.code) + ": " + w.message);
   if (options.write_records) {
     write_whole_file_atomic(options.out_dir + "/" + rel, record_text(record_to_json(rec)),
@@ -267,7 +269,8 @@ UnitSummary process_unit(const UnitChunk& chunk, const BatchOptions& options) {
       if (o.pass_only && u.verdict != UnitVerdict::Pass) {
         ::unlink(path.c_str());  // an earlier run's file must not pass for this run's
         u.warnings.push_back(o.name + " withheld: verdict " +
-                             (u.verdict == UnitVerdict::Fail ? "FAIL" : "not judged"));
+                             (u.verdict == UnitVerdict::NotAssessed ? std::string("not judged")
+                                                                    : to_string(u.verdict)));
         ++u.outputs_withheld;
         continue;
       }
@@ -342,6 +345,7 @@ BatchResult run_batch(const std::vector<std::string>& inputs, const BatchOptions
     ++res.units;
     (u.status == UnitStatus::Ok ? res.ok : res.failed)++;
     if (u.verdict == UnitVerdict::Fail) ++res.out_of_tolerance;
+    if (u.verdict == UnitVerdict::Undecided) ++res.undecided;
     if (u.outputs_failed > 0) ++res.outputs_failed;
     if (u.outputs_withheld > 0) ++res.outputs_withheld;
     if (progress &&

@@ -32,6 +32,8 @@ std::string to_string(UnitVerdict v) {
       return "PASS";
     case UnitVerdict::Fail:
       return "FAIL";
+    case UnitVerdict::Undecided:
+      return "UNDECIDED";
     default:
       return "n/a";
   }
@@ -40,7 +42,9 @@ UnitVerdict unit_verdict_from_string(const std::string& s) {
   if (s == "n/a") return UnitVerdict::NotAssessed;
   if (s == "PASS") return UnitVerdict::Pass;
   if (s == "FAIL") return UnitVerdict::Fail;
-  throw std::invalid_argument("verdict must be 'n/a', 'PASS' or 'FAIL', got '" + s + "'");
+  if (s == "UNDECIDED") return UnitVerdict::Undecided;
+  throw std::invalid_argument("verdict must be 'n/a', 'PASS', 'FAIL' or 'UNDECIDED', got '" + s +
+                              "'");
 }
 
 namespace {

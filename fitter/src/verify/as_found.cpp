@@ -130,6 +130,11 @@ std::string AsFoundResult::brief(const std::string& unit) const {
   if (tolerance)
     s += fmt::format("tolerance: {}{} (from the {})\n", tolerance->describe(),
                      unit.empty() ? "" : " " + unit, tolerance_source);
+  if (uncertainty && uncertainty->inadequacy.included)
+    s += fmt::format(
+        "uncertainty: the record's U includes a model-inadequacy term of up to {:.3g}{} (the "
+        "curve family cannot follow the sensor everywhere; see the record's budget)\n",
+        uncertainty->inadequacy.largest(), unit.empty() ? "" : " " + unit);
   if (decision)
     s += decision->brief();  // lists the points out of tolerance
   else

@@ -17,7 +17,7 @@
  *   tolerance:           +-(0.002) (user); strictest over the range 0.002
  *   tolerance used:      0.002 kg (record tolerance)
  *   result:              FAIL: Simple acceptance: a point conforms when |error| <= tolerance +-(0.002); the measurement uncertainty is reported but not subtracted. FAIL: 42 of 44 judged points conform.
- *   record SHA-256:      a626d9c1ecd4bb33a169bb7641d532d58b382a97ea120d3c71b37d562655b0b3
+ *   record SHA-256:      d9705eb0c07fec6c0f399d84a25bfc5b9245d927763d2fec9d1cc2189f6163c3
  *   tool version:        ridgecal 0.1.0
  *
  * Export proof (evaluated at export time by an exact host emulation of the
@@ -63,8 +63,9 @@
 #define LC_VERDICT_PASS 1
 #define LC_VERDICT_FAIL 2
 #define LC_VERDICT_RECORD_MODIFIED 3 /* record edited after ridgecal wrote it */
+#define LC_VERDICT_UNDECIDED 4 /* within tolerance, model adequacy not shown */
 #define LC_VERDICT LC_VERDICT_FAIL
-#define LC_RECORD_SHA256 "a626d9c1ecd4bb33a169bb7641d532d58b382a97ea120d3c71b37d562655b0b3" /* SHA-256 of the calibration record */
+#define LC_RECORD_SHA256 "d9705eb0c07fec6c0f399d84a25bfc5b9245d927763d2fec9d1cc2189f6163c3" /* SHA-256 of the calibration record */
 #define LC_CALIBRATION_DATE "2026-01-01T00:00:00Z" /* when the record was made, UTC; "" if it does not say */
 
 /* Status codes of the range-checked evaluation */

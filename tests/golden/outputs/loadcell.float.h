@@ -17,7 +17,7 @@
  *   tolerance:           none in the record
  *   tolerance used:      0.00115559 kg (validation RMSE, fallback: no absolute tolerance given)
  *   result:              not assessed (no tolerance in the record)
- *   record SHA-256:      0942ebae363891ba4acbe2e2231cf9e7c69b198fe589ecf4ed1306ca482700e8
+ *   record SHA-256:      806d719571547c29214f37ff788d33c1ad42096a360648b747770e075404db45
  *   tool version:        ridgecal 0.1.0
  *
  * Export proof (evaluated at export time by an exact host emulation of the
@@ -62,8 +62,9 @@
 #define LC_VERDICT_PASS 1
 #define LC_VERDICT_FAIL 2
 #define LC_VERDICT_RECORD_MODIFIED 3 /* record edited after ridgecal wrote it */
+#define LC_VERDICT_UNDECIDED 4 /* within tolerance, model adequacy not shown */
 #define LC_VERDICT LC_VERDICT_NOT_JUDGED
-#define LC_RECORD_SHA256 "0942ebae363891ba4acbe2e2231cf9e7c69b198fe589ecf4ed1306ca482700e8" /* SHA-256 of the calibration record */
+#define LC_RECORD_SHA256 "806d719571547c29214f37ff788d33c1ad42096a360648b747770e075404db45" /* SHA-256 of the calibration record */
 #define LC_CALIBRATION_DATE "2026-01-01T00:00:00Z" /* when the record was made, UTC; "" if it does not say */
 
 /* Status codes of the range-checked evaluation */

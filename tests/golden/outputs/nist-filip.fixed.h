@@ -17,7 +17,7 @@
  *   tolerance:           none in the record
  *   tolerance used:      0.00337435 (not given) (validation RMSE, fallback: no absolute tolerance given)
  *   result:              not assessed (no tolerance in the record)
- *   record SHA-256:      d0170d6d5c31290bd2f6f5f6be9fe5a78ff7e99c18ed0a749436b581717fb1c7
+ *   record SHA-256:      746669df2c433f37d3ba6f627796930b7004fc156b323734a53d46fc55edc91d
  *   tool version:        ridgecal 0.1.0
  *
  * Export proof (evaluated at export time by an exact host emulation of the
@@ -64,8 +64,9 @@
 #define FILIP_VERDICT_PASS 1
 #define FILIP_VERDICT_FAIL 2
 #define FILIP_VERDICT_RECORD_MODIFIED 3 /* record edited after ridgecal wrote it */
+#define FILIP_VERDICT_UNDECIDED 4 /* within tolerance, model adequacy not shown */
 #define FILIP_VERDICT FILIP_VERDICT_NOT_JUDGED
-#define FILIP_RECORD_SHA256 "d0170d6d5c31290bd2f6f5f6be9fe5a78ff7e99c18ed0a749436b581717fb1c7" /* SHA-256 of the calibration record */
+#define FILIP_RECORD_SHA256 "746669df2c433f37d3ba6f627796930b7004fc156b323734a53d46fc55edc91d" /* SHA-256 of the calibration record */
 #define FILIP_CALIBRATION_DATE "2026-01-01T00:00:00Z" /* when the record was made, UTC; "" if it does not say */
 
 /* Status codes of the range-checked evaluation */

@@ -17,7 +17,7 @@
  *   tolerance:           none in the record
  *   tolerance used:      3.05461 (not given) (validation RMSE, fallback: no absolute tolerance given)
  *   result:              not assessed (no tolerance in the record)
- *   record SHA-256:      3fcb8950996ce6f33892e0e7ba05c607114f15fbf04049e216f3d35347b5f02f
+ *   record SHA-256:      787f2f7afb830640f1404ec795caa68b6a1ae87ae75108da716c2f7dbb90b9b7
  *   tool version:        ridgecal 0.1.0
  *
  * Export proof (evaluated at export time by an exact host emulation of the
@@ -63,8 +63,9 @@
 #define NOINT1_VERDICT_PASS 1
 #define NOINT1_VERDICT_FAIL 2
 #define NOINT1_VERDICT_RECORD_MODIFIED 3 /* record edited after ridgecal wrote it */
+#define NOINT1_VERDICT_UNDECIDED 4 /* within tolerance, model adequacy not shown */
 #define NOINT1_VERDICT NOINT1_VERDICT_NOT_JUDGED
-#define NOINT1_RECORD_SHA256 "3fcb8950996ce6f33892e0e7ba05c607114f15fbf04049e216f3d35347b5f02f" /* SHA-256 of the calibration record */
+#define NOINT1_RECORD_SHA256 "787f2f7afb830640f1404ec795caa68b6a1ae87ae75108da716c2f7dbb90b9b7" /* SHA-256 of the calibration record */
 #define NOINT1_CALIBRATION_DATE "2026-01-01T00:00:00Z" /* when the record was made, UTC; "" if it does not say */
 
 /* Status codes of the range-checked evaluation */

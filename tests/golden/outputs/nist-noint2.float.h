@@ -17,7 +17,7 @@
  *   tolerance:           none in the record
  *   tolerance used:      0.5 (not given) (--tolerance, for the refusal rule only)
  *   result:              not assessed (no tolerance in the record)
- *   record SHA-256:      7fc133853f16629f538f8a68184155d4bcaa8e98155813b90d5bf9758b820353
+ *   record SHA-256:      96e1fb5a5dbf980895f09261a0288c89b3bc53717f95e68c9d594f312a49c25b
  *   tool version:        ridgecal 0.1.0
  *
  * Export proof (evaluated at export time by an exact host emulation of the
@@ -63,8 +63,9 @@
 #define NOINT2_VERDICT_PASS 1
 #define NOINT2_VERDICT_FAIL 2
 #define NOINT2_VERDICT_RECORD_MODIFIED 3 /* record edited after ridgecal wrote it */
+#define NOINT2_VERDICT_UNDECIDED 4 /* within tolerance, model adequacy not shown */
 #define NOINT2_VERDICT NOINT2_VERDICT_NOT_JUDGED
-#define NOINT2_RECORD_SHA256 "7fc133853f16629f538f8a68184155d4bcaa8e98155813b90d5bf9758b820353" /* SHA-256 of the calibration record */
+#define NOINT2_RECORD_SHA256 "96e1fb5a5dbf980895f09261a0288c89b3bc53717f95e68c9d594f312a49c25b" /* SHA-256 of the calibration record */
 #define NOINT2_CALIBRATION_DATE "2026-01-01T00:00:00Z" /* when the record was made, UTC; "" if it does not say */
 
 /* Status codes of the range-checked evaluation */

@@ -17,7 +17,7 @@
  *   tolerance:           none in the record
  *   tolerance used:      0.848826 (not given) (validation RMSE, fallback: no absolute tolerance given)
  *   result:              not assessed (no tolerance in the record)
- *   record SHA-256:      babf005226584174675f84151dd8ef551deb26bb73240582f8800fb65691e7bb
+ *   record SHA-256:      ed6fae6c8ae47467057454243fb76844167eb8edac5de5c8271449bba3b600f4
  *   tool version:        ridgecal 0.1.0
  *
  * Export proof (evaluated at export time by an exact host emulation of the
@@ -64,8 +64,9 @@
 #define NORRIS_VERDICT_PASS 1
 #define NORRIS_VERDICT_FAIL 2
 #define NORRIS_VERDICT_RECORD_MODIFIED 3 /* record edited after ridgecal wrote it */
+#define NORRIS_VERDICT_UNDECIDED 4 /* within tolerance, model adequacy not shown */
 #define NORRIS_VERDICT NORRIS_VERDICT_NOT_JUDGED
-#define NORRIS_RECORD_SHA256 "babf005226584174675f84151dd8ef551deb26bb73240582f8800fb65691e7bb" /* SHA-256 of the calibration record */
+#define NORRIS_RECORD_SHA256 "ed6fae6c8ae47467057454243fb76844167eb8edac5de5c8271449bba3b600f4" /* SHA-256 of the calibration record */
 #define NORRIS_CALIBRATION_DATE "2026-01-01T00:00:00Z" /* when the record was made, UTC; "" if it does not say */
 
 /* Status codes of the range-checked evaluation */

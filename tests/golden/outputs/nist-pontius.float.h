@@ -17,7 +17,7 @@
  *   tolerance:           none in the record
  *   tolerance used:      0.000218386 (not given) (validation RMSE, fallback: no absolute tolerance given)
  *   result:              not assessed (no tolerance in the record)
- *   record SHA-256:      7718125f227e93978bd1c41b9a7fbfe57b44c704a0a1a43f2d4fe63db1463f26
+ *   record SHA-256:      f3e1107509c17c09bd2a46c622258f5d3091f480244c193f66006af54708d5ac
  *   tool version:        ridgecal 0.1.0
  *
  * Export proof (evaluated at export time by an exact host emulation of the
@@ -62,8 +62,9 @@
 #define PONTIUS_VERDICT_PASS 1
 #define PONTIUS_VERDICT_FAIL 2
 #define PONTIUS_VERDICT_RECORD_MODIFIED 3 /* record edited after ridgecal wrote it */
+#define PONTIUS_VERDICT_UNDECIDED 4 /* within tolerance, model adequacy not shown */
 #define PONTIUS_VERDICT PONTIUS_VERDICT_NOT_JUDGED
-#define PONTIUS_RECORD_SHA256 "7718125f227e93978bd1c41b9a7fbfe57b44c704a0a1a43f2d4fe63db1463f26" /* SHA-256 of the calibration record */
+#define PONTIUS_RECORD_SHA256 "f3e1107509c17c09bd2a46c622258f5d3091f480244c193f66006af54708d5ac" /* SHA-256 of the calibration record */
 #define PONTIUS_CALIBRATION_DATE "2026-01-01T00:00:00Z" /* when the record was made, UTC; "" if it does not say */
 
 /* Status codes of the range-checked evaluation */

@@ -20,7 +20,7 @@
  *   tolerance:           none in the record
  *   tolerance used:      0.0117743 degC (validation RMSE, fallback: no absolute tolerance given)
  *   result:              not assessed (no tolerance in the record)
- *   record SHA-256:      e0163534f62550ed6f6daf4a28a126348d4473d77f263bcecbf494423da9ff78
+ *   record SHA-256:      6eb39dccb2be4cf077033c8403d9d8dbc7a43ef241de52e30b003f78d0cf7718
  *   tool version:        ridgecal 0.1.0
  *
  * Export proof (evaluated at export time by a host emulation of the
@@ -78,8 +78,9 @@
 #define NTC_VERDICT_PASS 1
 #define NTC_VERDICT_FAIL 2
 #define NTC_VERDICT_RECORD_MODIFIED 3 /* record edited after ridgecal wrote it */
+#define NTC_VERDICT_UNDECIDED 4 /* within tolerance, model adequacy not shown */
 #define NTC_VERDICT NTC_VERDICT_NOT_JUDGED
-#define NTC_RECORD_SHA256 "e0163534f62550ed6f6daf4a28a126348d4473d77f263bcecbf494423da9ff78" /* SHA-256 of the calibration record */
+#define NTC_RECORD_SHA256 "6eb39dccb2be4cf077033c8403d9d8dbc7a43ef241de52e30b003f78d0cf7718" /* SHA-256 of the calibration record */
 #define NTC_CALIBRATION_DATE "2026-01-01T00:00:00Z" /* when the record was made, UTC; "" if it does not say */
 
 /* Status codes of the range-checked evaluation */

@@ -17,7 +17,7 @@
  *   tolerance:           none in the record
  *   tolerance used:      0.0123587 degC (validation RMSE, fallback: no absolute tolerance given)
  *   result:              not assessed (no tolerance in the record)
- *   record SHA-256:      f229eff621bb4c4e71f019cb64339ceb9b1f4b3d0aee557bb685afd445c7d22b
+ *   record SHA-256:      2453c97ceb09a8686fd7a08c34159fc9d95d528c92b745de77e4250361561bad
  *   tool version:        ridgecal 0.1.0
  *
  * Export proof (evaluated at export time by an exact host emulation of the
@@ -63,8 +63,9 @@
 #define NTC_VERDICT_PASS 1
 #define NTC_VERDICT_FAIL 2
 #define NTC_VERDICT_RECORD_MODIFIED 3 /* record edited after ridgecal wrote it */
+#define NTC_VERDICT_UNDECIDED 4 /* within tolerance, model adequacy not shown */
 #define NTC_VERDICT NTC_VERDICT_NOT_JUDGED
-#define NTC_RECORD_SHA256 "f229eff621bb4c4e71f019cb64339ceb9b1f4b3d0aee557bb685afd445c7d22b" /* SHA-256 of the calibration record */
+#define NTC_RECORD_SHA256 "2453c97ceb09a8686fd7a08c34159fc9d95d528c92b745de77e4250361561bad" /* SHA-256 of the calibration record */
 #define NTC_CALIBRATION_DATE "2026-01-01T00:00:00Z" /* when the record was made, UTC; "" if it does not say */
 
 /* Status codes of the range-checked evaluation */

@@ -21,7 +21,7 @@
  *   tolerance:           +-(0.01) (user); strictest over the range 0.01
  *   tolerance used:      0.01 bar (record tolerance)
  *   result:              PASS: Guarded acceptance: a point conforms when |error| <= tolerance +-(0.01) minus the expanded uncertainty U at that point. PASS: 162 of 162 judged points conform.
- *   record SHA-256:      1a015ff08c6bcfb67695b25a27e1e431f20ff7a88f7a58ea618a907c9d719e96
+ *   record SHA-256:      f7351798f946991ec16b1556f0ba16375d44dbca8551a517f5b51c253c75aeac
  *   tool version:        ridgecal 0.1.0
  *
  * Export proof (evaluated at export time by a host emulation of the
@@ -73,8 +73,9 @@
 #define PT7_VERDICT_PASS 1
 #define PT7_VERDICT_FAIL 2
 #define PT7_VERDICT_RECORD_MODIFIED 3 /* record edited after ridgecal wrote it */
+#define PT7_VERDICT_UNDECIDED 4 /* within tolerance, model adequacy not shown */
 #define PT7_VERDICT PT7_VERDICT_PASS
-#define PT7_RECORD_SHA256 "1a015ff08c6bcfb67695b25a27e1e431f20ff7a88f7a58ea618a907c9d719e96" /* SHA-256 of the calibration record */
+#define PT7_RECORD_SHA256 "f7351798f946991ec16b1556f0ba16375d44dbca8551a517f5b51c253c75aeac" /* SHA-256 of the calibration record */
 #define PT7_CALIBRATION_DATE "2026-01-01T00:00:00Z" /* when the record was made, UTC; "" if it does not say */
 
 /* Status codes of the range-checked evaluation: the reading's code plus the aux input's code */

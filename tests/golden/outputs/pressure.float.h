@@ -21,7 +21,7 @@
  *   tolerance:           none in the record
  *   tolerance used:      0.00114136 bar (validation RMSE, fallback: no absolute tolerance given)
  *   result:              not assessed (no tolerance in the record)
- *   record SHA-256:      e615c95d117856cae2e6dff606ad90bb9cdf2577470020190b2aebfc07c0c48c
+ *   record SHA-256:      1409132242253a39baf005a4397474486374eb53364b528447153f67bc71a6ac
  *   tool version:        ridgecal 0.1.0
  *
  * Export proof (evaluated at export time by a host emulation of the
@@ -73,8 +73,9 @@
 #define PT7_VERDICT_PASS 1
 #define PT7_VERDICT_FAIL 2
 #define PT7_VERDICT_RECORD_MODIFIED 3 /* record edited after ridgecal wrote it */
+#define PT7_VERDICT_UNDECIDED 4 /* within tolerance, model adequacy not shown */
 #define PT7_VERDICT PT7_VERDICT_NOT_JUDGED
-#define PT7_RECORD_SHA256 "e615c95d117856cae2e6dff606ad90bb9cdf2577470020190b2aebfc07c0c48c" /* SHA-256 of the calibration record */
+#define PT7_RECORD_SHA256 "1409132242253a39baf005a4397474486374eb53364b528447153f67bc71a6ac" /* SHA-256 of the calibration record */
 #define PT7_CALIBRATION_DATE "2026-01-01T00:00:00Z" /* when the record was made, UTC; "" if it does not say */
 
 /* Status codes of the range-checked evaluation: the reading's code plus the aux input's code */

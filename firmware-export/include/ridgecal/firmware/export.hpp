@@ -35,6 +35,7 @@ enum class HeaderVerdict {
   Pass,            ///< `pass`
   Fail,            ///< `fail`
   RecordModified,  ///< `record-modified`: the record was edited after it was written
+  Undecided,       ///< `undecided`: inside the tolerance, but the model's adequacy is not shown
 };
 std::string to_string(HeaderVerdict v);
 HeaderVerdict header_verdict_from_string(const std::string& s);  ///< throws std::invalid_argument
