@@ -140,4 +140,7 @@ run batch tests/golden/inputs/loadcell-batch.csv --unit unit --setpoint setpoint
   -o "$OUT/batch-loadcell" -j 1 --progress none --no-sync "${TS[@]}" --headers lc --header-numeric float
 run batch tests/golden/inputs/pressure-batch.csv --unit unit --setpoint setpoint --aux temperature \
   --aux-setpoint chamber --aux-degree 0..3 -o "$OUT/batch-pressure" -j 1 --progress none --no-sync "${TS[@]}"
+# git keeps no empty directory (batch-loadcell/headers: both units FAIL, so
+# their headers are withheld): drop them, so that a fresh clone compares equal.
+find "$OUT" -mindepth 1 -type d -empty -delete
 exit 0
