@@ -259,6 +259,7 @@ BatchCommand parse_batch_command(const std::vector<std::string>& args) {
   b.assess.uncertainty = jc.uncertainty;
   b.assess.diagnostics = jc.diagnostics;
   b.assess.accept_inadequate_model = jc.accept_inadequate_model;
+  b.assess.tur_warning = jc.tur_warning;
   if (jc.rule && !jc.tolerance)
     throw UsageError(
         "--decision needs a tolerance: give --tol-offset, --tol-proportional, --tol-percent-span "

@@ -143,6 +143,7 @@ FitCommand parse_fit_command(const std::vector<std::string>& args) {
   cmd.assess.uncertainty = jc.uncertainty;
   cmd.assess.diagnostics = jc.diagnostics;
   cmd.assess.accept_inadequate_model = jc.accept_inadequate_model;
+  cmd.assess.tur_warning = jc.tur_warning;
   if (jc.rule && !jc.tolerance)
     throw UsageError(
         "--decision needs a tolerance: give --tol-offset, --tol-proportional, --tol-percent-span "
@@ -205,9 +206,13 @@ int run_fit_command(const FitCommand& cmd, std::ostream& out, std::ostream& err)
       return kExitOutOfTolerance;
     }
     if (result.undecided()) {
-      out << "UNDECIDED: the test error is far beyond what the uncertainty budget allows; no "
-             "PASS without --accept-inadequate-model. The record is written and marked "
-             "UNDECIDED\n";
+      const bool far = rec.decision && rec.decision->adequacy.far;
+      out << (far ? "UNDECIDED: the test error is far beyond what the uncertainty budget allows; "
+                    "no PASS without --accept-inadequate-model. The record is written and marked "
+                    "UNDECIDED\n"
+                  : "UNDECIDED: no point is outside the tolerance, but conformity is not shown at "
+                    "every point (guard band or U >= limit). The record is written and marked "
+                    "UNDECIDED\n");
       return kExitOutOfTolerance;
     }
     if (rec.decision) out << "PASS\n";

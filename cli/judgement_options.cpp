@@ -16,7 +16,8 @@ void add_tolerance_options(po::options_description& d) {
     ("tol-percent-span", po::value<std::string>(), "tolerance: percent of span (--span, default the calibrated reference range), added to the terms above")
     ("tol-class", po::value<std::string>(), "tolerance preset: iec60751-AA, iec60751-A, iec60751-B, iec60751-C (degC)")
     ("span", po::value<std::string>(), "declared span of the instrument in reference units, LO..HI (for % of span and the coverage check)")
-    ("decision", po::value<std::string>(), "decision rule: simple (default: |error| <= tolerance) or guarded (|error| <= tolerance - U)");
+    ("decision", po::value<std::string>(), "decision rule: simple (default: |error| <= tolerance) or guarded (|error| <= tolerance - U)")
+    ("tur-warning", po::value<std::string>(), "warn where the test uncertainty ratio limit/U is below this (default 4, i.e. 4:1, common practice; 1..100)");
   // clang-format on
 }
 
@@ -93,6 +94,11 @@ JudgementCli parse_judgement_options(const po::variables_map& vm) {
     } catch (const std::invalid_argument& e) {
       throw UsageError(std::string("--decision: ") + e.what());
     }
+  }
+  if (const auto t = number("tur-warning")) {
+    if (const std::string e = validate_tur_warning(*t); !e.empty())
+      throw UsageError("--tur-warning: " + e);
+    j.tur_warning = *t;
   }
   if (const auto u = number("ref-uncertainty")) j.uncertainty.reference_uncertainty = *u;
   if (const auto k = number("ref-k")) j.uncertainty.reference_k = *k;

@@ -16,10 +16,12 @@ struct JudgementCli {
   std::optional<DecisionRule> rule;
   UncertaintyOptions uncertainty;
   DiagnosticOptions diagnostics;
-  bool accept_inadequate_model = false;  ///< --accept-inadequate-model
+  bool accept_inadequate_model = false;     ///< --accept-inadequate-model
+  double tur_warning = kDefaultTurWarning;  ///< --tur-warning (validated)
 };
 
-/// --tol-offset, --tol-proportional, --tol-percent-span, --tol-class, --span, --decision.
+/// --tol-offset, --tol-proportional, --tol-percent-span, --tol-class, --span, --decision,
+/// --tur-warning.
 void add_tolerance_options(boost::program_options::options_description& d);
 /// --ref-uncertainty, --ref-k, --resolution, --inadequacy-alpha, --accept-inadequate-model.
 void add_uncertainty_options(boost::program_options::options_description& d);

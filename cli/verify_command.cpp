@@ -62,9 +62,9 @@ std::string verify_usage() {
   std::ostringstream s;
   s << verify_options();
   s << "\nWithout tolerance options the record's tolerance and decision rule apply.\n"
-       "Exit codes: 0 PASS (or no tolerance to judge against), 1 FAIL (the result is still "
-       "written,\n"
-       "marked FAIL), 2 bad input or usage, or a modified record (nothing written).\n";
+       "Exit codes: 0 PASS (or no tolerance to judge against), 1 FAIL or UNDECIDED (the result "
+       "is still\n"
+       "written, so marked), 2 bad input or usage, or a modified record (nothing written).\n";
   return s.str();
 }
 
@@ -95,6 +95,7 @@ VerifyCommand parse_verify_command(const std::vector<std::string>& args) {
   const JudgementCli jc = parse_judgement_options(vm);
   cmd.as_found.tolerance = jc.tolerance;
   cmd.as_found.rule = jc.rule;
+  cmd.as_found.tur_warning = jc.tur_warning;
   if (jc.tolerance && jc.tolerance->percent_of_span > 0 &&
       !(jc.tolerance->span_high > jc.tolerance->span_low))
     throw UsageError(
@@ -129,8 +130,13 @@ int run_verify_command(const VerifyCommand& cmd, std::ostream& out, std::ostream
                      : res.brief(rec.record.sensor.reference_unit));
     err << format_warnings(res.warnings);
     if (!cmd.output_path.empty()) out << "as-found result: " << cmd.output_path << "\n";
-    if (res.decision && !res.decision->pass()) {
-      out << "FAIL: as found out of tolerance\n";
+    if (res.decision && res.decision->verdict == Verdict::Fail) {
+      out << "FAIL: as found, at least one point does not conform (outside the tolerance)\n";
+      return kExitOutOfTolerance;
+    }
+    if (res.decision && res.decision->verdict == Verdict::Undecided) {
+      out << "UNDECIDED: as found, no point is outside the tolerance, but conformity is not "
+             "shown at every point (guard band or U >= limit)\n";
       return kExitOutOfTolerance;
     }
     if (res.decision) out << "PASS\n";

@@ -31,6 +31,7 @@ std::string render_html_report(const CalibrationRecord& record, const RecordSeal
   const int next_fig = surface_figures(b, d, 3);
   validation_figure(b, d, next_fig);
   b.o += "</section>\n";
+  points_section(b, d);
   metrics_section(b, d);
   warnings_section(b, d);
   model_section(b, d);

@@ -42,6 +42,15 @@ td.num, th.num { text-align: right; font-variant-numeric: tabular-nums; white-sp
 .verdict.pass .word { color: #1b5e20; }
 .verdict.fail { border: 5px double #a0001c; }
 .verdict.fail .word { color: #a0001c; }
+.verdict.modified { border: 5px double #6a3d00; background: #fff4e0; }
+.verdict.modified .word { color: #6a3d00; font-size: 16pt; }
+table.points { font-size: 8pt; }
+table.points td, table.points th { padding: 0.3mm 1.2mm; }
+table.points td.conf { white-space: nowrap; }
+tr.conf-fail td { color: #a0001c; font-weight: bold; }
+tr.conf-not-shown td { color: #6a3d00; font-style: italic; }
+td.low-tur { font-weight: bold; }
+.untrusted { border-left: 3px solid #a0001c; padding-left: 2mm; }
 .verdict.none .word { color: #444; font-size: 14pt; }
 svg.plot { display: block; max-width: 100%; height: auto; }
 figure > svg.plot, figure > .panels { max-width: 170mm; }

@@ -92,13 +92,18 @@ DecisionView decision_of(const CalibrationRecord& rec) {
   d.verdict = to_string(dec.verdict);
   d.rule = dec.rule == DecisionRule::GuardedAcceptance
                ? "guarded acceptance: a point conforms when |error| \u2264 tolerance \u2212 U at "
-                 "that point"
+                 "that point, does not conform when |error| > tolerance; in between (the guard "
+                 "band) conformity is not shown"
                : "simple acceptance: a point conforms when |error| \u2264 tolerance";
   d.detail = dec.statement;
   for (const SetJudgement& set : dec.sets) {
     std::string line = set.name + ": ";
-    line += fmt::format("{} of {} points conform", static_cast<long>(set.n - set.failed),
+    line += fmt::format("{} of {} points conform",
+                        static_cast<long>(set.n - set.failed - set.not_shown),
                         static_cast<long>(set.n));
+    if (set.failed > 0) line += fmt::format(", {} do not conform", static_cast<long>(set.failed));
+    if (set.not_shown > 0)
+      line += fmt::format(", {} conformity not shown", static_cast<long>(set.not_shown));
     line += ", max |error| " + format_sig(set.max_abs_error, 3);
     if (std::isfinite(set.worst_ratio))
       line += ", worst " + format_fixed(100.0 * set.worst_ratio, 0) + " % of the limit";

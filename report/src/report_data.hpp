@@ -46,7 +46,7 @@ struct ToleranceView {
 
 struct DecisionView {
   bool present = false;
-  std::string verdict;  // PASS / FAIL
+  std::string verdict;  // PASS / FAIL / UNDECIDED
   std::string rule, detail;
   std::vector<std::string> set_lines;      // one line per judged set
   std::vector<double> fail_ref, fail_err;  // points that do not conform
@@ -96,6 +96,9 @@ const char* page_css();
 // Sections (report_sections.cpp, model_section.cpp), in reading order.
 void header_section(Builder& b, const ReportData& d, const ReportOptions& opt);
 void verdict_section(Builder& b, const ReportData& d);
+/// Rows of the per-point table at most (a million-row run would make the page useless).
+inline constexpr std::size_t kMaxPointRows = 2000;
+void points_section(Builder& b, const ReportData& d);
 void metrics_section(Builder& b, const ReportData& d);
 void warnings_section(Builder& b, const ReportData& d);
 void model_section(Builder& b, const ReportData& d);

@@ -103,6 +103,20 @@ void verdict_section(Builder& b, const ReportData& d) {
   const DecisionView& dec = d.decision;
   const UncertaintyView& unc = d.uncertainty;
   b.o += "<section id=\"verdict-section\">\n<h2>Verdict</h2>\n";
+  if (!d.seal.intact()) {
+    // Issue 14 item 9: nothing stored in a record that fails its digest is
+    // shown as a verdict; the stored figures elsewhere are marked untrusted.
+    b.o +=
+        "<div class=\"verdict modified\" id=\"verdict\">\n<div class=\"word\">RECORD "
+        "MODIFIED</div>\n<div class=\"why\">\n<div><b>The record does not match its integrity "
+        "digest</b>" +
+        std::string(d.seal.stored.empty() ? " (it has none)" : "") +
+        ": it was changed after 'ridgecal fit' wrote it. No PASS or FAIL is shown from its "
+        "stored data. The stored decision, per-point results, metrics and uncertainty below are "
+        "not trustworthy.</div>\n<div>Re-create the record with 'ridgecal fit' from the original "
+        "data.</div>\n</div>\n</div>\n</section>\n";
+    return;
+  }
   std::string cls = "none", word = "NO DECISION";
   if (dec.present) {
     word = esc(dec.verdict);
@@ -110,6 +124,7 @@ void verdict_section(Builder& b, const ReportData& d) {
       cls = "pass";
     else if (dec.verdict == "FAIL" || dec.verdict == "UNDECIDED")
       cls = "fail";  // UNDECIDED is not accepted either (decision.hpp)
+    if (dec.verdict == "UNDECIDED") word = "UNDECIDED \u2014 CONFORMITY NOT SHOWN";
   }
   b.o += fmt::format(
       "<div class=\"verdict {}\" id=\"verdict\">\n<div class=\"word\">{}</div>\n<div "
@@ -149,9 +164,84 @@ void verdict_section(Builder& b, const ReportData& d) {
   b.o += "</section>\n";
 }
 
+// One line per row: the table's words for the outcomes (the note below the
+// table and the record's statement give them in full).
+std::string short_conformity(Conformity c) {
+  switch (c) {
+    case Conformity::Conforms:
+      return "conforms";
+    case Conformity::NotShownGuardBand:
+      return "not shown: guard band";
+    case Conformity::NotShownUncertainty:
+      return "not shown: U \u2265 limit";
+    case Conformity::DoesNotConform:
+      return "does not conform";
+  }
+  return "does not conform";
+}
+
+void points_section(Builder& b, const ReportData& d) {
+  if (!d.rec.decision) return;  // no tolerance: nothing judged per point
+  const Decision& dec = *d.rec.decision;
+  b.open_section("points", "Results per point");
+  if (!d.seal.intact())
+    b.o +=
+        "<p class=\"alert untrusted\"><b>Not trustworthy:</b> the record does not match its "
+        "integrity digest; the stored results below are shown for inspection only.</p>\n";
+  const std::string ru = d.units.reference.empty() ? "" : " [" + esc(d.units.reference) + "]";
+  b.o +=
+      "<table class=\"points\" id=\"points-table\"><tr><th>line</th><th>set</th>"
+      "<th>setpoint</th><th class=\"num\">reference" +
+      ru + "</th><th class=\"num\">indicated" + ru + "</th><th class=\"num\">error" + ru +
+      "</th><th class=\"num\">limit" + ru + "</th><th class=\"num\">U" + ru +
+      "</th><th class=\"num\">limit/U</th><th>conformity</th></tr>\n";
+  std::size_t shown = 0, total = 0;
+  for (const PointJudgement& p : dec.points) {
+    if (p.set == "validation") continue;  // cross-validated predictions, not the curve's output
+    ++total;
+    if (shown >= kMaxPointRows) continue;
+    ++shown;
+    const char* cls = p.conformity == Conformity::Conforms         ? "conf-ok"
+                      : p.conformity == Conformity::DoesNotConform ? "conf-fail"
+                                                                   : "conf-not-shown";
+    const bool low_tur = std::isfinite(p.tur) && p.tur < dec.tur_warning;
+    b.o += fmt::format(
+        "<tr class=\"{}\"><td class=\"num\">{}</td><td>{}</td><td>{}</td><td "
+        "class=\"num\">{}</td><td class=\"num\">{}</td><td class=\"num\">{}</td><td "
+        "class=\"num\">{}</td><td class=\"num\">{}</td><td "
+        "class=\"num{}\">{}</td><td class=\"conf\">{}</td></tr>\n",
+        cls, p.line, esc(p.set), esc(p.setpoint), esc(format_sig(p.reference, 6)),
+        esc(format_sig(p.indicated, 6)), esc(format_sig(p.error, 3)), esc(format_sig(p.limit, 3)),
+        p.uncertainty > 0.0 ? esc(format_sig(p.uncertainty, 3)) : std::string("\u2014"),
+        low_tur ? " low-tur" : "",
+        std::isfinite(p.tur) ? esc(format_sig(p.tur, 2)) + ":1" : std::string("\u2014"),
+        esc(short_conformity(p.conformity)));
+  }
+  b.o += "</table>\n";
+  if (shown < total)
+    b.o += fmt::format(
+        "<p class=\"note\">The first {} of {} points are listed; the record's decision.points "
+        "holds them all.</p>\n",
+        shown, total);
+  b.o += fmt::format(
+      "<p class=\"note\">Indicated = the calibrated curve's output at the reading; error = "
+      "indicated \u2212 reference; U = expanded uncertainty at that point; limit/U = test "
+      "uncertainty ratio (values below {}:1 in bold; common practice asks for at least 4:1). "
+      "Conformity in ILAC-G8 decision-rule terms: <i>conforms</i>; <i>does not conform</i> "
+      "(|error| &gt; limit); <i>conformity not shown</i> (inside the tolerance, but in the guard "
+      "band of guarded acceptance, or with U \u2265 limit). Points judged on cross-validated "
+      "predictions (validation) are counted in the verdict box for information only.</p>\n",
+      format_sig(dec.tur_warning, 3));
+  b.close_section();
+}
+
 void metrics_section(Builder& b, const ReportData& d) {
   const Calibration& cal = d.rec.calibration;
   b.open_section("metrics", "Metrics");
+  if (!d.seal.intact())
+    b.o +=
+        "<p class=\"alert untrusted\"><b>Not trustworthy:</b> the record does not match its "
+        "integrity digest; these stored metrics may not belong to the curve.</p>\n";
   const std::pair<const char*, const Metrics*> cols[] = {
       {"training", &cal.training}, {"validation", &cal.validation}, {"test", &cal.test}};
   const std::string ru = d.units.reference.empty() ? "" : " [" + esc(d.units.reference) + "]";

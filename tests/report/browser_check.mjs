@@ -14,7 +14,9 @@ import os from 'node:os';
 import path from 'node:path';
 import { pathToFileURL } from 'node:url';
 
-const [reportArg, outDir] = process.argv.slice(2);
+// An optional third argument, a CSS selector, also writes OUTDIR/element.png,
+// a screenshot of the first element it matches (a problem when none does).
+const [reportArg, outDir, elementSelector] = process.argv.slice(2);
 if (!reportArg || !outDir) {
   console.error('usage: node browser_check.mjs REPORT.html OUTDIR');
   process.exit(2);
@@ -157,6 +159,25 @@ async function main() {
     clip: { x: 0, y: 0, width: Math.ceil(size.width), height: Math.ceil(size.height), scale: 1 },
   });
   fs.writeFileSync(path.join(outDir, 'report.png'), Buffer.from(shot.data, 'base64'));
+  if (elementSelector) {
+    const r = await s('Runtime.evaluate', {
+      expression: `(() => { const e = document.querySelector(${JSON.stringify(elementSelector)});
+        if (!e) return null; const b = e.getBoundingClientRect();
+        return { x: b.left + window.scrollX, y: b.top + window.scrollY, width: b.width, height: b.height }; })()`,
+      returnByValue: true,
+    });
+    const box = r.result?.value;
+    if (!box || !(box.width > 0 && box.height > 0)) {
+      problems.push(`no visible element matches ${elementSelector}`);
+    } else {
+      const el = await s('Page.captureScreenshot', {
+        format: 'png', captureBeyondViewport: true,
+        clip: { x: Math.floor(box.x), y: Math.floor(box.y), width: Math.ceil(box.width), height: Math.ceil(box.height), scale: 1 },
+      });
+      fs.writeFileSync(path.join(outDir, 'element.png'), Buffer.from(el.data, 'base64'));
+      console.log(`element ${elementSelector}: ${Math.ceil(box.width)}x${Math.ceil(box.height)} px -> ${path.join(outDir, 'element.png')}`);
+    }
+  }
   for (const [name, w, h] of [['a4', 8.27, 11.69], ['letter', 8.5, 11]]) {
     const pdf = await s('Page.printToPDF', {
       paperWidth: w, paperHeight: h, printBackground: true, displayHeaderFooter: false, preferCSSPageSize: false,

@@ -8,7 +8,8 @@
 # Loads the report in headless Chromium with the network off; fails on console
 # errors, resource requests or failed loads (browser_check.mjs); prints it to
 # PDF on A4 and Letter and requires 1 to 3 pages each (pdfinfo); a first
-# argument --max-pages N raises the limit (extended records: more plots).
+# argument --max-pages N raises the limit (extended records: more plots), then
+# --element SELECTOR screenshots one element to OUTDIR/element.png.
 # Needs chromium (or $RIDGECAL_CHROMIUM), node and pdfinfo, which setup.sh test
 # installs (install-browser.sh); this test installs nothing. A missing tool is
 # named and fails the test under CI=true (skipped otherwise; need-tool.sh).
@@ -21,6 +22,12 @@ expect_fail=0
 max_pages=3
 if [ "${1:-}" = "--max-pages" ]; then
   max_pages=$2
+  shift 2
+fi
+# --element SELECTOR: also screenshot that element (OUTDIR/element.png); fails when none matches.
+element=""
+if [ "${1:-}" = "--element" ]; then
+  element=$2
   shift 2
 fi
 expect_text=""
@@ -44,7 +51,7 @@ else
 fi
 mkdir -p "$out"
 
-node "$here/browser_check.mjs" "$report" "$out" >"$out/check.log" 2>&1
+node "$here/browser_check.mjs" "$report" "$out" ${element:+"$element"} >"$out/check.log" 2>&1
 rc=$?
 cat "$out/check.log"
 if [ $expect_fail = 1 ]; then
@@ -58,6 +65,10 @@ fi
 [ $rc = 0 ] || { echo "FAIL: browser_check exit $rc"; exit 1; }
 
 status=0
+if [ -n "$element" ] && [ ! -s "$out/element.png" ]; then
+  echo "FAIL: no screenshot of $element"
+  status=1
+fi
 for paper in a4 letter; do
   pages=$(pdfinfo "$out/report-$paper.pdf" 2>/dev/null | sed -n 's/^Pages:[[:space:]]*//p')
   if [ -z "$pages" ]; then

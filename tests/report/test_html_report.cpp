@@ -34,6 +34,14 @@ json fixture(const std::string& name) {
   return json::parse(read_text(kDir + "/fixtures/record_" + name + ".json"));
 }
 
+/// The same record sealed with its own digest: the hostile fixture is
+/// unsealed on purpose, and a record that fails its digest shows no verdict
+/// (issue 14 item 9), so tests of the verdict box seal it first.
+json resealed(json j) {
+  j["integrity"]["sha256"] = ridgecal::record_digest(j);
+  return j;
+}
+
 /// The report of record JSON, read as every consumer reads it (record_from_json).
 std::string render(const json& j, const ReportOptions& o = {}) {
   return render_html_report(record_from_json(j, "fixture.json"), record_seal(j), o);
@@ -133,7 +141,7 @@ BOOST_AUTO_TEST_CASE(the_checks_can_fail) {
 }
 
 BOOST_AUTO_TEST_CASE(hostile_strings_are_shown_literally) {
-  const json rec = fixture("hostile");
+  const json rec = resealed(fixture("hostile"));  // the statement shows in the verdict box
   const std::string html = render(rec, fixed_options());
   BOOST_TEST(html.find("<script>alert") == std::string::npos);
   BOOST_TEST(html.find("&lt;script&gt;alert(&#39;x&#39;)&lt;/script&gt; &amp; "
@@ -171,7 +179,7 @@ BOOST_AUTO_TEST_CASE(verdict_shows_decision_tolerance_and_rule) {
   BOOST_TEST(pass.find("\u00B10.1 °C") != std::string::npos);
   BOOST_TEST(pass.find("Decision rule:") != std::string::npos);
   BOOST_TEST(pass.find("U = 0.035 °C (k = 2)") != std::string::npos);
-  const std::string fail = render(fixture("hostile"), fixed_options());
+  const std::string fail = render(resealed(fixture("hostile")), fixed_options());
   BOOST_TEST(fail.find("class=\"verdict fail\"") != std::string::npos);
 
   // A library caller's record with a tolerance but no decision.
@@ -309,6 +317,10 @@ BOOST_AUTO_TEST_CASE(header_states_whether_the_digest_matches) {
   BOOST_TEST(render(fixture("full")).find("<b>(verified)</b>") != std::string::npos);
   const std::string hostile = render(fixture("hostile"));
   BOOST_TEST(hostile.find("DOES NOT MATCH the record content") != std::string::npos);
+  // Issue 14 item 9: no PASS/FAIL from the stored data, metrics marked.
+  BOOST_TEST(hostile.find("class=\"verdict modified\"") != std::string::npos);
+  BOOST_TEST(hostile.find("<div class=\"word\">FAIL") == std::string::npos);
+  BOOST_TEST(hostile.find("not trustworthy") != std::string::npos);
   json edited = fixture("basic");
   edited["model"]["lambda"] = 0.5;  // any change after sealing
   BOOST_TEST(render(edited).find("DOES NOT MATCH") != std::string::npos);

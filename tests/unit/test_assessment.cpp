@@ -75,6 +75,9 @@ BOOST_AUTO_TEST_CASE(guarded_rule_subtracts_u) {
   BOOST_TEST(simple.points[1].acceptance_limit == 1.0);
   const Decision guarded = judge(pts, t, DecisionRule::GuardedAcceptance);
   BOOST_TEST(!guarded.pass());
+  // Inside the tolerance, in the guard band: not a FAIL, conformity not shown.
+  BOOST_TEST(to_string(guarded.verdict) == "UNDECIDED");
+  BOOST_TEST(to_string(guarded.points[1].conformity) == "not-shown-guard-band");
   BOOST_TEST(guarded.points[0].pass);
   BOOST_TEST(!guarded.points[1].pass);
   BOOST_TEST(guarded.points[1].acceptance_limit == 0.8, boost::test_tools::tolerance(1e-12));
@@ -82,11 +85,93 @@ BOOST_AUTO_TEST_CASE(guarded_rule_subtracts_u) {
   // U larger than the tolerance: nothing can be accepted.
   const Decision none = judge({{1, "training", 0, 0.0, 1.5}}, t, DecisionRule::GuardedAcceptance);
   BOOST_TEST(!none.pass());
+  BOOST_TEST(to_string(none.points[0].conformity) == "not-shown-uncertainty");
   // Informative sets do not decide.
   const Decision info = judge({{1, "training", 0, 0.1, 0}, {1, "validation", 0, 2.0, 0}}, t,
                               DecisionRule::SimpleAcceptance, {"validation"});
   BOOST_TEST(info.pass());
   BOOST_TEST(info.sets[1].failed == 1u);
+}
+
+// Issue 14 item 1: three outcomes kept apart, under both rules, at the
+// boundaries. Limit 1 everywhere (offset only), so the figures are exact.
+BOOST_AUTO_TEST_CASE(three_outcomes_at_each_point) {
+  ToleranceSpec t;
+  t.offset = 1.0;
+  const std::vector<PointToJudge> pts{
+      {1, "training", 5, 0.8, 0.2, "sp1"},    // on the acceptance limit 1 - 0.2: conforms
+      {2, "training", 5, -0.81, 0.2, "sp1"},  // guard band (guarded), conforms (simple)
+      {3, "training", 5, 1.0, 0.2, "sp2"},    // on the limit: guard band / conforms
+      {4, "training", 5, -1.01, 0.2, "sp2"},  // beyond the limit: does not conform
+  };
+  const Decision g = judge(pts, t, DecisionRule::GuardedAcceptance);
+  BOOST_TEST(to_string(g.points[0].conformity) == "conforms");
+  BOOST_TEST(to_string(g.points[1].conformity) == "not-shown-guard-band");
+  BOOST_TEST(to_string(g.points[2].conformity) == "not-shown-guard-band");
+  BOOST_TEST(to_string(g.points[3].conformity) == "does-not-conform");
+  BOOST_TEST(to_string(g.verdict) == "FAIL");  // one point out: FAIL wins over not shown
+  BOOST_TEST(g.sets[0].failed == 1u);
+  BOOST_TEST(g.sets[0].not_shown == 2u);
+  BOOST_TEST(g.points[0].setpoint == "sp1");
+  BOOST_TEST(g.points[0].indicated == 5.8, boost::test_tools::tolerance(1e-12));
+  BOOST_TEST(g.points[0].tur == 5.0, boost::test_tools::tolerance(1e-12));
+  const Decision s = judge(pts, t, DecisionRule::SimpleAcceptance);
+  BOOST_TEST(to_string(s.points[1].conformity) == "conforms");
+  BOOST_TEST(to_string(s.points[2].conformity) == "conforms");
+  BOOST_TEST(to_string(s.points[3].conformity) == "does-not-conform");
+  // Without the failing point: guarded gives UNDECIDED, simple PASS.
+  const std::vector<PointToJudge> in(pts.begin(), pts.begin() + 3);
+  BOOST_TEST(to_string(judge(in, t, DecisionRule::GuardedAcceptance).verdict) == "UNDECIDED");
+  BOOST_TEST(to_string(judge(in, t, DecisionRule::SimpleAcceptance).verdict) == "PASS");
+  // The terminal text never calls a point inside the tolerance "out of tolerance".
+  const std::string text = judge(in, t, DecisionRule::GuardedAcceptance).full();
+  BOOST_TEST(text.find("out of tolerance") == std::string::npos);
+  BOOST_TEST(text.find("conformity not shown") != std::string::npos);
+  // Every outcome name round-trips.
+  for (Conformity c : {Conformity::Conforms, Conformity::NotShownGuardBand,
+                       Conformity::NotShownUncertainty, Conformity::DoesNotConform})
+    BOOST_TEST(to_string(conformity_from_string(to_string(c))) == to_string(c));
+  BOOST_CHECK_THROW(conformity_from_string("pass"), std::invalid_argument);
+}
+
+// Issue 14 item 5: the test uncertainty ratio.
+BOOST_AUTO_TEST_CASE(test_uncertainty_ratio) {
+  ToleranceSpec t;
+  t.offset = 1.0;
+  // TUR 5:1, 2:1 (low), and U > limit (0.8:1) with a zero error.
+  const std::vector<PointToJudge> pts{
+      {1, "training", 0, 0.0, 0.2}, {2, "training", 0, 0.0, 0.5}, {3, "test", 0, 0.0, 1.25}};
+  const Decision d = judge(pts, t, DecisionRule::SimpleAcceptance);
+  BOOST_TEST(d.low_tur_points == 2u);
+  BOOST_TEST(d.min_tur == 0.8, boost::test_tools::tolerance(1e-12));
+  // Simple acceptance never gives a plain PASS where U exceeds the limit.
+  BOOST_TEST(to_string(d.points[2].conformity) == "not-shown-uncertainty");
+  BOOST_TEST(to_string(d.verdict) == "UNDECIDED");
+  BOOST_TEST(d.statement.find("below 4:1 at 2 point(s)") != std::string::npos);
+  // Only a low TUR (no U >= limit): PASS with the warning in the statement.
+  const std::vector<PointToJudge> low(pts.begin(), pts.begin() + 2);
+  const Decision w = judge(low, t, DecisionRule::SimpleAcceptance);
+  BOOST_TEST(to_string(w.verdict) == "PASS");
+  BOOST_TEST(w.low_tur_points == 1u);
+  BOOST_TEST(w.brief().find("below 4:1") != std::string::npos);
+  // The threshold is configurable; 1 keeps only the U >= limit rule.
+  BOOST_TEST(judge(low, t, DecisionRule::SimpleAcceptance, {}, 1.0).low_tur_points == 0u);
+  BOOST_TEST(judge(low, t, DecisionRule::SimpleAcceptance, {}, 10.0).low_tur_points == 2u);
+  // No U known (0): no ratio, no warning.
+  const Decision none = judge({{1, "training", 0, 0.0, 0.0}}, t, DecisionRule::SimpleAcceptance);
+  BOOST_TEST(std::isnan(none.points[0].tur));
+  BOOST_TEST(none.low_tur_points == 0u);
+  BOOST_TEST(to_string(none.verdict) == "PASS");
+  // Validation of the threshold names the field, the value and the rule.
+  BOOST_TEST(validate_tur_warning(4.0).empty());
+  BOOST_TEST(validate_tur_warning(0.5).find("tur_warning is 0.5") != std::string::npos);
+  BOOST_TEST(!validate_tur_warning(std::nan("")).empty());
+  BOOST_TEST(!validate_tur_warning(101.0).empty());
+  // The per-point results survive the record's JSON.
+  const Decision back = decision_from_json(to_json(d), "x.json");
+  BOOST_TEST(to_string(back.points[2].conformity) == "not-shown-uncertainty");
+  BOOST_TEST(back.points[1].tur == 2.0, boost::test_tools::tolerance(1e-12));
+  BOOST_TEST(back.low_tur_points == 2u);
 }
 
 BOOST_AUTO_TEST_CASE(least_squares_band_matches_the_textbook_formula) {

@@ -51,6 +51,8 @@ CheckedRecord read_checked_record(const std::string& path, bool allow_modified);
 struct AsFoundOptions {
   std::optional<ToleranceSpec> tolerance;  ///< none (default): the record's tolerance, if any
   std::optional<DecisionRule> rule;  ///< none (default): the record's rule, else simple acceptance
+  /// Warn where limit / U is below this (decision.hpp; default 4, i.e. 4:1); 1..100.
+  double tur_warning = kDefaultTurWarning;
   /// Empty when valid, else a message naming the field, the value and the rule.
   std::string validate() const;
 };

@@ -33,6 +33,9 @@ struct AssessmentOptions {
   /// Keep a PASS although the adequacy check is far (the user's explicit,
   /// recorded override; CLI --accept-inadequate-model). Default false.
   bool accept_inadequate_model = false;
+  /// Warn where the test uncertainty ratio limit / U is below this (decision.hpp;
+  /// default kDefaultTurWarning = 4, i.e. 4:1, common practice); 1..100.
+  double tur_warning = kDefaultTurWarning;
 
   /// Empty when valid, else a message naming the field, the value and the rule.
   std::string validate() const;

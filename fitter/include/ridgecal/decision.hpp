@@ -6,9 +6,16 @@
 //  * guarded acceptance (`guarded`): the acceptance limit is shrunk by the
 //    expanded uncertainty U at that point, |error| <= limit - U; where
 //    limit - U <= 0 no point can conform.
-// A point exactly on the acceptance limit conforms. A set passes when all of
-// its points conform; the verdict is PASS when every set that counts for the
-// decision passes, unless the adequacy check (AdequacyCheck below) finds the
+// A point exactly on the acceptance limit conforms. Each point gets one of
+// three outcomes (ILAC-G8 decision-rule terms; Conformity below): it
+// conforms; it does not conform (|error| > limit, the rejection zone is the
+// tolerance itself under both rules); or it lies inside the tolerance but
+// conformity is not shown (under guarded acceptance: inside the guard band
+// limit - U < |error| <= limit; under either rule: U >= limit, a test
+// uncertainty ratio of 1:1 or worse). A set passes when all of its points
+// conform; it fails when any point does not conform; otherwise it is
+// UNDECIDED. The verdict is FAIL when a set that counts fails, else UNDECIDED
+// when one is undecided, else PASS, unless the adequacy check (AdequacyCheck below) finds the
 // test error far beyond what the budget allows: the verdict is then
 // UNDECIDED (not accepted, exit 1) with the reason in the statement, unless the
 // user overrides it explicitly (recorded).
@@ -27,20 +34,41 @@ enum class DecisionRule { SimpleAcceptance, GuardedAcceptance };
 std::string to_string(DecisionRule r);                         ///< `simple`, `guarded`
 DecisionRule decision_rule_from_string(const std::string& s);  ///< throws std::invalid_argument
 
-/// UNDECIDED: every counted point conforms, but the adequacy check found the
-/// test error far beyond the budget, so no PASS is given (see AdequacyCheck).
+/// UNDECIDED: no counted point fails, but conformity is not shown: some
+/// points lie inside the tolerance but not inside the acceptance zone (guard
+/// band, or U >= limit), or the adequacy check found the test error far
+/// beyond the budget (see AdequacyCheck). No PASS is given; exit 1.
 enum class Verdict { Pass, Fail, Undecided };
 std::string to_string(Verdict v);                   ///< `PASS`, `FAIL`, `UNDECIDED`
 Verdict verdict_from_string(const std::string& s);  ///< the names above (case-insensitive);
                                                     ///< throws std::invalid_argument
+
+/// The outcome at one point, in ILAC-G8 decision-rule terms.
+enum class Conformity {
+  Conforms,             ///< `conforms`: |error| <= acceptance limit (and U < limit)
+  NotShownGuardBand,    ///< `not-shown-guard-band`: inside the tolerance, outside the
+                        ///< acceptance limit limit - U (guarded acceptance only)
+  NotShownUncertainty,  ///< `not-shown-uncertainty`: inside the tolerance but U >= limit
+                        ///< (test uncertainty ratio <= 1), under either rule
+  DoesNotConform,       ///< `does-not-conform`: |error| > limit (or the error is not finite)
+};
+std::string to_string(Conformity c);
+Conformity conformity_from_string(const std::string& s);  ///< throws std::invalid_argument
+/// The statement for a report or a terminal, e.g. "conformity not shown (guard band)".
+std::string conformity_statement(Conformity c);
+
+/// Common practice: a test uncertainty ratio (tolerance / U) of at least 4:1.
+/// Below it judge() counts the point as a low-TUR point (a warning, not a verdict).
+inline constexpr double kDefaultTurWarning = 4.0;
 
 /// One error to judge.
 struct PointToJudge {
   std::size_t line = 0;  ///< line in the data file
   std::string set;       ///< e.g. `training`, `validation`, `test`, `as-found`
   double reference = 0.0;
-  double error = 0.0;        ///< calibrated value - reference
-  double uncertainty = 0.0;  ///< expanded uncertainty U at this point (used by the guarded rule)
+  double error = 0.0;         ///< calibrated value - reference
+  double uncertainty = 0.0;   ///< expanded uncertainty U at this point (0: none known)
+  std::string setpoint = {};  ///< the setpoint label of the data row (may be empty)
 };
 
 struct PointJudgement {
@@ -51,13 +79,20 @@ struct PointJudgement {
   double limit = 0.0;             ///< tolerance at this reference
   double guard = 0.0;             ///< subtracted from the limit (0 under simple acceptance)
   double acceptance_limit = 0.0;  ///< max(limit - guard, 0)
-  bool pass = false;
+  bool pass = false;              ///< conformity == Conforms
+  std::string setpoint;           ///< the setpoint label (may be empty)
+  double indicated = 0.0;         ///< the calibrated value: reference + error
+  double uncertainty = 0.0;       ///< expanded uncertainty U at this point (0: none known)
+  /// Test uncertainty ratio limit / U; NaN (JSON null) when U is 0 (not known).
+  double tur = 0.0;
+  Conformity conformity = Conformity::DoesNotConform;
 };
 
 struct SetJudgement {
   std::string name;
   std::size_t n = 0;
-  std::size_t failed = 0;
+  std::size_t failed = 0;     ///< points that do not conform
+  std::size_t not_shown = 0;  ///< points inside the tolerance whose conformity is not shown
   double max_abs_error = 0.0;
   double worst_ratio = 0.0;  ///< max |error| / limit (1 = on the tolerance)
   bool counts = true;        ///< counts for the overall verdict
@@ -88,20 +123,34 @@ struct Decision {
   std::vector<PointJudgement> points;
 
   AdequacyCheck adequacy;
+  /// The test uncertainty ratio check: points judged with a known U whose
+  /// limit / U is below tur_warning (a warning: the verdict does not change
+  /// unless U >= limit, see Conformity).
+  double tur_warning = kDefaultTurWarning;
+  std::size_t low_tur_points = 0;  ///< counted points with tur < tur_warning
+  double min_tur = 0.0;            ///< smallest tur over the counted points; NaN when no U
   bool pass() const { return verdict == Verdict::Pass; }
   /// A few lines for a terminal: verdict, rule, one line per set, and the
-  /// first 10 points that do not conform.
+  /// first 10 points that do not conform or whose conformity is not shown.
   std::string brief() const;
-  /// brief() plus the statement and every point that does not conform.
+  /// The statement, one line per set, and every such point (no limit).
   std::string full() const;
 };
 
 /// Judges every point; sets appear in order of first appearance. A set named
 /// in `informative_sets` is judged and reported but does not count for the
 /// verdict. No points gives PASS with a statement saying nothing was judged.
-/// Precondition: tolerance.validate() is empty.
+/// `tur_warning`: counted points with limit / U below it are named in the
+/// statement (validate_tur_warning). Preconditions: tolerance.validate() and
+/// validate_tur_warning(tur_warning) are empty.
 Decision judge(const std::vector<PointToJudge>& points, const ToleranceSpec& tolerance,
-               DecisionRule rule, const std::vector<std::string>& informative_sets = {});
+               DecisionRule rule, const std::vector<std::string>& informative_sets = {},
+               double tur_warning = kDefaultTurWarning);
+
+/// Empty when valid, else a message naming the field, the value and the rule:
+/// finite and 1 <= value <= 100 (1 turns the warning off: U >= limit is
+/// already "not shown").
+std::string validate_tur_warning(double tur_warning);
 
 /// Applies the adequacy check to a judged decision: records it, and when it
 /// is far turns a PASS into UNDECIDED (or, with `override_far`, keeps the PASS

@@ -27,6 +27,7 @@ std::string AssessmentOptions::validate() const {
     return fmt::format(
         "adequacy_limit is {}; it must be 0 (no adequacy check) or between 1 and 100",
         adequacy_limit);
+  if (std::string e = validate_tur_warning(tur_warning); !e.empty()) return e;
   return {};
 }
 
@@ -93,13 +94,13 @@ Assessment assess_calibration(const Dataset& data, const Calibration& cal,
     std::vector<PointToJudge> pts;
     for (const PointResult& p : cal.points)
       pts.push_back({p.line, p.role == SetRole::Train ? "training" : "test", p.reference, p.error,
-                     expanded_at(p)});
+                     expanded_at(p), p.setpoint});
     for (const PointResult& p : cal.points)
       if (p.role == SetRole::Train && std::isfinite(p.cv_predicted))
-        pts.push_back(
-            {p.line, "validation", p.reference, p.cv_predicted - p.reference, expanded_at(p)});
+        pts.push_back({p.line, "validation", p.reference, p.cv_predicted - p.reference,
+                       expanded_at(p), p.setpoint});
     if (tol.validate().empty()) {
-      a.decision = judge(pts, tol, options.rule, {"validation"});
+      a.decision = judge(pts, tol, options.rule, {"validation"}, options.tur_warning);
       apply_adequacy_check(*a.decision, check_adequacy(cal, unc, options.adequacy_limit),
                            options.accept_inadequate_model);
     }

@@ -36,7 +36,7 @@ CheckedRecord read_checked_record(const std::string& path, bool allow_modified) 
 std::string AsFoundOptions::validate() const {
   if (tolerance)
     if (std::string e = tolerance->validate(); !e.empty()) return "tolerance: " + e;
-  return {};
+  return validate_tur_warning(tur_warning);
 }
 
 AsFoundResult evaluate_as_found(const CheckedRecord& rec, const Dataset& data,
@@ -114,42 +114,65 @@ AsFoundResult evaluate_as_found(const CheckedRecord& rec, const Dataset& data,
     std::vector<PointToJudge> pts;
     for (const AsFoundPoint& p : r.points)
       pts.push_back({p.line, "as-found", p.reference, p.error,
-                     r.uncertainty ? r.uncertainty->expanded_at(p.reading) : 0.0});
-    r.decision = judge(pts, *r.tolerance, rule);
+                     r.uncertainty ? r.uncertainty->expanded_at(p.reading) : 0.0, p.setpoint});
+    r.decision = judge(pts, *r.tolerance, rule, {}, options.tur_warning);
   }
   return r;
 }
 
-std::string AsFoundResult::brief(const std::string& unit) const {
-  std::string s =
-      fmt::format("as-found: {} points of {} against the record {} (degree {}, range {:g}..{:g})\n",
-                  points.size(), data_file, record_file, degree, range.x_min, range.x_max);
-  if (!integrity_ok)
+namespace {
+// The lines brief() and full() share: the record, the metrics, the tolerance.
+std::string as_found_head(const AsFoundResult& r, const std::string& unit) {
+  std::string s = fmt::format(
+      "as-found: {} points of {} against the record {} (degree {}, range {:g}..{:g})\n",
+      r.points.size(), r.data_file, r.record_file, r.degree, r.range.x_min, r.range.x_max);
+  if (!r.integrity_ok)
     s += "record: MODIFIED (integrity digest does not match; used with --allow-modified)\n";
-  s += "as-found:   " + metrics.brief() + "\n";
-  if (tolerance)
-    s += fmt::format("tolerance: {}{} (from the {})\n", tolerance->describe(),
-                     unit.empty() ? "" : " " + unit, tolerance_source);
-  if (uncertainty && uncertainty->inadequacy.included)
+  s += "as-found:   " + r.metrics.brief() + "\n";
+  if (r.tolerance)
+    s += fmt::format("tolerance: {}{} (from the {})\n", r.tolerance->describe(),
+                     unit.empty() ? "" : " " + unit, r.tolerance_source);
+  if (r.uncertainty && r.uncertainty->inadequacy.included)
     s += fmt::format(
         "uncertainty: the record's U includes a model-inadequacy term of up to {:.3g}{} (the "
         "curve family cannot follow the sensor everywhere; see the record's budget)\n",
-        uncertainty->inadequacy.largest(), unit.empty() ? "" : " " + unit);
+        r.uncertainty->inadequacy.largest(), unit.empty() ? "" : " " + unit);
+  return s;
+}
+}  // namespace
+
+std::string AsFoundResult::brief(const std::string& unit) const {
+  std::string s = as_found_head(*this, unit);
   if (decision)
-    s += decision->brief();  // lists the points out of tolerance
+    s += decision->brief();  // the first points that do not conform or are not shown
   else
     s += "decision: none (no tolerance in the record or on the command line)\n";
   return s;
 }
 
 std::string AsFoundResult::full(const std::string& unit) const {
-  std::string s = brief(unit);
-  if (decision) s += "  " + decision->statement + "\n";
-  s += "points (line, setpoint, reading, reference, calibrated value, error):\n";
-  for (const AsFoundPoint& p : points)
-    s += fmt::format("  {:>6} {:<10} {:<14g} {:<14g} {:<14.8g} {:+.4g}{}\n", p.line, p.setpoint,
-                     p.reading, p.reference, p.predicted, p.error,
-                     p.in_range ? "" : "  (outside the calibrated range)");
+  std::string s = as_found_head(*this, unit);
+  if (decision)
+    s += decision->full();  // the statement and every point that does not conform or is not shown
+  else
+    s += "decision: none (no tolerance in the record or on the command line)\n";
+  // The judged points are the as-found points in the same order (evaluate_as_found).
+  const bool judged = decision && decision->points.size() == points.size();
+  s += judged ? "points (line, setpoint, reading, reference, calibrated value, error, limit, U, "
+                "limit/U, conformity):\n"
+              : "points (line, setpoint, reading, reference, calibrated value, error):\n";
+  for (std::size_t i = 0; i < points.size(); ++i) {
+    const AsFoundPoint& p = points[i];
+    s += fmt::format("  {:>6} {:<10} {:<14g} {:<14g} {:<14.8g} {:<+11.4g}", p.line, p.setpoint,
+                     p.reading, p.reference, p.predicted, p.error);
+    if (judged) {
+      const PointJudgement& pj = decision->points[i];
+      s += fmt::format(" {:<10.4g} {:<10.3g} {:<7} {}", pj.limit, pj.uncertainty,
+                       std::isfinite(pj.tur) ? fmt::format("{:.2g}", pj.tur) : std::string("-"),
+                       conformity_statement(pj.conformity));
+    }
+    s += p.in_range ? "\n" : "  (outside the calibrated range)\n";
+  }
   return s;
 }
 
