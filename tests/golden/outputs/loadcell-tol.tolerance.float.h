@@ -16,8 +16,8 @@
  *   test:                RMSE 0.000923969, max |error| 0.0015737 kg
  *   tolerance:           +-(0.002) (user); strictest over the range 0.002
  *   tolerance used:      0.002 kg (--tolerance, for the refusal rule only)
- *   result:              FAIL: Simple acceptance: a point conforms when |error| <= tolerance +-(0.002); the measurement uncertainty is reported but not subtracted. FAIL: 42 of 44 judged points conform.
- *   record SHA-256:      d9705eb0c07fec6c0f399d84a25bfc5b9245d927763d2fec9d1cc2189f6163c3
+ *   result:              FAIL: Simple acceptance: a point conforms when |error| <= tolerance +-(0.002); the measurement uncertainty is reported but not subtracted. FAIL: of 44 judged points, 0 conform, 2 do not conform and 42 lie inside the tolerance with conformity not shown. At 42 point(s) inside the tolerance U is as large as the limit (test uncertainty ratio 1:1 or worse), so conformity cannot be shown there and no PA...[truncated]
+ *   record SHA-256:      cc66e6a3983f5296eb6102f11c2b784fb471ce366e956b03de57924c66954f87
  *   tool version:        ridgecal 0.1.0
  *
  * Export proof (evaluated at export time by an exact host emulation of the
@@ -64,7 +64,7 @@
 #define LC_VERDICT_RECORD_MODIFIED 3 /* record edited after ridgecal wrote it */
 #define LC_VERDICT_UNDECIDED 4 /* within tolerance, model adequacy not shown */
 #define LC_VERDICT LC_VERDICT_FAIL
-#define LC_RECORD_SHA256 "d9705eb0c07fec6c0f399d84a25bfc5b9245d927763d2fec9d1cc2189f6163c3" /* SHA-256 of the calibration record */
+#define LC_RECORD_SHA256 "cc66e6a3983f5296eb6102f11c2b784fb471ce366e956b03de57924c66954f87" /* SHA-256 of the calibration record */
 #define LC_CALIBRATION_DATE "2026-01-01T00:00:00Z" /* when the record was made, UTC; "" if it does not say */
 
 /* Status codes of the range-checked evaluation */

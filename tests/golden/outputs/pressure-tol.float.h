@@ -20,8 +20,8 @@
  *   test:                RMSE 0.00115269, max |error| 0.00261416 bar
  *   tolerance:           +-(0.01) (user); strictest over the range 0.01
  *   tolerance used:      0.01 bar (record tolerance)
- *   result:              PASS: Guarded acceptance: a point conforms when |error| <= tolerance +-(0.01) minus the expanded uncertainty U at that point. PASS: 162 of 162 judged points conform.
- *   record SHA-256:      f7351798f946991ec16b1556f0ba16375d44dbca8551a517f5b51c253c75aeac
+ *   result:              PASS: Guarded acceptance: a point conforms when |error| <= tolerance +-(0.01) minus the expanded uncertainty U at that point; it does not conform when |error| exceeds the tolerance; in between (the guard band) conformity is not shown. PASS: of 162 judged points, 162 conform, 0 do not conform. Test uncertainty ratio (limit / U) below 4:1 at 162 point(s), lowest 2.8:1: the uncertainty takes a large ...[truncated]
+ *   record SHA-256:      24663eebbb5576e3def8c8a2286b7e2892ff7d01f0107cdddd0e84d77974669f
  *   tool version:        ridgecal 0.1.0
  *
  * Export proof (evaluated at export time by a host emulation of the
@@ -75,7 +75,7 @@
 #define PT7_VERDICT_RECORD_MODIFIED 3 /* record edited after ridgecal wrote it */
 #define PT7_VERDICT_UNDECIDED 4 /* within tolerance, model adequacy not shown */
 #define PT7_VERDICT PT7_VERDICT_PASS
-#define PT7_RECORD_SHA256 "f7351798f946991ec16b1556f0ba16375d44dbca8551a517f5b51c253c75aeac" /* SHA-256 of the calibration record */
+#define PT7_RECORD_SHA256 "24663eebbb5576e3def8c8a2286b7e2892ff7d01f0107cdddd0e84d77974669f" /* SHA-256 of the calibration record */
 #define PT7_CALIBRATION_DATE "2026-01-01T00:00:00Z" /* when the record was made, UTC; "" if it does not say */
 
 /* Status codes of the range-checked evaluation: the reading's code plus the aux input's code */
