@@ -80,7 +80,7 @@ struct PointJudgement {
   double guard = 0.0;             ///< subtracted from the limit (0 under simple acceptance)
   double acceptance_limit = 0.0;  ///< max(limit - guard, 0)
   bool pass = false;              ///< conformity == Conforms
-  std::string setpoint;           ///< the setpoint label (may be empty)
+  std::string setpoint = {};      ///< the setpoint label (may be empty)
   double indicated = 0.0;         ///< the calibrated value: reference + error
   double uncertainty = 0.0;       ///< expanded uncertainty U at this point (0: none known)
   /// Test uncertainty ratio limit / U; NaN (JSON null) when U is 0 (not known).
@@ -91,12 +91,14 @@ struct PointJudgement {
 struct SetJudgement {
   std::string name;
   std::size_t n = 0;
-  std::size_t failed = 0;     ///< points that do not conform
-  std::size_t not_shown = 0;  ///< points inside the tolerance whose conformity is not shown
+  std::size_t failed = 0;  ///< points that do not conform
   double max_abs_error = 0.0;
   double worst_ratio = 0.0;  ///< max |error| / limit (1 = on the tolerance)
   bool counts = true;        ///< counts for the overall verdict
   Verdict verdict = Verdict::Pass;
+  /// Points inside the tolerance whose conformity is not shown (last, so that
+  /// positional initialisers written before issue 14 keep their meaning).
+  std::size_t not_shown = 0;
 };
 
 /// Is the test error far beyond what the uncertainty budget allows? The
