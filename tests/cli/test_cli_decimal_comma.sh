@@ -68,5 +68,11 @@ check "verify reads a batch record's decimal comma ($(cat "$work/err"))" test $?
   --timestamp none --progress none >/dev/null 2>&1
 check "batch without --decimal-comma fails the units (exit 1)" test $? -eq 1
 
+# a record whose decimal_comma is not a boolean is refused by name
+jq '.input.columns.decimal_comma = "yes"' "$work/comma.json" >"$work/badtype.json"
+"$bin" verify "$work/badtype.json" "$work/comma.csv" --allow-modified >"$work/out" 2>"$work/err"
+check "a non-boolean decimal_comma exits 2" test $? -eq 2
+check "the member is named" grep -q "'input.columns.decimal_comma' is not true or false" "$work/err"
+
 echo "decimal comma: $passes passed, $fails failed"
 test $fails -eq 0
