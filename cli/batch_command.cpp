@@ -113,6 +113,7 @@ po::options_description batch_options() {
     ("setpoint", po::value<std::string>(), "column naming the setpoint of repeated readings (default: equal reference values form a setpoint)")
     ("role", po::value<std::string>(), "column with 'fit' or 'check' per row: the check setpoints become the test set")
     ("delimiter", po::value<std::string>()->default_value(","), "field delimiter: ',', ';' or 'tab'")
+    ("decimal-comma", po::bool_switch(), "numbers use ',' as the decimal point (12,5); needs --delimiter ';' or tab")
     ("max-rows", po::value<std::size_t>()->default_value(CsvLimits{}.max_rows), "a unit with more data rows than this fails (as 'ridgecal fit' refuses such a file)")
     ("max-bytes", po::value<std::size_t>()->default_value(CsvLimits{}.max_bytes), "a unit whose rows take more bytes than this fails")
     ("max-fields", po::value<std::size_t>()->default_value(CsvLimits{}.max_fields), "refuse rows with more fields than this; a line may hold max-fields x (max-field-bytes + 3) bytes")
@@ -194,6 +195,7 @@ BatchCommand parse_batch_command(const std::vector<std::string>& args) {
   if (vm.count("role")) b.input.csv.role_column = vm["role"].as<std::string>();
   if (vm.count("direction")) b.input.csv.direction_column = vm["direction"].as<std::string>();
   b.input.csv.delimiter = parse_delimiter(vm["delimiter"].as<std::string>());
+  b.input.csv.decimal_comma = vm["decimal-comma"].as<bool>();
   b.input.csv.limits.max_rows = vm["max-rows"].as<std::size_t>();
   b.input.csv.limits.max_bytes = vm["max-bytes"].as<std::size_t>();
   b.input.csv.limits.max_fields = vm["max-fields"].as<std::size_t>();

@@ -27,6 +27,8 @@ po::options_description verify_options() {
     ("reference", po::value<std::string>(), "column holding the reference value (default: the record's)")
     ("setpoint", po::value<std::string>(), "column naming the setpoint (default: the record's)")
     ("delimiter", po::value<std::string>(), "field delimiter: ',', ';' or 'tab' (default: the record's)")
+    ("decimal-comma", po::bool_switch(), "numbers use ',' as the decimal point (12,5); needs --delimiter ';' or tab (default: the record's)")
+    ("decimal-point", po::bool_switch(), "numbers use '.' as the decimal point, whatever the record says")
     ("full", po::bool_switch(), "print every point's error, not only those out of tolerance")
     ("allow-modified", po::bool_switch(), "use a record whose integrity digest does not match (the output says so)")
     ("timestamp", po::value<std::string>()->default_value(""), "creation time to record (ISO 8601), 'none' to omit");
@@ -89,6 +91,10 @@ VerifyCommand parse_verify_command(const std::vector<std::string>& args) {
   if (vm.count("reference")) cmd.reference_column = vm["reference"].as<std::string>();
   if (vm.count("setpoint")) cmd.setpoint_column = vm["setpoint"].as<std::string>();
   if (vm.count("delimiter")) cmd.delimiter = parse_delimiter(vm["delimiter"].as<std::string>());
+  if (vm["decimal-comma"].as<bool>() && vm["decimal-point"].as<bool>())
+    throw UsageError("--decimal-comma and --decimal-point contradict each other: give one of them");
+  if (vm["decimal-comma"].as<bool>()) cmd.decimal_comma = true;
+  if (vm["decimal-point"].as<bool>()) cmd.decimal_comma = false;
   cmd.allow_modified = vm["allow-modified"].as<bool>();
   cmd.full = vm["full"].as<bool>();
   cmd.timestamp = vm["timestamp"].as<std::string>();
@@ -118,6 +124,7 @@ int run_verify_command(const VerifyCommand& cmd, std::ostream& out, std::ostream
     csv.reference_column = cmd.reference_column.value_or(rec.record.input.columns.reference_column);
     csv.setpoint_column = cmd.setpoint_column.value_or(rec.record.input.columns.setpoint_column);
     csv.delimiter = cmd.delimiter.value_or(rec.record.input.columns.delimiter);
+    csv.decimal_comma = cmd.decimal_comma.value_or(rec.record.input.columns.decimal_comma);
     csv.aux_column = rec.record.input.columns.aux_column;  // extended records with a second input
     if (const std::string e = csv.validate(); !e.empty())
       throw InputError("", 0, "invalid column options: " + e, "see 'ridgecal verify --help'");

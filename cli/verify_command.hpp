@@ -19,6 +19,8 @@ struct VerifyCommand {
   /// Column options; unset: the record's columns (reading, reference, setpoint, delimiter).
   std::optional<std::string> reading_column, reference_column, setpoint_column;
   std::optional<char> delimiter;
+  /// unset: the record's; --decimal-comma / --decimal-point override it
+  std::optional<bool> decimal_comma;
   AsFoundOptions as_found;  ///< tolerance and rule overrides
   bool allow_modified = false;
   std::string timestamp;  ///< injected creation time ("" = now, "none" = omit)

@@ -79,6 +79,7 @@ json batch_settings_json(const BatchOptions& o) {
   // only when given: the settings (and their digest) of batches without it are unchanged
   if (!o.input.csv.direction_column.empty())
     s["columns"]["direction"] = o.input.csv.direction_column;
+  if (o.input.csv.decimal_comma) s["columns"]["decimal_comma"] = true;
   s["fit"] = {{"degrees", f.degrees},
               {"lambdas", f.lambdas},
               {"rule", to_string(f.rule)},

@@ -138,6 +138,10 @@ CalibrationRecord record_from_json(const json& j, const std::string& file) {
   rec.input.columns.direction_column = r.text_or(cols, "direction", "");
   const std::string delim = r.text_or(cols, "delimiter", ",");
   rec.input.columns.delimiter = delim.size() == 1 ? delim[0] : ',';
+  if (const auto dc = cols.find("decimal_comma"); dc != cols.end()) {
+    if (!dc->is_boolean()) r.fail("input.columns.decimal_comma", "is not true or false");
+    rec.input.columns.decimal_comma = dc->get<bool>();
+  }
 
   model_from_json(j, rec, file);
   Calibration& cal = rec.calibration;

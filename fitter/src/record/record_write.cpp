@@ -64,6 +64,8 @@ json columns_json(const CsvOptions& c, bool extended) {
          {"role", c.role_column},
          {"delimiter", std::string(1, c.delimiter)}};
   if (!c.direction_column.empty()) o["direction"] = c.direction_column;
+  // only when set: records read with a decimal point keep their bytes and digest
+  if (c.decimal_comma) o["decimal_comma"] = true;
   if (extended && !c.aux_column.empty()) o["aux"] = c.aux_column;
   if (extended && !c.aux_setpoint_column.empty()) o["aux_setpoint"] = c.aux_setpoint_column;
   return o;
