@@ -237,11 +237,12 @@ PYBIND11_MODULE(ridgecal, mod) {
           },
           py::arg("text"), py::arg("source") = "<record>",
           "Reads a record, refusing one whose integrity digest does not match (as the CLI)")
-      .def_property_readonly("model", [](const PyRecord& r) { return json_loads(r.text)["model"]; })
-      .def_property_readonly("metrics",
-                             [](const PyRecord& r) { return json_loads(r.text)["metrics"]; })
-      .def_property_readonly("points",
-                             [](const PyRecord& r) { return json_loads(r.text)["points"]; })
+      .def_property_readonly(
+          "model", [](const PyRecord& r) -> py::object { return json_loads(r.text)["model"]; })
+      .def_property_readonly(
+          "metrics", [](const PyRecord& r) -> py::object { return json_loads(r.text)["metrics"]; })
+      .def_property_readonly(
+          "points", [](const PyRecord& r) -> py::object { return json_loads(r.text)["points"]; })
       .def_property_readonly("decision",
                              [](const PyRecord& r) -> py::object {
                                const py::dict d = json_loads(r.text);
