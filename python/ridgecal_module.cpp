@@ -184,6 +184,8 @@ Vector predict(const PyRecord& r, const py::handle& x, const py::handle& aux) {
   if (!aux.is_none()) as = as_vector(aux, "aux", xs.shape(0));
   Vector out(xs.shape(0));
   const Model& m = general_model(r.guarded.record.calibration);
+  if (m.has_aux && aux.is_none())
+    throw py::value_error("aux: this record's model has a second input; give aux= as well");
   for (py::ssize_t i = 0; i < xs.shape(0); ++i)
     out.mutable_at(i) = m.eval(xs.at(i), aux.is_none() ? 0.0 : as.at(i));
   return out;

@@ -144,3 +144,14 @@ def test_report_and_verify():
     x, y, sp = ntc_arrays()
     res = ridgecal.verify(rec, x, y, setpoint=sp, timestamp=TS)
     assert isinstance(res, dict)
+
+
+def test_predict_needs_aux_for_an_aux_model():
+    opts = dict(SAMPLES["pressure-tempco"], timestamp=TS)
+    rec = ridgecal.fit_csv(sample_path("pressure-tempco"), **opts)
+    pts = rec.points
+    x = np.array([p["reading"] for p in pts])
+    with pytest.raises(ValueError, match="aux"):
+        rec.predict(x)
+    a = np.array([p["aux"] for p in pts])
+    assert np.array_equal(rec.predict(x, a), np.array([p["predicted"] for p in pts]))
