@@ -44,6 +44,7 @@ struct PyRecord {
 
 PyRecord make_record(const nlohmann::json& j, const std::string& source) {
   PyRecord r;
+  py::gil_scoped_release release;  // pure C++: serialise, digest, parse back
   r.text = record_text(j);
   r.guarded = check_record_text(r.text, source, false);
   return r;
@@ -168,9 +169,15 @@ PyRecord fit_arrays(const py::handle& reading, const py::handle& reference,
   args.insert(args.begin(), kArraysSource);
   if (!setpoint.is_none()) args.insert(args.end(), {"--setpoint", "setpoint"});
   if (!aux.is_none()) args.insert(args.end(), {"--aux", "aux"});
-  const cli::FitCommand cmd = cli::parse_fit_command(args);
-  const std::string text = arrays_to_csv(x, y, setpoints, aux.is_none() ? nullptr : &a);
-  const Dataset data = parse_calibration_csv(text, kArraysSource, cmd.csv);
+  cli::FitCommand cmd;
+  std::string text;
+  Dataset data;
+  {
+    py::gil_scoped_release release;  // C++ only from here to the fit
+    cmd = cli::parse_fit_command(args);
+    text = arrays_to_csv(x, y, setpoints, aux.is_none() ? nullptr : &a);
+    data = parse_calibration_csv(text, kArraysSource, cmd.csv);
+  }
   return run_fit(data, cmd);
 }
 
