@@ -24,10 +24,11 @@ base_pkgs=(g++ cmake ninja-build pkg-config libeigen3-dev libboost-dev libboost-
            libboost-test-dev nlohmann-json3-dev libfmt-dev libssl-dev)
 # Extra packages for the test suite: python3 with numpy (Debian's
 # /usr/bin/python3; the numpy cross-checks), clang + the libFuzzer runtime
-# (tests/fuzz), GSL (the Longley cross-check). The firmware target and browser
+# (tests/fuzz), GSL (the Longley cross-check), Python headers, pybind11 and
+# pytest (the Python module, python/; -DRIDGECAL_PYTHON=ON). The firmware target and browser
 # tools are installed by the scripts listed in test_installers; no test
 # installs anything itself.
-test_pkgs=(python3 python3-numpy clang-14 libclang-rt-14-dev libgsl-dev clang-format)
+test_pkgs=(python3 python3-numpy python3-dev pybind11-dev python3-pybind11 python3-pytest clang-14 libclang-rt-14-dev libgsl-dev clang-format)
 test_installers=()
 for f in tests/*/install-*.sh; do [[ -e $f ]] && test_installers+=("$f"); done
 
@@ -62,7 +63,8 @@ case $mode in
       echo "setup: $s"
       bash "$s"
     done
-    cmake -S . -B "$build" -G Ninja -DCMAKE_BUILD_TYPE=RelWithDebInfo -DRIDGECAL_BUILD_TESTS=ON >/dev/null
+    cmake -S . -B "$build" -G Ninja -DCMAKE_BUILD_TYPE=RelWithDebInfo -DRIDGECAL_BUILD_TESTS=ON \
+      -DRIDGECAL_PYTHON=ON >/dev/null
     cmake --build "$build" -j "$jobs"
     bash tests/run-suite.sh "$build" --output-on-failure -j "$jobs"
     # Sanitizer suite: the whole test suite again, built with ASan + UBSan

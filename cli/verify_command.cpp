@@ -37,11 +37,12 @@ po::options_description verify_options() {
   return d;
 }
 
-// A check with new data is judged against the calibrated ranges: a column
-// spreading less than 10 % of its calibrated range counts as constant (the
-// scatter of a one-point check stays well inside that; our judgement). Both
-// constant is a one-point check; only one of them is a frozen reference or a
-// stuck sensor.
+}  // namespace
+
+// A check with new data (declared in verify_command.hpp) is judged against the calibrated ranges: a
+// column spreading less than 10 % of its calibrated range counts as constant (the scatter of a
+// one-point check stays well inside that; our judgement). Both constant is a one-point check; only
+// one of them is a frozen reference or a stuck sensor.
 VariationFloors verify_variation_floors(const Calibration& cal) {
   double xlo = 0, xhi = 0, ylo = 0, yhi = 0;
   bool any = false;
@@ -58,7 +59,6 @@ VariationFloors verify_variation_floors(const Calibration& cal) {
   f.reference = 0.1 * (yhi - ylo);
   return f;
 }
-}  // namespace
 
 std::string verify_usage() {
   std::ostringstream s;

@@ -8,6 +8,7 @@
 #include <vector>
 
 #include "ridgecal/as_found.hpp"
+#include "ridgecal/calibration.hpp"
 #include "ridgecal/calibration_csv.hpp"
 
 namespace ridgecal::cli {
@@ -38,5 +39,10 @@ int run_verify_command(const VerifyCommand& cmd, std::ostream& out, std::ostream
 int verify_main(const std::vector<std::string>& args, std::ostream& out, std::ostream& err);
 
 std::string verify_usage();
+
+/// Floors of the variation check of new data for `cal` (require_variation):
+/// 10 % of the calibrated reading and reference ranges. Shared with the
+/// Python module's verify().
+VariationFloors verify_variation_floors(const Calibration& cal);
 
 }  // namespace ridgecal::cli

@@ -13,7 +13,7 @@ import re
 import subprocess
 import sys
 
-AREAS = ("fitter", "cli", "firmware", "report", "fuzz", "infra", "golden", "install", "crosscheck", "bench")
+AREAS = ("fitter", "cli", "firmware", "report", "fuzz", "infra", "golden", "install", "crosscheck", "bench", "python")
 KINDS = ("unit", "slow", "firmware", "browser")
 NAME = re.compile(r"^(%s)(\.[a-z0-9_-]+)+$" % "|".join(AREAS))
 
