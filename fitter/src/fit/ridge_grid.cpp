@@ -109,6 +109,18 @@ void NestedRidge::factor(const Eigen::MatrixXd& X, const double* y,
     }
   }
   nv_ = 0;
+  factor_penalty_ = false;
+}
+
+void NestedRidge::set_penalty_factor(const double* F) {
+  factor_penalty_ = F != nullptr;
+  if (!F) return;
+  P_.fill(0.0);
+  for (int j = 0; j < D_; ++j)
+    for (int k = j; k < D_; ++k)
+      P_[static_cast<std::size_t>(j) * kMaxColumns + static_cast<std::size_t>(k)] =
+          F[static_cast<std::size_t>(j) * static_cast<std::size_t>(D_) +
+            static_cast<std::size_t>(k)];
 }
 
 void NestedRidge::set_validation(const Eigen::MatrixXd& X, const double* y,
@@ -165,8 +177,20 @@ RIDGECAL_LANE_CLONES void NestedRidge::rotate_in_penalty(const double* mu) {
   Lanes mu_v;
   for (int q = 0; q < L; ++q) mu_v[q] = mu[q];
   for (int i = 0; i < D; ++i) {
-    for (int k = i; k < D; ++k) a[k] = Lanes{};
-    a[i] = mu_v;
+    if (factor_penalty_) {
+      // Penalty row i is mu * F[i, i..D); an all-zero row (the null space,
+      // e.g. the linear term of the curvature penalty) adds nothing.
+      bool nonzero = false;
+      for (int k = i; k < D; ++k) {
+        const double f = P_[at(i, k)];
+        a[k] = mu_v * f;
+        nonzero = nonzero || f != 0.0;
+      }
+      if (!nonzero) continue;
+    } else {
+      for (int k = i; k < D; ++k) a[k] = Lanes{};
+      a[i] = mu_v;
+    }
     Lanes rho = Lanes{};
     for (int j = i; j < D; ++j) {
       Lanes* rj = Rt_ + at(j, 0);

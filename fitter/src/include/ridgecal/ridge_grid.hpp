@@ -46,6 +46,14 @@ class NestedRidge {
   void factor(const Eigen::MatrixXd& X, const double* y, const std::vector<std::size_t>& rows,
               int cols, bool intercept);
 
+  /// Penalty lambda * ||F b||^2 instead of lambda * ||b||^2: F is the upper
+  /// triangular D x D factor (D = columns(), row-major, F[j * D + k]) of a
+  /// penalty matrix F^T F whose leading d x d block is the penalty of degree d
+  /// (e.g. curvature_factor(), roughness.hpp). Call after factor(); nullptr
+  /// restores the plain ridge penalty (F = I). The penalty rows
+  /// sqrt(m lambda) F are rotated in as for the identity, so every degree is
+  /// still served by one update per lambda.
+  void set_penalty_factor(const double* F);
   /// Sets the rows at which predictions are scored (validation rows).
   void set_validation(const Eigen::MatrixXd& X, const double* y,
                       const std::vector<std::size_t>& rows);
@@ -93,6 +101,8 @@ class NestedRidge {
 
   int D_ = 0, m_ = 0, nv_ = 0, usable_ = 0;
   bool intercept_ = true;
+  bool factor_penalty_ = false;  // set_penalty_factor() given: P_ instead of I
+  std::array<double, kMaxColumns * kMaxColumns> P_{};  // row-major, upper triangle
   double y_mean_ = 0.0;
   double rperp2_ = 0.0;     // squared norm of the part of yc outside span(Xc)
   std::vector<double> A_;   // m x D column-major work matrix (QR in place)
