@@ -63,8 +63,12 @@ case $mode in
       echo "setup: $s"
       bash "$s"
     done
+    # The module is built for Debian's interpreter, which has the Debian
+    # pybind11 and pytest packages (a python3 earlier on PATH may not).
+    py=()
+    [[ -x /usr/bin/python3 ]] && py=(-DPython3_EXECUTABLE=/usr/bin/python3)
     cmake -S . -B "$build" -G Ninja -DCMAKE_BUILD_TYPE=RelWithDebInfo -DRIDGECAL_BUILD_TESTS=ON \
-      -DRIDGECAL_PYTHON=ON >/dev/null
+      -DRIDGECAL_PYTHON=ON "${py[@]}" >/dev/null
     cmake --build "$build" -j "$jobs"
     bash tests/run-suite.sh "$build" --output-on-failure -j "$jobs"
     # Sanitizer suite: the whole test suite again, built with ASan + UBSan
