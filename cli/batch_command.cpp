@@ -132,7 +132,8 @@ po::options_description batch_options() {
     ("sensor", po::value<std::string>()->default_value(""), "sensor name for the records (the unit label is appended)")
     ("reading-unit", po::value<std::string>()->default_value(""), "unit of the reading, e.g. counts")
     ("reference-unit", po::value<std::string>()->default_value(""), "unit of the reference, e.g. degC")
-    ("timestamp", po::value<std::string>()->default_value(""), "creation time for records and summary (ISO 8601), 'none' to omit; default: now or SOURCE_DATE_EPOCH");
+    ("timestamp", po::value<std::string>()->default_value(""), "creation time for records and summary (ISO 8601), 'none' to omit; default: now or SOURCE_DATE_EPOCH")
+    ("no-hardware-checks", po::bool_switch(), "fit a unit even when two or more of its setpoints in a row read exactly the same value (stuck, open, shorted or saturated; see docs/batch.md)");
   // clang-format on
   add_extended_options(d);
   add_tolerance_options(d);
@@ -252,6 +253,7 @@ BatchCommand parse_batch_command(const std::vector<std::string>& args) {
   f.intercept = !vm["through-origin"].as<bool>();
   parse_extended_options(vm, b.input.csv, b.comp);
   b.sensor.name = vm["sensor"].as<std::string>();
+  b.hardware.enabled = !vm["no-hardware-checks"].as<bool>();
   b.sensor.reading_unit = vm["reading-unit"].as<std::string>();
   b.sensor.reference_unit = vm["reference-unit"].as<std::string>();
   cmd.timestamp = vm["timestamp"].as<std::string>();
@@ -362,10 +364,7 @@ int run_batch_command(const BatchCommand& cmd, std::ostream& out, std::ostream& 
           << opt.out_dir << "/summary.csv, " << opt.out_dir << "/summary.json\n";
       return 128 + r.interrupted_by;
     }
-    out << fmt::format("{} units: {} ok, {} failed", r.units, r.ok, r.failed);
-    if (opt.assess.tolerance) out << fmt::format(", {} out of tolerance", r.out_of_tolerance);
-    if (r.undecided > 0)
-      out << fmt::format(", {} undecided (test error far beyond the budget)", r.undecided);
+    out << r.totals.line();
     if (!opt.unit_outputs.empty())
       out << fmt::format(", {} with a report or header not written", r.outputs_failed);
     if (r.outputs_withheld > 0)
@@ -373,6 +372,8 @@ int run_batch_command(const BatchCommand& cmd, std::ostream& out, std::ostream& 
           ", {} without a header (verdict not PASS: the warnings column of summary.csv says "
           "\"header withheld\")",
           r.outputs_withheld);
+    if (const std::string reasons = r.totals.reasons_line(); !reasons.empty())
+      out << "\n" << reasons;
     out << "\nsummary: " << opt.out_dir << "/summary.csv, " << opt.out_dir << "/summary.json\n";
     return r.failed > 0 || r.out_of_tolerance > 0 || r.undecided > 0 || r.outputs_failed > 0
                ? kExitOutOfTolerance

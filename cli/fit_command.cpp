@@ -51,7 +51,8 @@ po::options_description fit_options() {
     ("reference-unit", po::value<std::string>()->default_value(""), "unit of the reference, e.g. degC")
     ("timestamp", po::value<std::string>()->default_value(""), "creation time to record (ISO 8601), 'none' to omit; default: now or SOURCE_DATE_EPOCH")
     ("full", po::bool_switch(), "print the full summary (coefficients, notes)")
-    ("direction", po::value<std::string>(), "column with 'up' or 'down' per row: the sweep direction (hysteresis check)");
+    ("direction", po::value<std::string>(), "column with 'up' or 'down' per row: the sweep direction (hysteresis check)")
+    ("no-hardware-checks", po::bool_switch(), "fit even when two or more setpoints in a row read exactly the same value (a stuck, open, shorted or saturated sensor; see docs/robustness.md)");
   // clang-format on
   add_extended_options(d);
   add_tolerance_options(d);
@@ -137,6 +138,7 @@ FitCommand parse_fit_command(const std::vector<std::string>& args) {
                     shown_text(cmd.data_path)));
   cmd.timestamp = vm["timestamp"].as<std::string>();
   cmd.full = vm["full"].as<bool>();
+  cmd.hardware.enabled = !vm["no-hardware-checks"].as<bool>();
   const JudgementCli jc = parse_judgement_options(vm);
   cmd.assess.tolerance = jc.tolerance;
   cmd.assess.rule = jc.rule.value_or(DecisionRule::SimpleAcceptance);
@@ -166,6 +168,7 @@ int run_fit_command(const FitCommand& cmd, std::ostream& out, std::ostream& err)
     options.comp = cmd.comp;
     options.assess = cmd.assess;
     options.sensor = cmd.sensor;
+    options.hardware = cmd.hardware;
     options.created_utc = creation_time(cmd.timestamp);
     const CalibrateResult result = calibrate(data, options);
     if (!result.status.ok)

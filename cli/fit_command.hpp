@@ -9,6 +9,7 @@
 #include "ridgecal/calibration.hpp"
 #include "ridgecal/calibration_csv.hpp"
 #include "ridgecal/extended_fit.hpp"
+#include "ridgecal/hardware_checks.hpp"
 #include "ridgecal/record.hpp"
 
 namespace ridgecal::cli {
@@ -21,9 +22,10 @@ struct FitCommand {
   FitOptions fit;
   ExtendedOptions comp;  ///< transforms, aux input, allowed powers (inactive by default)
   SensorInfo sensor;
-  std::string timestamp;     ///< injected creation time ("" = now, "none" = omit)
-  bool full = false;         ///< print the full text form
-  AssessmentOptions assess;  ///< tolerance, decision rule, uncertainty inputs, diagnostics
+  std::string timestamp;          ///< injected creation time ("" = now, "none" = omit)
+  bool full = false;              ///< print the full text form
+  AssessmentOptions assess;       ///< tolerance, decision rule, uncertainty inputs, diagnostics
+  HardwareCheckOptions hardware;  ///< stuck/open/saturated checks before the fit (default on)
 };
 
 /// Parses `ridgecal fit` arguments. Throws UsageError on a bad command line

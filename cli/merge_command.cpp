@@ -89,15 +89,12 @@ int run_merge_command(const MergeCommand& cmd, std::ostream& out, std::ostream& 
       const OutputDirLock lock(cmd.out_dir);  // no batch writes there meanwhile
       write_batch_summary(merged, cmd.out_dir);
     }
-    std::size_t failed = 0, oot = 0;
-    for (const auto& u : merged.units) {
-      failed += u.status == UnitStatus::Failed;
-      oot += u.verdict == UnitVerdict::Fail || u.verdict == UnitVerdict::Undecided;
-    }
-    out << fmt::format("{} shards, {} units: {} ok, {} failed, {} out of tolerance\n",
-                       shards.size(), merged.units.size(), merged.units.size() - failed, failed,
-                       oot);
-    return failed || oot ? kExitOutOfTolerance : kExitOk;
+    BatchTotals totals;
+    for (const auto& u : merged.units) totals.add(u);
+    out << fmt::format("{} shards, {}\n", shards.size(), totals.line());
+    if (const std::string reasons = totals.reasons_line(); !reasons.empty()) out << reasons << "\n";
+    return totals.not_fitted || totals.out_of_tolerance || totals.undecided ? kExitOutOfTolerance
+                                                                            : kExitOk;
   } catch (const InputError& e) {
     err << "ridgecal merge-summaries: " << format_input_error(e) << "\n";
     return kExitBadInput;

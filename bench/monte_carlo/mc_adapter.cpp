@@ -20,6 +20,7 @@ McFit calibrate_adapter(const Dataset& data, const McOptions& options) {
     result = calibrate(data, copt);
   } catch (const InputError& e) {
     r.error = format_input_error(e);
+    r.cause = e.cause();
     return r;
   }
   if (!result.status.ok) {

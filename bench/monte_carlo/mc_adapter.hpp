@@ -12,6 +12,7 @@
 #include "ridgecal/assessment.hpp"
 #include "ridgecal/calibration.hpp"
 #include "ridgecal/calibration_csv.hpp"
+#include "ridgecal/errors.hpp"
 #include "ridgecal/extended_fit.hpp"
 
 namespace ridgecal::mc {
@@ -25,10 +26,11 @@ struct McOptions {
 
 /// What the harness reads back from one calibration.
 struct McFit {
-  bool ok = false;           ///< false: the library refused the data (status or InputError)
-  std::string error;         ///< why, when !ok
-  bool has_verdict = false;  ///< a tolerance was given and a decision made
-  bool pass = false;         ///< the decision's verdict (meaningful with has_verdict)
+  bool ok = false;    ///< false: the library refused the data (status or InputError)
+  std::string error;  ///< why, when !ok
+  InputCause cause = InputCause::Other;    ///< of the InputError, when the data were refused
+  bool has_verdict = false;                ///< a tolerance was given and a decision made
+  bool pass = false;                       ///< the decision's verdict (meaningful with has_verdict)
   std::vector<std::string> warning_codes;  ///< one entry per warning (codes may repeat)
   int degree = -1;
   double lambda = 0.0;

@@ -6,6 +6,7 @@
 #include "mc_adapter.hpp"
 #include "mc_scenarios.hpp"
 #include "ridgecal/errors.hpp"
+#include "ridgecal/unit_reason.hpp"
 
 namespace ridgecal::mc {
 
@@ -83,13 +84,27 @@ LineStats run_line(int good_units, std::uint64_t seed, bool no_inadequacy) {
     for (int u = 0; u < row.units; ++u) {
       Rng rng(seed + 1000003ULL * static_cast<int>(d) + 7919ULL * u);
       bool rejected = false, flagged = false;
+      InputCause cause = InputCause::Other;
+      bool refused = false;
       try {
         const Dataset data = parse_calibration_csv(unit_csv(d, rng), "unit.csv", csv);
         const McFit fit = calibrate_adapter(data, options);
         rejected = !fit.ok || (fit.has_verdict && !fit.pass);
         flagged = fit.ok && !fit.warning_codes.empty();
-      } catch (const InputError&) {
-        rejected = true;
+        refused = !fit.ok;
+        cause = fit.cause;
+      } catch (const InputError& e) {
+        rejected = refused = true;
+        cause = e.cause();
+      }
+      if (refused) {
+        const UnitReason r = reason_for_input(cause);
+        row.hardware +=
+            r == UnitReason::Stuck || r == UnitReason::OpenOrShort || r == UnitReason::Saturated;
+        row.reasoned +=
+            (d == Defect::Stuck && (r == UnitReason::Stuck || r == UnitReason::Saturated)) ||
+            (d == Defect::Open && r == UnitReason::OpenOrShort) ||
+            (d == Defect::MissingCell && r == UnitReason::MissingCells);
       }
       row.rejected += rejected;
       row.flagged += flagged;

@@ -15,6 +15,8 @@ struct LineRow {
   int rejected = 0;  ///< refused (parse or fit error) or verdict FAIL
   int flagged = 0;   ///< fitted with at least one warning
   int rejected_or_flagged = 0;
+  int hardware = 0;  ///< refused by the hardware-fault check (stuck, open or short, saturated)
+  int reasoned = 0;  ///< given the batch reason code the defect should get (batch_run.cpp)
 };
 
 struct LineStats {

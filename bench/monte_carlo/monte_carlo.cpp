@@ -353,11 +353,16 @@ int run(const Settings& st) {
   const LineStats line = run_line(st.line_units, st.seed + 99991ULL, st.no_inadequacy);
   o << "### Production line of RH probes, tolerance +-(0.8 %RH + 1 % of reading)\n\n"
     << "| units | kind | rejected (refused or FAIL) | flagged (any warning) | rejected or "
-       "flagged | target |\n|---|---|---|---|---|---|\n";
+       "flagged | hardware check | batch reason names the defect | target |\n"
+       "|---|---|---|---|---|---|---|---|\n";
   for (const LineRow& r : line.rows)
     o << "| " << r.units << " | " << r.kind << " | " << pct(r.rejected / double(r.units)) << " | "
       << pct(r.flagged / double(r.units)) << " | " << pct(r.rejected_or_flagged / double(r.units))
-      << " | " << (r.kind == "good" ? "rejected <= 0.5 %" : "rejected 100 %") << " |\n";
+      << " | " << pct(r.hardware / double(r.units)) << " | "
+      << (r.kind == "good" || r.kind == "spike" ? std::string("-")
+                                                : pct(r.reasoned / double(r.units)))
+      << " | " << (r.kind == "good" ? "rejected <= 0.5 %, hardware 0 %" : "rejected 100 %")
+      << " |\n";
   std::cout << o.str();
 
   if (st.check) {
@@ -395,6 +400,9 @@ int run(const Settings& st) {
     }
     for (const LineRow& r : line.rows) {
       if (r.kind == "good") sane(r.rejected < 0.2 * r.units, "line false rejects above 20 %");
+      if (r.kind == "good") sane(r.hardware == 0, "the hardware check refused a good unit");
+      if (r.kind == "stuck" || r.kind == "open-circuit" || r.kind == "missing-cell")
+        sane(r.reasoned >= 0.9 * r.units, "a defect's batch reason is not named in 90 % of units");
       if (r.kind == "open-circuit")
         sane(r.rejected >= 0.9 * r.units, "open-circuit units rejected below 90 %");
       if (r.kind == "missing-cell")

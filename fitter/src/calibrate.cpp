@@ -12,6 +12,7 @@ std::string CalibrateOptions::validate() const {
   if (comp.active())
     if (std::string e = comp.validate(fit); !e.empty()) return e;
   if (std::string e = assess.validate(); !e.empty()) return e;
+  if (std::string e = hardware.validate(); !e.empty()) return "hardware: " + e;
   return {};
 }
 
@@ -33,7 +34,10 @@ CalibrateResult calibrate(const Dataset& data, const CalibrateOptions& options) 
   assert(options.comp.aux == !data.columns.aux_column.empty());
   CalibrateResult result;
   // A constant or near-constant reference or reading is bad input (InputError).
-  require_variation(data, variation_floors(options.assess.uncertainty), false);
+  const VariationFloors floors = variation_floors(options.assess.uncertainty);
+  require_variation(data, floors, false);
+  // A stuck, open, shorted or saturated sensor is bad input, found before any fit.
+  check_hardware(data, floors.reading, options.hardware);
   // The one branch between the one-input and the extended model.
   const bool extended = options.comp.active();
   FitOutcome fit =

@@ -29,7 +29,7 @@ grep -q "no unit column 'nosuch'" "$TMP/err" || fail "missing column message: $(
 "$RIDGECAL" batch "$TMP/batch.csv" --unit unit --setpoint setpoint -o "$TMP/out" -j 2 --timestamp none \
   --progress-interval 0.001 >"$TMP/out.txt" 2>"$TMP/err"; rc=$?
 [ $rc -eq 1 ] || fail "partial failure gave exit $rc"
-grep -q "4 units: 3 ok, 1 failed" "$TMP/out.txt" || fail "stdout: $(cat "$TMP/out.txt")"
+grep -q "4 units: 0 passed, 0 out of tolerance, 0 undecided, 3 not judged, 1 not fitted" "$TMP/out.txt" || fail "stdout: $(cat "$TMP/out.txt")"
 grep -q "^ridgecal batch: units 4 (1 failed)" "$TMP/err" || fail "no final progress line: $(cat "$TMP/err")"
 grep -q $'\r' "$TMP/err" && fail "progress bar on a non-terminal"
 grep -q '^BAD,failed,1,.*12x' "$TMP/out/summary.csv" || fail "BAD row: $(cat "$TMP/out/summary.csv")"
@@ -69,7 +69,7 @@ grep -q "also in" "$TMP/err" || fail "duplicate message: $(cat "$TMP/err")"
 "$RIDGECAL" batch "$TMP/batch.csv" --unit unit --setpoint setpoint -o "$TMP/rh" -j 2 --timestamp none \
   --progress none --reports --headers coldstore --header-numeric float --tol-offset 0.5 >"$TMP/out.txt" 2>"$TMP/err"; rc=$?
 [ $rc -eq 1 ] || fail "reports/headers run gave $rc (BAD unit fails)"
-grep -q "4 units: 3 ok, 1 failed, 0 out of tolerance, 0 with a report or header not written$" "$TMP/out.txt" || fail "stdout: $(cat "$TMP/out.txt")"
+grep -q "4 units: 3 passed, 0 out of tolerance, 0 undecided, 0 not judged, 1 not fitted, 0 with a report or header not written$" "$TMP/out.txt" || fail "stdout: $(cat "$TMP/out.txt")"
 for u in N1 N2 N3; do
   grep -q '<html' "$TMP/rh/reports/$u.html" || fail "no report for $u"
   grep -q 'coldstore_eval' "$TMP/rh/headers/$u.h" || fail "no header for $u"

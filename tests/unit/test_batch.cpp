@@ -177,7 +177,7 @@ BOOST_AUTO_TEST_CASE(a_bad_unit_is_reported_and_the_others_complete) {
   BOOST_TEST(fs::exists(tmp / "out/records/U000002.json"));
   BOOST_TEST(!fs::exists(tmp / "out/records/BAD.json"));
   const std::string summary_csv = read_file_bytes(tmp / "out/summary.csv");
-  BOOST_TEST(summary_csv.find("\nBAD,failed,2,,,,,,n/a,,") != std::string::npos);
+  BOOST_TEST(summary_csv.find("\nBAD,failed,2,,,,,,n/a,bad-input,,,,,") != std::string::npos);
 }
 
 BOOST_AUTO_TEST_CASE(outputs_are_byte_identical_for_any_number_of_jobs) {

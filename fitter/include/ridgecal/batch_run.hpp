@@ -38,6 +38,7 @@
 #include "ridgecal/batch_summary.hpp"
 #include "ridgecal/calibration.hpp"
 #include "ridgecal/extended_fit.hpp"
+#include "ridgecal/hardware_checks.hpp"
 #include "ridgecal/record.hpp"
 
 namespace ridgecal {
@@ -71,9 +72,10 @@ struct BatchOptions {
   /// unit; when active() every unit is fitted with fit_extended and its aux
   /// column is input.csv.aux_column.
   ExtendedOptions comp;
-  AssessmentOptions assess;   ///< tolerance, decision rule, uncertainty, diagnostics (as `fit`)
-  SensorInfo sensor;          ///< copied into every record (name may be empty)
-  std::string out_dir;        ///< created if missing; required
+  AssessmentOptions assess;       ///< tolerance, decision rule, uncertainty, diagnostics (as `fit`)
+  SensorInfo sensor;              ///< copied into every record (name may be empty)
+  HardwareCheckOptions hardware;  ///< stuck/open/saturated checks before each fit (default on)
+  std::string out_dir;            ///< created if missing; required
   int jobs = 0;               ///< worker threads; 0 = all cores (std::thread::hardware_concurrency)
   bool write_records = true;  ///< false: summaries only
   bool sync_records =
@@ -114,6 +116,7 @@ struct BatchResult {
   std::uint64_t outputs_withheld = 0;  ///< fitted units with a pass_only output withheld
   int interrupted_by = 0;              ///< the signal that stopped the batch (options.stop), or 0
   double seconds = 0.0;
+  BatchTotals totals;  ///< passed / out of tolerance / undecided / not judged / not fitted, reasons
 };
 
 /// Called from the batch's main thread, about every `progress_interval_s`

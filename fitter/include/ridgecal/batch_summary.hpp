@@ -1,14 +1,17 @@
 // ridgecal: the summary of a batch, one row per unit, as CSV and JSON, and
 // merging the summaries of several shards of one batch.
 //
-// Summary JSON (format "ridgecal-batch-summary", format_version 1):
+// Summary JSON (format "ridgecal-batch-summary", format_version 2; version 1
+// summaries, which lack the reason and worst-point members, are still read):
 //   format, format_version, tool_version, created_utc (may be absent),
 //   settings{...}  the fit and column settings shared by every unit,
 //   settings_sha256  SHA-256 of settings serialised compactly (keys sorted),
 //   inputs[]       the input files,
 //   units[{unit, status, rows, degree, lambda, validation_rmse, test_rmse,
-//          max_abs_error, verdict, warnings[], error, record}],
-//   totals{units, ok, failed, out_of_tolerance}
+//          max_abs_error, verdict, reason, worst_setpoint, worst_ratio,
+//          worst_excess, warnings[], error, record}],
+//   totals{units, passed, out_of_tolerance, undecided, not_judged, not_fitted,
+//          reasons{code: count}}  (reasons other than `none`, by count)
 //   partial{signal, units_completed, last_unit, note}  only in the summary of
 //                  a batch stopped by a signal (merge_batch_summaries refuses it)
 // Non-finite or absent numbers are null. The summary CSV has the same unit
@@ -21,14 +24,17 @@
 #pragma once
 
 #include <cstdint>
+#include <map>
 #include <nlohmann/json.hpp>
 #include <string>
 #include <vector>
 
+#include "ridgecal/unit_reason.hpp"
+
 namespace ridgecal {
 
 inline constexpr const char* kBatchSummaryFormat = "ridgecal-batch-summary";
-inline constexpr int kBatchSummaryFormatVersion = 1;
+inline constexpr int kBatchSummaryFormatVersion = 2;
 
 enum class UnitStatus {
   Ok,      ///< `ok`: fitted, record written
@@ -52,12 +58,36 @@ struct UnitSummary {
   double test_rmse = 0.0;        ///< on the test setpoints (NaN: none)
   double max_abs_error = 0.0;    ///< largest |error| of the final curve over all the unit's points
   UnitVerdict verdict = UnitVerdict::NotAssessed;  ///< PASS/FAIL when a tolerance was given
+  UnitReason reason = UnitReason::BadInput;        ///< one code per unit (unit_reason.hpp)
+  /// The judged point with the largest |error| / limit (unit_reason.hpp):
+  /// its setpoint, the ratio and the excess |error| - limit; NaN when not judged.
+  WorstPoint worst;
   std::vector<std::string> warnings;
   std::string error;   ///< why the unit failed
   std::string record;  ///< record file, relative to the output directory ("" if none)
   int outputs_failed =
       0;  ///< extra per-unit outputs not written (batch_run.hpp); not in the summary files
   int outputs_withheld = 0;  ///< pass_only outputs withheld (batch_run.hpp); in the warnings
+};
+
+/// The counts a supervisor reads first. Every unit is in exactly one of
+/// passed, out_of_tolerance, undecided, not_judged (fitted, no tolerance)
+/// and not_fitted.
+struct BatchTotals {
+  std::uint64_t units = 0;
+  std::uint64_t passed = 0;
+  std::uint64_t out_of_tolerance = 0;
+  std::uint64_t undecided = 0;
+  std::uint64_t not_judged = 0;
+  std::uint64_t not_fitted = 0;
+  std::map<std::string, std::uint64_t> reasons;  ///< reason code -> units (not `none`)
+
+  void add(const UnitSummary& u);
+  /// "N units: P passed, F out of tolerance, U undecided, J not judged, X not fitted"
+  std::string line() const;
+  /// "reasons: out-of-tolerance 60, stuck 5, ..." (by count, then code); "" when none.
+  std::string reasons_line() const;
+  nlohmann::json to_json() const;
 };
 
 /// Header line of the summary CSV.
@@ -80,8 +110,7 @@ std::string summary_json_head(const std::string& created_utc, const nlohmann::js
 std::string summary_json_unit(const UnitSummary& u, bool first);
 /// Closes the units array and writes the totals.
 /// `partial`: empty, or the JSON object of the "partial" member.
-std::string summary_json_tail(std::uint64_t units, std::uint64_t ok, std::uint64_t failed,
-                              std::uint64_t out_of_tolerance, const std::string& partial = {});
+std::string summary_json_tail(const BatchTotals& totals, const std::string& partial = {});
 
 /// A parsed summary JSON file.
 struct BatchSummary {

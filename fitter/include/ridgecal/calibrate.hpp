@@ -33,6 +33,7 @@
 #include "ridgecal/calibration_csv.hpp"
 #include "ridgecal/errors.hpp"
 #include "ridgecal/extended_fit.hpp"
+#include "ridgecal/hardware_checks.hpp"
 #include "ridgecal/record.hpp"
 
 namespace ridgecal {
@@ -46,6 +47,9 @@ struct CalibrateOptions {
   /// Tolerance, decision rule, uncertainty budget and diagnostics. Without a
   /// tolerance the record carries no decision (nothing is judged).
   AssessmentOptions assess;
+  /// Hardware-fault checks on the raw data before the fit (hardware_checks.hpp);
+  /// default: on, a plateau of 2 or more setpoints is bad input.
+  HardwareCheckOptions hardware;
   SensorInfo sensor;  ///< copied into the record; default: empty (unnamed, unstated units)
   std::string
       created_utc;  ///< creation time for the record (ISO 8601); "" omits it (reproducible output)

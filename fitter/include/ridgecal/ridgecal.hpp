@@ -11,6 +11,7 @@
 #include "ridgecal/batch_reader.hpp"
 #include "ridgecal/calibration_csv.hpp"
 #include "ridgecal/errors.hpp"
+#include "ridgecal/hardware_checks.hpp"
 
 // Model: transforms, polynomial and extended (reading + aux) models.
 #include "ridgecal/model.hpp"

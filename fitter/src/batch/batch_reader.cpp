@@ -411,7 +411,7 @@ Dataset parse_unit_chunk(const UnitChunk& chunk, const CsvOptions& options) {
     const std::string h1 = "header (line 1)";
     if (const auto p = msg.find(h1); p != std::string::npos)
       msg.replace(p, h1.size(), fmt::format("header (line {})", chunk.header_line));
-    throw InputError(e.file(), map_line(e.line()), msg, e.hint());
+    throw InputError(e.file(), map_line(e.line()), msg, e.hint(), e.cause());
   }
 }
 

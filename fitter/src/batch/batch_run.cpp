@@ -41,6 +41,7 @@ std::string BatchOptions::validate() const {
   if (comp.aux != !input.csv.aux_column.empty())
     return "comp.aux and input.csv.aux_column disagree; set both (a second input) or neither";
   if (const std::string e = assess.validate(); !e.empty()) return e;
+  if (const std::string e = hardware.validate(); !e.empty()) return "hardware: " + e;
   if (out_dir.empty()) return "out_dir is empty; give the output directory";
   if (jobs < 0 || jobs > 1024)
     return fmt::format("jobs is {}; it must be between 0 (all cores) and 1024", jobs);
@@ -198,8 +199,9 @@ UnitSummary process_unit(const UnitChunk& chunk, const BatchOptions& options) {
   auto output_path = [&](const UnitOutput& o) {
     return options.out_dir + "/" + o.directory + "/" + stem + o.extension;
   };
-  auto fail = [&](std::string why) {
+  auto fail = [&](std::string why, UnitReason reason) {
     u.status = UnitStatus::Failed;
+    u.reason = reason;
     u.error = std::move(why);
     // A record left by an earlier run must not pass for this run's result.
     if (options.write_records && chunk.error.empty()) {
@@ -208,13 +210,13 @@ UnitSummary process_unit(const UnitChunk& chunk, const BatchOptions& options) {
     }
     return u;
   };
-  if (!chunk.error.empty()) return fail(chunk.error);
+  if (!chunk.error.empty()) return fail(chunk.error, UnitReason::BadInput);
   Dataset data;
   if (!parse_unit_chunk_fast(chunk, options.input.csv, data)) {
     try {
       data = parse_unit_chunk(chunk, options.input.csv);
     } catch (const InputError& e) {
-      return fail(format_input_error(e));
+      return fail(format_input_error(e), reason_for_input(e.cause()));
     }
   }
   // The record's input digest: the fast parser leaves it empty (it is needed
@@ -228,6 +230,7 @@ UnitSummary process_unit(const UnitChunk& chunk, const BatchOptions& options) {
   copt.comp = options.comp;
   copt.assess = options.assess;
   copt.sensor = options.sensor;
+  copt.hardware = options.hardware;
   copt.sensor.name =
       options.sensor.name.empty() ? chunk.unit : options.sensor.name + " / unit " + chunk.unit;
   copt.created_utc = options.created_utc;
@@ -238,9 +241,9 @@ UnitSummary process_unit(const UnitChunk& chunk, const BatchOptions& options) {
     // domain
     result = calibrate(data, copt);
   } catch (const InputError& e) {
-    return fail(format_input_error(e));
+    return fail(format_input_error(e), reason_for_input(e.cause()));
   }
-  if (!result.status.ok) return fail(result.status.message);
+  if (!result.status.ok) return fail(result.status.message, UnitReason::FitFailed);
   const CalibrationRecord& rec = result.record;
   const Calibration& cal = rec.calibration;
   u.status = UnitStatus::Ok;
@@ -260,6 +263,8 @@ UnitSummary process_unit(const UnitChunk& chunk, const BatchOptions& options) {
     u.verdict = *v == Verdict::Pass   ? UnitVerdict::Pass
                 : *v == Verdict::Fail ? UnitVerdict::Fail
                                       : UnitVerdict::Undecided;
+  u.reason = reason_for_record(rec);
+  u.worst = worst_point(rec);
   for (const Warning& w : rec.warnings) u.warnings.push_back(to_string(w.code) + ": " + w.message);
   if (options.write_records) {
     write_whole_file_atomic(options.out_dir + "/" + rel, record_text(record_to_json(rec)),
@@ -344,6 +349,7 @@ BatchResult run_batch(const std::vector<std::string>& inputs, const BatchOptions
     csv.append(summary_csv_row(u));
     js.append(summary_json_unit(u, res.units == 0));
     ++res.units;
+    res.totals.add(u);
     (u.status == UnitStatus::Ok ? res.ok : res.failed)++;
     if (u.verdict == UnitVerdict::Fail) ++res.out_of_tolerance;
     if (u.verdict == UnitVerdict::Undecided) ++res.undecided;
@@ -496,7 +502,7 @@ BatchResult run_batch(const std::vector<std::string>& inputs, const BatchOptions
         "processed\n",
         sig, res.units));
   }
-  js.append(summary_json_tail(res.units, res.ok, res.failed, res.out_of_tolerance, partial));
+  js.append(summary_json_tail(res.totals, partial));
   csv.commit(true);
   js.commit(true);
   res.seconds = seconds();

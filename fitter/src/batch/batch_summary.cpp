@@ -112,18 +112,64 @@ std::string csv_text_cell(const std::string& s) {
   return csv_field(formula ? "'" + s : s);
 }
 
+void BatchTotals::add(const UnitSummary& u) {
+  ++units;
+  if (u.status != UnitStatus::Ok)
+    ++not_fitted;
+  else if (u.verdict == UnitVerdict::Pass)
+    ++passed;
+  else if (u.verdict == UnitVerdict::Fail)
+    ++out_of_tolerance;
+  else if (u.verdict == UnitVerdict::Undecided)
+    ++undecided;
+  else
+    ++not_judged;
+  if (u.reason != UnitReason::None) ++reasons[to_string(u.reason)];
+}
+
+std::string BatchTotals::line() const {
+  return fmt::format(
+      "{} units: {} passed, {} out of tolerance, {} undecided, {} not judged, {} not "
+      "fitted",
+      units, passed, out_of_tolerance, undecided, not_judged, not_fitted);
+}
+
+std::string BatchTotals::reasons_line() const {
+  std::vector<std::pair<std::string, std::uint64_t>> v(reasons.begin(), reasons.end());
+  std::stable_sort(v.begin(), v.end(), [](const auto& a, const auto& b) {
+    return a.second > b.second;  // by count; the map gave code order for ties
+  });
+  std::string s;
+  for (const auto& [code, n] : v)
+    s += fmt::format("{}{} {}", s.empty() ? "reasons: " : ", ", code, n);
+  return s;
+}
+
+json BatchTotals::to_json() const {
+  json r = json::object();
+  for (const auto& [code, n] : reasons) r[code] = n;
+  return json{{"units", units},
+              {"passed", passed},
+              {"out_of_tolerance", out_of_tolerance},
+              {"undecided", undecided},
+              {"not_judged", not_judged},
+              {"not_fitted", not_fitted},
+              {"reasons", r}};
+}
+
 std::string summary_csv_header() {
-  return "unit,status,rows,degree,lambda,validation_rmse,test_rmse,max_abs_error,verdict,warnings,"
-         "error,record\n";
+  return "unit,status,rows,degree,lambda,validation_rmse,test_rmse,max_abs_error,verdict,reason,"
+         "worst_setpoint,worst_ratio,worst_excess,warnings,error,record\n";
 }
 
 std::string summary_csv_row(const UnitSummary& u) {
-  return fmt::format("{},{},{},{},{},{},{},{},{},{},{},{}\n", csv_text_cell(u.unit),
-                     to_string(u.status), u.rows,
-                     u.degree >= 0 ? std::to_string(u.degree) : std::string(), csv_num(u.lambda),
-                     csv_num(u.validation_rmse), csv_num(u.test_rmse), csv_num(u.max_abs_error),
-                     to_string(u.verdict), csv_text_cell(joined(u.warnings)),
-                     csv_text_cell(u.error), csv_text_cell(u.record));
+  return fmt::format(
+      "{},{},{},{},{},{},{},{},{},{},{},{},{},{},{},{}\n", csv_text_cell(u.unit),
+      to_string(u.status), u.rows, u.degree >= 0 ? std::to_string(u.degree) : std::string(),
+      csv_num(u.lambda), csv_num(u.validation_rmse), csv_num(u.test_rmse), csv_num(u.max_abs_error),
+      to_string(u.verdict), to_string(u.reason), csv_text_cell(u.worst.setpoint),
+      csv_num(u.worst.ratio), csv_num(u.worst.excess), csv_text_cell(joined(u.warnings)),
+      csv_text_cell(u.error), csv_text_cell(u.record));
 }
 
 json unit_summary_to_json(const UnitSummary& u) {
@@ -136,6 +182,10 @@ json unit_summary_to_json(const UnitSummary& u) {
               {"test_rmse", num(u.test_rmse)},
               {"max_abs_error", num(u.max_abs_error)},
               {"verdict", to_string(u.verdict)},
+              {"reason", to_string(u.reason)},
+              {"worst_setpoint", u.worst.setpoint},
+              {"worst_ratio", num(u.worst.ratio)},
+              {"worst_excess", num(u.worst.excess)},
               {"warnings", u.warnings},
               {"error", u.error},
               {"record", u.record}};
@@ -162,6 +212,22 @@ UnitSummary unit_summary_from_json(const json& j, const std::string& file) {
   u.validation_rmse = number_or_nan(j, "validation_rmse", file);
   u.test_rmse = number_or_nan(j, "test_rmse", file);
   u.max_abs_error = number_or_nan(j, "max_abs_error", file);
+  if (j.contains("reason")) {  // format version 2
+    try {
+      u.reason = unit_reason_from_string(text(j, "reason", file));
+    } catch (const std::invalid_argument& e) {
+      bad(file, e.what());
+    }
+    u.worst.setpoint = text(j, "worst_setpoint", file);
+    u.worst.ratio = number_or_nan(j, "worst_ratio", file);
+    u.worst.excess = number_or_nan(j, "worst_excess", file);
+  } else {  // version 1: the reason the verdict alone gives
+    u.reason = u.status != UnitStatus::Ok            ? UnitReason::BadInput
+               : u.verdict == UnitVerdict::Pass      ? UnitReason::None
+               : u.verdict == UnitVerdict::Fail      ? UnitReason::OutOfTolerance
+               : u.verdict == UnitVerdict::Undecided ? UnitReason::Undecided
+                                                     : UnitReason::NotJudged;
+  }
   const auto w = j.find("warnings");
   if (w == j.end() || !w->is_array()) bad(file, "'warnings' is not a list");
   for (const auto& x : *w) {
@@ -205,21 +271,19 @@ std::string summary_json_unit(const UnitSummary& u, bool first) {
   return fmt::format(
       "{}{{\"unit\":{},\"status\":\"{}\",\"rows\":{},\"degree\":{},\"lambda\":{},\"validation_"
       "rmse\":{},"
-      "\"test_rmse\":{},\"max_abs_error\":{},\"verdict\":\"{}\",\"warnings\":{},\"error\":{},"
+      "\"test_rmse\":{},\"max_abs_error\":{},\"verdict\":\"{}\",\"reason\":\"{}\","
+      "\"worst_setpoint\":{},\"worst_ratio\":{},\"worst_excess\":{},\"warnings\":{},\"error\":{},"
       "\"record\":{}}}",
       first ? "\n    " : ",\n    ", str(u.unit), to_string(u.status), u.rows,
       u.degree >= 0 ? std::to_string(u.degree) : std::string("null"), jnum(u.lambda),
-      jnum(u.validation_rmse), jnum(u.test_rmse), jnum(u.max_abs_error), to_string(u.verdict), w,
+      jnum(u.validation_rmse), jnum(u.test_rmse), jnum(u.max_abs_error), to_string(u.verdict),
+      to_string(u.reason), str(u.worst.setpoint), jnum(u.worst.ratio), jnum(u.worst.excess), w,
       str(u.error), str(u.record));
 }
 
-std::string summary_json_tail(std::uint64_t units, std::uint64_t ok, std::uint64_t failed,
-                              std::uint64_t out_of_tolerance, const std::string& partial) {
-  return fmt::format(
-      "\n  ],\n  \"totals\": {{\"units\": {}, \"ok\": {}, \"failed\": {}, \"out_of_tolerance\": "
-      "{}}}{}\n}}\n",
-      units, ok, failed, out_of_tolerance,
-      partial.empty() ? std::string() : ",\n  \"partial\": " + partial);
+std::string summary_json_tail(const BatchTotals& totals, const std::string& partial) {
+  return fmt::format("\n  ],\n  \"totals\": {}{}\n}}\n", totals.to_json().dump(),
+                     partial.empty() ? std::string() : ",\n  \"partial\": " + partial);
 }
 
 BatchSummary read_batch_summary(const std::string& path) {
@@ -244,8 +308,9 @@ BatchSummary read_batch_summary(const std::string& path) {
   if (text(j, "format", path) != kBatchSummaryFormat)
     bad(path, "'format' is not ridgecal-batch-summary");
   const auto v = j.find("format_version");
-  if (v == j.end() || !v->is_number_integer() || v->get<int>() != kBatchSummaryFormatVersion)
-    bad(path, fmt::format("'format_version' is not {}", kBatchSummaryFormatVersion));
+  if (v == j.end() || !v->is_number_integer() || v->get<int>() < 1 ||
+      v->get<int>() > kBatchSummaryFormatVersion)
+    bad(path, fmt::format("'format_version' is not 1 .. {}", kBatchSummaryFormatVersion));
   BatchSummary s;
   s.tool_version = text(j, "tool_version", path);
   if (j.contains("created_utc") && j["created_utc"].is_string())
@@ -307,14 +372,13 @@ BatchSummary merge_batch_summaries(const std::vector<BatchSummary>& shards,
 void write_batch_summary(const BatchSummary& s, const std::string& dir) {
   std::string js = summary_json_head(s.created_utc, s.settings, s.inputs);
   std::string csv = summary_csv_header();
-  std::uint64_t ok = 0, oot = 0;
+  BatchTotals totals;
   for (std::size_t i = 0; i < s.units.size(); ++i) {
     js += summary_json_unit(s.units[i], i == 0);
     csv += summary_csv_row(s.units[i]);
-    if (s.units[i].status == UnitStatus::Ok) ++ok;
-    if (s.units[i].verdict == UnitVerdict::Fail) ++oot;
+    totals.add(s.units[i]);
   }
-  js += summary_json_tail(s.units.size(), ok, s.units.size() - ok, oot);
+  js += summary_json_tail(totals);
   if (s.settings_sha256 == "mixed") {
     const std::string key = "\"settings_sha256\": \"";
     const auto p = js.find(key);

@@ -185,7 +185,8 @@ double parse_number(const std::string& raw, const std::string& column, bool deci
   const auto res = std::from_chars(b, e, v, std::chars_format::general);
   if (cell.empty())
     throw InputError(file, lineno, fmt::format("column '{}' is empty", shown(column)),
-                     "every row needs a number in this column; delete the row or fill it in");
+                     "every row needs a number in this column; delete the row or fill it in",
+                     InputCause::EmptyCell);
   if (res.ec == std::errc::result_out_of_range)
     throw InputError(file, lineno,
                      fmt::format("column '{}' holds '{}', which is out of the range of a double",
@@ -427,7 +428,8 @@ void require_variation(const Dataset& data, const VariationFloors& floors, bool 
                     "to {:.3g} counts as constant) while the references span {} .. {}",
                     n, x.lo, x.hi, x.threshold, y.lo, y.hi),
         "check the reading column and the sensor (stuck, open or shorted?); see "
-        "docs/robustness.md");
+        "docs/robustness.md",
+        InputCause::ConstantReadings);
 }
 
 }  // namespace ridgecal
