@@ -215,7 +215,8 @@ void emit_prologue(std::ostringstream& o, const HeaderContext& c, std::uint32_t 
     << "#define " << n.P
     << "_VERDICT_RECORD_MODIFIED 3 /* record edited after ridgecal wrote it */\n"
     << "#define " << n.P
-    << "_VERDICT_UNDECIDED 4 /* within tolerance, model adequacy not shown */\n"
+    << "_VERDICT_UNDECIDED 4 /* no point outside the tolerance, but conformity not shown (guard "
+       "band, U or model adequacy) */\n"
     << "#define " << n.P << "_VERDICT " << n.P << "_VERDICT_" << verdict_macro(c.meta.verdict)
     << "\n"
     << "#define " << n.P << "_RECORD_SHA256 \"" << c_string_safe(c.meta.record_sha256)
