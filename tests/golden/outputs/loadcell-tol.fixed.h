@@ -63,7 +63,7 @@
 #define LC_VERDICT_PASS 1
 #define LC_VERDICT_FAIL 2
 #define LC_VERDICT_RECORD_MODIFIED 3 /* record edited after ridgecal wrote it */
-#define LC_VERDICT_UNDECIDED 4 /* within tolerance, model adequacy not shown */
+#define LC_VERDICT_UNDECIDED 4 /* no point outside the tolerance, but conformity not shown (guard band, U or model adequacy) */
 #define LC_VERDICT LC_VERDICT_FAIL
 #define LC_RECORD_SHA256 "cc66e6a3983f5296eb6102f11c2b784fb471ce366e956b03de57924c66954f87" /* SHA-256 of the calibration record */
 #define LC_CALIBRATION_DATE "2026-01-01T00:00:00Z" /* when the record was made, UTC; "" if it does not say */

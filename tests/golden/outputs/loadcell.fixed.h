@@ -63,7 +63,7 @@
 #define LC_VERDICT_PASS 1
 #define LC_VERDICT_FAIL 2
 #define LC_VERDICT_RECORD_MODIFIED 3 /* record edited after ridgecal wrote it */
-#define LC_VERDICT_UNDECIDED 4 /* within tolerance, model adequacy not shown */
+#define LC_VERDICT_UNDECIDED 4 /* no point outside the tolerance, but conformity not shown (guard band, U or model adequacy) */
 #define LC_VERDICT LC_VERDICT_NOT_JUDGED
 #define LC_RECORD_SHA256 "806d719571547c29214f37ff788d33c1ad42096a360648b747770e075404db45" /* SHA-256 of the calibration record */
 #define LC_CALIBRATION_DATE "2026-01-01T00:00:00Z" /* when the record was made, UTC; "" if it does not say */

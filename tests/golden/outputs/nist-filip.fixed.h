@@ -64,7 +64,7 @@
 #define FILIP_VERDICT_PASS 1
 #define FILIP_VERDICT_FAIL 2
 #define FILIP_VERDICT_RECORD_MODIFIED 3 /* record edited after ridgecal wrote it */
-#define FILIP_VERDICT_UNDECIDED 4 /* within tolerance, model adequacy not shown */
+#define FILIP_VERDICT_UNDECIDED 4 /* no point outside the tolerance, but conformity not shown (guard band, U or model adequacy) */
 #define FILIP_VERDICT FILIP_VERDICT_NOT_JUDGED
 #define FILIP_RECORD_SHA256 "746669df2c433f37d3ba6f627796930b7004fc156b323734a53d46fc55edc91d" /* SHA-256 of the calibration record */
 #define FILIP_CALIBRATION_DATE "2026-01-01T00:00:00Z" /* when the record was made, UTC; "" if it does not say */

@@ -62,7 +62,7 @@
 #define NOINT1_VERDICT_PASS 1
 #define NOINT1_VERDICT_FAIL 2
 #define NOINT1_VERDICT_RECORD_MODIFIED 3 /* record edited after ridgecal wrote it */
-#define NOINT1_VERDICT_UNDECIDED 4 /* within tolerance, model adequacy not shown */
+#define NOINT1_VERDICT_UNDECIDED 4 /* no point outside the tolerance, but conformity not shown (guard band, U or model adequacy) */
 #define NOINT1_VERDICT NOINT1_VERDICT_NOT_JUDGED
 #define NOINT1_RECORD_SHA256 "787f2f7afb830640f1404ec795caa68b6a1ae87ae75108da716c2f7dbb90b9b7" /* SHA-256 of the calibration record */
 #define NOINT1_CALIBRATION_DATE "2026-01-01T00:00:00Z" /* when the record was made, UTC; "" if it does not say */

@@ -63,7 +63,7 @@
 #define NOINT2_VERDICT_PASS 1
 #define NOINT2_VERDICT_FAIL 2
 #define NOINT2_VERDICT_RECORD_MODIFIED 3 /* record edited after ridgecal wrote it */
-#define NOINT2_VERDICT_UNDECIDED 4 /* within tolerance, model adequacy not shown */
+#define NOINT2_VERDICT_UNDECIDED 4 /* no point outside the tolerance, but conformity not shown (guard band, U or model adequacy) */
 #define NOINT2_VERDICT NOINT2_VERDICT_NOT_JUDGED
 #define NOINT2_RECORD_SHA256 "96e1fb5a5dbf980895f09261a0288c89b3bc53717f95e68c9d594f312a49c25b" /* SHA-256 of the calibration record */
 #define NOINT2_CALIBRATION_DATE "2026-01-01T00:00:00Z" /* when the record was made, UTC; "" if it does not say */

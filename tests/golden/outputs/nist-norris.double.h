@@ -63,7 +63,7 @@
 #define NORRIS_VERDICT_PASS 1
 #define NORRIS_VERDICT_FAIL 2
 #define NORRIS_VERDICT_RECORD_MODIFIED 3 /* record edited after ridgecal wrote it */
-#define NORRIS_VERDICT_UNDECIDED 4 /* within tolerance, model adequacy not shown */
+#define NORRIS_VERDICT_UNDECIDED 4 /* no point outside the tolerance, but conformity not shown (guard band, U or model adequacy) */
 #define NORRIS_VERDICT NORRIS_VERDICT_NOT_JUDGED
 #define NORRIS_RECORD_SHA256 "ed6fae6c8ae47467057454243fb76844167eb8edac5de5c8271449bba3b600f4" /* SHA-256 of the calibration record */
 #define NORRIS_CALIBRATION_DATE "2026-01-01T00:00:00Z" /* when the record was made, UTC; "" if it does not say */

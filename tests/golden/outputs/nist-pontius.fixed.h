@@ -64,7 +64,7 @@
 #define PONTIUS_VERDICT_PASS 1
 #define PONTIUS_VERDICT_FAIL 2
 #define PONTIUS_VERDICT_RECORD_MODIFIED 3 /* record edited after ridgecal wrote it */
-#define PONTIUS_VERDICT_UNDECIDED 4 /* within tolerance, model adequacy not shown */
+#define PONTIUS_VERDICT_UNDECIDED 4 /* no point outside the tolerance, but conformity not shown (guard band, U or model adequacy) */
 #define PONTIUS_VERDICT PONTIUS_VERDICT_NOT_JUDGED
 #define PONTIUS_RECORD_SHA256 "f3e1107509c17c09bd2a46c622258f5d3091f480244c193f66006af54708d5ac" /* SHA-256 of the calibration record */
 #define PONTIUS_CALIBRATION_DATE "2026-01-01T00:00:00Z" /* when the record was made, UTC; "" if it does not say */

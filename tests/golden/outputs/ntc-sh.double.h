@@ -78,7 +78,7 @@
 #define NTC_VERDICT_PASS 1
 #define NTC_VERDICT_FAIL 2
 #define NTC_VERDICT_RECORD_MODIFIED 3 /* record edited after ridgecal wrote it */
-#define NTC_VERDICT_UNDECIDED 4 /* within tolerance, model adequacy not shown */
+#define NTC_VERDICT_UNDECIDED 4 /* no point outside the tolerance, but conformity not shown (guard band, U or model adequacy) */
 #define NTC_VERDICT NTC_VERDICT_NOT_JUDGED
 #define NTC_RECORD_SHA256 "6eb39dccb2be4cf077033c8403d9d8dbc7a43ef241de52e30b003f78d0cf7718" /* SHA-256 of the calibration record */
 #define NTC_CALIBRATION_DATE "2026-01-01T00:00:00Z" /* when the record was made, UTC; "" if it does not say */

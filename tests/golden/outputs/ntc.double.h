@@ -63,7 +63,7 @@
 #define NTC_VERDICT_PASS 1
 #define NTC_VERDICT_FAIL 2
 #define NTC_VERDICT_RECORD_MODIFIED 3 /* record edited after ridgecal wrote it */
-#define NTC_VERDICT_UNDECIDED 4 /* within tolerance, model adequacy not shown */
+#define NTC_VERDICT_UNDECIDED 4 /* no point outside the tolerance, but conformity not shown (guard band, U or model adequacy) */
 #define NTC_VERDICT NTC_VERDICT_NOT_JUDGED
 #define NTC_RECORD_SHA256 "2453c97ceb09a8686fd7a08c34159fc9d95d528c92b745de77e4250361561bad" /* SHA-256 of the calibration record */
 #define NTC_CALIBRATION_DATE "2026-01-01T00:00:00Z" /* when the record was made, UTC; "" if it does not say */

@@ -73,7 +73,7 @@
 #define PT7_VERDICT_PASS 1
 #define PT7_VERDICT_FAIL 2
 #define PT7_VERDICT_RECORD_MODIFIED 3 /* record edited after ridgecal wrote it */
-#define PT7_VERDICT_UNDECIDED 4 /* within tolerance, model adequacy not shown */
+#define PT7_VERDICT_UNDECIDED 4 /* no point outside the tolerance, but conformity not shown (guard band, U or model adequacy) */
 #define PT7_VERDICT PT7_VERDICT_NOT_JUDGED
 #define PT7_RECORD_SHA256 "1409132242253a39baf005a4397474486374eb53364b528447153f67bc71a6ac" /* SHA-256 of the calibration record */
 #define PT7_CALIBRATION_DATE "2026-01-01T00:00:00Z" /* when the record was made, UTC; "" if it does not say */
