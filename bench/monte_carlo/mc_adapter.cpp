@@ -35,6 +35,15 @@ McFit calibrate_adapter(const Dataset& data, const McOptions& options) {
   r.ok = true;
   r.has_verdict = a.decision.has_value();
   r.pass = a.decision && a.decision->pass();
+  r.undecided = a.decision && a.decision->verdict == Verdict::Undecided;
+  if (r.undecided) {
+    r.undecided_why = "adequacy";
+    for (const PointJudgement& p : a.decision->points)
+      if (p.conformity == Conformity::NotShownUncertainty)
+        r.undecided_why = "uncertainty";
+      else if (p.conformity == Conformity::NotShownGuardBand && r.undecided_why == "adequacy")
+        r.undecided_why = "guard-band";
+  }
   for (const Warning& w : a.warnings) r.warning_codes.push_back(to_string(w.code));
   r.degree = general_model(*cal).total_degree();
   r.lambda = cal->lambda;

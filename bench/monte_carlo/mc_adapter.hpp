@@ -28,9 +28,11 @@ struct McOptions {
 struct McFit {
   bool ok = false;    ///< false: the library refused the data (status or InputError)
   std::string error;  ///< why, when !ok
-  InputCause cause = InputCause::Other;    ///< of the InputError, when the data were refused
-  bool has_verdict = false;                ///< a tolerance was given and a decision made
-  bool pass = false;                       ///< the decision's verdict (meaningful with has_verdict)
+  InputCause cause = InputCause::Other;  ///< of the InputError, when the data were refused
+  bool has_verdict = false;              ///< a tolerance was given and a decision made
+  bool pass = false;                     ///< the decision's verdict (meaningful with has_verdict)
+  bool undecided = false;     ///< verdict UNDECIDED (no point fails, conformity not shown)
+  std::string undecided_why;  ///< `uncertainty` (U >= limit at a point), `guard-band` or `adequacy`
   std::vector<std::string> warning_codes;  ///< one entry per warning (codes may repeat)
   int degree = -1;
   double lambda = 0.0;

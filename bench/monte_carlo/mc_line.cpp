@@ -89,7 +89,9 @@ LineStats run_line(int good_units, std::uint64_t seed, bool no_inadequacy) {
       try {
         const Dataset data = parse_calibration_csv(unit_csv(d, rng), "unit.csv", csv);
         const McFit fit = calibrate_adapter(data, options);
-        rejected = !fit.ok || (fit.has_verdict && !fit.pass);
+        rejected = !fit.ok || (fit.has_verdict && !fit.pass && !fit.undecided);
+        row.undecided += fit.ok && fit.undecided;
+        row.undecided_u += fit.ok && fit.undecided && fit.undecided_why == "uncertainty";
         flagged = fit.ok && !fit.warning_codes.empty();
         refused = !fit.ok;
         cause = fit.cause;

@@ -12,8 +12,10 @@ namespace ridgecal::mc {
 struct LineRow {
   std::string kind;  ///< `good`, `stuck`, `open-circuit`, `spike`, `missing-cell`
   int units = 0;
-  int rejected = 0;  ///< refused (parse or fit error) or verdict FAIL
-  int flagged = 0;   ///< fitted with at least one warning
+  int rejected = 0;     ///< refused (parse or fit error) or verdict FAIL
+  int undecided = 0;    ///< verdict UNDECIDED (not passed, not failed)
+  int undecided_u = 0;  ///< of those: U >= limit at some counted point
+  int flagged = 0;      ///< fitted with at least one warning
   int rejected_or_flagged = 0;
   int hardware = 0;  ///< refused by the hardware-fault check (stuck, open or short, saturated)
   int reasoned = 0;  ///< given the batch reason code the defect should get (batch_run.cpp)

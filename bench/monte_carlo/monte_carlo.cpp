@@ -353,11 +353,14 @@ int run(const Settings& st) {
   const LineStats line = run_line(st.line_units, st.seed + 99991ULL, st.no_inadequacy);
   o << "### Production line of RH probes, tolerance +-(0.8 %RH + 1 % of reading)\n\n"
     << "| units | kind | rejected (refused or FAIL) | flagged (any warning) | rejected or "
-       "flagged | hardware check | batch reason names the defect | target |\n"
-       "|---|---|---|---|---|---|---|---|\n";
+       "flagged | undecided (of which U >= limit) | hardware check | batch reason names the "
+       "defect | target |\n"
+       "|---|---|---|---|---|---|---|---|---|\n";
   for (const LineRow& r : line.rows)
     o << "| " << r.units << " | " << r.kind << " | " << pct(r.rejected / double(r.units)) << " | "
       << pct(r.flagged / double(r.units)) << " | " << pct(r.rejected_or_flagged / double(r.units))
+      << " | " << pct(r.undecided / double(r.units)) << " (" << pct(r.undecided_u / double(r.units))
+      << ")"
       << " | " << pct(r.hardware / double(r.units)) << " | "
       << (r.kind == "good" || r.kind == "spike" ? std::string("-")
                                                 : pct(r.reasoned / double(r.units)))

@@ -12,6 +12,7 @@
 #include "ridgecal/calibration_csv.hpp"
 #include "ridgecal/errors.hpp"
 #include "ridgecal/hardware_checks.hpp"
+#include "ridgecal/unit_reason.hpp"
 
 // Model: transforms, polynomial and extended (reading + aux) models.
 #include "ridgecal/model.hpp"
